@@ -1,0 +1,215 @@
+// Package ols fits linear regressions by least squares and computes the
+// usual covariance estimators (classical, HC1, Newey–West HAC).
+//
+// The fit uses a Householder QR factorisation of the design matrix, never
+// the normal equations, so that a poorly scaled regressor costs accuracy
+// only in proportion to the condition number of X rather than its square.
+package ols
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// ErrTooFewObs is returned when a regression has no residual degrees of freedom.
+var ErrTooFewObs = errors.New("too few observations")
+
+// CollinearError reports a regressor that is (numerically) a linear
+// combination of the columns before it.
+type CollinearError struct {
+	Col int // zero-based column index in X
+}
+
+func (e *CollinearError) Error() string {
+	return fmt.Sprintf("regressor %d is collinear with the regressors before it", e.Col)
+}
+
+// Fit is a least-squares fit of y on X.
+type Fit struct {
+	N, K   int       // observations and regressors
+	Coef   []float64 // β̂
+	Resid  []float64 // e = y − Xβ̂
+	Fitted []float64 // Xβ̂
+	SSR    float64   // e'e
+	TSS    float64   // centred total sum of squares Σ(y−ȳ)²
+	Cond   float64   // condition number estimate of X (column-scaled), from R
+
+	x    *mat.Dense
+	rinv *mat.TriDense // R⁻¹ from X = QR, so (X'X)⁻¹ = R⁻¹R⁻ᵀ
+}
+
+// collinearTol is the threshold on |R_jj| relative to the norm of column j
+// of X below which column j is declared collinear with earlier columns.
+const collinearTol = 1e-10
+
+// Regress fits y = Xβ + e by least squares using the QR factorisation of X.
+// X must have N rows (len(y)) and K ≤ N columns; rows are observations.
+func Regress(y []float64, x *mat.Dense) (*Fit, error) {
+	n, k := x.Dims()
+	if n != len(y) {
+		return nil, fmt.Errorf("ols: %d observations in y but %d rows in X", len(y), n)
+	}
+	if k == 0 {
+		return nil, errors.New("ols: no regressors")
+	}
+	if n <= k {
+		return nil, fmt.Errorf("ols: %w: %d observations for %d regressors", ErrTooFewObs, n, k)
+	}
+	for i, v := range y {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return nil, fmt.Errorf("ols: y[%d] is not finite", i)
+		}
+	}
+	// Scale the columns to unit norm before factorising; this makes the
+	// collinearity test and the condition estimate scale invariant.
+	scale := make([]float64, k)
+	xs := mat.NewDense(n, k, nil)
+	for j := 0; j < k; j++ {
+		var s float64
+		for i := 0; i < n; i++ {
+			v := x.At(i, j)
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("ols: X[%d,%d] is not finite", i, j)
+			}
+			s += v * v
+		}
+		s = math.Sqrt(s)
+		if s == 0 {
+			return nil, &CollinearError{Col: j}
+		}
+		scale[j] = s
+		for i := 0; i < n; i++ {
+			xs.Set(i, j, x.At(i, j)/s)
+		}
+	}
+	var qr mat.QR
+	qr.Factorize(xs)
+	var rd mat.Dense
+	qr.RTo(&rd)
+	r := mat.NewTriDense(k, mat.Upper, nil)
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			r.SetTri(i, j, rd.At(i, j))
+		}
+	}
+	for j := 0; j < k; j++ {
+		if math.Abs(r.At(j, j)) < collinearTol {
+			return nil, &CollinearError{Col: j}
+		}
+	}
+	var bs mat.VecDense
+	if err := qr.SolveVecTo(&bs, false, mat.NewVecDense(n, append([]float64(nil), y...))); err != nil {
+		return nil, fmt.Errorf("ols: %w", err)
+	}
+	f := &Fit{N: n, K: k, Coef: make([]float64, k), x: x}
+	for j := 0; j < k; j++ {
+		f.Coef[j] = bs.AtVec(j) / scale[j]
+	}
+	// R⁻¹ of the unscaled problem: X = Xs·D, Xs = QRs, so X = Q(Rs·D), R = Rs·D, R⁻¹ = D⁻¹Rs⁻¹.
+	var rsinv mat.TriDense
+	if err := rsinv.InverseTri(r); err != nil {
+		return nil, fmt.Errorf("ols: %w", err)
+	}
+	rinv := mat.NewTriDense(k, mat.Upper, nil)
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			rinv.SetTri(i, j, rsinv.At(i, j)/scale[i])
+		}
+	}
+	f.rinv = rinv
+	f.Cond = condFromR(r)
+
+	f.Fitted = make([]float64, n)
+	f.Resid = make([]float64, n)
+	var ybar float64
+	for _, v := range y {
+		ybar += v
+	}
+	ybar /= float64(n)
+	for i := 0; i < n; i++ {
+		var fit float64
+		for j := 0; j < k; j++ {
+			fit += x.At(i, j) * f.Coef[j]
+		}
+		f.Fitted[i] = fit
+		e := y[i] - fit
+		f.Resid[i] = e
+		f.SSR += e * e
+		d := y[i] - ybar
+		f.TSS += d * d
+	}
+	return f, nil
+}
+
+// condFromR estimates the 2-norm condition number of the column-scaled
+// design from the singular values of R.
+func condFromR(r *mat.TriDense) float64 {
+	var svd mat.SVD
+	if !svd.Factorize(r, mat.SVDNone) {
+		return math.Inf(1)
+	}
+	s := svd.Values(nil)
+	if s[len(s)-1] == 0 {
+		return math.Inf(1)
+	}
+	return s[0] / s[len(s)-1]
+}
+
+// DF is the residual degrees of freedom N − K.
+func (f *Fit) DF() int { return f.N - f.K }
+
+// Sigma2 is the residual variance s² = e'e/(N−K).
+func (f *Fit) Sigma2() float64 { return f.SSR / float64(f.N-f.K) }
+
+// R2 is the coefficient of determination 1 − SSR/TSS (centred). For a
+// regression without a constant the centred definition is still used, as
+// is common practice when the dependent variable is a difference.
+func (f *Fit) R2() float64 {
+	if f.TSS == 0 {
+		return math.NaN()
+	}
+	return 1 - f.SSR/f.TSS
+}
+
+// R2Adj is the adjusted R², 1 − (1−R²)(N−1)/(N−K).
+func (f *Fit) R2Adj() float64 {
+	return 1 - (1-f.R2())*float64(f.N-1)/float64(f.N-f.K)
+}
+
+// DW is the Durbin–Watson statistic Σ(e_t − e_{t−1})² / Σe_t².
+func (f *Fit) DW() float64 {
+	var num float64
+	for t := 1; t < f.N; t++ {
+		d := f.Resid[t] - f.Resid[t-1]
+		num += d * d
+	}
+	return num / f.SSR
+}
+
+// LogLik is the Gaussian log-likelihood −N/2·(1 + ln 2π + ln(SSR/N)).
+func (f *Fit) LogLik() float64 {
+	n := float64(f.N)
+	return -n / 2 * (1 + math.Log(2*math.Pi) + math.Log(f.SSR/n))
+}
+
+// XtXInv returns (X'X)⁻¹ = R⁻¹R⁻ᵀ.
+func (f *Fit) XtXInv() *mat.SymDense {
+	k := f.K
+	out := mat.NewSymDense(k, nil)
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			var s float64
+			for l := j; l < k; l++ { // R⁻¹ upper: (R⁻¹)_{il} nonzero for l ≥ i
+				s += f.rinv.At(i, l) * f.rinv.At(j, l)
+			}
+			out.SetSym(i, j, s)
+		}
+	}
+	return out
+}
+
+// X returns the design matrix the fit was computed from (not a copy).
+func (f *Fit) X() *mat.Dense { return f.x }
