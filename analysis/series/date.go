@@ -1,0 +1,104 @@
+// Package series holds dated time series: their dates and frequencies,
+// loading from delimited text and spreadsheets, series expressions
+// (log, diff, lag, …) and sample windows.
+package series
+
+import (
+	"fmt"
+	"time"
+)
+
+// Freq is the sampling frequency of a series.
+type Freq int
+
+const (
+	Undated   Freq = iota // observations numbered 1, 2, …
+	Annual                // 1990
+	Quarterly             // 1990Q1
+	Monthly               // 1990-01
+	Daily                 // 1990-01-31 (may skip days, e.g. business days)
+)
+
+func (f Freq) String() string {
+	switch f {
+	case Annual:
+		return "annual"
+	case Quarterly:
+		return "quarterly"
+	case Monthly:
+		return "monthly"
+	case Daily:
+		return "daily"
+	default:
+		return "undated"
+	}
+}
+
+// PerYear is the number of periods in a year (0 for Daily and Undated).
+func (f Freq) PerYear() int {
+	switch f {
+	case Annual:
+		return 1
+	case Quarterly:
+		return 4
+	case Monthly:
+		return 12
+	}
+	return 0
+}
+
+// Date is one observation date. For Annual, Quarterly and Monthly data,
+// Year and Sub (quarter 1–4, month 1–12; 1 for annual) identify it; for
+// Daily data Day is set; for Undated data Sub is the observation number.
+type Date struct {
+	Freq Freq
+	Year int
+	Sub  int
+	Day  time.Time
+}
+
+// String formats the date in the canonical form for its frequency:
+// 1990, 1990Q1, 1990-01, 1990-01-31, or the observation number.
+func (d Date) String() string {
+	switch d.Freq {
+	case Annual:
+		return fmt.Sprintf("%d", d.Year)
+	case Quarterly:
+		return fmt.Sprintf("%dQ%d", d.Year, d.Sub)
+	case Monthly:
+		return fmt.Sprintf("%d-%02d", d.Year, d.Sub)
+	case Daily:
+		return d.Day.Format("2006-01-02")
+	default:
+		return fmt.Sprintf("%d", d.Sub)
+	}
+}
+
+// Decimal is the date as a fractional year (period start), for plotting:
+// 1990Q2 → 1990.25, 1990-03 → 1990.1667. Undated: the observation number.
+func (d Date) Decimal() float64 {
+	switch d.Freq {
+	case Annual:
+		return float64(d.Year)
+	case Quarterly:
+		return float64(d.Year) + float64(d.Sub-1)/4
+	case Monthly:
+		return float64(d.Year) + float64(d.Sub-1)/12
+	case Daily:
+		start := time.Date(d.Day.Year(), 1, 1, 0, 0, 0, 0, time.UTC)
+		end := time.Date(d.Day.Year()+1, 1, 1, 0, 0, 0, 0, time.UTC)
+		return float64(d.Day.Year()) + float64(d.Day.Sub(start))/float64(end.Sub(start))
+	default:
+		return float64(d.Sub)
+	}
+}
+
+// Series is a named, dated sequence of values. Missing values are NaN.
+type Series struct {
+	Name   string
+	Dates  []Date
+	Values []float64
+}
+
+// Len is the number of observations.
+func (s *Series) Len() int { return len(s.Values) }
