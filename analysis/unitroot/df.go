@@ -1,0 +1,185 @@
+package unitroot
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/ols"
+	"gonum.org/v1/gonum/blas/blas64"
+)
+
+// DF is an augmented Dickey–Fuller regression
+//
+//	Δy_t = det_t + γ y_{t−1} + Σ_{i=1..p} φ_i Δy_{t−i} + e_t,
+//
+// with τ = γ̂/se(γ̂) (conventional OLS standard error).
+type DF struct {
+	Case   critical.Case
+	Stat   float64 // τ = γ̂/se(γ̂)
+	Gamma  float64 // γ̂
+	SE     float64 // se(γ̂)
+	Lags   int     // p, the number of lagged differences used
+	NObs   int     // observations in the regression, T − 1 − p
+	MaxLag int     // largest p considered (equal to Lags when fixed)
+	Select Selector
+	// IC[p] is, for p = 0..MaxLag on the common sample that drops the
+	// first MaxLag+1 observations, the criterion value n·ln(SSR/n) + K·c
+	// (c = 2 or ln n) for AIC and BIC, or |t| of the last lag for TStat
+	// (NaN for p = 0 and for rank-deficient designs). Nil when fixed.
+	IC []float64
+	// Fit is the final regression on all T − 1 − p usable observations.
+	// Its columns are [deterministics | y_{t−1} | Δy_{t−1} … Δy_{t−p}],
+	// deterministics ordered constant, s, s² with s = 1..NObs over the
+	// regression sample; γ is column Case.Deterministics().
+	Fit *ols.Fit
+}
+
+// DickeyFuller estimates the augmented Dickey–Fuller regression of y
+// with the deterministic terms of c and p lagged differences, fixed or
+// chosen by r.
+//
+// Selection compares every p = 0..Max on a common sample (the first
+// Max+1 observations dropped) and re-estimates the chosen p on its own
+// full sample of T − 1 − p observations (the usual practice, e.g.
+// Ng and Perron 1995 on the comparison sample). The criteria for all
+// p come from one QR factorisation of the largest design (see nested),
+// not one regression per lag. TStat is general-to-specific from Max,
+// dropping the last lag while |t| < 1.645.
+func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
+	if c < critical.NoConst || c > critical.ConstTrendSq {
+		return nil, fmt.Errorf("unitroot: unsupported deterministic case %d", int(c))
+	}
+	if err := checkSeries(y, 3); err != nil {
+		return nil, err
+	}
+	d := c.Deterministics()
+	tt := len(y)
+	out := &DF{Case: c, Select: r.Select}
+	var p int
+	switch r.Select {
+	case Fixed:
+		if r.Lags < 0 {
+			return nil, fmt.Errorf("unitroot: lag order %d is negative", r.Lags)
+		}
+		p = r.Lags
+		out.MaxLag = p
+	case AIC, BIC, TStat:
+		max := r.Max
+		if max < 0 {
+			max = SchwertMax(tt)
+			if cap := tt/2 - d - 1; max > cap {
+				max = cap
+			}
+			if max < 0 {
+				max = 0
+			}
+		}
+		out.MaxLag = max
+		if err := enoughObs(tt, d, max); err != nil {
+			return nil, err
+		}
+		ic, best, err := selectLag(y, c, max, r.Select)
+		if err != nil {
+			return nil, err
+		}
+		out.IC = ic
+		p = best
+	default:
+		return nil, fmt.Errorf("unitroot: unknown lag selector %d", int(r.Select))
+	}
+	if err := enoughObs(tt, d, p); err != nil {
+		return nil, err
+	}
+	x, dy := dfDesign(y, c, p, p+1)
+	fit, err := ols.Regress(dy, x)
+	if err != nil {
+		var ce *ols.CollinearError
+		if errors.As(err, &ce) {
+			return nil, fmt.Errorf("unitroot: Dickey–Fuller regression with %d lags: %w", p, err)
+		}
+		return nil, fmt.Errorf("unitroot: %w", err)
+	}
+	out.Lags = p
+	out.NObs = fit.N
+	out.Fit = fit
+	out.Gamma = fit.Coef[d]
+	out.SE = math.Sqrt(fit.Sigma2() * fit.XtXInv().At(d, d))
+	out.Stat = out.Gamma / out.SE
+	return out, nil
+}
+
+// enoughObs demands at least one residual degree of freedom in the
+// regression with p lags: T − 1 − p > d + 1 + p.
+func enoughObs(t, d, p int) error {
+	n := t - 1 - p
+	k := d + 1 + p
+	if n <= k {
+		return fmt.Errorf("unitroot: %w: %d observations leave %d for a Dickey–Fuller regression with %d lags and %d regressors",
+			ols.ErrTooFewObs, t, n, p, k)
+	}
+	return nil
+}
+
+// selectLag evaluates the criterion for p = 0..max on the common sample
+// t = max+1..T−1 from one nested QR and returns the values and the choice.
+func selectLag(y []float64, c critical.Case, max int, sel Selector) ([]float64, int, error) {
+	d := c.Deterministics()
+	n := len(y) - 1 - max
+	m := d + 1 + max
+	a := blas64.General{Rows: n, Cols: m + 1, Stride: m + 1, Data: make([]float64, n*(m+1))}
+	// Deterministics as centred powers of s (same column space as 1, s,
+	// s², better conditioned); then y_{t−1}, the lags and Δy_t.
+	mid := float64(n+1) / 2
+	for i := 0; i < n; i++ {
+		t := max + 1 + i
+		row := a.Data[i*a.Stride : (i+1)*a.Stride]
+		s := (float64(i+1) - mid) / float64(n)
+		for j := 0; j < d; j++ {
+			row[j] = math.Pow(s, float64(j))
+		}
+		row[d] = y[t-1]
+		for l := 1; l <= max; l++ {
+			row[d+l] = y[t-l] - y[t-l-1]
+		}
+		row[m] = y[t] - y[t-1]
+	}
+	ns := nested(a)
+	if !ns.ok[d] {
+		return nil, 0, fmt.Errorf("unitroot: y_{t−1} is collinear with the deterministic terms on the comparison sample")
+	}
+	ic := make([]float64, max+1)
+	nf := float64(n)
+	best := 0
+	switch sel {
+	case AIC, BIC:
+		pen := 2.0
+		if sel == BIC {
+			pen = math.Log(nf)
+		}
+		for p := 0; p <= max; p++ {
+			j := d + 1 + p
+			if !ns.ok[j-1] || ns.ssr[j-1] <= 0 {
+				ic[p] = math.Inf(1)
+				continue
+			}
+			ic[p] = nf*math.Log(ns.ssr[j-1]/nf) + pen*float64(j)
+			if ic[p] < ic[best] {
+				best = p
+			}
+		}
+	case TStat:
+		ic[0] = math.NaN()
+		for p := 1; p <= max; p++ {
+			ic[p] = math.Abs(ns.t[d+p])
+		}
+		for p := max; p >= 1; p-- {
+			if ic[p] >= tStatStop {
+				best = p
+				break
+			}
+		}
+	}
+	return ic, best, nil
+}

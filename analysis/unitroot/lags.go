@@ -1,0 +1,73 @@
+package unitroot
+
+import (
+	"fmt"
+	"math"
+	"strings"
+)
+
+// Selector says how the number of lagged differences is chosen.
+type Selector int
+
+const (
+	// Fixed uses LagRule.Lags lagged differences.
+	Fixed Selector = iota
+	// AIC minimises Akaike's criterion n·ln(SSR/n) + 2K over 0..Max lags.
+	AIC
+	// BIC minimises Schwarz's criterion n·ln(SSR/n) + K·ln n over 0..Max lags.
+	BIC
+	// TStat is general-to-specific: start from Max and drop the last lag
+	// while its |t| < 1.645 (the 10% two-sided normal value).
+	TStat
+)
+
+// String returns "fixed", "aic", "bic" or "tstat".
+func (s Selector) String() string {
+	switch s {
+	case Fixed:
+		return "fixed"
+	case AIC:
+		return "aic"
+	case BIC:
+		return "bic"
+	case TStat:
+		return "tstat"
+	}
+	return fmt.Sprintf("Selector(%d)", int(s))
+}
+
+// ParseSelector reads "fixed", "aic", "bic" or "tstat" (case-insensitive).
+func ParseSelector(s string) (Selector, error) {
+	switch strings.ToLower(strings.TrimSpace(s)) {
+	case "fixed":
+		return Fixed, nil
+	case "aic":
+		return AIC, nil
+	case "bic", "sic", "schwarz":
+		return BIC, nil
+	case "tstat", "t":
+		return TStat, nil
+	}
+	return 0, fmt.Errorf("unknown lag selector %q (want fixed, aic, bic or tstat)", s)
+}
+
+// LagRule fixes or selects the number of lagged differences p.
+//
+// With Select == Fixed, p = Lags. Otherwise p is chosen in 0..Max; a
+// negative Max asks for the default ⌊12·(T/100)^{1/4}⌋ (Schwert 1989,
+// common practice), T the length of the series, capped at ⌊T/2⌋ − d − 1
+// (d deterministic terms) so that the comparison sample keeps about half
+// the series.
+type LagRule struct {
+	Lags   int
+	Select Selector
+	Max    int
+}
+
+// SchwertMax is ⌊12·(T/100)^{1/4}⌋ (Schwert 1989).
+func SchwertMax(t int) int {
+	return int(math.Floor(12 * math.Pow(float64(t)/100, 0.25)))
+}
+
+// tStatStop is the standard normal 95% quantile, the two-sided 10% value.
+const tStatStop = 1.6448536269514722
