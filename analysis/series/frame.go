@@ -10,6 +10,7 @@ import (
 // modify them.
 type Frame struct {
 	Source string   // file name, for messages
+	Sheet  string   // spreadsheet sheet read; "" for delimited text
 	Freq   Freq     // frequency of Dates
 	Dates  []Date   // one per data row, strictly increasing
 	Names  []string // column names, without the date column
