@@ -1,0 +1,127 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/galley-econ/galley/internal/atomicfile"
+	"github.com/galley-econ/galley/internal/version"
+	"github.com/galley-econ/galley/render"
+)
+
+type buildCmd struct {
+	Manuscript   string   `arg:"" help:"The manuscript (.md)." type:"existingfile"`
+	To           []string `short:"t" help:"Output format: html, latex or markdown (repeatable)." enum:"html,latex,markdown,md,tex" default:"html"`
+	Out          string   `short:"o" help:"Output folder (default: out/ beside the manuscript)." type:"path"`
+	AllowOutside bool     `help:"Allow data paths that leave the manuscript's folder."`
+	Vintage      string   `help:"Use this vintage of every data alias that names vintages."`
+	PNG          int      `help:"Also write each figure as PNG at this resolution (dots per inch)." placeholder:"DPI"`
+}
+
+func (b *buildCmd) Run() error {
+	doc, err := render.Parse(b.Manuscript, render.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage})
+	if err != nil {
+		return err
+	}
+	if err := doc.Run(); err != nil {
+		return err
+	}
+	out := b.Out
+	if out == "" {
+		out = filepath.Join(filepath.Dir(b.Manuscript), "out")
+	}
+	files, err := outputs(doc, b.To, b.PNG)
+	if err != nil {
+		return err
+	}
+	var set atomicfile.Set
+	for name, data := range files {
+		if err := set.Stage(filepath.Join(out, name), data); err != nil {
+			set.Abort()
+			return err
+		}
+	}
+	return set.Commit()
+}
+
+// outputs renders every requested format in memory, keyed by path
+// relative to the output folder. Nothing touches the disk until all of
+// them have rendered.
+func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]byte, error) {
+	base := strings.TrimSuffix(filepath.Base(doc.File), filepath.Ext(doc.File))
+	files := map[string][]byte{}
+	results, err := doc.ResultsJSON(version.Version)
+	if err != nil {
+		return nil, err
+	}
+	files[base+".results.json"] = results
+	for _, f := range formats {
+		switch f {
+		case "html":
+			b, err := doc.HTML(render.HTMLOptions{Version: version.Version})
+			if err != nil {
+				return nil, err
+			}
+			files[base+".html"] = b
+		case "latex", "tex":
+			b, err := doc.LaTeX(render.LaTeXOptions{Version: version.Version, FigureDir: "figures"})
+			if err != nil {
+				return nil, err
+			}
+			files[base+".tex"] = b
+			for _, r := range doc.Results() {
+				if r.Table != nil {
+					files[filepath.Join("tables", r.ID+".tex")] = render.LaTeXTable(r)
+				}
+				if r.Figure != nil {
+					files[filepath.Join("figures", r.ID+".pdf")] = r.Figure.PDF
+				}
+			}
+		case "markdown", "md":
+			b, err := doc.Markdown(render.MarkdownOptions{FigureDir: "figures"})
+			if err != nil {
+				return nil, err
+			}
+			files[base+".md"] = b
+			for _, r := range doc.Results() {
+				if r.Figure != nil {
+					files[filepath.Join("figures", r.ID+".svg")] = r.Figure.SVG
+				}
+			}
+		default:
+			return nil, fmt.Errorf("unknown output format %q", f)
+		}
+	}
+	if pngDPI > 0 {
+		for _, r := range doc.Results() {
+			if r.Figure != nil {
+				png, err := r.Figure.RenderPNG(pngDPI)
+				if err != nil {
+					return nil, err
+				}
+				files[filepath.Join("figures", r.ID+".png")] = png
+			}
+		}
+	}
+	return files, nil
+}
+
+type checkCmd struct {
+	Manuscript   string `arg:"" help:"The manuscript (.md)." type:"existingfile"`
+	AllowOutside bool   `help:"Allow data paths that leave the manuscript's folder."`
+	Vintage      string `help:"Check this vintage of the data."`
+}
+
+func (c *checkCmd) Run() error {
+	doc, err := render.Parse(c.Manuscript, render.Options{AllowOutside: c.AllowOutside, Vintage: c.Vintage})
+	if err != nil {
+		return err
+	}
+	if err := doc.Check(); err != nil {
+		return err
+	}
+	fmt.Fprintf(os.Stdout, "%s: %d directives, %d inline values: no problems found\n", c.Manuscript, doc.Directives(), doc.InlineValues())
+	return nil
+}

@@ -1,0 +1,105 @@
+// Command galley turns a Markdown manuscript whose fenced directives run
+// unit-root and cointegration analyses into a finished paper in HTML,
+// LaTeX or Markdown, plus a results file for comparing builds.
+//
+// Exit codes: 0 success, 1 an input or analysis error, 2 a usage error,
+// 3 (compare) conclusions flipped between two builds.
+package main
+
+import (
+	"errors"
+	"fmt"
+	"os"
+	"strings"
+
+	"github.com/alecthomas/kong"
+
+	"github.com/galley-econ/galley/internal/version"
+)
+
+type cli struct {
+	Build   buildCmd   `cmd:"" help:"Run every directive and write the paper and its results file."`
+	Check   checkCmd   `cmd:"" help:"Validate directives, data aliases, columns and inline values without running analyses."`
+	Inspect inspectCmd `cmd:"" help:"Describe a data file: columns, frequency, date range, missing values."`
+	Version kong.VersionFlag `help:"Print the version and exit."`
+}
+
+// exitError carries an exit code through kong's Run.
+type exitError struct {
+	code int
+	err  error
+}
+
+func (e *exitError) Error() string { return e.err.Error() }
+
+func main() {
+	os.Exit(run(os.Args[1:]))
+}
+
+func run(args []string) int {
+	var c cli
+	parser, err := kong.New(&c,
+		kong.Name("galley"),
+		kong.Description("Build reproducible time-series econometrics papers from Markdown manuscripts."),
+		kong.Vars{"version": "galley " + version.Version},
+		kong.UsageOnError(),
+		kong.Exit(func(code int) { panic(exitCode(code)) }),
+	)
+	if err != nil {
+		fmt.Fprintln(os.Stderr, "galley:", err)
+		return 2
+	}
+	code := 0
+	func() {
+		defer func() {
+			if p := recover(); p != nil {
+				if ec, ok := p.(exitCode); ok {
+					code = int(ec)
+					return
+				}
+				panic(p)
+			}
+		}()
+		ctx, err := parser.Parse(args)
+		if err != nil {
+			fmt.Fprintln(os.Stderr, "galley:", err)
+			code = 2
+			return
+		}
+		if err := ctx.Run(); err != nil {
+			code = report(err)
+		}
+	}()
+	return code
+}
+
+type exitCode int
+
+// report prints an error (one line per joined error) and returns the
+// exit code.
+func report(err error) int {
+	code := 1
+	var ee *exitError
+	if errors.As(err, &ee) {
+		code = ee.code
+		err = ee.err
+	}
+	if err == nil {
+		return code
+	}
+	for _, line := range splitErrors(err) {
+		fmt.Fprintln(os.Stderr, "galley: "+line)
+	}
+	return code
+}
+
+func splitErrors(err error) []string {
+	if j, ok := err.(interface{ Unwrap() []error }); ok {
+		var out []string
+		for _, e := range j.Unwrap() {
+			out = append(out, splitErrors(e)...)
+		}
+		return out
+	}
+	return strings.Split(err.Error(), "\n")
+}

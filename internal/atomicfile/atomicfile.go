@@ -1,0 +1,106 @@
+// Package atomicfile writes files so that a reader sees either the old
+// content or the complete new content, never a partial file.
+package atomicfile
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+)
+
+// Write writes data to path through a temporary file in the same
+// directory, synced and then renamed over path.
+func Write(path string, data []byte, perm os.FileMode) error {
+	dir := filepath.Dir(path)
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return err
+	}
+	name := tmp.Name()
+	fail := func(err error) error {
+		tmp.Close()
+		os.Remove(name)
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	if _, err := tmp.Write(data); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Sync(); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Chmod(perm); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("writing %s: %w", path, err)
+	}
+	return nil
+}
+
+// Set is a group of files written together: all are staged as temporary
+// files first, and only when every one is staged are they renamed into
+// place. A failure while staging leaves every earlier file untouched.
+type Set struct {
+	files []staged
+}
+
+type staged struct{ path, tmp string }
+
+// Stage writes data to a temporary file beside path.
+func (s *Set) Stage(path string, data []byte) error {
+	dir := filepath.Dir(path)
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return err
+	}
+	_, werr := tmp.Write(data)
+	if werr == nil {
+		werr = tmp.Sync()
+	}
+	if werr == nil {
+		werr = tmp.Chmod(0o644)
+	}
+	cerr := tmp.Close()
+	if werr == nil {
+		werr = cerr
+	}
+	if werr != nil {
+		os.Remove(tmp.Name())
+		return fmt.Errorf("writing %s: %w", path, werr)
+	}
+	s.files = append(s.files, staged{path, tmp.Name()})
+	return nil
+}
+
+// Commit renames every staged file into place.
+func (s *Set) Commit() error {
+	for i, f := range s.files {
+		if err := os.Rename(f.tmp, f.path); err != nil {
+			for _, g := range s.files[i:] {
+				os.Remove(g.tmp)
+			}
+			return fmt.Errorf("writing %s: %w", f.path, err)
+		}
+	}
+	s.files = nil
+	return nil
+}
+
+// Abort removes every staged temporary file.
+func (s *Set) Abort() {
+	for _, f := range s.files {
+		os.Remove(f.tmp)
+	}
+	s.files = nil
+}
