@@ -33,10 +33,10 @@ type Figure struct {
 	SVG     []byte
 	PDF     []byte
 	// PNGAt renders the figure as PNG at a resolution in dots per inch.
-	PNGAt func(dpi int) ([]byte, error)
-	Width   float64 // inches
-	Height  float64 // inches
-	Notes   []string
+	PNGAt  func(dpi int) ([]byte, error)
+	Width  float64 // inches
+	Height float64 // inches
+	Notes  []string
 }
 
 // RenderPNG renders the figure as PNG at dpi dots per inch.

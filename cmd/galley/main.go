@@ -18,9 +18,9 @@ import (
 )
 
 type cli struct {
-	Build   buildCmd   `cmd:"" help:"Run every directive and write the paper and its results file."`
-	Check   checkCmd   `cmd:"" help:"Validate directives, data aliases, columns and inline values without running analyses."`
-	Inspect inspectCmd `cmd:"" help:"Describe a data file: columns, frequency, date range, missing values."`
+	Build   buildCmd         `cmd:"" help:"Run every directive and write the paper and its results file."`
+	Check   checkCmd         `cmd:"" help:"Validate directives, data aliases, columns and inline values without running analyses."`
+	Inspect inspectCmd       `cmd:"" help:"Describe a data file: columns, frequency, date range, missing values."`
 	Version kong.VersionFlag `help:"Print the version and exit."`
 }
 
