@@ -1,0 +1,31 @@
+// Package johansen implements Johansen's reduced-rank analysis of a vector
+// error-correction model (VECM)
+//
+//	Δy_t = α β' ỹ_{t−1} + Σ_{i=1}^{k} Γ_i Δy_{t−i} + Φ d_t + ε_t,  ε_t ~ N(0, Ω),
+//
+// where ỹ_{t−1} is y_{t−1} augmented with the restricted deterministic term
+// (if any) and d_t holds the unrestricted deterministic terms. It provides
+// the trace and maximum-eigenvalue rank tests with critical values, the
+// Reinsel–Ahn small-sample factor, sequential rank choice, lag-order
+// criteria, the estimated α, β, Π = αβ' and short-run coefficients with
+// standard errors, and likelihood-ratio tests of linear restrictions on β
+// and α.
+//
+// References:
+//
+//	Johansen, S. (1988). Statistical analysis of cointegration vectors.
+//	  Journal of Economic Dynamics and Control 12, 231–254.
+//	Johansen, S. (1991). Estimation and hypothesis testing of cointegration
+//	  vectors in Gaussian vector autoregressive models. Econometrica 59,
+//	  1551–1580.
+//	Johansen, S. (1995). Likelihood-Based Inference in Cointegrated Vector
+//	  Autoregressive Models. Oxford University Press.
+//	Osterwald-Lenum, M. (1992). A note with quantiles of the asymptotic
+//	  distribution of the maximum likelihood cointegration rank test
+//	  statistics. Oxford Bulletin of Economics and Statistics 54, 461–472.
+//	Reinsel, G. C. and Ahn, S. K. (1992). Vector autoregressive models with
+//	  unit roots and reduced rank structure: estimation, likelihood ratio
+//	  test, and forecasting. Journal of Time Series Analysis 13, 353–375.
+//
+// The package does no I/O and no formatting.
+package johansen

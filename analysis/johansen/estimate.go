@@ -1,0 +1,259 @@
+package johansen
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/galley-econ/galley/analysis/ols"
+	"gonum.org/v1/gonum/mat"
+)
+
+// TermKind names a short-run regressor of the VECM.
+type TermKind int
+
+const (
+	Constant TermKind = iota // unrestricted constant
+	Trend                    // unrestricted trend (case CT)
+	LagDiff                  // lagged difference Δy_{Series, t−Lag}
+)
+
+// Term describes one short-run regressor.
+type Term struct {
+	Kind   TermKind
+	Lag    int // for LagDiff: 1..Lags
+	Series int // for LagDiff: column of y
+}
+
+// Terms lists the short-run regressors in their column order: the
+// unrestricted deterministic terms, then Δy_{t−1} (all series), ...,
+// Δy_{t−Lags}.
+func (r *Result) Terms() []Term {
+	var out []Term
+	if d := r.Case.unrestricted(); d >= 1 {
+		out = append(out, Term{Kind: Constant})
+		if d == 2 {
+			out = append(out, Term{Kind: Trend})
+		}
+	}
+	for l := 1; l <= r.Lags; l++ {
+		for j := 0; j < r.K; j++ {
+			out = append(out, Term{Kind: LagDiff, Lag: l, Series: j})
+		}
+	}
+	return out
+}
+
+// VECM is the estimated error-correction model of a given rank.
+type VECM struct {
+	Rank int
+	Norm []int // rows of β set to the identity
+
+	// Beta is P1×Rank with Beta[Norm[j], i] = δ_ij; BetaSE holds the
+	// asymptotic standard errors (zero on the normalised rows).
+	Beta, BetaSE *mat.Dense
+	// Alpha is K×Rank; AlphaSE are the OLS standard errors given β.
+	Alpha, AlphaSE *mat.Dense
+	// Pi = αβ', K×P1.
+	Pi *mat.Dense
+	// Omega is the ML residual covariance S00 − S01β(β'S11β)⁻¹β'S10.
+	Omega *mat.SymDense
+	// Short holds the short-run coefficients (Γ_i and unrestricted
+	// deterministic terms), K×len(Terms), with OLS standard errors ShortSE.
+	Short, ShortSE *mat.Dense
+	Terms          []Term
+}
+
+// Estimate returns the rank-r VECM (Johansen 1995, §6.1 and ch. 13).
+//
+// β̂ spans the first r eigenvectors V_r and is normalised as
+// β̂ = V_r (c'V_r)⁻¹, c the columns of the identity picked by norm (one series
+// index per relation, e.g. {0} for rank 1 normalised on the first series),
+// so that c'β̂ = I. α̂ = S01β̂(β̂'S11β̂)⁻¹ and Π̂ = α̂β̂'.
+//
+// The free rows θ of β̂ (those not in norm) have Johansen's asymptotic
+// covariance (Johansen 1995, Thm 13.3)
+//
+//	Var(vec θ̂') = (T S_bb)⁻¹ ⊗ (α̂'Ω̂⁻¹α̂)⁻¹,
+//
+// S_bb the block of S11 for those rows and Ω̂ the ML residual covariance.
+//
+// Given β̂, the short-run equations Δy_it = α_i'β̂'ỹ_{t−1} + Σ Γ_i Δy_{t−i} +
+// Φ_i d_t + ε_it are estimated by OLS equation by equation; α̂ and the
+// short-run coefficients carry the classical OLS standard errors
+// s²(X'X)⁻¹, s² = e'e/(T − number of regressors).
+func (r *Result) Estimate(rank int, norm []int) (*VECM, error) {
+	if err := r.checkRank(rank); err != nil {
+		return nil, err
+	}
+	if len(norm) != rank {
+		return nil, fmt.Errorf("johansen: normalisation needs one series per relation: %d given for rank %d", len(norm), rank)
+	}
+	p1 := r.P1()
+	seen := make(map[int]bool)
+	for _, n := range norm {
+		if n < 0 || n >= r.K {
+			return nil, fmt.Errorf("johansen: normalisation series %d is outside 0..%d", n, r.K-1)
+		}
+		if seen[n] {
+			return nil, fmt.Errorf("johansen: normalisation series %d given twice", n)
+		}
+		seen[n] = true
+	}
+	vr := r.Vectors.Slice(0, p1, 0, rank)
+	cv := mat.NewDense(rank, rank, nil)
+	for i, n := range norm {
+		for j := 0; j < rank; j++ {
+			cv.Set(i, j, vr.At(n, j))
+		}
+	}
+	var cvInv mat.Dense
+	if err := cvInv.Inverse(cv); err != nil {
+		return nil, fmt.Errorf("johansen: cannot normalise on series %v: their coefficients in the first %d eigenvectors are singular", norm, rank)
+	}
+	beta := mat.NewDense(p1, rank, nil)
+	beta.Mul(vr, &cvInv)
+	for i, n := range norm { // exact identity on the normalised rows
+		for j := 0; j < rank; j++ {
+			beta.Set(n, j, b2f(i == j))
+		}
+	}
+	alpha, omega, err := r.loadings(beta)
+	if err != nil {
+		return nil, err
+	}
+	v := &VECM{Rank: rank, Norm: append([]int(nil), norm...), Beta: beta, Omega: omega, Terms: r.Terms()}
+	if v.BetaSE, err = r.betaSE(beta, alpha, omega, seen); err != nil {
+		return nil, err
+	}
+	if err := r.shortRun(v, beta); err != nil {
+		return nil, err
+	}
+	v.Pi = mat.NewDense(r.K, p1, nil)
+	v.Pi.Mul(v.Alpha, beta.T())
+	return v, nil
+}
+
+func b2f(b bool) float64 {
+	if b {
+		return 1
+	}
+	return 0
+}
+
+func (r *Result) checkRank(rank int) error {
+	if rank < 1 || rank > r.K-1 {
+		return fmt.Errorf("johansen: cointegrating rank %d is outside 1..K−1 = 1..%d", rank, r.K-1)
+	}
+	return nil
+}
+
+// loadings returns α = S01β(β'S11β)⁻¹ and Ω = S00 − α(β'S11β)α'.
+func (r *Result) loadings(beta *mat.Dense) (*mat.Dense, *mat.SymDense, error) {
+	var sb, bsb, inv mat.Dense
+	sb.Mul(r.S11, beta)
+	bsb.Mul(beta.T(), &sb)
+	if err := inv.Inverse(&bsb); err != nil {
+		return nil, nil, fmt.Errorf("johansen: β'S11β is singular: %v", err)
+	}
+	var s0b, alpha mat.Dense
+	s0b.Mul(r.S01, beta)
+	alpha.Mul(&s0b, &inv)
+	var fit mat.Dense
+	fit.Mul(&alpha, s0b.T())
+	k := r.K
+	omega := mat.NewSymDense(k, nil)
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			omega.SetSym(i, j, r.S00.At(i, j)-(fit.At(i, j)+fit.At(j, i))/2)
+		}
+	}
+	return &alpha, omega, nil
+}
+
+// betaSE returns the asymptotic standard errors of the free rows of β.
+func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[int]bool) (*mat.Dense, error) {
+	p1, rank := beta.Dims()
+	var free []int
+	for i := 0; i < p1; i++ {
+		if !fixed[i] {
+			free = append(free, i)
+		}
+	}
+	sbb := mat.NewSymDense(len(free), nil)
+	for a, i := range free {
+		for b, j := range free {
+			if b >= a {
+				sbb.SetSym(a, b, r.S11.At(i, j))
+			}
+		}
+	}
+	var ch mat.Cholesky
+	if !ch.Factorize(sbb) {
+		return nil, fmt.Errorf("johansen: the moment matrix of the free rows of β is singular")
+	}
+	var sbbInv mat.SymDense
+	if err := ch.InverseTo(&sbbInv); err != nil {
+		return nil, err
+	}
+	var och mat.Cholesky
+	if !och.Factorize(omega) {
+		return nil, fmt.Errorf("johansen: the residual covariance Ω is singular")
+	}
+	var oa mat.Dense
+	if err := och.SolveTo(&oa, alpha); err != nil {
+		return nil, err
+	}
+	var aoa, aoaInv mat.Dense
+	aoa.Mul(alpha.T(), &oa)
+	if err := aoaInv.Inverse(&aoa); err != nil {
+		return nil, fmt.Errorf("johansen: α'Ω⁻¹α is singular: %v", err)
+	}
+	se := mat.NewDense(p1, rank, nil)
+	t := float64(r.T)
+	for a, i := range free {
+		for j := 0; j < rank; j++ {
+			se.Set(i, j, math.Sqrt(sbbInv.At(a, a)*aoaInv.At(j, j)/t))
+		}
+	}
+	return se, nil
+}
+
+// shortRun fits each equation by OLS on [β'ỹ_{t−1}, short-run regressors].
+func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
+	t, k := r.z0.Dims()
+	rank := v.Rank
+	ns := 0
+	if r.zs != nil {
+		_, ns = r.zs.Dims()
+	}
+	x := mat.NewDense(t, rank+ns, nil)
+	ect := x.Slice(0, t, 0, rank).(*mat.Dense)
+	ect.Mul(r.z1, beta)
+	if ns > 0 {
+		x.Slice(0, t, rank, rank+ns).(*mat.Dense).Copy(r.zs)
+	}
+	v.Alpha = mat.NewDense(k, rank, nil)
+	v.AlphaSE = mat.NewDense(k, rank, nil)
+	if ns > 0 {
+		v.Short = mat.NewDense(k, ns, nil)
+		v.ShortSE = mat.NewDense(k, ns, nil)
+	}
+	yi := make([]float64, t)
+	for i := 0; i < k; i++ {
+		mat.Col(yi, i, r.z0)
+		f, err := ols.Regress(yi, x)
+		if err != nil {
+			return fmt.Errorf("johansen: short-run equation %d: %v", i, err)
+		}
+		se := ols.SE(f.Cov(ols.CovSpec{Kind: ols.Classical}))
+		for j := 0; j < rank; j++ {
+			v.Alpha.Set(i, j, f.Coef[j])
+			v.AlphaSE.Set(i, j, se[j])
+		}
+		for j := 0; j < ns; j++ {
+			v.Short.Set(i, j, f.Coef[rank+j])
+			v.ShortSE.Set(i, j, se[rank+j])
+		}
+	}
+	return nil
+}

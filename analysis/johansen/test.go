@@ -1,0 +1,359 @@
+package johansen
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// Result holds the reduced-rank regression behind Johansen's rank tests.
+type Result struct {
+	Case Case
+	Lags int // lagged differences k in the VECM (VAR order in levels k+1)
+	K    int // number of series
+	T    int // observations used (input rows − Lags − 1)
+
+	// Eigenvalues λ_1 ≥ ... ≥ λ_K of |λS11 − S10 S00⁻¹ S01| = 0.
+	Eigenvalues []float64
+	// Trace[r] = −T Σ_{i>r} ln(1−λ_i) and MaxEig[r] = −T ln(1−λ_{r+1}),
+	// the statistics for H(r) against H(K) and H(r+1), r = 0..K−1.
+	Trace, MaxEig []float64
+	// Vectors holds the eigenvectors v_1..v_K as columns, (K+m)×K where m
+	// is the number of restricted deterministic terms (1 for RC and RT,
+	// whose last row is the constant or trend coefficient), normalised
+	// v_i'S11 v_j = δ_ij. The first r columns span the estimated β.
+	Vectors *mat.Dense
+
+	// Product-moment matrices of the residuals R0 (Δy_t) and R1 (ỹ_{t−1})
+	// after the lagged differences and unrestricted deterministic terms are
+	// regressed out: S_ij = T⁻¹ Σ_t R_it R_jt'.
+	S00, S11 *mat.SymDense
+	S01      *mat.Dense
+
+	z0, z1, zs *mat.Dense // Δy_t, ỹ_{t−1}, short-run regressors (rows t)
+}
+
+// P1 is the row count of β: K plus the restricted deterministic term, if any.
+func (r *Result) P1() int { return r.K + r.Case.restricted() }
+
+// Test performs Johansen's reduced-rank regression (Johansen 1988, 1991;
+// Johansen 1995, ch. 6) of the VECM in Case c with lags lagged differences
+// on the T×K matrix y of levels (rows are time).
+//
+// Δy_t and ỹ_{t−1} are each regressed by least squares on the lagged
+// differences Δy_{t−1..t−lags} and the unrestricted deterministic terms,
+// giving residuals R0t and R1t and S_ij = T⁻¹ Σ R_it R_jt'. The eigenvalues
+// solve |λS11 − S10 S00⁻¹ S01| = 0. They are computed from one Householder
+// QR factorisation of [short-run regressors | ỹ_{t−1} | Δy_t]: its diagonal
+// block R11 is a Cholesky factor of T·S11, and with R10 the block above Δy_t,
+// the eigenvalues are those of the symmetric matrix T⁻¹ R10 S00⁻¹ R10'.
+//
+// The trend term (cases RT and CT) takes the value t at the row t of y (rows
+// numbered from 0), so that it counts the observations of y_{t−1} from 1.
+func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
+	if y == nil {
+		return nil, errors.New("johansen: no data")
+	}
+	if !c.valid() {
+		return nil, fmt.Errorf("johansen: invalid deterministic case %d", int(c))
+	}
+	if lags < 0 {
+		return nil, fmt.Errorf("johansen: lagged differences must be non-negative, got %d", lags)
+	}
+	rows, k := y.Dims()
+	if k < 1 {
+		return nil, errors.New("johansen: no series")
+	}
+	if err := checkSeries(y); err != nil {
+		return nil, err
+	}
+	m := c.restricted()
+	p1 := k + m
+	ns := c.unrestricted() + k*lags
+	t := rows - lags - 1
+	if need := ns + p1 + k; t <= need {
+		return nil, fmt.Errorf("johansen: too few observations: %d rows with %d lagged differences leave %d for estimation; case %s with %d series needs more than %d",
+			rows, lags, max(t, 0), c, k, need)
+	}
+	z0, z1, zs := design(y, c, lags)
+	res := &Result{Case: c, Lags: lags, K: k, T: t, z0: z0, z1: z1, zs: zs}
+	if err := res.reduce(); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// design builds Δy_t, ỹ_{t−1} and the short-run regressors
+// [1, t (as the case has them), Δy_{t−1}, ..., Δy_{t−lags}].
+func design(y *mat.Dense, c Case, lags int) (z0, z1, zs *mat.Dense) {
+	rows, k := y.Dims()
+	t := rows - lags - 1
+	m := c.restricted()
+	d := c.unrestricted()
+	z0 = mat.NewDense(t, k, nil)
+	z1 = mat.NewDense(t, k+m, nil)
+	ns := d + k*lags
+	if ns > 0 {
+		zs = mat.NewDense(t, ns, nil)
+	}
+	for i := 0; i < t; i++ {
+		s := i + lags + 1 // row of y for Δy_t
+		for j := 0; j < k; j++ {
+			z0.Set(i, j, y.At(s, j)-y.At(s-1, j))
+			z1.Set(i, j, y.At(s-1, j))
+		}
+		switch c {
+		case RC:
+			z1.Set(i, k, 1)
+		case RT:
+			z1.Set(i, k, float64(s))
+		}
+		col := 0
+		if d >= 1 {
+			zs.Set(i, 0, 1)
+			col++
+		}
+		if d == 2 {
+			zs.Set(i, 1, float64(s))
+			col++
+		}
+		for l := 1; l <= lags; l++ {
+			for j := 0; j < k; j++ {
+				zs.Set(i, col, y.At(s-l, j)-y.At(s-l-1, j))
+				col++
+			}
+		}
+	}
+	return z0, z1, zs
+}
+
+// checkSeries names non-finite values, constant series and identical series.
+func checkSeries(y *mat.Dense) error {
+	rows, k := y.Dims()
+	for j := 0; j < k; j++ {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for i := 0; i < rows; i++ {
+			v := y.At(i, j)
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return fmt.Errorf("johansen: series %d has a missing or infinite value at row %d", j, i)
+			}
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+		if lo == hi {
+			return fmt.Errorf("johansen: series %d is constant, so the moment matrices are singular", j)
+		}
+	}
+	for a := 0; a < k; a++ {
+		for b := a + 1; b < k; b++ {
+			same := true
+			for i := 0; i < rows && same; i++ {
+				same = y.At(i, a) == y.At(i, b)
+			}
+			if same {
+				return fmt.Errorf("johansen: series %d and %d are identical, so the moment matrices are singular", a, b)
+			}
+		}
+	}
+	return nil
+}
+
+// singularTol is the relative size of a QR diagonal element below which a
+// column counts as a linear combination of the columns before it.
+const singularTol = 1e-10
+
+// reduce factorises the design and solves the eigenproblem.
+func (r *Result) reduce() error {
+	t, k := r.z0.Dims()
+	_, p1 := r.z1.Dims()
+	ns := 0
+	if r.zs != nil {
+		_, ns = r.zs.Dims()
+	}
+	n := ns + p1 + k
+	d := mat.NewDense(t, n, nil)
+	if ns > 0 {
+		d.Slice(0, t, 0, ns).(*mat.Dense).Copy(r.zs)
+	}
+	d.Slice(0, t, ns, ns+p1).(*mat.Dense).Copy(r.z1)
+	d.Slice(0, t, ns+p1, n).(*mat.Dense).Copy(r.z0)
+	var qr mat.QR
+	qr.Factorize(d)
+	var rr mat.Dense
+	qr.RTo(&rr)
+	for j := 0; j < n; j++ {
+		norm := mat.Norm(d.ColView(j), 2)
+		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
+			return r.singular(j, ns, p1)
+		}
+	}
+	ft := float64(t)
+	r11 := mat.NewDense(p1, p1, nil)
+	r10 := mat.NewDense(p1, k, nil)
+	r00 := mat.NewDense(k, k, nil)
+	for i := 0; i < p1; i++ {
+		for j := i; j < p1; j++ {
+			r11.Set(i, j, rr.At(ns+i, ns+j))
+		}
+		for j := 0; j < k; j++ {
+			r10.Set(i, j, rr.At(ns+i, ns+p1+j))
+		}
+	}
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			r00.Set(i, j, rr.At(ns+p1+i, ns+p1+j))
+		}
+	}
+	r.S11 = crossSym(r11, nil, ft)
+	r.S00 = crossSym(r10, r00, ft)
+	r.S01 = mat.NewDense(k, p1, nil)
+	r.S01.Mul(r10.T(), r11)
+	r.S01.Scale(1/ft, r.S01)
+
+	var ch mat.Cholesky
+	if !ch.Factorize(r.S00) {
+		return errors.New("johansen: S00, the moment matrix of the differences, is not positive definite (a constant or collinear series?)")
+	}
+	// A = T⁻¹ R10 S00⁻¹ R10'.
+	var x mat.Dense
+	if err := ch.SolveTo(&x, r10.T()); err != nil {
+		return fmt.Errorf("johansen: S00 is singular: %v", err)
+	}
+	a := mat.NewSymDense(p1, nil)
+	var prod mat.Dense
+	prod.Mul(r10, &x)
+	for i := 0; i < p1; i++ {
+		for j := i; j < p1; j++ {
+			a.SetSym(i, j, (prod.At(i, j)+prod.At(j, i))/(2*ft))
+		}
+	}
+	var es mat.EigenSym
+	if !es.Factorize(a, true) {
+		return errors.New("johansen: the symmetric eigenproblem did not converge")
+	}
+	vals := es.Values(nil)
+	var w mat.Dense
+	es.VectorsTo(&w)
+	order := make([]int, p1)
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
+	// v = √T R11⁻¹ w for the K largest.
+	wk := mat.NewDense(p1, k, nil)
+	r.Eigenvalues = make([]float64, k)
+	for j := 0; j < k; j++ {
+		lam := vals[order[j]]
+		if lam < 0 {
+			lam = 0 // rounding below an exact zero
+		}
+		r.Eigenvalues[j] = lam
+		for i := 0; i < p1; i++ {
+			wk.Set(i, j, w.At(i, order[j]))
+		}
+	}
+	u := mat.NewTriDense(p1, mat.Upper, nil)
+	u.Copy(r11)
+	var v mat.Dense
+	if err := v.Solve(u, wk); err != nil {
+		return fmt.Errorf("johansen: S11 is singular: %v", err)
+	}
+	v.Scale(math.Sqrt(ft), &v)
+	for j := 0; j < k; j++ { // sign: first non-zero element positive
+		for i := 0; i < p1; i++ {
+			if e := v.At(i, j); e != 0 {
+				if e < 0 {
+					for h := 0; h < p1; h++ {
+						v.Set(h, j, -v.At(h, j))
+					}
+				}
+				break
+			}
+		}
+	}
+	r.Vectors = &v
+	r.Trace, r.MaxEig = statistics(r.Eigenvalues, ft)
+	return nil
+}
+
+// statistics returns the trace and maximum-eigenvalue statistics.
+func statistics(lam []float64, t float64) (trace, maxeig []float64) {
+	k := len(lam)
+	trace = make([]float64, k)
+	maxeig = make([]float64, k)
+	var s float64
+	for r := k - 1; r >= 0; r-- {
+		l := -t * math.Log1p(-lam[r])
+		s += l
+		trace[r] = s
+		maxeig[r] = l
+	}
+	return trace, maxeig
+}
+
+// crossSym returns (A'A + B'B)/t for upper-triangular blocks (B may be nil).
+func crossSym(a, b *mat.Dense, t float64) *mat.SymDense {
+	_, n := a.Dims()
+	var p mat.Dense
+	p.Mul(a.T(), a)
+	if b != nil {
+		var q mat.Dense
+		q.Mul(b.T(), b)
+		p.Add(&p, &q)
+	}
+	s := mat.NewSymDense(n, nil)
+	for i := 0; i < n; i++ {
+		for j := i; j < n; j++ {
+			s.SetSym(i, j, (p.At(i, j)+p.At(j, i))/(2*t))
+		}
+	}
+	return s
+}
+
+// singular names the design column that depends on the ones before it.
+func (r *Result) singular(j, ns, p1 int) error {
+	k := r.K
+	d := r.Case.unrestricted()
+	var what string
+	switch {
+	case j < d && j == 0:
+		what = "the constant"
+	case j < d:
+		what = "the trend"
+	case j < ns:
+		l := (j-d)/k + 1
+		what = fmt.Sprintf("lagged difference %d of series %d", l, (j-d)%k)
+	case j < ns+k:
+		what = fmt.Sprintf("the lagged level of series %d", j-ns)
+	case j < ns+p1:
+		what = "the restricted " + map[Case]string{RC: "constant", RT: "trend"}[r.Case]
+	default:
+		what = fmt.Sprintf("the difference of series %d", j-ns-p1)
+	}
+	return fmt.Errorf("johansen: singular moment matrix: %s is a linear combination of the other regressors (a constant, duplicated or collinear series?)", what)
+}
+
+// SmallSampleFactor is the Reinsel and Ahn (1992) factor (T − K(k+1))/T,
+// with k+1 the VAR order in levels, by which the statistics are multiplied
+// in small samples.
+func (r *Result) SmallSampleFactor() float64 {
+	return float64(r.T-r.K*(r.Lags+1)) / float64(r.T)
+}
+
+// Statistics returns the trace and maximum-eigenvalue statistics for
+// r = 0..K−1, multiplied by SmallSampleFactor when adjust is true.
+func (r *Result) Statistics(adjust bool) (trace, maxeig []float64) {
+	f := 1.0
+	if adjust {
+		f = r.SmallSampleFactor()
+	}
+	trace = make([]float64, r.K)
+	maxeig = make([]float64, r.K)
+	for i := range trace {
+		trace[i] = f * r.Trace[i]
+		maxeig[i] = f * r.MaxEig[i]
+	}
+	return trace, maxeig
+}
