@@ -107,7 +107,10 @@ func detectDelimiter(head []byte) rune {
 func csvError(t *table, err error) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
-		return t.errf(pe.Line, "", "malformed row (at byte %d of the line): %v", pe.Column, pe.Err)
+		if pe.Line != pe.StartLine {
+			return t.errf(pe.StartLine, "", "malformed row (the problem is on line %d): %v", pe.Line, pe.Err)
+		}
+		return t.errf(pe.Line, "", "malformed row: %v", pe.Err)
 	}
 	return t.errf(0, "", "reading: %v", err)
 }
