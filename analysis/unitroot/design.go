@@ -6,7 +6,7 @@ import (
 	"math"
 
 	"github.com/galley-econ/galley/analysis/critical"
-	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/blas/blas64"
 )
 
 // checkSeries rejects series with non-finite values, too few values or
@@ -28,40 +28,47 @@ func checkSeries(y []float64, min int) error {
 	return errors.New("unitroot: the series is constant")
 }
 
-// detColumn returns deterministic regressor k (0 constant, 1 trend,
-// 2 squared trend) at position s = 1..n of the regression sample.
-func detColumn(k int, s float64) float64 {
-	switch k {
-	case 0:
-		return 1
-	case 1:
-		return s
-	}
-	return s * s
+// detFunc writes the deterministic regressors of the observation with
+// zero-based index t in y, at position i = 0..n−1 of a regression sample
+// of n observations, into row.
+type detFunc func(t, i, n int, row []float64)
+
+// caseDet returns the deterministics of a Dickey–Fuller case: constant,
+// s, s² with s = i+1 over the regression sample.
+func caseDet(c critical.Case) (detFunc, int) {
+	d := c.Deterministics()
+	return func(t, i, n int, row []float64) {
+		s := float64(i + 1)
+		for j := 0; j < d; j++ {
+			switch j {
+			case 0:
+				row[j] = 1
+			case 1:
+				row[j] = s
+			default:
+				row[j] = s * s
+			}
+		}
+	}, d
 }
 
 // dfDesign builds the Dickey–Fuller regression with p lagged differences
 // on observations t = start..T−1 (zero-based, start ≥ p+1):
-// columns [deterministics | y_{t−1} | Δy_{t−1} … Δy_{t−p}], response Δy_t.
-// The trend is s = 1..n over the regression sample.
-func dfDesign(y []float64, c critical.Case, p, start int) (*mat.Dense, []float64) {
-	d := c.Deterministics()
+// columns [deterministics (d) | y_{t−1} | Δy_{t−1} … Δy_{t−p}], response
+// Δy_t, written into a row-major n×(d+1+p+extra) buffer whose remaining
+// columns are left zero.
+func dfDesign(y []float64, det detFunc, d, p, start, extra int) blas64.General {
 	n := len(y) - start
-	k := d + 1 + p
-	x := mat.NewDense(n, k, nil)
-	dy := make([]float64, n)
-	raw := x.RawMatrix()
+	k := d + 1 + p + extra
+	a := blas64.General{Rows: n, Cols: k, Stride: k, Data: make([]float64, n*k)}
 	for i := 0; i < n; i++ {
 		t := start + i
-		row := raw.Data[i*raw.Stride : i*raw.Stride+k]
-		for j := 0; j < d; j++ {
-			row[j] = detColumn(j, float64(i+1))
-		}
+		row := a.Data[i*k : (i+1)*k]
+		det(t, i, n, row)
 		row[d] = y[t-1]
 		for l := 1; l <= p; l++ {
 			row[d+l] = y[t-l] - y[t-l-1]
 		}
-		dy[i] = y[t] - y[t-1]
 	}
-	return x, dy
+	return a
 }

@@ -1,13 +1,12 @@
 package unitroot
 
 import (
-	"errors"
 	"fmt"
 	"math"
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
-	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/mat"
 )
 
 // DF is an augmented Dickey–Fuller regression
@@ -42,11 +41,11 @@ type DF struct {
 //
 // Selection compares every p = 0..Max on a common sample (the first
 // Max+1 observations dropped) and re-estimates the chosen p on its own
-// full sample of T − 1 − p observations (the usual practice, e.g.
-// Ng and Perron 1995 on the comparison sample). The criteria for all
-// p come from one QR factorisation of the largest design (see nested),
-// not one regression per lag. TStat is general-to-specific from Max,
-// dropping the last lag while |t| < 1.645.
+// full sample of T − 1 − p observations, as statsmodels' adfuller does
+// (verified in the tests). The criteria for all p come from one QR
+// factorisation of the largest design (see nested), not one regression
+// per lag. TStat is general-to-specific from Max, dropping the last lag
+// while |t| < 1.645.
 func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
 	if c < critical.NoConst || c > critical.ConstTrendSq {
 		return nil, fmt.Errorf("unitroot: unsupported deterministic case %d", int(c))
@@ -54,9 +53,19 @@ func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
 	if err := checkSeries(y, 3); err != nil {
 		return nil, err
 	}
-	d := c.Deterministics()
+	det, d := caseDet(c)
+	reg, err := dfFit(y, det, d, r)
+	if err != nil {
+		return nil, err
+	}
+	reg.Case = c
+	return reg, nil
+}
+
+// dfFit is DickeyFuller with arbitrary deterministics.
+func dfFit(y []float64, det detFunc, d int, r LagRule) (*DF, error) {
 	tt := len(y)
-	out := &DF{Case: c, Select: r.Select}
+	out := &DF{Select: r.Select}
 	var p int
 	switch r.Select {
 	case Fixed:
@@ -80,7 +89,7 @@ func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
 		if err := enoughObs(tt, d, max); err != nil {
 			return nil, err
 		}
-		ic, best, err := selectLag(y, c, max, r.Select)
+		ic, best, err := selectLag(y, det, d, max, r.Select)
 		if err != nil {
 			return nil, err
 		}
@@ -92,14 +101,14 @@ func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
 	if err := enoughObs(tt, d, p); err != nil {
 		return nil, err
 	}
-	x, dy := dfDesign(y, c, p, p+1)
-	fit, err := ols.Regress(dy, x)
+	a := dfDesign(y, det, d, p, p+1, 0)
+	dy := make([]float64, a.Rows)
+	for i := range dy {
+		dy[i] = y[p+1+i] - y[p+i]
+	}
+	fit, err := ols.Regress(dy, mat.NewDense(a.Rows, a.Cols, a.Data))
 	if err != nil {
-		var ce *ols.CollinearError
-		if errors.As(err, &ce) {
-			return nil, fmt.Errorf("unitroot: Dickey–Fuller regression with %d lags: %w", p, err)
-		}
-		return nil, fmt.Errorf("unitroot: %w", err)
+		return nil, fmt.Errorf("unitroot: Dickey–Fuller regression with %d lags: %w", p, err)
 	}
 	out.Lags = p
 	out.NObs = fit.N
@@ -123,27 +132,14 @@ func enoughObs(t, d, p int) error {
 }
 
 // selectLag evaluates the criterion for p = 0..max on the common sample
-// t = max+1..T−1 from one nested QR and returns the values and the choice.
-func selectLag(y []float64, c critical.Case, max int, sel Selector) ([]float64, int, error) {
-	d := c.Deterministics()
-	n := len(y) - 1 - max
-	m := d + 1 + max
-	a := blas64.General{Rows: n, Cols: m + 1, Stride: m + 1, Data: make([]float64, n*(m+1))}
-	// Deterministics as centred powers of s (same column space as 1, s,
-	// s², better conditioned); then y_{t−1}, the lags and Δy_t.
-	mid := float64(n+1) / 2
+// t = max+1..T−1 from one nested QR of [X_max | Δy] and returns the
+// values and the choice.
+func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, int, error) {
+	a := dfDesign(y, det, d, max, max+1, 1)
+	n, m := a.Rows, a.Cols-1
 	for i := 0; i < n; i++ {
 		t := max + 1 + i
-		row := a.Data[i*a.Stride : (i+1)*a.Stride]
-		s := (float64(i+1) - mid) / float64(n)
-		for j := 0; j < d; j++ {
-			row[j] = math.Pow(s, float64(j))
-		}
-		row[d] = y[t-1]
-		for l := 1; l <= max; l++ {
-			row[d+l] = y[t-l] - y[t-l-1]
-		}
-		row[m] = y[t] - y[t-1]
+		a.Data[i*a.Stride+m] = y[t] - y[t-1]
 	}
 	ns := nested(a)
 	if !ns.ok[d] {
