@@ -90,3 +90,5 @@ func TestEvalSmoke(t *testing.T) {
 		t.Errorf("window %+v %v", r, err)
 	}
 }
+
+func stringsReader(s string) *strings.Reader { return strings.NewReader(s) }

@@ -14,7 +14,7 @@ func (d Date) Index() int {
 	case Annual, Quarterly, Monthly:
 		return d.Year*d.Freq.PerYear() + d.Sub - 1
 	case Daily:
-		return int(d.Day.Sub(epochDay).Hours()) / 24
+		return int(d.Day.Unix() / 86400) // midnight UTC: exact
 	default:
 		return d.Sub
 	}
