@@ -19,9 +19,9 @@ type poFixture struct {
 		Lag           int
 		Stat          float64
 		Cval          []float64 // 10%, 5%, 1%
-		NumpyPu       float64 `json:"numpy_pu"`
-		NumpyPz       float64 `json:"numpy_pz"`
-		NumpyOmega112 float64 `json:"numpy_omega11_2"`
+		NumpyPu       float64   `json:"numpy_pu"`
+		NumpyPz       float64   `json:"numpy_pz"`
+		NumpyOmega112 float64   `json:"numpy_omega11_2"`
 	}
 }
 

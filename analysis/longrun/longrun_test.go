@@ -25,8 +25,8 @@ type lrCase struct {
 	R           [][]float64
 	RHS         []float64 `json:"r"`
 
-	ChosenLags    int `json:"chosen_lags"`
-	ChosenLeads   int `json:"chosen_leads"`
+	ChosenLags    int     `json:"chosen_lags"`
+	ChosenLeads   int     `json:"chosen_leads"`
 	BandwidthUsed float64 `json:"bandwidth_used"`
 	Nobs          int
 	Coef, SE      []float64
