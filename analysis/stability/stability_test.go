@@ -18,19 +18,19 @@ import (
 // statsmodels 0.13.5 (Debian python3-statsmodels), RecursiveLS on the
 // open macrodata set: log realcons on 1, log realdpi, tbilrate.
 type recFixture struct {
-	Meta           map[string]string `json:"meta"`
-	Y              []float64         `json:"y"`
-	X              [][]float64       `json:"X"`
-	K              int               `json:"k"`
-	ResidRecursive []float64         `json:"resid_recursive"`
-	CUSUM          []float64         `json:"cusum"`
-	CUSUMSquares   []float64         `json:"cusum_squares"`
-	Scale          float64           `json:"scale"`
-	CoefFiltered   [][]float64       `json:"coef_filtered"`
-	CoefVar        [][]float64       `json:"coef_filtered_var"`
-	Points         []int             `json:"cusum_bounds_points"`
-	Bounds05       struct{ Lower, Upper []float64 } `json:"cusum_bounds_0.05"`
-	Bounds01       struct{ Lower, Upper []float64 } `json:"cusum_bounds_0.01"`
+	Meta           map[string]string                           `json:"meta"`
+	Y              []float64                                   `json:"y"`
+	X              [][]float64                                 `json:"X"`
+	K              int                                         `json:"k"`
+	ResidRecursive []float64                                   `json:"resid_recursive"`
+	CUSUM          []float64                                   `json:"cusum"`
+	CUSUMSquares   []float64                                   `json:"cusum_squares"`
+	Scale          float64                                     `json:"scale"`
+	CoefFiltered   [][]float64                                 `json:"coef_filtered"`
+	CoefVar        [][]float64                                 `json:"coef_filtered_var"`
+	Points         []int                                       `json:"cusum_bounds_points"`
+	Bounds05       struct{ Lower, Upper []float64 }            `json:"cusum_bounds_0.05"`
+	Bounds01       struct{ Lower, Upper []float64 }            `json:"cusum_bounds_0.01"`
 	SqBounds       map[string]struct{ Lower, Upper []float64 } `json:"cusum_squares_bounds"`
 }
 
