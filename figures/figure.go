@@ -1,0 +1,105 @@
+package figures
+
+import (
+	"bytes"
+	"fmt"
+	"io"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgpdf"
+	"gonum.org/v1/plot/vg/vgsvg"
+)
+
+// Figure is a finished figure: one or more panels stacked vertically on a
+// page of the given size.
+type Figure struct {
+	Width, Height vg.Length
+	panels        []*plot.Plot
+}
+
+// Panels returns the number of panels.
+func (f *Figure) Panels() int { return len(f.panels) }
+
+// draw renders the panels onto a canvas.
+func (f *Figure) draw(c vg.CanvasSizer) {
+	dc := draw.New(c)
+	margin := vg.Points(4)
+	if len(f.panels) == 1 {
+		f.panels[0].Draw(draw.Crop(dc, margin, -margin, margin, -margin))
+		return
+	}
+	rows := make([][]*plot.Plot, len(f.panels))
+	for i, p := range f.panels {
+		rows[i] = []*plot.Plot{p}
+	}
+	tiles := draw.Tiles{Rows: len(f.panels), Cols: 1,
+		PadTop: margin, PadBottom: margin, PadLeft: margin, PadRight: margin, PadY: vg.Points(6)}
+	cs := plot.Align(rows, tiles, dc)
+	for i, p := range f.panels {
+		p.Draw(cs[i][0])
+	}
+}
+
+// WriteSVG writes the figure as SVG.
+func (f *Figure) WriteSVG(w io.Writer) error {
+	c := vgsvg.New(f.Width, f.Height)
+	f.draw(c)
+	_, err := c.WriteTo(w)
+	return wrap("svg", err)
+}
+
+// WritePDF writes the figure as a one-page PDF with its fonts embedded.
+func (f *Figure) WritePDF(w io.Writer) error {
+	c := vgpdf.New(f.Width, f.Height)
+	c.EmbedFonts(true)
+	f.draw(c)
+	_, err := c.WriteTo(w)
+	return wrap("pdf", err)
+}
+
+// WritePNG writes the figure as PNG at dpi dots per inch (DefaultDPI when
+// dpi ≤ 0). The image is round(width·dpi) × round(height·dpi) pixels.
+func (f *Figure) WritePNG(w io.Writer, dpi int) error {
+	if dpi <= 0 {
+		dpi = DefaultDPI
+	}
+	if dpi > 2400 {
+		return fmt.Errorf("figures: PNG resolution %d dpi is above the limit of 2400", dpi)
+	}
+	c := vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(dpi))
+	f.draw(c)
+	_, err := vgimg.PngCanvas{Canvas: c}.WriteTo(w)
+	return wrap("png", err)
+}
+
+// Render returns the figure in the named format: "svg", "pdf" or "png"
+// (dpi is used for PNG only).
+func (f *Figure) Render(format string, dpi int) ([]byte, error) {
+	var b bytes.Buffer
+	var err error
+	switch strings.ToLower(format) {
+	case "svg":
+		err = f.WriteSVG(&b)
+	case "pdf":
+		err = f.WritePDF(&b)
+	case "png":
+		err = f.WritePNG(&b, dpi)
+	default:
+		return nil, fmt.Errorf("figures: unknown output format %q (want svg, pdf or png)", format)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
+}
+
+func wrap(kind string, err error) error {
+	if err != nil {
+		return fmt.Errorf("figures: writing %s: %w", kind, err)
+	}
+	return nil
+}
