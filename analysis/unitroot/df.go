@@ -135,13 +135,8 @@ func enoughObs(t, d, p int) error {
 // t = max+1..T−1 from one nested QR of [X_max | Δy] and returns the
 // values and the choice.
 func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, int, error) {
-	a := dfDesign(y, det, d, max, max+1, 1)
-	n, m := a.Rows, a.Cols-1
-	for i := 0; i < n; i++ {
-		t := max + 1 + i
-		a.Data[i*a.Stride+m] = y[t] - y[t-1]
-	}
-	ns := nested(a)
+	cols, n := selectionColumns(y, det, d, max)
+	ns := nested(cols)
 	if !ns.ok[d] {
 		return nil, 0, fmt.Errorf("unitroot: y_{t−1} is collinear with the deterministic terms on the comparison sample")
 	}
@@ -178,4 +173,34 @@ func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, i
 		}
 	}
 	return ic, best, nil
+}
+
+// selectionColumns returns the comparison design for p = 0..max in
+// column-major form, [deterministics | y_{t−1} | Δy_{t−1} … Δy_{t−max} |
+// Δy_t] over t = max+1..T−1, and its number of rows.
+func selectionColumns(y []float64, det detFunc, d, max int) ([][]float64, int) {
+	n := len(y) - 1 - max
+	m := d + 1 + max
+	buf := make([]float64, n*(m+1))
+	cols := make([][]float64, m+1)
+	for j := range cols {
+		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
+	}
+	row := make([]float64, d)
+	for i := 0; i < n; i++ {
+		det(max+1+i, i, n, row)
+		for j := 0; j < d; j++ {
+			cols[j][i] = row[j]
+		}
+	}
+	copy(cols[d], y[max:max+n])     // y_{t−1}, t = max+1..
+	dy := make([]float64, len(y)-1) // dy[s] = Δy_{s+1}
+	for s := range dy {
+		dy[s] = y[s+1] - y[s]
+	}
+	for l := 1; l <= max; l++ { // Δy_{t−l} = dy[t−l−1]
+		copy(cols[d+l], dy[max-l:max-l+n])
+	}
+	copy(cols[m], dy[max:max+n]) // Δy_t
+	return cols, n
 }

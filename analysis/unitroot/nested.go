@@ -3,8 +3,7 @@ package unitroot
 import (
 	"math"
 
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack/lapack64"
+	"gonum.org/v1/gonum/floats"
 )
 
 // nestedLS holds, for a design X (n×m) and response y, the residual sum
@@ -28,42 +27,50 @@ type nestedLS struct {
 	ok  []bool
 }
 
-// nested factorises a (n×(m+1), row-major, last column the response) in
-// place. a must have n > m.
-func nested(a blas64.General) nestedLS {
-	n, m := a.Rows, a.Cols-1
+// nested factorises the columns cols[0..m−1] of X and the response
+// cols[m] (each of length n > m, contiguous: column-major storage) in
+// place.
+func nested(cols [][]float64) nestedLS {
+	m := len(cols) - 1
+	n := len(cols[0])
 	for j := 0; j < m; j++ { // unit column length for the design
-		var s float64
-		for i := 0; i < n; i++ {
-			v := a.Data[i*a.Stride+j]
-			s += v * v
-		}
-		if s == 0 {
-			continue
-		}
-		s = 1 / math.Sqrt(s)
-		for i := 0; i < n; i++ {
-			a.Data[i*a.Stride+j] *= s
+		if s := math.Sqrt(floats.Dot(cols[j], cols[j])); s > 0 {
+			floats.Scale(1/s, cols[j])
 		}
 	}
-	tau := make([]float64, a.Cols)
-	work := make([]float64, 1)
-	lapack64.Geqrf(a, tau, work, -1)
-	work = make([]float64, int(work[0]))
-	lapack64.Geqrf(a, tau, work, len(work))
-
-	at := func(i, j int) float64 { return a.Data[i*a.Stride+j] }
-	rho := at(m, m)
+	diag := make([]float64, m)
+	for k := 0; k < m; k++ {
+		x := cols[k][k:]
+		alpha := math.Sqrt(floats.Dot(x, x))
+		if alpha == 0 {
+			continue // diag[k] = 0: collinear
+		}
+		beta := -math.Copysign(alpha, x[0])
+		x[0] -= beta // x is now the Householder vector v
+		// H = I − τ v vᵀ with v = x − βe₁ and τ = 2/vᵀv; with x₀ the
+		// original first entry, vᵀv = 2α² − 2βx₀ = −2β(x₀ − β) = −2β v₀,
+		// so τ = −1/(β v₀).
+		tau := -1 / (beta * x[0])
+		for j := k + 1; j <= m; j++ {
+			c := cols[j][k:]
+			s := tau * floats.Dot(x, c)
+			floats.AddScaled(c, -s, x)
+		}
+		diag[k] = beta
+	}
+	r := func(i int) float64 { return cols[m][i] } // r_i = (Qᵀy)_i
+	tail := 0.0
+	for _, v := range cols[m][m:] {
+		tail += v * v // ρ² = SSR_m
+	}
 	out := nestedLS{n: n, ssr: make([]float64, m), t: make([]float64, m), ok: make([]bool, m)}
-	tail := rho * rho // SSR_m = ρ²
 	for j := m; j >= 1; j-- {
 		out.ssr[j-1] = tail
-		r := at(j-1, m)
-		tail += r * r // SSR_{j−1} = SSR_j + r_{j−1}²
+		tail += r(j-1) * r(j-1) // SSR_{j−1} = SSR_j + r_{j−1}²
 	}
 	good := true
 	for j := 1; j <= m; j++ {
-		d := at(j-1, j-1)
+		d := diag[j-1]
 		good = good && math.Abs(d) > collinearTol
 		out.ok[j-1] = good
 		if !good || n <= j {
@@ -71,7 +78,7 @@ func nested(a blas64.General) nestedLS {
 			continue
 		}
 		s := math.Sqrt(out.ssr[j-1] / float64(n-j))
-		out.t[j-1] = math.Copysign(1, d) * at(j-1, m) / s
+		out.t[j-1] = math.Copysign(1, d) * r(j-1) / s
 	}
 	return out
 }

@@ -19,11 +19,11 @@ type urcaFixture struct {
 		Stat, Lag, Cval    []float64
 	} `json:"kpss"`
 	ERS []struct {
-		Series, Model                string
+		Series, Model                 string
 		LagMax, Stat, Lag, Cval, NObs []float64
 	} `json:"ers"`
 	ZA []struct {
-		Series, Model                  string
+		Series, Model                   string
 		Lag, Stat, BPoint, TStats, Cval []float64
 	} `json:"za"`
 }
