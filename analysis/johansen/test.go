@@ -78,56 +78,66 @@ func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
 		return nil, fmt.Errorf("johansen: too few observations: %d rows with %d lagged differences leave %d for estimation; case %s with %d series needs more than %d",
 			rows, lags, max(t, 0), c, k, need)
 	}
-	z0, z1, zs := design(y, c, lags)
+	d, z0, z1, zs := design(y, c, lags)
 	res := &Result{Case: c, Lags: lags, K: k, T: t, z0: z0, z1: z1, zs: zs}
-	if err := res.reduce(); err != nil {
+	if err := res.reduce(d); err != nil {
 		return nil, err
 	}
 	return res, nil
 }
 
-// design builds Δy_t, ỹ_{t−1} and the short-run regressors
-// [1, t (as the case has them), Δy_{t−1}, ..., Δy_{t−lags}].
-func design(y *mat.Dense, c Case, lags int) (z0, z1, zs *mat.Dense) {
+// design builds the matrix [short-run regressors | ỹ_{t−1} | Δy_t] with
+// short-run regressors [1, t (as the case has them), Δy_{t−1}, ...,
+// Δy_{t−lags}], and returns it with views of its three blocks.
+func design(y *mat.Dense, c Case, lags int) (d, z0, z1, zs *mat.Dense) {
 	rows, k := y.Dims()
 	t := rows - lags - 1
 	m := c.restricted()
-	d := c.unrestricted()
-	z0 = mat.NewDense(t, k, nil)
-	z1 = mat.NewDense(t, k+m, nil)
-	ns := d + k*lags
-	if ns > 0 {
-		zs = mat.NewDense(t, ns, nil)
-	}
+	dn := c.unrestricted()
+	ns := dn + k*lags
+	p1 := k + m
+	n := ns + p1 + k
+	d = mat.NewDense(t, n, nil)
+	raw := d.RawMatrix()
+	yr := y.RawMatrix()
+	yrow := func(i int) []float64 { return yr.Data[i*yr.Stride : i*yr.Stride+k] }
 	for i := 0; i < t; i++ {
 		s := i + lags + 1 // row of y for Δy_t
-		for j := 0; j < k; j++ {
-			z0.Set(i, j, y.At(s, j)-y.At(s-1, j))
-			z1.Set(i, j, y.At(s-1, j))
-		}
-		switch c {
-		case RC:
-			z1.Set(i, k, 1)
-		case RT:
-			z1.Set(i, k, float64(s))
-		}
+		row := raw.Data[i*raw.Stride : i*raw.Stride+n]
 		col := 0
-		if d >= 1 {
-			zs.Set(i, 0, 1)
+		if dn >= 1 {
+			row[0] = 1
 			col++
 		}
-		if d == 2 {
-			zs.Set(i, 1, float64(s))
+		if dn == 2 {
+			row[1] = float64(s)
 			col++
 		}
 		for l := 1; l <= lags; l++ {
+			cur, prev := yrow(s-l), yrow(s-l-1)
 			for j := 0; j < k; j++ {
-				zs.Set(i, col, y.At(s-l, j)-y.At(s-l-1, j))
-				col++
+				row[col+j] = cur[j] - prev[j]
 			}
+			col += k
+		}
+		cur, prev := yrow(s), yrow(s-1)
+		copy(row[ns:ns+k], prev)
+		switch c {
+		case RC:
+			row[ns+k] = 1
+		case RT:
+			row[ns+k] = float64(s)
+		}
+		for j := 0; j < k; j++ {
+			row[ns+p1+j] = cur[j] - prev[j]
 		}
 	}
-	return z0, z1, zs
+	z0 = d.Slice(0, t, ns+p1, n).(*mat.Dense)
+	z1 = d.Slice(0, t, ns, ns+p1).(*mat.Dense)
+	if ns > 0 {
+		zs = d.Slice(0, t, 0, ns).(*mat.Dense)
+	}
+	return d, z0, z1, zs
 }
 
 // checkSeries names non-finite values, constant series and identical series.
@@ -165,7 +175,7 @@ func checkSeries(y *mat.Dense) error {
 const singularTol = 1e-10
 
 // reduce factorises the design and solves the eigenproblem.
-func (r *Result) reduce() error {
+func (r *Result) reduce(d *mat.Dense) error {
 	t, k := r.z0.Dims()
 	_, p1 := r.z1.Dims()
 	ns := 0
@@ -173,18 +183,13 @@ func (r *Result) reduce() error {
 		_, ns = r.zs.Dims()
 	}
 	n := ns + p1 + k
-	d := mat.NewDense(t, n, nil)
-	if ns > 0 {
-		d.Slice(0, t, 0, ns).(*mat.Dense).Copy(r.zs)
-	}
-	d.Slice(0, t, ns, ns+p1).(*mat.Dense).Copy(r.z1)
-	d.Slice(0, t, ns+p1, n).(*mat.Dense).Copy(r.z0)
+	norms := colNorms(d)
 	var qr mat.QR
 	qr.Factorize(d)
 	var rr mat.Dense
 	qr.RTo(&rr)
 	for j := 0; j < n; j++ {
-		norm := mat.Norm(d.ColView(j), 2)
+		norm := norms[j]
 		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
 			return r.singular(j, ns, p1)
 		}
@@ -276,6 +281,22 @@ func (r *Result) reduce() error {
 	r.Vectors = &v
 	r.Trace, r.MaxEig = statistics(r.Eigenvalues, ft)
 	return nil
+}
+
+// colNorms returns the Euclidean norm of each column, in one pass over rows.
+func colNorms(d *mat.Dense) []float64 {
+	raw := d.RawMatrix()
+	out := make([]float64, raw.Cols)
+	for i := 0; i < raw.Rows; i++ {
+		row := raw.Data[i*raw.Stride : i*raw.Stride+raw.Cols]
+		for j, v := range row {
+			out[j] += v * v
+		}
+	}
+	for j := range out {
+		out[j] = math.Sqrt(out[j])
+	}
+	return out
 }
 
 // statistics returns the trace and maximum-eigenvalue statistics.
