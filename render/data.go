@@ -150,6 +150,9 @@ func confine(root, rel string, allow bool) (string, error) {
 	if err != nil {
 		return "", err
 	}
+	if r, err := filepath.Rel(absRoot, absP); err != nil || r == ".." || strings.HasPrefix(r, ".."+string(filepath.Separator)) {
+		return "", fmt.Errorf("path %q leads outside the manuscript's folder; refused (pass --allow-outside to permit it)", rel)
+	}
 	realP, err := filepath.EvalSymlinks(absP)
 	if err != nil {
 		if os.IsNotExist(err) {
@@ -159,7 +162,7 @@ func confine(root, rel string, allow bool) (string, error) {
 	}
 	r, err := filepath.Rel(realRoot, realP)
 	if err != nil || r == ".." || strings.HasPrefix(r, ".."+string(filepath.Separator)) {
-		return "", fmt.Errorf("path %q leads outside the manuscript's folder; refused (pass --allow-outside to permit it)", rel)
+		return "", fmt.Errorf("path %q is a link that leads outside the manuscript's folder; refused (pass --allow-outside to permit it)", rel)
 	}
 	return realP, nil
 }
