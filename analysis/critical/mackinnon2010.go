@@ -25,10 +25,10 @@ type surface [4]float64
 //
 // The coefficients were transcribed from a public transcription of the
 // paper's table (the paper itself was not at hand) and are verified
-// against statsmodels 0.13.5 mackinnoncrit in critical_test.go; note that
-// the c, N = 7, 10% row has the same β2, β3 as the N = 6 row, which looks
-// like a slip in the transcription chain and is reproduced as
-// statsmodels has it (see the report in the test).
+// against statsmodels 0.13.5 mackinnoncrit in critical_test.go. Doubtful:
+// the c, N = 7, 10% row has the same β2, β3 (−5.104, 27.877) as the
+// N = 6 row; statsmodels has the same numbers, but this could not be
+// checked against the printed paper.
 var tau2010 = [4][][3]surface{
 	NoConst: {
 		{{-2.56574, -2.2358, -3.627, 0}, {-1.94100, -0.2686, -3.365, 31.223}, {-1.61682, 0.2656, -2.714, 25.364}},

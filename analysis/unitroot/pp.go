@@ -29,7 +29,7 @@ type PPResult struct {
 // PP computes the Phillips and Perron (1988) statistics from the
 // Dickey–Fuller regression without lags, Δy_t = det_t + γ y_{t−1} + u_t
 // (T observations, s² = SSR/(T−K), σ̂ = se(γ̂), t = γ̂/σ̂), in the form of
-// Hamilton (1994, eqs. 17.6.8 and 17.6.12):
+// Hamilton (1994, Time Series Analysis, section 17.6):
 //
 //	Z(α) = T γ̂ − ½ (T² σ̂²/s²) (λ² − γ0),
 //	Z(t) = (γ0/λ²)^{1/2} t − ½ (λ² − γ0) λ⁻¹ (T σ̂/s),
