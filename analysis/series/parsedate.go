@@ -16,7 +16,7 @@ const dateForms = "1990, 1990Q1, 1990-Q1, 1990-01, 1990M01 or 1990-01-31"
 //	monthly    1990-01, 1990M01, 1990m1
 //	daily      1990-01-31 (ISO 8601 calendar date)
 //
-// Years have four digits. Surrounding spaces are ignored.
+// Years have four digits, 1000–9999. Surrounding spaces are ignored.
 func ParseDate(s string) (Date, error) {
 	d, ok := parseDate(s)
 	if !ok {
@@ -54,7 +54,7 @@ func parseDate(s string) (Date, bool) {
 		return Date{}, false
 	}
 	year, ok := digits(s[:4])
-	if !ok || year < 1 {
+	if !ok || year < 1000 { // four digits, as Date.String writes them
 		return Date{}, false
 	}
 	rest := s[4:]
