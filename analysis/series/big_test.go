@@ -84,4 +84,3 @@ func BenchmarkEval(b *testing.B) {
 		}
 	}
 }
-
