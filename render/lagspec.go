@@ -81,6 +81,13 @@ func describeLags(r unitroot.LagRule, maxUsed int) string {
 		return fmt.Sprintf("fixed at %d", r.Lags)
 	}
 	name := map[unitroot.Selector]string{unitroot.AIC: "AIC", unitroot.BIC: "BIC", unitroot.TStat: "general-to-specific t-test (10%)"}[r.Select]
+	if maxUsed < 0 {
+		if r.Max >= 0 {
+			maxUsed = r.Max
+		} else {
+			return fmt.Sprintf("chosen by %s from 0 to ⌊12(T/100)^¼⌋ on a common sample, then re-estimated on the full sample", name)
+		}
+	}
 	return fmt.Sprintf("chosen by %s from 0–%d on a common sample, then re-estimated on the full sample", name, maxUsed)
 }
 
