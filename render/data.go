@@ -205,11 +205,11 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 	for i, s := range exprs {
 		e, err := series.ParseExpr(s)
 		if err != nil {
-			return nil, c.Errorf(c.exprKey(s), "series %q: %v", s, err)
+			return nil, c.Errorf(c.exprKey(s), "%v", err)
 		}
 		v, err := series.Eval(e, f)
 		if err != nil {
-			return nil, c.Errorf(c.exprKey(s), "series %q: %v", s, err)
+			return nil, c.Errorf(c.exprKey(s), "%v", err)
 		}
 		v.Name = s
 		ss[i] = v
@@ -221,11 +221,11 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 		}
 		for i := range ss {
 			if ss[i], err = w.Apply(ss[i]); err != nil {
-				return nil, c.Errorf("sample", "sample %q: %v", sample, err)
+				return nil, c.Errorf("sample", "%v", err)
 			}
 		}
 	}
-	al, err := series.Align(ss)
+	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f})
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}
@@ -247,7 +247,7 @@ func (c *Context) CheckData(alias string, exprs []string, sample string) error {
 	for _, s := range exprs {
 		e, err := series.ParseExpr(s)
 		if err != nil {
-			return c.Errorf(c.exprKey(s), "series %q: %v", s, err)
+			return c.Errorf(c.exprKey(s), "%v", err)
 		}
 		for _, col := range e.Columns() {
 			if !f.Has(col) {
