@@ -6,6 +6,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/series"
 )
 
 // ols: a least-squares regression with a choice of standard errors.
@@ -103,8 +104,20 @@ func (s *olsSpec) Run(c *Context) (*Result, error) {
 		"sigma":  sqrt(fit.Sigma2()),
 		"loglik": fit.LogLik(),
 		"sample": sampleValues(d),
+		"resid":  datedValues(d.Dates, fit.Resid),
 	}
 	return &Result{Table: t, Values: vals}, nil
+}
+
+// datedValues is the results-file form of a dated series:
+// {"dates": [...], "values": [...]}, the shape figure directives read
+// back (see residualSeries in figure_data.go).
+func datedValues(dates []series.Date, v []float64) map[string]any {
+	ds := make([]string, len(dates))
+	for i, d := range dates {
+		ds[i] = d.String()
+	}
+	return map[string]any{"dates": ds, "values": append([]float64(nil), v...)}
 }
 
 // sampleValues is the results-file form of a sample.

@@ -66,7 +66,7 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 			}
 			files[base+".html"] = b
 		case "latex", "tex":
-			b, err := doc.LaTeX(render.LaTeXOptions{Version: version.Version, FigureDir: "figures"})
+			b, err := doc.LaTeX(render.LaTeXOptions{Version: version.Version, FigureDir: render.FigureFolder})
 			if err != nil {
 				return nil, err
 			}
@@ -75,23 +75,23 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 				if r.Table != nil {
 					files[filepath.Join("tables", r.ID+".tex")] = render.LaTeXTable(r)
 				}
-				if r.Figure != nil {
-					files[filepath.Join("figures", r.ID+".pdf")] = r.Figure.PDF
-				}
 			}
 		case "markdown", "md":
-			b, err := doc.Markdown(render.MarkdownOptions{FigureDir: "figures"})
+			b, err := doc.Markdown(render.MarkdownOptions{FigureDir: render.FigureFolder})
 			if err != nil {
 				return nil, err
 			}
 			files[base+".md"] = b
-			for _, r := range doc.Results() {
-				if r.Figure != nil {
-					files[filepath.Join("figures", r.ID+".svg")] = r.Figure.SVG
-				}
-			}
 		default:
 			return nil, fmt.Errorf("unknown output format %q", f)
+		}
+	}
+	// Every build writes each figure as SVG and PDF (the results file
+	// names both), whatever the formats asked for.
+	for _, r := range doc.Results() {
+		if r.Figure != nil {
+			files[filepath.Join(render.FigureFolder, r.ID+".svg")] = r.Figure.SVG
+			files[filepath.Join(render.FigureFolder, r.ID+".pdf")] = r.Figure.PDF
 		}
 	}
 	if pngDPI > 0 {
@@ -101,7 +101,7 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 				if err != nil {
 					return nil, err
 				}
-				files[filepath.Join("figures", r.ID+".png")] = png
+				files[filepath.Join(render.FigureFolder, r.ID+".png")] = png
 			}
 		}
 	}
