@@ -110,6 +110,7 @@ func (c *Context) Result(key, id string, kinds ...string) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	c.b.deps.up(id)
 	res, err := c.doc.run(b)
 	if err != nil {
 		return nil, &PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Msg: fmt.Sprintf("%q could not be computed (see the error on line %d)", id, b.line), Err: errUpstream}

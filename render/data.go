@@ -202,10 +202,14 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 		return nil, c.Wrap("data", err)
 	}
 	ss := make([]*series.Series, len(exprs))
+	c.b.deps.col(alias, "")
 	for i, s := range exprs {
 		e, err := series.ParseExpr(s)
 		if err != nil {
 			return nil, c.Errorf(c.exprKey(s), "%v", err)
+		}
+		for _, col := range e.Columns() {
+			c.b.deps.col(alias, col)
 		}
 		v, err := series.Eval(e, f)
 		if err != nil {

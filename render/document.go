@@ -23,6 +23,11 @@ type Options struct {
 	Vintage string
 	// Progress, if set, receives one line per directive as it runs.
 	Progress func(msg string)
+	// Cache, if set, stores results between builds and reuses those whose
+	// inputs are unchanged.
+	Cache *Cache
+	// PNG is the resolution of PNG figures wanted (0: none).
+	PNG int
 }
 
 // Document is a parsed manuscript: front matter, Markdown body, and its
@@ -58,6 +63,11 @@ type block struct {
 	result   *Result
 	err      error
 	running  bool
+
+	specKey string // what the block asks for (cache lookup)
+	fullKey string // specKey and the hashes of everything it read
+	deps    deps   // what it read while running
+	reused  bool   // its result came from the cache
 }
 
 // Parse reads and parses a manuscript, decodes every directive strictly,
@@ -297,9 +307,19 @@ func (d *Document) run(b *block) (*Result, error) {
 	}
 	b.running = true
 	defer func() { b.running = false }()
+	version := ""
+	if d.opts.Cache != nil {
+		version = d.opts.Cache.Version
+	}
+	b.specKey = d.specKey(b, version)
+	if res, key, ok := d.cacheLookup(b); ok {
+		b.result, b.fullKey, b.reused = res, key, true
+		return res, nil
+	}
 	if d.opts.Progress != nil {
 		d.opts.Progress(fmt.Sprintf("%s %s (line %d)", b.kind.Name, b.id, b.line))
 	}
+	b.deps = deps{}
 	c := &Context{doc: d, b: b}
 	res, err := safeRun(b.dir, c)
 	if err != nil {
@@ -325,7 +345,29 @@ func (d *Document) run(b *block) (*Result, error) {
 		}
 	}
 	b.result = res
+	cols, ups, full := d.recordDeps(b)
+	b.fullKey = full
+	d.cacheStore(b, cols, ups)
 	return res, nil
+}
+
+// Reused lists the ids of the results taken from the cache; Ran those
+// computed in this build.
+func (d *Document) Reused() []string { return d.idsWhere(func(b *block) bool { return b.reused }) }
+
+// Ran lists the ids of the results computed in this build.
+func (d *Document) Ran() []string {
+	return d.idsWhere(func(b *block) bool { return b.result != nil && !b.reused })
+}
+
+func (d *Document) idsWhere(f func(*block) bool) []string {
+	var out []string
+	for _, b := range d.blocks {
+		if f(b) {
+			out = append(out, b.id)
+		}
+	}
+	return out
 }
 
 // safeRun turns a panic inside an analysis into an error, so that a bug

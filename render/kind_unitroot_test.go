@@ -12,8 +12,8 @@ import (
 	"github.com/galley-econ/galley/internal/refdata"
 )
 
-// buildValues parses and runs a manuscript and returns its values by id.
-func buildValues(t *testing.T, path string) map[string]map[string]any {
+// valuesOf parses and runs a manuscript and returns its values by id.
+func valuesOf(t *testing.T, path string) map[string]map[string]any {
 	t.Helper()
 	doc, err := Parse(path, Options{})
 	if err != nil {
@@ -47,7 +47,7 @@ func TestUnitRootWiring(t *testing.T) {
 		fence("kpss", "id: k\nseries: infl\ndet: c\nbandwidth: 3\n")+
 		fence("dfgls", "id: g\nseries: log(realgdp)\ndet: ct\nlags: 2\n")+
 		fence("za", "id: z\nseries: log(realgdp)\nbreak: both\nlags: 1\n"))
-	v := buildValues(t, p)
+	v := valuesOf(t, p)
 	_, d, _ := refdata.CSV("macrodata")
 	lg := make([]float64, len(d["realgdp"]))
 	for i, x := range d["realgdp"] {
@@ -167,7 +167,7 @@ func TestOrderVerdict(t *testing.T) {
 // TestDemoIsI1: the demo's generated series are I(1) by construction, and
 // the order-of-integration table says so.
 func TestDemoIsI1(t *testing.T) {
-	v := buildValues(t, filepath.Join("..", "examples", "gridlink", "paper.md"))
+	v := valuesOf(t, filepath.Join("..", "examples", "gridlink", "paper.md"))
 	oi, ok := v["oi"]
 	if !ok {
 		t.Fatal("the demo has no unitroot-table with id oi")

@@ -9,6 +9,7 @@ import (
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
 	"github.com/galley-econ/galley/render"
+	"github.com/galley-econ/galley/revision"
 )
 
 type buildCmd struct {
@@ -18,15 +19,25 @@ type buildCmd struct {
 	AllowOutside bool     `help:"Allow data paths that leave the manuscript's folder."`
 	Vintage      string   `help:"Use this vintage of every data alias that names vintages."`
 	PNG          int      `help:"Also write each figure as PNG at this resolution (dots per inch)." placeholder:"DPI"`
+	Fresh        bool     `help:"Ignore the result cache and run every directive."`
+	NoCache      bool     `help:"Neither read nor write the result cache."`
+	Against      string   `help:"Compare the new results with an earlier results file; exit 3 if a conclusion flipped." type:"existingfile" placeholder:"OLD.results.json"`
 }
 
 func (b *buildCmd) Run() error {
-	doc, err := render.Parse(b.Manuscript, render.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage})
+	opts := render.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage, PNG: b.PNG}
+	if !b.NoCache {
+		opts.Cache = cacheFor(b.Manuscript, b.Fresh)
+	}
+	doc, err := render.Parse(b.Manuscript, opts)
 	if err != nil {
 		return err
 	}
 	if err := doc.Run(); err != nil {
 		return err
+	}
+	if n := len(doc.Reused()); n > 0 {
+		fmt.Fprintf(os.Stderr, "galley: %d of %d results reused from the cache\n", n, doc.Directives())
 	}
 	out := b.Out
 	if out == "" {
@@ -43,7 +54,26 @@ func (b *buildCmd) Run() error {
 			return err
 		}
 	}
-	return set.Commit()
+	if err := set.Commit(); err != nil {
+		return err
+	}
+	if b.Against != "" {
+		old, err := revision.Load(b.Against)
+		if err != nil {
+			return err
+		}
+		base := strings.TrimSuffix(filepath.Base(b.Manuscript), filepath.Ext(b.Manuscript))
+		now, err := revision.Load(filepath.Join(out, base+".results.json"))
+		if err != nil {
+			return err
+		}
+		rep := revision.Compare(old, now, revision.Options{})
+		fmt.Fprint(os.Stderr, rep.Summary())
+		if rep.HasFlips() {
+			return &exitError{code: 3}
+		}
+	}
+	return nil
 }
 
 // outputs renders every requested format in memory, keyed by path

@@ -1,0 +1,113 @@
+package main
+
+import (
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+func demoCopy(t *testing.T) string {
+	t.Helper()
+	dir := t.TempDir()
+	for _, f := range []string{"paper.md", "data/gridlink.csv"} {
+		b, err := os.ReadFile(filepath.Join("..", "..", "examples", "gridlink", f))
+		if err != nil {
+			t.Fatal(err)
+		}
+		p := filepath.Join(dir, f)
+		os.MkdirAll(filepath.Dir(p), 0o755)
+		if err := os.WriteFile(p, b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return dir
+}
+
+// TestBuildDemo builds the demo paper in all three formats and checks the
+// outputs exist and the results file carries full-precision values.
+func TestBuildDemo(t *testing.T) {
+	dir := demoCopy(t)
+	out := filepath.Join(dir, "out")
+	if code := run([]string{"build", filepath.Join(dir, "paper.md"), "--to", "html", "--to", "latex", "--to", "markdown", "--out", out}); code != 0 {
+		t.Fatalf("exit code %d", code)
+	}
+	for _, f := range []string{"paper.html", "paper.tex", "paper.md", "paper.results.json", "tables/static.tex"} {
+		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
+			t.Errorf("missing output %s", f)
+		}
+	}
+	var rf struct {
+		Inputs  []struct{ Path, SHA256 string }
+		Results []struct {
+			ID     string
+			Values map[string]any
+		}
+	}
+	b, _ := os.ReadFile(filepath.Join(out, "paper.results.json"))
+	if err := json.Unmarshal(b, &rf); err != nil {
+		t.Fatal(err)
+	}
+	if len(rf.Inputs) != 1 || rf.Inputs[0].Path != "data/gridlink.csv" || len(rf.Inputs[0].SHA256) != 64 {
+		t.Errorf("inputs = %+v", rf.Inputs)
+	}
+	for _, r := range rf.Results {
+		if r.ID == "static" {
+			r2, _ := r.Values["r2"].(float64)
+			if s := strings.TrimRight(strings.Split(jsonNum(r2), ".")[1], "0"); len(s) < 10 {
+				t.Errorf("r2 %v is not full precision", r2)
+			}
+		}
+	}
+	html, _ := os.ReadFile(filepath.Join(out, "paper.html"))
+	if strings.Contains(string(html), "http://") || strings.Contains(string(html), "https://") {
+		t.Error("the HTML refers to the network")
+	}
+}
+
+func jsonNum(f float64) string { b, _ := json.Marshal(f); return string(b) + ".0" }
+
+// TestFailedBuildKeepsOutput: a failing build exits 1 and leaves the
+// previous good output untouched; usage errors exit 2.
+func TestFailedBuildKeepsOutput(t *testing.T) {
+	dir := demoCopy(t)
+	out := filepath.Join(dir, "out")
+	paper := filepath.Join(dir, "paper.md")
+	if code := run([]string{"build", paper, "--out", out}); code != 0 {
+		t.Fatalf("first build: exit %d", code)
+	}
+	good, _ := os.ReadFile(filepath.Join(out, "paper.html"))
+	src, _ := os.ReadFile(paper)
+	bad := strings.Replace(string(src), "y: log(north)", "y: log(nort)", 1)
+	os.WriteFile(paper, []byte(bad), 0o644)
+	if code := run([]string{"build", paper, "--out", out}); code != 1 {
+		t.Fatalf("bad build: exit %d, want 1", code)
+	}
+	now, _ := os.ReadFile(filepath.Join(out, "paper.html"))
+	if string(now) != string(good) {
+		t.Fatal("a failed build changed the previous output")
+	}
+	entries, _ := os.ReadDir(out)
+	for _, e := range entries {
+		if strings.Contains(e.Name(), ".tmp-") {
+			t.Errorf("temporary file left behind: %s", e.Name())
+		}
+	}
+	if code := run([]string{"build"}); code != 2 {
+		t.Errorf("missing argument: exit %d, want 2", code)
+	}
+	if code := run([]string{"build", paper, "--to", "pdf"}); code != 2 {
+		t.Errorf("bad format: exit %d, want 2", code)
+	}
+}
+
+func TestCheckAndInspect(t *testing.T) {
+	dir := demoCopy(t)
+	if code := run([]string{"check", filepath.Join(dir, "paper.md")}); code != 0 {
+		t.Fatalf("check: exit %d", code)
+	}
+	if code := run([]string{"inspect", filepath.Join(dir, "data", "gridlink.csv")}); code != 0 {
+		t.Fatalf("inspect: exit %d", code)
+	}
+}
