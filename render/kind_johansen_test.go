@@ -1,0 +1,498 @@
+package render
+
+import (
+	"encoding/json"
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"os"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/series"
+)
+
+// sysRead returns a repository file's text.
+func sysRead(t *testing.T, path string) string {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(b)
+}
+
+// sysBuild builds a manuscript and returns each result's values as the
+// results file holds them (after a JSON round trip).
+func sysBuild(t *testing.T, doc string, files map[string]string) map[string]map[string]any {
+	t.Helper()
+	d, err := Parse(writeProject(t, doc, files), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := d.Run(); err != nil {
+		t.Fatal(err)
+	}
+	raw, err := d.ResultsJSON("test")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rf ResultsFile
+	if err := json.Unmarshal(raw, &rf); err != nil {
+		t.Fatal(err)
+	}
+	out := map[string]map[string]any{}
+	for _, r := range rf.Results {
+		out[r.ID] = r.Values
+	}
+	return out
+}
+
+// at walks a results-file value: map keys or list indices.
+func sysAt(t *testing.T, v any, path ...any) float64 {
+	t.Helper()
+	for _, p := range path {
+		switch k := p.(type) {
+		case string:
+			m, ok := v.(map[string]any)
+			if !ok {
+				t.Fatalf("%v: not a map at %q", path, k)
+			}
+			v = m[k]
+		case int:
+			l, ok := v.([]any)
+			if !ok || k >= len(l) {
+				t.Fatalf("%v: not a list long enough at %d", path, k)
+			}
+			v = l[k]
+		}
+	}
+	f, ok := v.(float64)
+	if !ok {
+		t.Fatalf("%v: %v is not a number", path, v)
+	}
+	return f
+}
+
+func sysNear(got, want, tol float64) bool {
+	return math.Abs(got-want) <= tol*math.Max(1, math.Abs(want))
+}
+
+// sysDenmark reads LRM, LRY, IBO, IDE from testdata/data/denmark.csv.
+func sysDenmark(t *testing.T) *mat.Dense {
+	t.Helper()
+	f, err := series.ReadCSV(strings.NewReader(sysRead(t, "../testdata/data/denmark.csv")), "denmark.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	names := []string{"LRM", "LRY", "IBO", "IDE"}
+	var cols [][]float64
+	for _, n := range names {
+		e, _ := series.ParseExpr(n)
+		s, err := series.Eval(e, f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cols = append(cols, s.Values)
+	}
+	y := mat.NewDense(len(cols[0]), len(cols), nil)
+	for j, c := range cols {
+		for i, v := range c {
+			y.Set(i, j, v)
+		}
+	}
+	return y
+}
+
+const sysDKFront = "---\ntitle: T\ndata:\n  dk: data.csv\n---\n"
+
+// The Danish money-demand system, case rc (urca's ecdet = "const"), one
+// lagged difference (urca K = 2), with the restriction tests that
+// testdata/scripts/johansen_urca.R runs.
+const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\nnormalize: LRM\n" +
+	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogenous: [LRY, [LRY, IBO]]\n```\n\n" +
+	"```galley vecm\nid: dkv\nfrom: dk\nshow: short-run\n```\n"
+
+// TestJohansenDenmarkUrca checks the values a manuscript reports against
+// R's urca 1.3.3 (testdata/fixtures/johansen_urca.json, written by
+// testdata/scripts/johansen_urca.R): ca.jo eigenvalues and statistics,
+// cajorls β normalised on LRM, blrtest and alrtest. Tolerance 1e-6 relative.
+func TestJohansenDenmarkUrca(t *testing.T) {
+	var fx struct {
+		Cajo []struct {
+			Ecdet                 string
+			K                     int
+			Lambda, Trace, Maxeig []float64
+		}
+		Cajorls []struct {
+			Ecdet string
+			K     int
+			Beta  []float64
+		}
+		Tests []struct {
+			Kind, Name, Ecdet string
+			K                 int
+			Stat, P           float64
+			DF                int
+		}
+	}
+	if err := json.Unmarshal([]byte(sysRead(t, "../testdata/fixtures/johansen_urca.json")), &fx); err != nil {
+		t.Fatal(err)
+	}
+	vals := sysBuild(t, sysDKDoc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})["dk"]
+	checked := 0
+	for _, c := range fx.Cajo {
+		if c.Ecdet != "const" || c.K != 2 {
+			continue
+		}
+		for r := 0; r < 4; r++ {
+			for _, f := range []struct {
+				key  string
+				want float64
+			}{{"eig", c.Lambda[r]}, {"trace", c.Trace[r]}, {"maxeig", c.Maxeig[r]}} {
+				if got := sysAt(t, vals, f.key, r); !sysNear(got, f.want, 1e-6) {
+					t.Errorf("%s[%d] = %.10g, urca %.10g", f.key, r, got, f.want)
+				}
+				checked++
+			}
+		}
+	}
+	coefs := []string{"LRM", "LRY", "IBO", "IDE", "const"}
+	for _, c := range fx.Cajorls {
+		if c.Ecdet != "const" || c.K != 2 {
+			continue
+		}
+		for i, n := range coefs {
+			if got := sysAt(t, vals, "beta", 0, n); !sysNear(got, c.Beta[i], 1e-6) {
+				t.Errorf("beta[%s] = %.10g, urca %.10g", n, got, c.Beta[i])
+			}
+			checked++
+		}
+	}
+	names := map[string]string{"LRM = -LRY": "homog", "LRM = -LRY, IBO = -IDE": "homog2", "LRY weakly exogenous": "exog(LRY)", "LRY and IBO weakly exogenous": "exog(LRY,IBO)"}
+	tests := vals["tests"].([]any)
+	for _, ft := range fx.Tests {
+		if ft.Ecdet != "const" || ft.K != 2 {
+			continue
+		}
+		found := false
+		for i, e := range tests {
+			if e.(map[string]any)["name"] != names[ft.Name] {
+				continue
+			}
+			found = true
+			if got := sysAt(t, tests, i, "stat"); !sysNear(got, ft.Stat, 1e-6) {
+				t.Errorf("%s: LR = %.10g, urca %.10g", ft.Name, got, ft.Stat)
+			}
+			if got := sysAt(t, tests, i, "p"); !sysNear(got, ft.P, 1e-6) {
+				t.Errorf("%s: p = %.10g, urca %.10g", ft.Name, got, ft.P)
+			}
+			if got := sysAt(t, tests, i, "df"); int(got) != ft.DF {
+				t.Errorf("%s: df = %v, urca %d", ft.Name, got, ft.DF)
+			}
+			checked += 3
+		}
+		if !found {
+			t.Errorf("no test for urca's %q", ft.Name)
+		}
+	}
+	if checked != 12+5+12 {
+		t.Fatalf("checked %d values; the fixture lacks the rc, one-lag runs", checked)
+	}
+}
+
+// TestJohansenDenmarkWiring: every value in the results file equals what
+// the analysis package returns for the same system (names, orders and
+// normalisation carried through unchanged).
+func TestJohansenDenmarkWiring(t *testing.T) {
+	all := sysBuild(t, sysDKDoc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
+	vals, sv := all["dk"], all["dkv"]
+	res, err := johansen.Test(sysDenmark(t), johansen.RC, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	const tol = 1e-12
+	check := func(what string, got, want float64) {
+		t.Helper()
+		if !sysNear(got, want, tol) {
+			t.Errorf("%s = %.15g, analysis %.15g", what, got, want)
+		}
+	}
+	ct, _ := res.Critical(johansen.TraceStat)
+	cm, _ := res.Critical(johansen.MaxEigStat)
+	for r := 0; r < 4; r++ {
+		check(fmt.Sprint("eig ", r), sysAt(t, vals, "eig", r), res.Eigenvalues[r])
+		check(fmt.Sprint("trace ", r), sysAt(t, vals, "trace", r), res.Trace[r])
+		check(fmt.Sprint("maxeig ", r), sysAt(t, vals, "maxeig", r), res.MaxEig[r])
+		for i, l := range []string{"10%", "5%", "1%"} {
+			check("crit_trace "+l, sysAt(t, vals, "crit_trace", r, l), ct[r][i])
+			check("crit_maxeig "+l, sysAt(t, vals, "crit_maxeig", r, l), cm[r][i])
+		}
+	}
+	chosen, _ := res.Rank(0.05, false)
+	check("rank_chosen", sysAt(t, vals, "rank_chosen"), float64(chosen))
+	check("rank", sysAt(t, vals, "rank"), 1)
+	check("nobs", sysAt(t, vals, "nobs"), float64(res.T))
+	check("lags", sysAt(t, vals, "lags"), 1)
+	v, err := res.Estimate(1, []int{0})
+	if err != nil {
+		t.Fatal(err)
+	}
+	names := []string{"LRM", "LRY", "IBO", "IDE"}
+	for i, n := range append(names, "const") {
+		check("beta "+n, sysAt(t, vals, "beta", 0, n), v.Beta.At(i, 0))
+		check("beta_se "+n, sysAt(t, vals, "beta_se", 0, n), v.BetaSE.At(i, 0))
+	}
+	for i, n := range names {
+		check("alpha "+n, sysAt(t, vals, "alpha", 0, n), v.Alpha.At(i, 0))
+		check("alpha_se "+n, sysAt(t, vals, "alpha_se", 0, n), v.AlphaSE.At(i, 0))
+	}
+	we, _ := res.WeakExogeneity(1, 1, 2)
+	check("exog(LRY,IBO)", sysAt(t, vals, "tests", 3, "stat"), we.Stat)
+	// vecm from: the same system; short-run terms Δy_{t−1} in series order.
+	for k, tm := range v.Terms {
+		for eq, n := range names {
+			got := sysAt(t, sv, "short", k, n, "est")
+			check(fmt.Sprintf("short %d %s", k, n), got, v.Short.At(eq, k))
+			check(fmt.Sprintf("short se %d %s", k, n), sysAt(t, sv, "short", k, n, "se"), v.ShortSE.At(eq, k))
+		}
+		if term := sv["short"].([]any)[k].(map[string]any)["term"]; term != fmt.Sprintf("lag%d:%s", tm.Lag, names[tm.Series]) {
+			t.Errorf("short-run term %d is %v", k, term)
+		}
+	}
+	if sv["det"] != "rc" || vals["det"] != "rc" {
+		t.Errorf("det = %v / %v", vals["det"], sv["det"])
+	}
+}
+
+// TestJohansenSmallSampleAndLagChoice: small_sample multiplies the
+// statistics by (T − K(k+1))/T; lags: {select: …} uses LagOrder's choice.
+func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
+	doc := sysDKFront + "\n```galley johansen\nid: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: {select: hq, max: 3}\nsmall_sample: true\n```\n\n" +
+		"```galley var-lags\nid: vl\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nmax: 3\n```\n"
+	all := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
+	y := sysDenmark(t)
+	lt, err := johansen.LagOrder(y, johansen.RC, 3)
+	if err != nil {
+		t.Fatal(err)
+	}
+	vals := all["dk"]
+	if got := sysAt(t, vals, "lags"); int(got) != lt.HQ {
+		t.Fatalf("lags = %v, LagOrder's HQ choice %d", got, lt.HQ)
+	}
+	res, _ := johansen.Test(y, johansen.RC, lt.HQ)
+	f := float64(res.T-4*(lt.HQ+1)) / float64(res.T)
+	for r := 0; r < 4; r++ {
+		if got := sysAt(t, vals, "trace", r); !sysNear(got, f*res.Trace[r], 1e-12) {
+			t.Errorf("trace[%d] = %g, want %g", r, got, f*res.Trace[r])
+		}
+	}
+	vl := all["vl"]
+	for _, c := range []struct {
+		key  string
+		want int
+	}{{"aic", lt.AIC}, {"bic", lt.BIC}, {"hq", lt.HQ}, {"nobs", lt.T}} {
+		if got := sysAt(t, vl, c.key); int(got) != c.want {
+			t.Errorf("var-lags %s = %v, want %d", c.key, got, c.want)
+		}
+	}
+	for i, r := range lt.Rows {
+		if got := sysAt(t, vl, "rows", i, "aic"); !sysNear(got, r.AIC, 1e-12) {
+			t.Errorf("var-lags row %d AIC = %g, want %g", i, got, r.AIC)
+		}
+	}
+}
+
+// TestJohansenDemoRank: on the gridlink demo data (generated with two
+// cointegrating relations among log north, log south and log fuel, see
+// examples/gridlink/gen/main.go) the sequential trace tests at 5% in the
+// demo's specification (case c, lags by BIC up to 12) choose rank 2.
+func TestJohansenDemoRank(t *testing.T) {
+	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogenous: [log(fuel)]\n```\n"
+	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../examples/gridlink/data/gridlink.csv")})["sys"]
+	if r := sysAt(t, vals, "rank_chosen"); r != 2 {
+		t.Fatalf("sequential rank = %v, want 2 (trace %v, 5%% critical values %v)", r, vals["trace"], vals["crit_trace"])
+	}
+	// Both relations' fuel coefficient is −0.80 in the generating process.
+	for j := 0; j < 2; j++ {
+		if b := sysAt(t, vals, "beta", j, "log(fuel)"); math.Abs(b+0.8) > 0.2 {
+			t.Errorf("relation %d: β on log(fuel) = %.3f, generating value −0.80", j+1, b)
+		}
+	}
+}
+
+// sysWalks is a CSV of k independent seeded random walks.
+func sysWalks(k, n int) string {
+	r := rand.New(rand.NewPCG(7, 11))
+	var b strings.Builder
+	b.WriteString("date")
+	for j := 0; j < k; j++ {
+		fmt.Fprintf(&b, ",s%d", j)
+	}
+	b.WriteString("\n")
+	lv := make([]float64, k)
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&b, "%d-%02d", 2000+i/12, i%12+1)
+		for j := range lv {
+			lv[j] += r.NormFloat64()
+			fmt.Fprintf(&b, ",%.6f", lv[j])
+		}
+		b.WriteString("\n")
+	}
+	return b.String()
+}
+
+// TestJohansenBadInput: each bad input gives an error at the line of the
+// key responsible.
+func TestJohansenBadInput(t *testing.T) {
+	dk := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
+	jo := func(body string) string { return sysDKFront + "\n" + fence("johansen", "id: j\n"+body) }
+	// Line numbers: the front matter is lines 1–5, the fence line 7, id 8.
+	twelve := make([]string, 12)
+	for i := range twelve {
+		twelve[i] = fmt.Sprintf("s%d", i)
+	}
+	walks := sysWalks(12, 150)
+	sing := "date,a,b,c,d\n"
+	for i := 0; i < 60; i++ {
+		x := math.Sin(float64(i)) + float64(i)/10
+		sing += fmt.Sprintf("2000-%02d-01,%g,%g,%g,%g\n", 0, x, 5.0, x*x/7+math.Cos(float64(i)), x)
+	}
+	sing = strings.ReplaceAll(sing, "2000-00-01,", "")
+	// Build a monthly index for the singular-data file.
+	var sb strings.Builder
+	for i, line := range strings.Split(strings.TrimSpace(sing), "\n") {
+		if i == 0 {
+			sb.WriteString(line + "\n")
+			continue
+		}
+		fmt.Fprintf(&sb, "%d-%02d,%s\n", 2000+(i-1)/12, (i-1)%12+1, line)
+	}
+	sing = sb.String()
+
+	cases := []struct {
+		name  string
+		doc   string
+		files map[string]string
+		want  []string
+	}{
+		{"more series than tabulated", sysDKFront + "\n" + fence("johansen", "id: j\nseries: ["+strings.Join(twelve, ", ")+"]\ndet: rc\nlags: 0\n"),
+			map[string]string{"data.csv": walks}, []string{"paper.md:9:", "12 series", "1..11"}},
+		{"rank beyond K−1", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 4\n"), dk,
+			[]string{"paper.md:12:", "rank 4", "1..3"}},
+		{"too few observations for the lags", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 12\n"), dk,
+			[]string{"paper.md:11:", "too few observations"}},
+		{"too few observations for the lag search", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: {select: aic, max: 14}\n"), dk,
+			[]string{"paper.md:11:", "too few observations"}},
+		{"constant series", jo("series: [a, b, c]\ndet: rc\nlags: 1\n"), map[string]string{"data.csv": sing},
+			[]string{"paper.md:9:", `series "b" is constant`, "singular"}},
+		{"duplicated series", jo("series: [a, c, d]\ndet: rc\nlags: 1\n"), map[string]string{"data.csv": sing},
+			[]string{"paper.md:9:", `series "a" and "d" are identical`, "singular"}},
+		{"series listed twice", jo("series: [LRM, LRY, LRM]\nlags: 1\n"), dk,
+			[]string{"paper.md:9:", `"LRM" is listed twice`}},
+		{"one series", jo("series: [LRM]\nlags: 1\n"), dk,
+			[]string{"paper.md:9:", "at least two series"}},
+		{"no lags", jo("series: [LRM, LRY]\n"), dk,
+			[]string{"paper.md:7:", `"lags" is required`}},
+		{"bad lags", jo("series: [LRM, LRY]\nlags: tstat\n"), dk,
+			[]string{"paper.md:10:", "aic, bic, hq"}},
+		{"bad case", jo("series: [LRM, LRY]\ndet: ctt\nlags: 1\n"), dk,
+			[]string{"paper.md:10:", `"ctt" is not a case`}},
+		{"bad level", jo("series: [LRM, LRY]\nlags: 1\nlevel: 0.2\n"), dk,
+			[]string{"paper.md:11:", "0.10, 0.05 or 0.01"}},
+		{"normalize not a series", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nnormalize: LRX\n"), dk,
+			[]string{"paper.md:12:", `"LRX" is not one of the series`, "did you mean LRM?"}},
+		{"restrict unknown coefficient", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM = -LRZ\"\n"), dk,
+			[]string{"paper.md:12:", `"LRZ" is not a coefficient`}},
+		{"restrict const outside rc", jo("series: [LRM, LRY, IBO]\ndet: c\nlags: 1\nrank: 1\nrestrict:\n  h: \"const = 0\"\n"), dk,
+			[]string{"paper.md:13:", "const row only in case rc"}},
+		{"restrict without equals", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM + LRY\"\n"), dk,
+			[]string{"paper.md:12:", "single '='"}},
+		{"restrict dependent equations", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: [\"LRM = -LRY\", \"2 LRM + 2*LRY = 0\"]\n"), dk,
+			[]string{"paper.md:12:", "not independent"}},
+		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogenous: [[LRM, LRY]]\n"), dk,
+			[]string{"paper.md:12:", "exogenous at rank 2"}},
+		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogenous: [LRY]\n"), dk,
+			[]string{"paper.md:7:", "choose rank", "set rank:"}},
+		{"vecm with neither", sysDKFront + "\n" + fence("vecm", "id: v\n"), dk,
+			[]string{"paper.md:7:", "give from:"}},
+		{"vecm from and keys", sysDKFront + "\n" + fence("johansen", "id: j\nseries: [LRM, LRY]\nlags: 1\n") + "\n" + fence("vecm", "id: v\nfrom: j\nlags: 2\n"), dk,
+			[]string{"paper.md:16:", "lags cannot be set here"}},
+		{"vecm from wrong kind", sysDKFront + "\n" + fence("var-lags", "id: j\nseries: [LRM, LRY]\n") + "\n" + fence("vecm", "id: v\nfrom: j\n"), dk,
+			[]string{"paper.md:14:", "var-lags result", "johansen"}},
+		{"vecm bad show", sysDKFront + "\n" + fence("vecm", "id: v\nseries: [LRM, LRY]\nlags: 1\nshow: gamma\n"), dk,
+			[]string{"paper.md:11:", "relations", "short-run"}},
+	}
+	// A case without a critical-value table errors at det; once the table
+	// exists, the same manuscript must build.
+	noTable := jo("series: [LRM, LRY, IBO, IDE]\ndet: n\nlags: 1\n")
+	if _, err := johansen.CriticalValues(johansen.N, johansen.TraceStat, 1); err != nil {
+		cases = append(cases, struct {
+			name  string
+			doc   string
+			files map[string]string
+			want  []string
+		}{"case without a table", noTable, dk, []string{"paper.md:10:", "case n"}})
+	} else {
+		sysBuild(t, noTable, dk)
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			p := writeProject(t, tc.doc, tc.files)
+			doc, err := Parse(p, Options{})
+			if err == nil {
+				err = doc.Check()
+			}
+			if err == nil {
+				err = doc.Run()
+			}
+			if err == nil {
+				t.Fatal("no error")
+			}
+			msg := err.Error()
+			pos := 0
+			for _, w := range tc.want {
+				i := strings.Index(msg[pos:], w)
+				if i < 0 {
+					t.Fatalf("error %q lacks %q (in order)", msg, w)
+				}
+				pos += i + len(w)
+			}
+		})
+	}
+}
+
+// TestParseRestriction: the equation syntax gives the rows of R'.
+func TestParseRestriction(t *testing.T) {
+	coefs := []string{"log(north)", "log(south)", "log(fuel)", "const"}
+	for _, c := range []struct {
+		eq   string
+		want []float64
+	}{
+		{"log(north) = -log(fuel)", []float64{1, 0, 1, 0}},
+		{"log(south) - log(north) = 0", []float64{-1, 1, 0, 0}},
+		{"-log(north) + 0.8*log(fuel) = const", []float64{-1, 0, 0.8, -1}},
+		{"2 log( fuel ) = 0", []float64{0, 0, 2, 0}},
+		{"1e-1*log(south) = log(south) - log(north)", []float64{1, 0.1 - 1, 0, 0}},
+	} {
+		got, err := parseRestriction(c.eq, coefs, johansen.RC)
+		if err != nil {
+			t.Errorf("%q: %v", c.eq, err)
+			continue
+		}
+		for i := range got {
+			if math.Abs(got[i]-c.want[i]) > 1e-15 {
+				t.Errorf("%q: row %v, want %v", c.eq, got, c.want)
+				break
+			}
+		}
+	}
+	for _, bad := range []string{"log(north) = 1", "log(north) = log(north)", "log(north) +", "log(north = 0", "a = b = c"} {
+		if _, err := parseRestriction(bad, coefs, johansen.RC); err == nil {
+			t.Errorf("%q: no error", bad)
+		}
+	}
+}
