@@ -540,8 +540,8 @@ func (s *figureSpec) runRegression(c *Context, p string, o *figures.Options, val
 		a, _ := stability.CUSUMConst(alpha)
 		vals["a"] = a
 		vals["cusum"] = map[string]any{"dates": texts, "values": slices.Clone(stat[from:]), "band": slices.Clone(band[from:])}
-		out := firstOutside(texts, stat[from:], func(i int, v float64) bool { return math.Abs(v) > band[from+i] })
-		vals["outside"], vals["first_outside"] = out != "", nilIfEmpty(out)
+		k, out := outside(texts, stat[from:], func(i int, v float64) bool { return math.Abs(v) > band[from+i] })
+		vals["outside"], vals["first_outside"] = k, out
 		dr = drawn{names: []string{"CUSUM"}, panel: []int{1}, series: []series.Series{line("CUSUM", stat)}}
 		if err := s.shade(c, dr.series, o); err != nil {
 			return nil, dr, err
@@ -562,8 +562,8 @@ func (s *figureSpec) runRegression(c *Context, p string, o *figures.Options, val
 		}
 		vals["c0"] = c0
 		vals["cusumsq"] = map[string]any{"dates": texts, "values": slices.Clone(stat[from:]), "lower": slices.Clone(lo[from:]), "upper": slices.Clone(hi[from:])}
-		out := firstOutside(texts, stat[from:], func(i int, v float64) bool { return v < lo[from+i] || v > hi[from+i] })
-		vals["outside"], vals["first_outside"] = out != "", nilIfEmpty(out)
+		k, out := outside(texts, stat[from:], func(i int, v float64) bool { return v < lo[from+i] || v > hi[from+i] })
+		vals["outside"], vals["first_outside"] = k, out
 		dr = drawn{names: []string{"CUSUM of squares"}, panel: []int{1}, series: []series.Series{line("CUSUM of squares", stat)}}
 		if err := s.shade(c, dr.series, o); err != nil {
 			return nil, dr, err
@@ -614,21 +614,20 @@ func (s *figureSpec) runRegression(c *Context, p string, o *figures.Options, val
 	return fig, dr, nil
 }
 
-// firstOutside is the first date at which out(i, v) holds ("" if never).
-func firstOutside(dates []string, v []float64, out func(int, float64) bool) string {
+// outside counts the points at which out(i, v) holds and gives the
+// first of their dates (nil if there is none).
+func outside(dates []string, v []float64, out func(int, float64) bool) (int, any) {
+	n := 0
+	var first any
 	for i, x := range v {
 		if out(i, x) {
-			return dates[i]
+			if n == 0 {
+				first = dates[i]
+			}
+			n++
 		}
 	}
-	return ""
-}
-
-func nilIfEmpty(s string) any {
-	if s == "" {
-		return nil
-	}
-	return s
+	return n, first
 }
 
 func nan() float64 { return math.NaN() }

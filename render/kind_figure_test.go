@@ -252,6 +252,15 @@ func TestFigureCUSUMBand(t *testing.T) {
 			t.Fatalf("band at t = %g: %g, want %g", tt, got, want)
 		}
 	}
+	vs, out := cu["values"].([]float64), 0
+	for i, v := range vs {
+		if math.Abs(v) > band[i] {
+			out++
+		}
+	}
+	if cs.Values["outside"] != out {
+		t.Errorf("outside = %v, want %d points beyond the band", cs.Values["outside"], out)
+	}
 	if got := drawnSeries(t, cs.Figure.SVG, T-k); got != 1 {
 		t.Errorf("CUSUM figure draws %d series, want 1", got)
 	}
