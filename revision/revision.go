@@ -280,10 +280,14 @@ func isSample(path, leaf string) bool {
 // conclusion reports a flipped conclusion between two values at path.
 func conclusion(path, leaf string, a, b any, o Options) (Change, bool) {
 	what := describe(path)
+	parent := ""
+	if i := strings.LastIndex(path, "."); i >= 0 {
+		parent = describe(path[:i]) + ": "
+	}
 	switch leaf {
 	case "reject_5":
 		if a != b {
-			return Change{What: strings.TrimSuffix(what, " reject_5") + ": rejects its null at 5%", Old: yesNo(a), New: yesNo(b)}, true
+			return Change{What: parent + "rejects its null at 5%", Old: yesNo(a), New: yesNo(b)}, true
 		}
 	case "order", "rank":
 		if !equal(a, b, 0) {
@@ -306,7 +310,7 @@ func conclusion(path, leaf string, a, b any, o Options) (Change, bool) {
 		if xok && yok {
 			sa, sb := stars(x, o.Stars), stars(y, o.Stars)
 			if sa != sb {
-				return Change{What: strings.TrimSuffix(what, " p") + ": stars", Old: starText(sa), New: starText(sb)}, true
+				return Change{What: parent + "stars", Old: starText(sa), New: starText(sb)}, true
 			}
 		}
 	}

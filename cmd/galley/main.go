@@ -21,6 +21,7 @@ type cli struct {
 	Build   buildCmd         `cmd:"" help:"Run every directive and write the paper and its results file."`
 	Check   checkCmd         `cmd:"" help:"Validate directives, data aliases, columns and inline values without running analyses."`
 	Inspect inspectCmd       `cmd:"" help:"Describe a data file: columns, frequency, date range, missing values."`
+	Compare compareCmd       `cmd:"" help:"Compare two builds' results: moved numbers, changed samples, flipped conclusions (exit 3 if any flipped)."`
 	Version kong.VersionFlag `help:"Print the version and exit."`
 }
 

@@ -111,3 +111,44 @@ func TestCheckAndInspect(t *testing.T) {
 		t.Fatalf("inspect: exit %d", code)
 	}
 }
+
+// TestCompareExitCodes: comparing a build with itself exits 0; after a
+// value is mistyped a million times too large, a conclusion flips and
+// compare (and build --against) exit 3 and write the report.
+func TestCompareExitCodes(t *testing.T) {
+	dir := demoCopy(t)
+	paper := filepath.Join(dir, "paper.md")
+	out1, out2 := filepath.Join(dir, "out1"), filepath.Join(dir, "out2")
+	if code := run([]string{"build", paper, "--out", out1}); code != 0 {
+		t.Fatalf("build: exit %d", code)
+	}
+	r1 := filepath.Join(out1, "paper.results.json")
+	if code := run([]string{"compare", r1, r1}); code != 0 {
+		t.Fatalf("compare with itself: exit %d", code)
+	}
+	csv := filepath.Join(dir, "data", "gridlink.csv")
+	raw, _ := os.ReadFile(csv)
+	lines := strings.Split(string(raw), "\n")
+	for i, l := range lines {
+		if strings.HasPrefix(l, "2015-06,") {
+			f := strings.Split(l, ",")
+			f[2] = "75563700"
+			lines[i] = strings.Join(f, ",")
+		}
+	}
+	os.WriteFile(csv, []byte(strings.Join(lines, "\n")), 0o644)
+	if code := run([]string{"build", paper, "--out", out2, "--against", r1}); code != 3 {
+		t.Fatalf("build --against: exit %d, want 3", code)
+	}
+	rep := filepath.Join(dir, "revision.md")
+	if code := run([]string{"compare", r1, filepath.Join(out2, "paper.results.json"), "--report", rep}); code != 3 {
+		t.Fatalf("compare: exit %d, want 3", code)
+	}
+	b, err := os.ReadFile(rep)
+	if err != nil || !strings.Contains(string(b), "Conclusions that changed") {
+		t.Fatalf("report: %v\n%s", err, b)
+	}
+	if code := run([]string{"compare", r1, filepath.Join(dir, "nope.json")}); code != 1 {
+		t.Errorf("missing file: exit %d, want 1", code)
+	}
+}
