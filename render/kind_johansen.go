@@ -725,7 +725,7 @@ func (s *sysState) lagPhrase(sel string) string {
 	if s.lags == nil {
 		return fmt.Sprintf("%d %s (fixed)", k, w)
 	}
-	return fmt.Sprintf("%d %s, the minimum of %s over 0–%d on a common sample of %d", k, w, strings.ToUpper(sel), s.lagMax, s.lags.T)
+	return fmt.Sprintf("%d %s, the minimum of %s over 0–%d on a common sample of %d observations", k, w, strings.ToUpper(sel), s.lagMax, s.lags.T)
 }
 
 // ---------------------------------------------------------------- johansen
