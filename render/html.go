@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"html"
 	"html/template"
+	"regexp"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
@@ -149,7 +150,7 @@ func writeHTMLResult(w util.BufWriter, r *Result) {
 	case r.Figure != nil:
 		fmt.Fprintf(w, `<figure class="result" id="%s">`+"\n", html.EscapeString(anchor(r)))
 		writeHTMLCaption(w, r.Label(), r.Figure.Caption)
-		w.Write(stripXMLProlog(r.Figure.SVG))
+		w.Write(inlineSVG(r.Figure.SVG))
 		writeHTMLNotes(w, r.Figure.Notes)
 		w.WriteString("</figure>\n")
 	case r.Text != "":
@@ -246,6 +247,33 @@ func htmlCell(c Cell) string {
 	trail += stars(c.Stars) + c.Suffix
 	return html.EscapeString(s) + `<span class="stars">` + html.EscapeString(trail) + `</span>`
 }
+
+// inlineSVG prepares a standalone SVG file for inlining in HTML: it drops
+// the XML declaration and any comments before the root element, and the
+// root's namespace declarations (xmlns, xmlns:xlink), which HTML's parser
+// supplies itself for an inline <svg> and which would otherwise put
+// http:// addresses into a page that uses no network.
+func inlineSVG(b []byte) []byte {
+	b = stripXMLProlog(b)
+	for bytes.HasPrefix(b, []byte("<!--")) {
+		i := bytes.Index(b, []byte("-->"))
+		if i < 0 {
+			break
+		}
+		b = bytes.TrimSpace(b[i+3:])
+	}
+	if !bytes.HasPrefix(b, []byte("<svg")) {
+		return b
+	}
+	end := bytes.IndexByte(b, '>')
+	if end < 0 {
+		return b
+	}
+	tag := svgNamespaceAttr.ReplaceAll(b[:end], nil)
+	return append(tag, b[end:]...)
+}
+
+var svgNamespaceAttr = regexp.MustCompile(`\s+xmlns(:xlink)?="[^"]*"`)
 
 // stripXMLProlog drops an <?xml …?> declaration so that SVG can be inlined.
 func stripXMLProlog(b []byte) []byte {

@@ -175,6 +175,9 @@ func TestFigureLinesPanels(t *testing.T) {
 			t.Errorf("HTML lacks %q", want)
 		}
 	}
+	if bytes.Contains(h, []byte("http://")) || bytes.Contains(h, []byte("<?xml")) {
+		t.Errorf("inline SVG keeps its XML declaration or namespace addresses")
+	}
 	tex, err := doc.LaTeX(LaTeXOptions{FigureDir: FigureFolder})
 	if err != nil {
 		t.Fatal(err)
