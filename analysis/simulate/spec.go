@@ -1,0 +1,148 @@
+package simulate
+
+import (
+	"fmt"
+	"runtime"
+	"strings"
+
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/johansen"
+)
+
+// Test names accepted in Spec.Test.
+const (
+	ADF            = "adf"
+	EG             = "eg"
+	JohansenTrace  = "johansen-trace"
+	JohansenMaxEig = "johansen-maxeig"
+)
+
+// Limits of a Spec.
+const (
+	MinReps = 100
+	MaxReps = 10_000_000
+	MaxVars = 12        // largest N for eg and the Johansen tests
+	MaxT    = 1_000_000 // longest series
+	// BlockSize is the number of replications drawn from one generator
+	// stream. It is part of the algorithm: changing it changes results.
+	BlockSize = 128
+)
+
+// keyVersion identifies the simulation algorithm in Key; it changes
+// whenever a change of the code changes the numbers for a given Spec.
+const keyVersion = "sim1"
+
+// Spec describes one Monte Carlo experiment.
+type Spec struct {
+	Test string // "adf", "eg", "johansen-trace" or "johansen-maxeig"
+	// Case is the deterministic case: n, c, ct or ctt for adf and eg (in
+	// eg, of the static regression), n, rc, c, rt or ct for Johansen.
+	Case string
+	N    int // variables: 1 for adf, 2..MaxVars for eg, 1..MaxVars for Johansen
+	T    int // length of each simulated series (observations in levels)
+	Lags int // fixed number of lagged differences
+	Reps int // replications, MinReps..MaxReps
+	Seed uint64
+	// Workers is the number of goroutines; 0 means runtime.NumCPU(). It
+	// does not affect the result.
+	Workers int
+}
+
+// plan is a validated Spec.
+type plan struct {
+	test    string
+	tauCase critical.Case
+	johCase johansen.Case
+	caseStr string
+	nobs    int // observations in the test regression
+	workers int
+}
+
+// check validates s and resolves its names.
+func (s Spec) check() (plan, error) {
+	var p plan
+	p.test = strings.ToLower(strings.TrimSpace(s.Test))
+	if s.Lags < 0 {
+		return p, fmt.Errorf("simulate: lag order %d is negative", s.Lags)
+	}
+	if s.Reps < MinReps || s.Reps > MaxReps {
+		return p, fmt.Errorf("simulate: %d replications; need %d..%d", s.Reps, MinReps, MaxReps)
+	}
+	if s.Workers < 0 {
+		return p, fmt.Errorf("simulate: %d workers is negative (0 uses every core)", s.Workers)
+	}
+	if s.T > MaxT {
+		return p, fmt.Errorf("simulate: series length %d exceeds %d", s.T, MaxT)
+	}
+	p.workers = s.Workers
+	if p.workers == 0 {
+		p.workers = runtime.NumCPU()
+	}
+	switch p.test {
+	case ADF, EG:
+		c, err := critical.ParseCase(s.Case)
+		if err != nil {
+			return p, fmt.Errorf("simulate: %s: %w", p.test, err)
+		}
+		p.tauCase, p.caseStr = c, c.String()
+		if p.test == ADF && s.N != 1 {
+			return p, fmt.Errorf("simulate: adf has one variable, not N = %d", s.N)
+		}
+		if p.test == EG && (s.N < 2 || s.N > MaxVars) {
+			return p, fmt.Errorf("simulate: eg needs N = 2..%d variables, not %d", MaxVars, s.N)
+		}
+		// DF regression: n = T−1−p observations, k regressors; need
+		// n − k ≥ 1 and, for eg, a static regression with T > d + N − 1 + 1.
+		d := c.Deterministics()
+		k := d + s.Lags + 1
+		if p.test == EG {
+			k = s.Lags + 1
+			if sk := d + s.N - 1; s.T <= sk+1 {
+				return p, fmt.Errorf("simulate: T = %d is too short for a static regression on %d terms", s.T, sk)
+			}
+		}
+		p.nobs = s.T - 1 - s.Lags
+		if p.nobs-k < 1 {
+			return p, fmt.Errorf("simulate: T = %d is too short for %d lagged differences: the Dickey–Fuller regression would have %d observations for %d regressors", s.T, s.Lags, max(p.nobs, 0), k)
+		}
+	case JohansenTrace, JohansenMaxEig:
+		c, err := johansen.ParseCase(s.Case)
+		if err != nil {
+			return p, fmt.Errorf("simulate: %s: %w", p.test, err)
+		}
+		p.johCase, p.caseStr = c, c.String()
+		if s.N < 1 || s.N > MaxVars {
+			return p, fmt.Errorf("simulate: %s needs N = 1..%d variables, not %d", p.test, MaxVars, s.N)
+		}
+		// As johansen.Test: T−L−1 observations must exceed the number of
+		// regressors of all three blocks.
+		nu := map[johansen.Case]int{johansen.C: 1, johansen.RT: 1, johansen.CT: 2}[c] + s.N*s.Lags
+		p1 := s.N + map[johansen.Case]int{johansen.RC: 1, johansen.RT: 1}[c]
+		p.nobs = s.T - s.Lags - 1
+		if need := nu + p1 + s.N; p.nobs <= need {
+			return p, fmt.Errorf("simulate: T = %d is too short for %d lagged differences: %d observations for %d regressors in case %s with %d series", s.T, s.Lags, max(p.nobs, 0), need, c, s.N)
+		}
+	default:
+		return p, fmt.Errorf("simulate: unknown test %q (want adf, eg, johansen-trace or johansen-maxeig)", s.Test)
+	}
+	return p, nil
+}
+
+// Key is a stable string identifying the numbers Run returns for s: the
+// algorithm version, the test, the canonical case, N, T, lags,
+// replications and seed (not Workers, which does not change them). It
+// returns "" for an invalid Spec.
+func (s Spec) Key() string {
+	p, err := s.check()
+	if err != nil {
+		return ""
+	}
+	return fmt.Sprintf("%s|test=%s|case=%s|n=%d|t=%d|lags=%d|reps=%d|seed=%d",
+		keyVersion, p.test, p.caseStr, s.N, s.T, s.Lags, s.Reps, s.Seed)
+}
+
+// Validate reports whether s is a valid Spec, with the reason if not.
+func (s Spec) Validate() error {
+	_, err := s.check()
+	return err
+}
