@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -56,7 +57,7 @@ func (f *Figure) WriteSVG(w io.Writer) error {
 func (f *Figure) WritePDF(w io.Writer) error {
 	c := vgpdf.New(f.Width, f.Height)
 	c.EmbedFonts(true)
-	f.draw(c)
+	f.draw(cp1252Canvas{c})
 	_, err := c.WriteTo(w)
 	return wrap("pdf", err)
 }
@@ -102,4 +103,13 @@ func wrap(kind string, err error) error {
 		return fmt.Errorf("figures: writing %s: %w", kind, err)
 	}
 	return nil
+}
+
+// cp1252Canvas writes text through a PDF canvas whose fonts are encoded
+// in cp1252, which has no U+2212: the typographic minus becomes the
+// hyphen-minus there (SVG and PNG keep the true minus).
+type cp1252Canvas struct{ vg.CanvasSizer }
+
+func (c cp1252Canvas) FillString(f font.Face, pt vg.Point, s string) {
+	c.CanvasSizer.FillString(f, pt, strings.ReplaceAll(s, minus, "-"))
 }
