@@ -845,7 +845,15 @@ func (s *vecmSpec) Run(c *Context) (*Result, error) {
 		if _, err := c.Result("from", s.From, "johansen"); err != nil {
 			return nil, err
 		}
-		js := c.doc.byID[s.From].dir.(*johansenSpec)
+		jb := c.doc.byID[s.From]
+		js := jb.dir.(*johansenSpec)
+		if js.state == nil { // its result came from the cache: redo the analysis
+			st, err := js.run(&Context{doc: c.doc, b: jb})
+			if err != nil {
+				return nil, err
+			}
+			js.state = st
+		}
 		st, sel = js.state, js.Lags.Select
 	} else {
 		var err error

@@ -496,3 +496,41 @@ func TestParseRestriction(t *testing.T) {
 		}
 	}
 }
+
+// TestJohansenVecmAfterCache: a vecm whose johansen result is reused from
+// the cache (so that directive did not run) still reports the same model.
+func TestJohansenVecmAfterCache(t *testing.T) {
+	files := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
+	p := writeProject(t, sysDKDoc, files)
+	opts := Options{Cache: &Cache{Dir: t.TempDir(), Version: "test"}}
+	run := func() map[string]any {
+		d, err := Parse(p, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := d.Run(); err != nil {
+			t.Fatal(err)
+		}
+		for _, r := range d.Results() {
+			if r.ID == "dkv" {
+				return r.Values
+			}
+		}
+		t.Fatal("no dkv result")
+		return nil
+	}
+	first := run()
+	// A new caption on the vecm only: dk comes from the cache, dkv runs.
+	src := strings.Replace(sysDKDoc, "show: short-run\n", "show: short-run\ncaption: Short run\n", 1)
+	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	second := run()
+	for k := 0; k < 4; k++ {
+		a := first["short"].([]map[string]any)[k]["LRM"].(map[string]any)["est"]
+		b := second["short"].([]map[string]any)[k]["LRM"].(map[string]any)["est"]
+		if a != b {
+			t.Errorf("short-run term %d: %v before, %v after the cache", k, a, b)
+		}
+	}
+}
