@@ -344,6 +344,14 @@ func (d *Document) run(b *block) (*Result, error) {
 			res.Figure.Notes = append(res.Figure.Notes, note)
 		}
 	}
+	if res.Figure != nil && d.opts.PNG > 0 {
+		png, err := res.Figure.RenderPNG(d.opts.PNG)
+		if err != nil {
+			b.err = wrapAt(d.File, b.line, err)
+			return nil, b.err
+		}
+		res.Figure.PNG, res.Figure.PNGDPI = png, d.opts.PNG
+	}
 	b.result = res
 	cols, ups, full := d.recordDeps(b)
 	b.fullKey = full

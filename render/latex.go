@@ -34,14 +34,14 @@ func (d *Document) LaTeX(o LaTeXOptions) ([]byte, error) {
 	err = t.Execute(&out, map[string]string{
 		"Version":  o.Version,
 		"Title":    texEscape(d.Meta.Title),
-		"Authors":  texEscape(strings.Join(d.Meta.AllAuthors(), " \\and ")),
+		"Authors":  texAuthors(d.Meta.AllAuthors()),
 		"Date":     texEscape(d.Meta.Date),
 		"Abstract": texEscape(d.Meta.Abstract),
 	})
 	if err != nil {
 		return nil, err
 	}
-	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir}
+	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root)}
 	if err := w.blocks(d.Root); err != nil {
 		return nil, err
 	}
@@ -54,7 +54,7 @@ func (d *Document) LaTeX(o LaTeXOptions) ([]byte, error) {
 // column type d defined as D{.}{.}{-1}).
 func LaTeXTable(r *Result) []byte {
 	var b bytes.Buffer
-	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn} and\n")
+	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} and\n")
 	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
 	writeTeXTable(&b, r)
 	return b.Bytes()
@@ -64,6 +64,31 @@ type texWriter struct {
 	doc    *Document
 	out    *bytes.Buffer
 	figDir string
+	top    int // the highest heading level used, typeset as \section
+}
+
+// topHeading is the smallest heading level in the document (1 if none),
+// so that a paper whose sections are "##" (the title being in the front
+// matter) gets \section, not \subsection.
+func topHeading(root ast.Node) int {
+	top := 6
+	for n := root.FirstChild(); n != nil; n = n.NextSibling() {
+		if h, ok := n.(*ast.Heading); ok && h.Level < top {
+			top = h.Level
+		}
+	}
+	if top == 6 {
+		return 1
+	}
+	return top
+}
+
+func texAuthors(names []string) string {
+	esc := make([]string, len(names))
+	for i, n := range names {
+		esc[i] = texEscape(n)
+	}
+	return strings.Join(esc, " \\and ")
 }
 
 func (w *texWriter) blocks(parent ast.Node) error {
@@ -82,7 +107,7 @@ func (w *texWriter) block(n ast.Node) error {
 	o := w.out
 	switch n := n.(type) {
 	case *ast.Heading:
-		o.WriteString("\n\\" + texSections[min(n.Level, 6)-1] + "{")
+		o.WriteString("\n\\" + texSections[min(max(n.Level-w.top, 0), 5)] + "{")
 		if err := w.inlines(n); err != nil {
 			return err
 		}
@@ -284,6 +309,12 @@ func writeTeXTable(b *bytes.Buffer, r *Result) {
 	cols := t.Cols()
 	spec := strings.Repeat("l", t.Stub) + strings.Repeat("d", max(cols-t.Stub, 0))
 	fmt.Fprintf(b, "\\begin{table}[htbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
+	// Wide tables get tighter columns; one still wider than the text is
+	// scaled down to fit.
+	if cols > 7 {
+		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
+	}
+	b.WriteString("\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{%\n")
 	b.WriteString("\\begin{tabular}{" + spec + "}\n\\toprule\n")
 	for _, row := range t.Head {
 		writeTeXRow(b, row, t.Stub, true)
@@ -295,7 +326,7 @@ func writeTeXTable(b *bytes.Buffer, r *Result) {
 		}
 		writeTeXRow(b, row.Cells, t.Stub, false)
 	}
-	b.WriteString("\\bottomrule\n\\end{tabular}\n")
+	b.WriteString("\\bottomrule\n\\end{tabular}}\n")
 	writeTeXNotes(b, t.Notes)
 	b.WriteString("\\end{table}\n")
 }
@@ -336,7 +367,7 @@ func writeTeXRow(b *bytes.Buffer, cells []Cell, stub int, head bool) {
 		col += span
 	}
 	b.WriteString(" \\\\\n")
-	if head && len(cells) > 0 && cells[len(cells)-1].Span > 1 {
+	if head && hasSpan(cells) {
 		// a spanning header row gets a short rule under its groups
 		col = 0
 		for _, c := range cells {
@@ -367,7 +398,7 @@ func texNumCell(c Cell) string {
 		s += "^{" + stars(c.Stars) + "}"
 	}
 	if c.Suffix != "" {
-		s += "\\;\\text{" + texEscape(strings.TrimSpace(c.Suffix)) + "}"
+		s += "\\,{\\scriptstyle\\text{" + texEscape(strings.TrimSpace(c.Suffix)) + "}}"
 	}
 	return s
 }
@@ -398,4 +429,13 @@ func texEscape(s string) string { return texReplacer.Replace(s) }
 // texURL escapes the characters that break \href and \url arguments.
 func texURL(s string) string {
 	return strings.NewReplacer(`\`, `/`, `%`, `\%`, `#`, `\#`, `{`, `%7B`, `}`, `%7D`).Replace(s)
+}
+
+func hasSpan(cells []Cell) bool {
+	for _, c := range cells {
+		if c.Span > 1 && c.Text != "" {
+			return true
+		}
+	}
+	return false
 }

@@ -32,8 +32,13 @@ type Figure struct {
 	Caption string
 	SVG     []byte
 	PDF     []byte
-	// PNGAt renders the figure as PNG at a resolution in dots per inch.
-	PNGAt  func(dpi int) ([]byte, error)
+	// PNGAt renders the figure as PNG at a resolution in dots per inch
+	// (not kept in the result cache).
+	PNGAt func(dpi int) ([]byte, error)
+	// PNG is the figure rendered at PNGDPI, made while the build runs when
+	// PNG output is asked for, so that it survives the cache.
+	PNG    []byte
+	PNGDPI int
 	Width  float64 // inches
 	Height float64 // inches
 	Notes  []string
@@ -41,6 +46,9 @@ type Figure struct {
 
 // RenderPNG renders the figure as PNG at dpi dots per inch.
 func (f *Figure) RenderPNG(dpi int) ([]byte, error) {
+	if f.PNG != nil && f.PNGDPI == dpi {
+		return f.PNG, nil
+	}
 	if f.PNGAt == nil {
 		return nil, errNoPNG
 	}

@@ -152,3 +152,19 @@ func TestCompareExitCodes(t *testing.T) {
 		t.Errorf("missing file: exit %d, want 1", code)
 	}
 }
+
+// TestPNGFromCache: PNG figures survive the result cache.
+func TestPNGFromCache(t *testing.T) {
+	dir := demoCopy(t)
+	paper := filepath.Join(dir, "paper.md")
+	for i := 0; i < 2; i++ {
+		out := filepath.Join(dir, "out"+string(rune('a'+i)))
+		if code := run([]string{"build", paper, "--png", "90", "--out", out}); code != 0 {
+			t.Fatalf("build %d: exit %d", i+1, code)
+		}
+		pngs, _ := filepath.Glob(filepath.Join(out, "figures", "*.png"))
+		if len(pngs) == 0 {
+			t.Fatalf("build %d wrote no PNG", i+1)
+		}
+	}
+}
