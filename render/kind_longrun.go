@@ -230,7 +230,7 @@ func (s *dolsSpec) Run(c *Context) (*Result, error) {
 		"r2": r.Fit.R2(), "cov": st.spec.Cov.String(), "se_desc": seNote, "select": sel, "det": st.spec.Det.String(),
 		"y": s.Y, "x": append([]string(nil), s.X...), "dynamics": dyn,
 		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
-		"resid": residValues(d, 0, relationResid(d, st.spec.Det, r.Fit.Coef[:nd+k])),
+		"resid":  residValues(d, 0, relationResid(d, st.spec.Det, r.Fit.Coef[:nd+k])),
 	}
 	if st.spec.Cov.Kind == ols.HAC {
 		// b = L + 1 is the Bartlett bandwidth with the weights of L HAC
