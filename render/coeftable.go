@@ -2,6 +2,7 @@ package render
 
 import (
 	"fmt"
+	"strings"
 
 	"github.com/galley-econ/galley/analysis/ols"
 )
@@ -51,7 +52,7 @@ func collinearError(c *Context, key string, err error, terms []string) error {
 		if ce.Col == 0 {
 			return c.Errorf(key, "regressor %q is zero throughout the sample", terms[0])
 		}
-		return c.Errorf(key, "regressor %q is perfectly collinear with %v in this sample; drop one of them", terms[ce.Col], terms[:ce.Col])
+		return c.Errorf(key, "regressor %q is collinear with %s in this sample (a linear combination of them, to numerical precision); drop one of them", terms[ce.Col], strings.Join(terms[:ce.Col], ", "))
 	}
 	return c.Wrap(key, err)
 }

@@ -4,6 +4,7 @@ import (
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"sort"
@@ -167,6 +168,10 @@ func confine(root, rel string, allow bool) (string, error) {
 	return realP, nil
 }
 
+// maxMagnitude is the largest absolute value an analysis accepts: the
+// square of anything larger overflows float64 (about 1.8e308).
+const maxMagnitude = 1e150
+
 // Data is a set of aligned series for one analysis: a common sample with
 // no missing values.
 type Data struct {
@@ -232,6 +237,14 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f})
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
+	}
+	for j, col := range al.Values {
+		for i, v := range col {
+			if math.Abs(v) > maxMagnitude {
+				return nil, c.Errorf(c.exprKey(exprs[j]), "%s: %s is %g on %s (line %d): values this large overflow sums of squares; rescale the series (divide by a power of ten, or take logs)",
+					f.Source, exprs[j], v, al.Dates[i], f.LineOf(al.Dates[i]))
+			}
+		}
 	}
 	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f}, nil
 }
