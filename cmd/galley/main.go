@@ -22,6 +22,7 @@ type cli struct {
 	Check   checkCmd         `cmd:"" help:"Validate directives, data aliases, columns and inline values without running analyses."`
 	Inspect inspectCmd       `cmd:"" help:"Describe a data file: columns, frequency, date range, missing values."`
 	Compare compareCmd       `cmd:"" help:"Compare two builds' results: moved numbers, changed samples, flipped conclusions (exit 3 if any flipped)."`
+	Watch   watchCmd         `cmd:"" help:"Rebuild on every save of the manuscript or its data and serve a live preview on 127.0.0.1."`
 	Version kong.VersionFlag `help:"Print the version and exit."`
 }
 
