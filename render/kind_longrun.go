@@ -202,7 +202,7 @@ func (s *dolsSpec) Run(c *Context) (*Result, error) {
 	}
 	seNote := st.spec.Cov.Describe()
 	if st.autoHAC {
-		seNote += fmt.Sprintf(", the lag set by ⌊4(T/100)^(2/9)⌋ with T = %d", d.N())
+		seNote += fmt.Sprintf(", the lag being the integer part of 4(T/100)^(2/9) with T = %d", d.N())
 	}
 	t.Notes = []string{
 		fmt.Sprintf("Dynamic OLS of %s on %s, with leads and lags of the differenced regressors (not shown), %s. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
@@ -310,7 +310,7 @@ func (s *fmolsSpec) Run(c *Context) (*Result, error) {
 		bwText = fmt.Sprintf("bandwidth %g as given", sp.Bandwidth)
 	}
 	kname := map[longrun.Kernel]string{longrun.Bartlett: "Bartlett", longrun.QuadraticSpectral: "quadratic-spectral"}[sp.Kernel]
-	seDesc := fmt.Sprintf("FMOLS, from the long-run variance ω̂₁·₂ (%s kernel, %s)", kname, bwText)
+	seDesc := fmt.Sprintf("FMOLS, from the long-run variance of the equilibrium error given the regressors' innovations (%s kernel, %s)", kname, bwText)
 	t.Notes = []string{
 		fmt.Sprintf("Fully modified OLS of %s on %s, correcting for endogeneity and serial correlation. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
 			s.Y, strings.Join(s.X, ", "), detNames[sp.Det], seDesc),
