@@ -437,7 +437,7 @@ func (g *gridDirective) Run(c *Context) (*Result, error) {
 	vals := map[string]any{
 		"of":    s.kind.Name,
 		"show":  show.path,
-		"shape": []int{rows, cols},
+		"shape": map[string]any{"rows": rows, "cols": cols},
 		"cells": cells,
 	}
 	return &Result{Table: t, Values: vals}, nil

@@ -2,6 +2,8 @@ package render
 
 import (
 	"fmt"
+	"os"
+	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
@@ -31,6 +33,8 @@ func TestGridADF(t *testing.T) {
 	lags := []string{"1", "2", "4"}
 	dets := []string{"c", "ct"}
 	body := fence("grid", "id: g\ncaption: ADF by lag order and case\nof: adf\nseries: log(realgdp)\nover: {lags: [1, 2, 4], det: [c, ct]}\n")
+	// Prose can quote a cell's values (Run fails on a reference it cannot resolve).
+	body = "The fourth cell's p-value is {{g.cells.3.values.pvalue %.3f}}; the grid is {{g.shape.rows}} by {{g.shape.cols}}.\n\n" + body
 	for _, l := range lags {
 		for _, d := range dets {
 			body += "\n" + fence("adf", fmt.Sprintf("id: a%s%s\nseries: log(realgdp)\nlags: %s\ndet: %s\n", l, d, l, d))
@@ -42,8 +46,8 @@ func TestGridADF(t *testing.T) {
 	if len(cells) != 6 {
 		t.Fatalf("%d cells, want 6", len(cells))
 	}
-	if !reflect.DeepEqual(g.Values["shape"], []int{3, 2}) {
-		t.Errorf("shape %v, want [3 2]", g.Values["shape"])
+	if !reflect.DeepEqual(g.Values["shape"], map[string]any{"rows": 3, "cols": 2}) {
+		t.Errorf("shape %v, want 3 rows, 2 columns", g.Values["shape"])
 	}
 	tab := g.Table
 	if tab.Stub != 1 || len(tab.Head) != 2 || len(tab.Body) != 3 {
@@ -233,5 +237,44 @@ func TestGridBadInput(t *testing.T) {
 				at += i + len(w)
 			}
 		})
+	}
+}
+
+// TestGridCache: with the result cache, a grid is reused while the data
+// its cells read are unchanged and rerun when they change (the cells'
+// reads count as the grid's own).
+func TestGridCache(t *testing.T) {
+	p := writeProject(t, front+"\n"+fence("grid", "id: g\nof: ols\ny: north\nover: {x: [[fuel], [south]]}\nshow: nobs\n"),
+		map[string]string{"data.csv": testCSV})
+	cache := &Cache{Dir: t.TempDir(), Version: "test"}
+	build := func() (*Document, *Result) {
+		t.Helper()
+		doc, err := Parse(p, Options{Cache: cache})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := doc.Run(); err != nil {
+			t.Fatal(err)
+		}
+		return doc, doc.Results()[0]
+	}
+	build()
+	if doc, _ := build(); len(doc.Reused()) != 1 {
+		t.Errorf("unchanged data: reused %v, want [g]", doc.Reused())
+	}
+	// Change only the column that the second cell reads.
+	changed := strings.Replace(testCSV, "2004-08,65,74,", "2004-08,65,80,", 1)
+	if err := os.WriteFile(filepath.Join(filepath.Dir(p), "data.csv"), []byte(changed), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	doc, res := build()
+	if len(doc.Reused()) != 0 {
+		t.Errorf("a column read by a cell changed, yet the grid was reused")
+	}
+	cells := res.Values["cells"].([]map[string]any)
+	coef := cells[1]["values"].(map[string]any)["coef"].([]map[string]any)
+	fresh := runDoc(t, p)["g"].Values["cells"].([]map[string]any)[1]["values"].(map[string]any)["coef"].([]map[string]any)
+	if coef[1]["est"] != fresh[1]["est"] {
+		t.Errorf("rerun grid %v, fresh build %v", coef[1]["est"], fresh[1]["est"])
 	}
 }
