@@ -46,6 +46,10 @@ var TableLevels = [3]float64{0.10, 0.05, 0.01}
 type TableEntry struct {
 	Values [3]float64 // critical values at TableLevels
 	MCSE   [3]float64 // their Monte Carlo standard errors
+	// Finite holds the quantiles at T itself, before extrapolation (equal
+	// to Values without Extrapolate); Finite − Values estimates the
+	// finite-sample bias at T.
+	Finite [3]float64
 }
 
 // AsymptoticTables holds, for case c, statistic s (johansen.TraceStat or
@@ -232,6 +236,7 @@ func tableEntry(full, half []float32) (TableEntry, error) {
 		}
 	}
 	est(full, half, &e.Values)
+	est(full, nil, &e.Finite)
 	n := len(full)
 	m := n / tableBatches
 	var sum, sum2 [3]float64

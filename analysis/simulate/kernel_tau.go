@@ -17,14 +17,14 @@ type tauKernel struct {
 	tau     []float64
 
 	// Engle–Granger only: N−1 regressors, static design [det | x] and y.
-	nv     int
-	xs     [][]float64 // series 2..N
-	scols  [][]float64
-	sdet   [][]float64 // deterministic columns of the static regression
-	sd     int
-	sdiag  []float64
-	stau   []float64
-	resid  []float64
+	nv    int
+	xs    [][]float64 // series 2..N
+	scols [][]float64
+	sdet  [][]float64 // deterministic columns of the static regression
+	sd    int
+	sdiag []float64
+	stau  []float64
+	resid []float64
 }
 
 // columns allocates m contiguous columns of length n.
