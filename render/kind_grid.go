@@ -598,9 +598,11 @@ func (sh gridShow) pick(c *Context, cell *gridCell, r *Result) (gridShown, error
 
 // testStars counts the star levels at which a test rejects, by the test's
 // own rule: for the unit-root kinds, urOutcome.stars on the cell's
-// statistic and critical values; for other tests, the critical values
-// when tabulated at every star level (the tail inferred from their order:
-// a lower-tail test has its 1% value below its 10% value), else the p-value.
+// statistic and critical values; for other tests with two or more
+// critical values the same rule, the tail inferred from their order (a
+// lower-tail test has its 1% value below its 10% value), which uses the
+// critical value at each star level it tabulates and the p-value at the
+// others; with fewer, the p-value.
 func testStars(c *Context, dir Directive, v map[string]any) int {
 	stat, ok := toFloat(v["stat"])
 	if !ok || math.IsNaN(stat) {
@@ -615,28 +617,10 @@ func testStars(c *Context, dir Directive, v map[string]any) int {
 		o := &urOutcome{Stat: stat, PValue: p, Crit: crit, Upper: u.test == "kpss"}
 		return o.stars(c)
 	}
-	levels := c.Stars()
 	if len(crit) >= 2 {
-		lo, hi := crit[0], crit[0]
-		for _, cv := range crit {
-			if cv.Level < lo.Level {
-				lo = cv
-			}
-			if cv.Level > hi.Level {
-				hi = cv
-			}
-		}
-		upper := lo.Value > hi.Value
-		all := true
-		for _, l := range levels {
-			if _, ok := critAt(crit, l); !ok {
-				all = false
-			}
-		}
-		if all {
-			o := &urOutcome{Stat: stat, PValue: p, Crit: crit, Upper: upper}
-			return o.stars(c)
-		}
+		lo, hi := crit[0], crit[len(crit)-1] // sorted by level
+		o := &urOutcome{Stat: stat, PValue: p, Crit: crit, Upper: lo.Value > hi.Value}
+		return o.stars(c)
 	}
 	if !math.IsNaN(p) {
 		return c.StarsFor(p)
