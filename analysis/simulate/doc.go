@@ -12,7 +12,9 @@
 //   - "johansen-trace", "johansen-maxeig": K = N independent Gaussian
 //     random walks (cointegrating rank 0) and the statistic for H(0) with
 //     K − r = K in one of Johansen's five cases with the fixed lags
-//     (Johansen 1995, ch. 6).
+//     (Johansen 1995, ch. 6). In cases c and ct the last walk carries a
+//     dominating linear (c) or quadratic (ct) trend, the assumption under
+//     which those cases' null distributions are tabulated (see johKernel).
 //
 // Replications are split into blocks of BlockSize; block b draws from its
 // own PCG generator seeded from (Seed, b) (see streamSeed), blocks are
