@@ -85,7 +85,7 @@ func describeLags(r unitroot.LagRule, maxUsed int) string {
 		if r.Max >= 0 {
 			maxUsed = r.Max
 		} else {
-			return fmt.Sprintf("chosen by %s from 0 to ⌊12(T/100)^¼⌋ on a common sample, then re-estimated on the full sample", name)
+			return fmt.Sprintf("chosen by %s from 0 to the integer part of 12(T/100)^(1/4) on a common sample, then re-estimated on the full sample", name)
 		}
 	}
 	return fmt.Sprintf("chosen by %s from 0–%d on a common sample, then re-estimated on the full sample", name, maxUsed)

@@ -412,7 +412,7 @@ var texReplacer = strings.NewReplacer(
 	"−", `\ensuremath{-}`, "–", "--", "—", "---", "…", `\ldots{}`, "·", `\ensuremath{\cdot}`,
 	"×", `\ensuremath{\times}`, "±", `\ensuremath{\pm}`, "≤", `\ensuremath{\leq}`, "≥", `\ensuremath{\geq}`,
 	"≠", `\ensuremath{\neq}`, "≈", `\ensuremath{\approx}`, "√", `\ensuremath{\surd}`, "∞", `\ensuremath{\infty}`,
-	"²", `\ensuremath{^2}`, "³", `\ensuremath{^3}`, "¹", `\ensuremath{^1}`, "′", `\ensuremath{'}`,
+	"²", `\ensuremath{^2}`, "³", `\ensuremath{^3}`, "¹", `\ensuremath{^1}`,
 	"α", `\ensuremath{\alpha}`, "β", `\ensuremath{\beta}`, "γ", `\ensuremath{\gamma}`, "δ", `\ensuremath{\delta}`,
 	"ε", `\ensuremath{\varepsilon}`, "ϵ", `\ensuremath{\epsilon}`, "θ", `\ensuremath{\theta}`, "λ", `\ensuremath{\lambda}`,
 	"μ", `\ensuremath{\mu}`, "π", `\ensuremath{\pi}`, "ρ", `\ensuremath{\rho}`, "σ", `\ensuremath{\sigma}`,
@@ -420,7 +420,15 @@ var texReplacer = strings.NewReplacer(
 	"ψ", `\ensuremath{\psi}`, "ω", `\ensuremath{\omega}`, "Γ", `\ensuremath{\Gamma}`, "Δ", `\ensuremath{\Delta}`,
 	"Λ", `\ensuremath{\Lambda}`, "Π", `\ensuremath{\Pi}`, "Σ", `\ensuremath{\Sigma}`, "Φ", `\ensuremath{\Phi}`,
 	"Ω", `\ensuremath{\Omega}`, "η", `\ensuremath{\eta}`, "κ", `\ensuremath{\kappa}`, "ν", `\ensuremath{\nu}`, "ξ", `\ensuremath{\xi}`, "ζ", `\ensuremath{\zeta}`,
-	"\u0302", "", "\u2009", `\,`, "\u00a0", "~",
+	"⌊", `\ensuremath{\lfloor}`, "⌋", `\ensuremath{\rfloor}`, "⌈", `\ensuremath{\lceil}`, "⌉", `\ensuremath{\rceil}`,
+	"¼", `\ensuremath{\tfrac14}`, "½", `\ensuremath{\tfrac12}`, "∑", `\ensuremath{\sum}`, "∈", `\ensuremath{\in}`,
+	"→", `\ensuremath{\to}`, "⇒", `\ensuremath{\Rightarrow}`, "∼", `\ensuremath{\sim}`, "≡", `\ensuremath{\equiv}`,
+	"∂", `\ensuremath{\partial}`, "∏", `\ensuremath{\prod}`, "∣", `\ensuremath{\mid}`, "⊥", `\ensuremath{\perp}`,
+	"₀", `\ensuremath{_0}`, "₁", `\ensuremath{_1}`, "₂", `\ensuremath{_2}`, "₃", `\ensuremath{_3}`, "₄", `\ensuremath{_4}`,
+	"₅", `\ensuremath{_5}`, "₆", `\ensuremath{_6}`, "₇", `\ensuremath{_7}`, "₈", `\ensuremath{_8}`, "₉", `\ensuremath{_9}`,
+	"⁰", `\ensuremath{^0}`, "⁴", `\ensuremath{^4}`, "⁵", `\ensuremath{^5}`, "⁶", `\ensuremath{^6}`, "⁷", `\ensuremath{^7}`,
+	"⁸", `\ensuremath{^8}`, "⁹", `\ensuremath{^9}`, "⁻", `\ensuremath{^-}`, "ᵀ", `\ensuremath{^\top}`, "′", `\ensuremath{'}`,
+	"\u0302", "", "\u0303", "", "\u0304", "", "\u2009", `\,`, "\u00a0", "~", "\u2005", " ", "\u2003", `\quad{}`,
 )
 
 // texEscape makes literal text safe in LaTeX's text mode.

@@ -108,5 +108,6 @@ func resultsOf(doc *render.Document, label string) (*revision.File, error) {
 
 // cacheFor is the result cache beside a manuscript.
 func cacheFor(manuscript string, fresh bool) *render.Cache {
-	return &render.Cache{Dir: filepath.Join(filepath.Dir(manuscript), ".galley-cache"), Version: version.Version, Fresh: fresh}
+	dir := filepath.Join(filepath.Dir(manuscript), ".galley-cache")
+	return &render.Cache{Dir: dir, Version: version.BuildID(dir), Fresh: fresh}
 }
