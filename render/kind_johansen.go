@@ -659,11 +659,7 @@ var sysCaseText = map[johansen.Case]string{
 }
 
 // critSource names the origin of the critical values by case.
-// TODO(critical): take this from the analysis package once its simulated
-// tables for all five cases land.
-func critSource(cs johansen.Case) string {
-	return "asymptotic quantiles of Osterwald-Lenum (1992)"
-}
+func critSource(cs johansen.Case) string { return johansen.CriticalSource(cs) }
 
 func levelMap(cv [3]float64) map[string]any {
 	m := map[string]any{}

@@ -39,13 +39,12 @@ func TestCriticalTablesUrca(t *testing.T) {
 	}
 }
 
-// TestCriticalTableCAgainstMHM compares our Osterwald-Lenum (1992) Table 1
-// (case C, typed from memory) with the MacKinnon–Haug–Michelis quantiles in
-// statsmodels 0.13.5 coint_tables (c_sjt, c_sja with p = 0;
-// testdata/fixtures/johansen_statsmodels.json). The two sources differ: the
-// 1992 simulation (T = 400) lies below the response surfaces by up to about
-// 3 %, growing with K−r. The check requires ours to lie between 4 % below
-// and 1 % above, which a mistyped digit (other than the last) breaks.
+// TestCriticalTableCAgainstMHM compares the case C critical values that
+// CriticalValues returns (galley's simulated table) with the
+// MacKinnon–Haug–Michelis quantiles in statsmodels 0.13.5 coint_tables
+// (c_sjt, c_sja with p = 0; testdata/fixtures/johansen_statsmodels.json):
+// within 4 % below and 1 % above (tables_sim_test.go makes the tighter,
+// Monte Carlo error based comparison).
 func TestCriticalTableCAgainstMHM(t *testing.T) {
 	f := statsmodelsFixture(t)
 	for _, tb := range f.Tables {

@@ -57,7 +57,7 @@ func TestErrors(t *testing.T) {
 		{"too few observations", func() error { _, e := Test(walks(12, 3, 1), CT, 2); return e }, "too few observations"},
 		{"negative lags", func() error { _, e := Test(y, C, -1); return e }, "non-negative"},
 		{"K−r beyond table", func() error { _, e := bigFit.Critical(TraceStat); return e }, "K−r = 1..11, not 12"},
-		{"untabulated case", func() error { _, e := CriticalValues(N, TraceStat, 2); return e }, "no critical values are tabulated for case n"},
+		{"beyond the tables", func() error { _, e := CriticalValues(N, TraceStat, MaxTabulated+1); return e }, "tabulated for K−r = 1..11, not 12"},
 		{"level not tabulated", func() error { _, e := fit.Rank(0.025, false); return e }, "0.10, 0.05 and 0.01"},
 		{"rank beyond K−1", func() error { _, e := fit.Estimate(3, []int{0, 1, 2}); return e }, "outside 1..K−1 = 1..2"},
 		{"rank zero", func() error { _, e := fit.TestBeta(0, mat.NewDense(3, 2, nil)); return e }, "outside 1..K−1"},
