@@ -228,9 +228,10 @@ func writeHTMLTable(w util.BufWriter, t *Table) {
 	w.WriteString("</tbody>\n</table>\n")
 }
 
-// htmlCell renders a cell. Numbers get a true minus and a fixed-width
-// trailing box for stars, the closing parenthesis and any suffix, so that
-// right alignment lines the decimal points up within a column.
+// htmlCell renders a cell. Numbers get a true minus and fixed-width
+// trailing boxes — one for stars or the closing parenthesis, one for a
+// bracketed suffix such as a lag count — so that right alignment lines
+// the decimal points up within a column.
 func htmlCell(c Cell) string {
 	if !c.IsNum {
 		return html.EscapeString(c.Text)
@@ -244,8 +245,12 @@ func htmlCell(c Cell) string {
 		s = "(" + s
 		trail = ")"
 	}
-	trail += stars(c.Stars) + c.Suffix
-	return html.EscapeString(s) + `<span class="stars">` + html.EscapeString(trail) + `</span>`
+	trail += stars(c.Stars)
+	out := html.EscapeString(s) + `<span class="stars">` + html.EscapeString(trail) + `</span>`
+	if sfx := strings.TrimSpace(c.Suffix); sfx != "" {
+		out += `<span class="sfx">` + html.EscapeString(sfx) + `</span>`
+	}
+	return out
 }
 
 // inlineSVG prepares a standalone SVG file for inlining in HTML: it drops
