@@ -275,12 +275,3 @@ func cellRef(ref string) (col, row int, ok bool) {
 	}
 	return col - 1, row, true
 }
-
-// colName writes a 0-based column index as letters: 0 → A, 27 → AB.
-func colName(col int) string {
-	s := ""
-	for col++; col > 0; col = (col - 1) / 26 {
-		s = string(rune('A'+(col-1)%26)) + s
-	}
-	return s
-}
