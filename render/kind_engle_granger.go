@@ -10,6 +10,7 @@ import (
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/longrun"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/simulate"
 	"github.com/galley-econ/galley/analysis/unitroot"
 )
 
@@ -24,10 +25,13 @@ type egSpec struct {
 	Sample    string   `yaml:"sample"`
 	Normalize string   `yaml:"normalize"`
 	Decimals  *int     `yaml:"decimals"`
+
+	SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
 }
 
 var egFields = []string{"stat", "pvalue", "pvalue_source", "lags", "nobs", "crit", "crit_source", "static", "reject_5",
-	"resid", "det", "y", "x", "vars", "sample", "each"}
+	"resid", "det", "y", "x", "vars", "sample", "each",
+	"crit_mcse", "sim_key", "sim"} // the last three with crit: simulate (simcrit.go)
 
 func init() {
 	Register(Kind{
@@ -82,8 +86,11 @@ func (s *egSpec) Check(c *Context) error {
 	default:
 		return c.Errorf("normalize", "normalize: write all (each variable as the dependent in turn) or leave it out (y on x)")
 	}
+	if _, err := s.SimKeys.settings(c, "engle-granger"); err != nil { // crit: simulate (simcrit.go)
+		return err
+	}
 	if n := len(s.X) + 1; n > critical.MaxTauN {
-		return c.Errorf("x", "%d variables is beyond the MacKinnon (2010) critical-value tables (at most %d); simulated critical values (crit: simulate) are planned but not yet available", n, critical.MaxTauN)
+		return c.Errorf("x", "%d variables is beyond the MacKinnon (2010) critical-value tables and beyond what crit: simulate covers (at most %d)", n, critical.MaxTauN)
 	}
 	return c.CheckData(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
 }
@@ -126,6 +133,19 @@ func (s *egSpec) Run(c *Context) (*Result, error) {
 		}
 		rows[r] = res
 	}
+	// crit: simulate (simcrit.go): simulated critical values and p-values, row by row.
+	sim, err := s.SimKeys.settings(c, "engle-granger")
+	if err != nil {
+		return nil, err
+	}
+	sims := make([]*simulate.Result, len(rows))
+	if sim != nil {
+		for r, res := range rows {
+			if sims[r], err = simEG(c, sim, det, rule, res); err != nil {
+				return nil, err
+			}
+		}
+	}
 	dec := c.Decimals()
 	if s.Decimals != nil {
 		dec = *s.Decimals
@@ -166,8 +186,14 @@ func (s *egSpec) Run(c *Context) (*Result, error) {
 		t.Body = append(t.Body, Row{Cells: cells})
 		each[r] = egValues(res, o, static, d, dep)
 		each[r]["name"] = dep
+		if sims[r] != nil { // crit: simulate (simcrit.go)
+			simURValues(each[r], sims[r], res.Stat)
+		}
 	}
 	t.Notes = egNotes(c, rows, vars, deps, det, rule, all)
+	if sim != nil { // crit: simulate (simcrit.go): the note on critical values
+		t.Notes[1] = simEGNote(sims, vars, deps)
+	}
 	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
 	vals := map[string]any{}
 	for k, v := range each[0] {
@@ -203,7 +229,7 @@ func egError(c *Context, err error, vars []string, dep int, det critical.Case) e
 		return c.Errorf("det", "Engle–Granger static regression: a deterministic term is collinear in this sample")
 	}
 	if len(vars) > critical.MaxTauN {
-		return c.Errorf("x", "Engle–Granger: %v; simulated critical values (crit: simulate) are planned but not yet available", err)
+		return c.Errorf("x", "Engle–Granger: %v", err)
 	}
 	return c.Errorf("x", "Engle–Granger with %s as the dependent variable: %v", vars[dep], err)
 }

@@ -37,6 +37,8 @@ type SystemKeys struct {
 	Restrict    sysHypotheses `yaml:"restrict"`
 	Exogenous   []nameList    `yaml:"exogenous"`
 	Decimals    *int          `yaml:"decimals"`
+
+	SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
 }
 
 type johansenSpec struct {
@@ -64,7 +66,8 @@ type varLagsSpec struct {
 }
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
-	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample"}
+	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
+	"crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
 	Register(Kind{Name: "johansen", Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
@@ -297,6 +300,12 @@ func (k *SystemKeys) settings(c *Context) (sysSettings, error) {
 		names[n] = true
 	}
 	st.SmallSample = k.SmallSample
+	// crit: simulate (simcrit.go)
+	if sim, err := k.SimKeys.settings(c, c.b.kind.Name); err != nil {
+		return st, err
+	} else if sim != nil && k.SmallSample {
+		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")
+	}
 	return st, nil
 }
 
@@ -452,6 +461,7 @@ type sysState struct {
 	norm       []int // normalisation series
 	vecm       *johansen.VECM
 	tests      []sysTest
+	sim        *sysSim // crit: simulate (simcrit.go)
 }
 
 type sysTest struct {
@@ -525,7 +535,11 @@ func (k *SystemKeys) run(c *Context) (*sysState, error) {
 		return nil, err
 	}
 	K := len(st.Names)
-	if err := checkCritical(c, st.Case, K); err != nil {
+	sim, err := k.SimKeys.settings(c, c.b.kind.Name) // crit: simulate (simcrit.go)
+	if err != nil {
+		return nil, err
+	}
+	if err := checkCritical(c, st.Case, K); sim == nil && err != nil {
 		return nil, err
 	}
 	d, err := c.Data(c.DataAlias(k.Data), k.Series, k.Sample)
@@ -557,14 +571,20 @@ func (k *SystemKeys) run(c *Context) (*sysState, error) {
 	}
 	r := s.res
 	s.trace, s.max = r.Statistics(k.SmallSample)
-	if s.crT, err = r.Critical(johansen.TraceStat); err == nil {
-		s.crM, err = r.Critical(johansen.MaxEigStat)
-	}
-	if err != nil {
-		return nil, c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
-	}
-	if s.chosen, err = r.Rank(st.Level, k.SmallSample); err != nil {
-		return nil, c.Errorf("level", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
+	if sim != nil { // crit: simulate (simcrit.go): simulated tables and the rank they choose
+		if s.sim, err = simJohansen(c, sim, s); err != nil {
+			return nil, err
+		}
+	} else {
+		if s.crT, err = r.Critical(johansen.TraceStat); err == nil {
+			s.crM, err = r.Critical(johansen.MaxEigStat)
+		}
+		if err != nil {
+			return nil, c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
+		}
+		if s.chosen, err = r.Rank(st.Level, k.SmallSample); err != nil {
+			return nil, c.Errorf("level", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
+		}
 	}
 	s.rank = s.chosen
 	if k.Rank != nil {
@@ -687,6 +707,9 @@ func (s *sysState) values() map[string]any {
 	if s.lags != nil {
 		v["lag_choice"] = map[string]any{"aic": s.lags.AIC, "bic": s.lags.BIC, "hq": s.lags.HQ, "max": s.lagMax, "nobs": s.lags.T}
 	}
+	if s.sim != nil { // crit: simulate (simcrit.go)
+		s.sim.values(v)
+	}
 	if s.vecm == nil {
 		return v
 	}
@@ -772,6 +795,9 @@ func (s *johansenSpec) Run(c *Context) (*Result, error) {
 		t.Body = append(t.Body, Row{Cells: row})
 	}
 	t.Notes = []string{sysNote(st, s.Lags.Select)}
+	if st.sim != nil { // crit: simulate (simcrit.go)
+		t.Notes = append(t.Notes, st.sim.mcseNote())
+	}
 	if s.SmallSample {
 		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))
 	}
@@ -786,7 +812,7 @@ func sysNote(st *sysState, sel string) string {
 	fmt.Fprintf(&b, "VECM in %s with %s (case %s) and %s; T = %d observations (%s–%s). ",
 		strings.Join(st.st.Names, ", "), sysCaseText[r.Case], r.Case, st.lagPhrase(sel), r.T,
 		st.d.Dates[r.Lags+1], st.d.Dates[st.d.N()-1])
-	fmt.Fprintf(&b, "The trace statistic tests rank r against %d, the maximum-eigenvalue statistic r against r + 1; critical values: %s. ", r.K, critSource(r.Case))
+	fmt.Fprintf(&b, "The trace statistic tests rank r against %d, the maximum-eigenvalue statistic r against r + 1; critical values: %s. ", r.K, st.critText()) // critText: simcrit.go
 	fmt.Fprintf(&b, "Testing r = 0, 1, … in turn with the trace statistic at %s gives rank %d", pct(st.st.Level), st.chosen)
 	if st.rank != st.chosen && st.rank > 0 {
 		fmt.Fprintf(&b, "; the estimates use rank %d as set by the author", st.rank)
@@ -800,7 +826,7 @@ func sysNote(st *sysState, sel string) string {
 // ownKeys lists the system keys set on a vecm directive.
 func (s *vecmSpec) ownKeys(c *Context) []string {
 	var out []string
-	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogenous"} {
+	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogenous", "crit", "reps", "seed"} {
 		if c.Has(k) {
 			out = append(out, k)
 		}

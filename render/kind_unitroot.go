@@ -22,10 +22,13 @@ type urSpec struct {
 	Trim      float64 `yaml:"trim"`
 	Decimals  *int    `yaml:"decimals"`
 
+	SimKeys `yaml:",inline"` // crit: simulate (simcrit.go); adf only
+
 	test string
 }
 
-var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "trim"}
+var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "trim",
+	"crit_mcse", "sim_key", "sim"} // the last three with crit: simulate (simcrit.go)
 
 func init() {
 	for _, k := range []struct{ name, summary string }{
@@ -109,6 +112,9 @@ func (s *urSpec) Check(c *Context) error {
 	if _, err := s.settings(c); err != nil {
 		return err
 	}
+	if _, err := s.SimKeys.settings(c, s.test); err != nil { // crit: simulate (simcrit.go)
+		return err
+	}
 	return c.CheckData(c.DataAlias(s.Data), []string{s.Series}, s.Sample)
 }
 
@@ -124,6 +130,14 @@ func (s *urSpec) Run(c *Context) (*Result, error) {
 	o, err := u.run(d.Cols[0])
 	if err != nil {
 		return nil, c.Errorf("series", "%s of %s: %v", urTitles[u.Name], s.Series, err)
+	}
+	// crit: simulate (simcrit.go): simulated critical values and p-value.
+	if sim, err := s.SimKeys.settings(c, s.test); err != nil {
+		return nil, err
+	} else if sim != nil {
+		if _, err := simADF(c, sim, u, o); err != nil {
+			return nil, err
+		}
 	}
 	dec := c.Decimals()
 	if s.Decimals != nil {
