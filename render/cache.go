@@ -131,7 +131,7 @@ func (d *Document) specKey(b *block, version string) string {
 	if d.Meta.Decimals != nil {
 		dec = *d.Meta.Decimals
 	}
-	for _, s := range []string{cacheMagic, version, b.kind.Name, b.id, string(spec), string(stars), itoa(dec), itoa(d.opts.PNG)} {
+	for _, s := range []string{cacheMagic, version, b.kind.Name, b.id, string(spec), string(stars), itoa(dec), itoa(d.opts.PNG), d.opts.Vintage} {
 		h.Write([]byte(s))
 		h.Write([]byte{0})
 	}

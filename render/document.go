@@ -28,6 +28,8 @@ type Options struct {
 	Cache *Cache
 	// PNG is the resolution of PNG figures wanted (0: none).
 	PNG int
+
+	nested bool // a build made by a revision directive for another vintage
 }
 
 // Document is a parsed manuscript: front matter, Markdown body, and its
@@ -40,6 +42,7 @@ type Document struct {
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
 
+	src    []byte // the manuscript as read (normalised line ends)
 	blocks []*block
 	byID   map[string]*block
 	refs   []*RefNode
@@ -92,6 +95,7 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		return nil, err
 	}
 	d := &Document{
+		src:  src,
 		File: path, Dir: filepath.Dir(path), Meta: meta,
 		Body: body, BodyLine: bodyLine, byID: map[string]*block{}, atNode: map[ast.Node]*block{}, opts: opts,
 	}
@@ -312,7 +316,7 @@ func (d *Document) run(b *block) (*Result, error) {
 		version = d.opts.Cache.Version
 	}
 	b.specKey = d.specKey(b, version)
-	if res, key, ok := d.cacheLookup(b); ok {
+	if res, key, ok := d.cacheLookup(b); ok && !b.kind.NoCache {
 		b.result, b.fullKey, b.reused = res, key, true
 		return res, nil
 	}
@@ -355,7 +359,9 @@ func (d *Document) run(b *block) (*Result, error) {
 	b.result = res
 	cols, ups, full := d.recordDeps(b)
 	b.fullKey = full
-	d.cacheStore(b, cols, ups)
+	if !b.kind.NoCache {
+		d.cacheStore(b, cols, ups)
+	}
 	return res, nil
 }
 

@@ -69,34 +69,39 @@ func abs(x float64) float64 {
 	return x
 }
 
-// table is a report section: a header and rows of cells.
-type table struct {
-	title string
-	head  []string
-	rows  [][]string
+// Section is one part of a report: a title, a header and rows of cells.
+type Section struct {
+	Title string
+	Head  []string
+	Rows  [][]string
 }
 
-func (r *Report) tables() (intro string, ts []table) {
+// Sections returns the report's introduction and its non-empty sections:
+// data files that changed, conclusions that changed, samples that
+// changed, and numbers that moved.
+func (r *Report) Sections() (intro string, ss []Section) { return r.tables() }
+
+func (r *Report) tables() (intro string, ts []Section) {
 	intro = fmt.Sprintf("This report compares the results of two builds: %s (old) and %s (new). %d results are unchanged and %d changed; %d conclusions changed.",
 		r.Old.Path, r.New.Path, r.Unchanged, len(r.Items), r.Flips())
 	if !r.SameManuscript {
 		intro += fmt.Sprintf(" The builds come from different manuscripts (%s, %s); only the ids they share are compared.", r.Old.Manuscript, r.New.Manuscript)
 	}
-	flips := table{title: "Conclusions that changed", head: []string{"Result", "What", "Old", "New"}}
-	samples := table{title: "Samples that changed", head: []string{"Result", "What", "Old", "New"}}
-	moved := table{title: "Numbers that moved", head: []string{"Result", "Value", "Old", "New", "Change"}}
+	flips := Section{Title: "Conclusions that changed", Head: []string{"Result", "What", "Old", "New"}}
+	samples := Section{Title: "Samples that changed", Head: []string{"Result", "What", "Old", "New"}}
+	moved := Section{Title: "Numbers that moved", Head: []string{"Result", "Value", "Old", "New", "Change"}}
 	for _, it := range r.Items {
 		for _, f := range it.Flips {
-			flips.rows = append(flips.rows, []string{it.ID, f.What, f.Old, f.New})
+			flips.Rows = append(flips.Rows, []string{it.ID, f.What, f.Old, f.New})
 		}
 		for _, s := range it.Samples {
-			samples.rows = append(samples.rows, []string{it.ID, s.What, s.Old, s.New})
+			samples.Rows = append(samples.Rows, []string{it.ID, s.What, s.Old, s.New})
 		}
 		for _, m := range it.Moved {
-			moved.rows = append(moved.rows, []string{it.ID, m.What, m.Old, m.New, fmt.Sprintf("%+.2f%%", 100*m.Rel)})
+			moved.Rows = append(moved.Rows, []string{it.ID, m.What, m.Old, m.New, fmt.Sprintf("%+.2f%%", 100*m.Rel)})
 		}
 	}
-	inputs := table{title: "Data files that changed", head: []string{"File", "Change"}}
+	inputs := Section{Title: "Data files that changed", Head: []string{"File", "Change"}}
 	for _, in := range r.InputsChanged {
 		what := "content changed"
 		if in.Old == "" {
@@ -104,10 +109,10 @@ func (r *Report) tables() (intro string, ts []table) {
 		} else if in.New == "" {
 			what = "no longer read"
 		}
-		inputs.rows = append(inputs.rows, []string{in.Path, what})
+		inputs.Rows = append(inputs.Rows, []string{in.Path, what})
 	}
-	for _, t := range []table{inputs, flips, samples, moved} {
-		if len(t.rows) > 0 {
+	for _, t := range []Section{inputs, flips, samples, moved} {
+		if len(t.Rows) > 0 {
 			ts = append(ts, t)
 		}
 	}
@@ -121,8 +126,8 @@ func (r *Report) Markdown() []byte {
 	var b strings.Builder
 	b.WriteString("## Revision report\n\n" + esc.Replace(intro) + "\n")
 	for _, t := range ts {
-		b.WriteString("\n### " + t.title + "\n\n| " + strings.Join(t.head, " | ") + " |\n|" + strings.Repeat("---|", len(t.head)) + "\n")
-		for _, row := range t.rows {
+		b.WriteString("\n### " + t.Title + "\n\n| " + strings.Join(t.Head, " | ") + " |\n|" + strings.Repeat("---|", len(t.Head)) + "\n")
+		for _, row := range t.Rows {
 			cells := make([]string, len(row))
 			for i, c := range row {
 				cells[i] = esc.Replace(c)
@@ -143,12 +148,12 @@ table{border-collapse:collapse;margin:.6rem 0 1.4rem;font-size:.9rem}th,td{paddi
 thead th{border-top:1.5px solid #1d1d1f;border-bottom:1px solid #1d1d1f}tbody tr:last-child td{border-bottom:1.5px solid #1d1d1f}
 </style></head><body><h2>Revision report</h2><p>` + html.EscapeString(intro) + "</p>\n")
 	for _, t := range ts {
-		b.WriteString("<h3>" + html.EscapeString(t.title) + "</h3><table><thead><tr>")
-		for _, h := range t.head {
+		b.WriteString("<h3>" + html.EscapeString(t.Title) + "</h3><table><thead><tr>")
+		for _, h := range t.Head {
 			b.WriteString("<th>" + html.EscapeString(h) + "</th>")
 		}
 		b.WriteString("</tr></thead><tbody>")
-		for _, row := range t.rows {
+		for _, row := range t.Rows {
 			b.WriteString("<tr>")
 			for _, c := range row {
 				b.WriteString("<td>" + html.EscapeString(c) + "</td>")
@@ -169,13 +174,13 @@ func (r *Report) LaTeX() []byte {
 	var b strings.Builder
 	b.WriteString("% galley revision report: needs \\usepackage{booktabs}\n\\subsection*{Revision report}\n" + esc.Replace(intro) + "\n")
 	for _, t := range ts {
-		b.WriteString("\n\\paragraph{" + esc.Replace(t.title) + "}\n\\begin{tabular}{" + strings.Repeat("l", len(t.head)) + "}\n\\toprule\n")
-		hs := make([]string, len(t.head))
-		for i, h := range t.head {
+		b.WriteString("\n\\paragraph{" + esc.Replace(t.Title) + "}\n\\begin{tabular}{" + strings.Repeat("l", len(t.Head)) + "}\n\\toprule\n")
+		hs := make([]string, len(t.Head))
+		for i, h := range t.Head {
 			hs[i] = esc.Replace(h)
 		}
 		b.WriteString(strings.Join(hs, " & ") + " \\\\\n\\midrule\n")
-		for _, row := range t.rows {
+		for _, row := range t.Rows {
 			cs := make([]string, len(row))
 			for i, c := range row {
 				cs[i] = esc.Replace(c)

@@ -185,7 +185,7 @@ func compareRecord(old, new Record, o Options) Item {
 	for _, k := range keys {
 		a, aok := of[k]
 		b, bok := nf[k]
-		leaf := k[strings.LastIndex(k, ".")+1:]
+		leaf := k[strings.LastIndex(k, sep)+1:]
 		switch {
 		case !aok || !bok:
 			if isInteresting(leaf) {
@@ -219,7 +219,7 @@ func flatten(prefix string, v any, out map[string]any) {
 		if prefix == "" {
 			return k
 		}
-		return prefix + "." + k
+		return prefix + sep + k
 	}
 	switch x := v.(type) {
 	case map[string]any:
@@ -274,14 +274,14 @@ func isInteresting(leaf string) bool {
 }
 
 func isSample(path, leaf string) bool {
-	return leaf == "nobs" || strings.Contains(path, "sample.") || strings.HasPrefix(path, "sample")
+	return leaf == "nobs" || strings.Contains(path, "sample"+sep) || strings.HasPrefix(path, "sample")
 }
 
 // conclusion reports a flipped conclusion between two values at path.
 func conclusion(path, leaf string, a, b any, o Options) (Change, bool) {
 	what := describe(path)
 	parent := ""
-	if i := strings.LastIndex(path, "."); i >= 0 {
+	if i := strings.LastIndex(path, sep); i >= 0 {
 		parent = describe(path[:i]) + ": "
 	}
 	switch leaf {
@@ -358,7 +358,10 @@ func equal(a, b any, tol float64) bool {
 	return fmt.Sprint(a) == fmt.Sprint(b)
 }
 
-func describe(path string) string { return strings.ReplaceAll(path, ".", " ") }
+// sep joins the parts of a value's path; names may hold dots and spaces.
+const sep = "\x1f"
+
+func describe(path string) string { return strings.ReplaceAll(path, sep, " ") }
 
 func show(v any, ok bool) string {
 	if !ok {

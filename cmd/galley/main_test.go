@@ -11,7 +11,12 @@ import (
 func demoCopy(t *testing.T) string {
 	t.Helper()
 	dir := t.TempDir()
-	for _, f := range []string{"paper.md", "data/gridlink.csv"} {
+	data, _ := filepath.Glob(filepath.Join("..", "..", "examples", "gridlink", "data", "*.csv"))
+	files := []string{"paper.md"}
+	for _, p := range data {
+		files = append(files, filepath.Join("data", filepath.Base(p)))
+	}
+	for _, f := range files {
 		b, err := os.ReadFile(filepath.Join("..", "..", "examples", "gridlink", f))
 		if err != nil {
 			t.Fatal(err)

@@ -26,7 +26,7 @@
 // walk of 264 months happens to revert, and a test rejects the true unit
 // root, as tests at their size do.
 //
-// Usage: go run ./examples/gridlink/gen -out examples/gridlink/data/gridlink.csv
+// Usage: go run ./examples/gridlink/gen (writes data/gridlink.csv and data/gridlink-first.csv)
 package main
 
 import (
@@ -79,17 +79,51 @@ func Generate(r *rand.Rand) (f, n, s []float64) {
 	return f[burn:], n[burn:], s[burn:]
 }
 
+// The first release. The data file above is the revised vintage; the
+// first release of the same data, published before the revision, ended in
+// 2025-06 and carried provisional zone prices for 2023-01 to 2025-06,
+// which the revision replaced:
+//
+//	provisional = revised · exp(u),   u ~ N(0, 0.02²), independent,
+//
+// drawn from their own seeded stream (seeds revSeed1, revSeed2). The fuel
+// index was not revised.
+const (
+	revSeed1, revSeed2 = 7, 2026
+	firstMonths        = months - 6
+	provisionalFrom    = 19 * 12 // 2023-01
+	revisionSD         = 0.02
+)
+
+func writeCSV(path string, f, n, s []float64, count int, noise func(t int) (float64, float64)) error {
+	var b bytes.Buffer
+	b.WriteString("date,north,south,fuel\n")
+	for t := 0; t < count; t++ {
+		un, us := noise(t)
+		fmt.Fprintf(&b, "%d-%02d,%.4f,%.4f,%.4f\n", start+t/12, t%12+1, math.Exp(n[t]+un), math.Exp(s[t]+us), math.Exp(f[t]))
+	}
+	return os.WriteFile(path, b.Bytes(), 0o644)
+}
+
 func main() {
-	out := flag.String("out", "examples/gridlink/data/gridlink.csv", "output CSV")
+	out := flag.String("out", "examples/gridlink/data/gridlink.csv", "output CSV (the revised vintage)")
+	first := flag.String("first", "examples/gridlink/data/gridlink-first.csv", "output CSV of the first release")
 	flag.Parse()
 	r := rand.New(rand.NewPCG(seed1, seed2))
 	f, n, s := Generate(r)
-	var b bytes.Buffer
-	b.WriteString("date,north,south,fuel\n")
-	for t := 0; t < months; t++ {
-		fmt.Fprintf(&b, "%d-%02d,%.4f,%.4f,%.4f\n", start+t/12, t%12+1, math.Exp(n[t]), math.Exp(s[t]), math.Exp(f[t]))
+	none := func(int) (float64, float64) { return 0, 0 }
+	if err := writeCSV(*out, f, n, s, months, none); err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		os.Exit(1)
 	}
-	if err := os.WriteFile(*out, b.Bytes(), 0o644); err != nil {
+	rr := rand.New(rand.NewPCG(revSeed1, revSeed2))
+	provisional := func(t int) (float64, float64) {
+		if t < provisionalFrom {
+			return 0, 0
+		}
+		return revisionSD * rr.NormFloat64(), revisionSD * rr.NormFloat64()
+	}
+	if err := writeCSV(*first, f, n, s, firstMonths, provisional); err != nil {
 		fmt.Fprintln(os.Stderr, err)
 		os.Exit(1)
 	}
