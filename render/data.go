@@ -55,7 +55,7 @@ func (s *dataStore) path(alias string) (DataRef, string, error) {
 		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, didYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
 	}
 	p := ref.Path
-	if v := s.doc.opts.Vintage; v != "" && len(ref.Vintage) > 0 {
+	if v := s.doc.opts.Vintage; v != "" && v != "default" && len(ref.Vintage) > 0 {
 		vp, ok := ref.Vintage[v]
 		if !ok {
 			var names []string
