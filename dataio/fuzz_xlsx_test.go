@@ -1,4 +1,4 @@
-package series
+package dataio
 
 import (
 	"bytes"
@@ -10,7 +10,7 @@ import (
 // FuzzReadXLSX: any bytes give a frame or an error, never a panic. The
 // seeds are the committed workbooks under testdata/series.
 func FuzzReadXLSX(f *testing.F) {
-	files, _ := filepath.Glob(filepath.Join("..", "..", "testdata", "series", "*.xlsx"))
+	files, _ := filepath.Glob(filepath.Join("..", "testdata", "series", "*.xlsx"))
 	for _, p := range files {
 		if b, err := os.ReadFile(p); err == nil {
 			f.Add(b)
@@ -22,8 +22,13 @@ func FuzzReadXLSX(f *testing.F) {
 		if err != nil {
 			return
 		}
-		if fr.Len() != len(fr.Lines) || len(fr.cols) != len(fr.Names) {
+		if fr.Len() == 0 || fr.Len() != len(fr.Lines) {
 			t.Fatalf("inconsistent frame: %d rows, %d lines", fr.Len(), len(fr.Lines))
+		}
+		for _, name := range fr.Names {
+			if v, ok := fr.Column(name); !ok || len(v) != fr.Len() {
+				t.Fatalf("column %q: %d values for %d rows", name, len(v), fr.Len())
+			}
 		}
 	})
 }

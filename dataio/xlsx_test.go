@@ -1,17 +1,21 @@
-package series
+package dataio
 
 import (
 	"math"
 	"os"
 	"strings"
 	"testing"
+
+	"github.com/galley-econ/galley/analysis/series"
 )
 
 // The workbooks are written by github.com/xuri/excelize/v2 through
-// testdata/series/genxlsx (see its comments for the contents).
-func readBook(t *testing.T, name, sheet string) (*Frame, error) {
+// testdata/series/genxlsx (see its comments for the contents); ReadXLSX
+// reads them through the same library, so these tests check the cell
+// interpretation and the rules of series.FromCells on real workbooks.
+func readBook(t *testing.T, name, sheet string) (*series.Frame, error) {
 	t.Helper()
-	fh, err := os.Open("../../testdata/series/" + name)
+	fh, err := os.Open("../testdata/series/" + name)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -22,17 +26,17 @@ func readBook(t *testing.T, name, sheet string) (*Frame, error) {
 func TestReadXLSX(t *testing.T) {
 	tests := []struct {
 		file, sheet string
-		freq        Freq
+		freq        series.Freq
 		first, last string
 		n           int
 		col         string
 		want0       float64
 	}{
-		{"quarterly.xlsx", "Data", Quarterly, "2001Q1", "2003Q4", 12, "output", 100},
-		{"serial_monthly.xlsx", "", Monthly, "2010-01", "2011-06", 18, "output", 100},
-		{"serial_daily.xlsx", "", Daily, "2020-03-02", "2020-03-13", 10, "price", 52},
-		{"quarter_end.xlsx", "Sheet1", Quarterly, "1999Q3", "2000Q4", 6, "x", 1},
-		{"plain_serial.xlsx", "", Annual, "2000", "2002", 3, "x", 0.5},
+		{"quarterly.xlsx", "Data", series.Quarterly, "2001Q1", "2003Q4", 12, "output", 100},
+		{"serial_monthly.xlsx", "", series.Monthly, "2010-01", "2011-06", 18, "output", 100},
+		{"serial_daily.xlsx", "", series.Daily, "2020-03-02", "2020-03-13", 10, "price", 52},
+		{"quarter_end.xlsx", "Sheet1", series.Quarterly, "1999Q3", "2000Q4", 6, "x", 1},
+		{"plain_serial.xlsx", "", series.Annual, "2000", "2002", 3, "x", 0.5},
 	}
 	for _, tc := range tests {
 		f, err := readBook(t, tc.file, tc.sheet)

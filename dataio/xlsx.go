@@ -1,0 +1,72 @@
+package dataio
+
+import (
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+
+	"github.com/galley-econ/galley/analysis/series"
+	"github.com/xuri/excelize/v2"
+)
+
+// maxUnzip bounds the decompressed size of a workbook.
+const maxUnzip = 1 << 30
+
+// ReadXLSX reads one sheet of an Office Open XML workbook (.xlsx)
+// through github.com/xuri/excelize/v2 and builds the frame with
+// series.FromCells, that is with the rules of series.ReadCSV: the first
+// non-empty row is the header, each further non-empty row an
+// observation; Frame.Lines and DataError.Line are sheet row numbers.
+// sheet "" reads the first sheet; an unknown sheet is an error listing
+// the sheets.
+//
+// Dates may be text in any form series.ParseDate accepts, or
+// spreadsheet date serials (see series.FromCells): cells whose number
+// format shows a date, and whole numbers of five or more digits in the
+// date column. A #N/A cell is a missing value. Every error is a
+// *series.DataError naming the source. The whole workbook is held in
+// memory.
+func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
+	bad := func(format string, args ...any) error {
+		return &series.DataError{Source: source, Msg: fmt.Sprintf(format, args...)}
+	}
+	defer func() {
+		// a malformed file must give an error, whatever the library does
+		if p := recover(); p != nil {
+			fr, err = nil, bad("not a readable .xlsx workbook: %v", p)
+		}
+	}()
+	f, err := excelize.OpenReader(r, excelize.Options{UnzipSizeLimit: maxUnzip})
+	if err != nil {
+		return nil, bad("not an .xlsx workbook: %v", err)
+	}
+	defer f.Close()
+	props, err := f.GetWorkbookProps()
+	if err != nil {
+		return nil, bad("not a readable .xlsx workbook: %v", err)
+	}
+	sheets := f.GetSheetList()
+	if len(sheets) == 0 {
+		return nil, bad("the workbook has no sheets")
+	}
+	name := sheets[0]
+	if sheet != "" {
+		found := false
+		quoted := make([]string, len(sheets))
+		for i, s := range sheets {
+			quoted[i] = strconv.Quote(s)
+			found = found || s == sheet
+		}
+		if !found {
+			return nil, bad("no sheet %q; the sheets are %s", sheet, strings.Join(quoted, ", "))
+		}
+		name = sheet
+	}
+	rd := &sheetReader{f: f, sheet: name, date1904: props.Date1904 != nil && *props.Date1904, dateStyle: map[int]bool{}}
+	rows, err := rd.rows()
+	if err != nil {
+		return nil, bad("sheet %q: %v", name, err)
+	}
+	return series.FromCells(source, name, rows)
+}
