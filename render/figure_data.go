@@ -21,30 +21,38 @@ import (
 // as text in the canonical form of series.Date.String (ols and
 // engle-granger results do).
 func residualSeries(c *Context, key string, r *Result) (series.Series, error) {
-	raw, ok := r.Values["resid"]
+	s, err := datedField(c, key, r, "resid", "residual")
+	s.Name = "residual"
+	return s, err
+}
+
+// datedField reads a dated series {"dates": [...], "values": [...]} that
+// a result stores under field (what names it in messages).
+func datedField(c *Context, key string, r *Result, field, what string) (series.Series, error) {
+	raw, ok := r.Values[field]
 	if !ok {
-		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) has no residual series to plot", r.ID, r.Kind, r.Line)
+		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) has no %s series to plot", r.ID, r.Kind, r.Line, what)
 	}
 	m, ok := raw.(map[string]any)
 	if !ok {
-		return series.Series{}, c.Errorf(key, "%q: its residuals are not a dated series (got %T)", r.ID, raw)
+		return series.Series{}, c.Errorf(key, "%q: its %s values are not a dated series (got %T)", r.ID, what, raw)
 	}
 	texts, err := stringList(m["dates"])
 	if err != nil {
-		return series.Series{}, c.Errorf(key, "%q: residual dates: %v", r.ID, err)
+		return series.Series{}, c.Errorf(key, "%q: %s dates: %v", r.ID, what, err)
 	}
 	vals, err := floatList(m["values"])
 	if err != nil {
-		return series.Series{}, c.Errorf(key, "%q: residual values: %v", r.ID, err)
+		return series.Series{}, c.Errorf(key, "%q: %s values: %v", r.ID, what, err)
 	}
 	if len(texts) != len(vals) {
-		return series.Series{}, c.Errorf(key, "%q: %d residual dates for %d values", r.ID, len(texts), len(vals))
+		return series.Series{}, c.Errorf(key, "%q: %d %s dates for %d values", r.ID, len(texts), what, len(vals))
 	}
-	s := series.Series{Name: "residual", Dates: make([]series.Date, len(texts)), Values: vals}
+	s := series.Series{Name: what, Dates: make([]series.Date, len(texts)), Values: vals}
 	for i, t := range texts {
 		d, err := dateFromText(t)
 		if err != nil {
-			return series.Series{}, c.Errorf(key, "%q: residual date %d: %v", r.ID, i+1, err)
+			return series.Series{}, c.Errorf(key, "%q: %s date %d: %v", r.ID, what, i+1, err)
 		}
 		s.Dates[i] = d
 	}

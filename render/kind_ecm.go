@@ -209,6 +209,13 @@ func (s *ecmSpec) Run(c *Context) (*Result, error) {
 	if adj.HasHalfLife {
 		vals["halflife"], vals["halflife_se"] = adj.HalfLife, adj.HalfLifeSE
 	}
+	// The dependent variable and its fitted values, for actual-vs-fitted figures.
+	actual := make([]float64, m.Fit.N)
+	for i := range actual {
+		actual[i] = m.Fit.Fitted[i] + m.Fit.Resid[i]
+	}
+	vals["actual"] = datedValues(sd.Dates, actual)
+	vals["fitted"] = datedValues(sd.Dates, m.Fit.Fitted)
 	return &Result{Table: t, Values: vals}, nil
 }
 

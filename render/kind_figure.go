@@ -142,6 +142,12 @@ func (s *figureSpec) Check(c *Context) error {
 			if k := firstSet(c, "y", "x", "const", "data", "sample"); k != "" {
 				return c.Errorf(k, "with of, the regression (its data, y, x, const and sample) comes from %q; drop %s", s.Of, k)
 			}
+			if p == "actual-fitted" {
+				return c.CheckRef("of", s.Of, "ols", "ecm")
+			}
+			if c.RefKind(s.Of) == "ecm" {
+				return c.Errorf("of", "plot %s needs the regression itself: name an ols result, or give y and x (an ecm result can be drawn as actual-fitted)", p)
+			}
 			return c.CheckRef("of", s.Of, "ols")
 		}
 		if s.Y == "" {
@@ -475,6 +481,9 @@ func acfLags(s series.Series, n int) int {
 // runRegression draws actual and fitted values or a stability
 // diagnostic of a regression.
 func (s *figureSpec) runRegression(c *Context, p string, o *figures.Options, vals map[string]any) (*figures.Figure, drawn, error) {
+	if p == "actual-fitted" && s.Of != "" && c.RefKind(s.Of) == "ecm" {
+		return s.ecmActualFitted(c, o)
+	}
 	rs, err := s.regressionOf(c)
 	if err != nil {
 		return nil, drawn{}, err
@@ -631,3 +640,36 @@ func outside(dates []string, v []float64, out func(int, float64) bool) (int, any
 }
 
 func nan() float64 { return math.NaN() }
+
+// ecmActualFitted draws an error-correction model's dependent variable
+// (the first difference) and its fitted values, from the ecm result.
+func (s *figureSpec) ecmActualFitted(c *Context, o *figures.Options) (*figures.Figure, drawn, error) {
+	res, err := c.Result("of", s.Of, "ecm")
+	if err != nil {
+		return nil, drawn{}, err
+	}
+	var ss [2]series.Series
+	for i, key := range []string{"actual", "fitted"} {
+		if ss[i], err = datedField(c, "of", res, key, key); err != nil {
+			return nil, drawn{}, err
+		}
+	}
+	a, f := ss[0], ss[1]
+	if len(s.Names) == 2 {
+		a.Name, f.Name = s.Names[0], s.Names[1]
+	} else if len(s.Names) != 0 {
+		return nil, drawn{}, c.Errorf("names", "actual-fitted takes two names (actual, fitted); %d are given", len(s.Names))
+	}
+	dr := drawn{names: []string{a.Name, f.Name}, panel: []int{1, 1}, series: []series.Series{a, f}}
+	if o.YLabel == "" {
+		o.YLabel, _ = res.Values["y"].(string)
+	}
+	if err := s.shade(c, dr.series, o); err != nil {
+		return nil, dr, err
+	}
+	fig, err := figures.ActualFitted(a, f, *o)
+	if err != nil {
+		return nil, dr, c.Errorf("", "%v", err)
+	}
+	return fig, dr, nil
+}
