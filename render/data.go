@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/dataio"
 )
 
 // dataStore loads each data alias once per build and remembers the
@@ -113,7 +114,7 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	var f *series.Frame
 	switch strings.ToLower(filepath.Ext(full)) {
 	case ".xlsx":
-		f, err = series.ReadXLSX(strings.NewReader(string(raw)), display, ref.Sheet)
+		f, err = dataio.ReadXLSX(strings.NewReader(string(raw)), display, ref.Sheet)
 	default:
 		if ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)

@@ -9,6 +9,7 @@ import (
 	"text/tabwriter"
 
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/dataio"
 )
 
 type inspectCmd struct {
@@ -24,7 +25,7 @@ func (c *inspectCmd) Run() error {
 	defer f.Close()
 	var fr *series.Frame
 	if strings.EqualFold(filepath.Ext(c.File), ".xlsx") {
-		fr, err = series.ReadXLSX(f, c.File, c.Sheet)
+		fr, err = dataio.ReadXLSX(f, c.File, c.Sheet)
 	} else {
 		fr, err = series.ReadCSV(f, c.File)
 	}
