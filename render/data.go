@@ -181,6 +181,9 @@ type Data struct {
 	Cols   [][]float64
 	Labels []string // the expressions as written
 	Frame  *series.Frame
+	// Dropped are the dates inside the sample left out for missing values
+	// (with missing: drop).
+	Dropped []series.Date
 }
 
 // N is the number of observations.
@@ -194,9 +197,18 @@ func (d *Data) Range() string {
 	return d.Dates[0].String() + "–" + d.Dates[len(d.Dates)-1].String()
 }
 
-// SampleNote is "Sample 2004-01–2025-12, N = 264."
+// SampleNote is "Sample 2004-01–2025-12, N = 264." and, when
+// observations with missing values were dropped, which ones.
 func (d *Data) SampleNote() string {
-	return fmt.Sprintf("Sample %s, N = %d.", d.Range(), d.N())
+	s := fmt.Sprintf("Sample %s, N = %d.", d.Range(), d.N())
+	if len(d.Dropped) > 0 {
+		var ds []string
+		for _, x := range d.Dropped {
+			ds = append(ds, x.String())
+		}
+		s += fmt.Sprintf(" %d observations with missing values inside the sample were left out (%s); lags and differences span the gaps as if the remaining observations were consecutive.", len(d.Dropped), strings.Join(ds, ", "))
+	}
+	return s
 }
 
 // Data evaluates expressions on the data behind alias, restricts them to
@@ -235,7 +247,7 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 			}
 		}
 	}
-	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f})
+	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: c.b.dir.Base().Missing == "drop"})
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}
@@ -247,7 +259,7 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 			}
 		}
 	}
-	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f}, nil
+	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f, Dropped: al.Dropped}, nil
 }
 
 // CheckData validates an alias, expressions and a sample without running.

@@ -192,6 +192,9 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 		b.node = doc
 	}
 	b.dir = dir
+	if m := dir.Base().Missing; m != "" && m != "error" && m != "drop" {
+		return nil, errAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
+	}
 	b.id = dir.Base().ID
 	if b.id == "" {
 		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])

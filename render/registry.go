@@ -21,6 +21,10 @@ type Common struct {
 	ID      string `yaml:"id"`
 	Caption string `yaml:"caption"`
 	Note    string `yaml:"note"`
+	// Missing says what to do with a missing value inside the sample:
+	// "error" (the default) or "drop" (the observation is left out, and the
+	// table note lists the dates).
+	Missing string `yaml:"missing"`
 }
 
 // Base returns the common keys.
