@@ -7,6 +7,8 @@ import (
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/unitroot"
+
+	"github.com/galley-econ/galley/internal/refdata"
 )
 
 type egFixture struct {
@@ -34,7 +36,7 @@ func relErr(got, want float64) float64 {
 }
 
 func macroLogs(t *testing.T) (y []float64, x [][]float64) {
-	d := readCSV(t, "../../testdata/data/macrodata.csv")
+	d := refdata.CSVFile(t, "../../testdata/data/macrodata.csv")
 	lg := func(c string) []float64 {
 		v := make([]float64, len(d[c]))
 		for i, a := range d[c] {
@@ -56,7 +58,7 @@ func macroLogs(t *testing.T) (y []float64, x [][]float64) {
 // that T, and against coint's own output where the two T agree (p = 0).
 func TestEngleGrangerStatsmodels(t *testing.T) {
 	var fx egFixture
-	readJSON(t, "../../testdata/fixtures/coint_eg_macro.json", &fx)
+	refdata.JSONFile(t, "../../testdata/fixtures/coint_eg_macro.json", &fx)
 	if len(fx.Cases) == 0 {
 		t.Fatal("empty fixture")
 	}

@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"github.com/galley-econ/galley/analysis/critical"
+
+	"github.com/galley-econ/galley/internal/refdata"
 )
 
 type poFixture struct {
@@ -32,7 +34,7 @@ func poColumns(t *testing.T, data string, cols []string) [][]float64 {
 	if data == "macro" {
 		path = "../../testdata/data/macrodata.csv"
 	}
-	d := readCSV(t, path)
+	d := refdata.CSVFile(t, path)
 	out := make([][]float64, len(cols))
 	for i, c := range cols {
 		v, ok := d[c]
@@ -58,7 +60,7 @@ func poColumns(t *testing.T, data string, cols []string) [][]float64 {
 // urca, exactly (fixture testdata/fixtures/coint_po.json).
 func TestPhillipsOuliaris(t *testing.T) {
 	var fx poFixture
-	readJSON(t, "../../testdata/fixtures/coint_po.json", &fx)
+	refdata.JSONFile(t, "../../testdata/fixtures/coint_po.json", &fx)
 	if fx.Library != "r-cran-urca" || len(fx.Cases) == 0 {
 		t.Fatalf("fixture %q with %d cases", fx.Library, len(fx.Cases))
 	}

@@ -7,6 +7,8 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/ols"
+
+	"github.com/galley-econ/galley/internal/refdata"
 )
 
 type diagFixture struct {
@@ -16,7 +18,7 @@ type diagFixture struct {
 
 // macroFits rebuilds the two regressions of testdata/scripts/diag_macro.py.
 func macroFits(t *testing.T) map[string]*ols.Fit {
-	d := readCSV(t, "../../testdata/data/macrodata.csv")
+	d := refdata.CSVFile(t, "../../testdata/data/macrodata.csv")
 	n := len(d["realcons"])
 	out := map[string]*ols.Fit{}
 
@@ -61,7 +63,7 @@ func relErr(got, want float64) float64 {
 // testdata/scripts/diag_macro.py) to 1e-8 relative, statistic and p-value.
 func TestAgainstStatsmodels(t *testing.T) {
 	var fx diagFixture
-	readJSON(t, "../../testdata/fixtures/diag_macro.json", &fx)
+	refdata.JSONFile(t, "../../testdata/fixtures/diag_macro.json", &fx)
 	if fx.Library != "statsmodels" {
 		t.Fatalf("fixture library %q", fx.Library)
 	}

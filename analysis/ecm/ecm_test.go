@@ -8,6 +8,8 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/ols"
+
+	"github.com/galley-econ/galley/internal/refdata"
 )
 
 type ecmFixture struct {
@@ -54,8 +56,8 @@ func staticResid(t *testing.T, y []float64, xs [][]float64) []float64 {
 // script testdata/scripts/ecm_macro.py), to 1e-8 relative.
 func TestAgainstStatsmodels(t *testing.T) {
 	var fx ecmFixture
-	readJSON(t, "../../testdata/fixtures/ecm_macro.json", &fx)
-	d := readCSV(t, "../../testdata/data/macrodata.csv")
+	refdata.JSONFile(t, "../../testdata/fixtures/ecm_macro.json", &fx)
+	d := refdata.CSVFile(t, "../../testdata/data/macrodata.csv")
 	n := len(d["realcons"])
 	vars := map[string][]float64{"lc": make([]float64, n), "ly": make([]float64, n), "r": d["tbilrate"], "infl": d["infl"]}
 	for i := 0; i < n; i++ {

@@ -8,6 +8,8 @@ import (
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
+
+	"github.com/galley-econ/galley/internal/refdata"
 )
 
 type lrCase struct {
@@ -49,7 +51,7 @@ func relErr(got, want float64) float64 {
 }
 
 func macroVars(t *testing.T) map[string][]float64 {
-	d := readCSV(t, "../../testdata/data/macrodata.csv")
+	d := refdata.CSVFile(t, "../../testdata/data/macrodata.csv")
 	out := map[string][]float64{}
 	for name, col := range map[string]string{"lc": "realcons", "ly": "realdpi", "li": "realinv"} {
 		v := make([]float64, len(d[col]))
@@ -95,7 +97,7 @@ var selectors = map[string]Selector{"fixed": Fixed, "aic": AIC, "bic": BIC}
 // testdata/scripts/longrun_macro.py), to 1e-8 relative.
 func TestDOLSStatsmodels(t *testing.T) {
 	var fx lrFixture
-	readJSON(t, "../../testdata/fixtures/longrun_macro.json", &fx)
+	refdata.JSONFile(t, "../../testdata/fixtures/longrun_macro.json", &fx)
 	if len(fx.DOLS) == 0 {
 		t.Fatal("empty fixture")
 	}
@@ -145,7 +147,7 @@ var kernels = map[string]Kernel{"bartlett": Bartlett, "qs": QuadraticSpectral}
 // errors and Wald statistics, to 1e-8 relative.
 func TestFMOLSNumpy(t *testing.T) {
 	var fx lrFixture
-	readJSON(t, "../../testdata/fixtures/longrun_macro.json", &fx)
+	refdata.JSONFile(t, "../../testdata/fixtures/longrun_macro.json", &fx)
 	if len(fx.FMOLS) == 0 {
 		t.Fatal("empty fixture")
 	}

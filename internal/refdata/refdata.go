@@ -54,3 +54,49 @@ func Fixture(name string, v any) error {
 	}
 	return json.Unmarshal(b, v)
 }
+
+// TB is the part of testing.TB these helpers use.
+type TB interface {
+	Helper()
+	Fatal(args ...any)
+	Fatalf(format string, args ...any)
+}
+
+// CSVFile reads a numeric CSV with a header and a leading date column at
+// path, returning the columns by name; it fails the test on any error.
+func CSVFile(t TB, path string) map[string][]float64 {
+	t.Helper()
+	fh, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer fh.Close()
+	rows, err := csv.NewReader(fh).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := map[string][]float64{}
+	for _, row := range rows[1:] {
+		for j := 1; j < len(row); j++ {
+			v, err := strconv.ParseFloat(row[j], 64)
+			if err != nil {
+				t.Fatalf("%s: %v", path, err)
+			}
+			out[rows[0][j]] = append(out[rows[0][j]], v)
+		}
+	}
+	return out
+}
+
+// JSONFile decodes the JSON file at path into v; it fails the test on any
+// error.
+func JSONFile(t TB, path string, v any) {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := json.Unmarshal(b, v); err != nil {
+		t.Fatalf("%s: %v", path, err)
+	}
+}
