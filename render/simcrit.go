@@ -141,7 +141,9 @@ func simCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error)
 	}
 	label := fmt.Sprintf("galley: %s %s (line %d): simulating %s critical values, N=%d, T=%d, %s replications",
 		c.b.kind.Name, c.b.id, c.b.line, sp.Test, sp.N, sp.T, group(sp.Reps))
+	short := fmt.Sprintf("galley: %s: %s N=%d T=%d", c.b.id, sp.Test, sp.N, sp.T)
 	pr := newSimProgress(label, c.doc.opts.Progress, simProgressOut)
+	pr.short = short
 	simRuns.Add(1)
 	r, err := simulate.Run(context.Background(), sp, pr.update)
 	pr.finish(err)
@@ -306,6 +308,7 @@ func (s simStore) save(r *simulate.Result) {
 // (or through Options.Progress) a plain line at each quarter.
 type simProgress struct {
 	label    string
+	short    string // the label beside a terminal's bar ("" = label)
 	sink     func(string)
 	out      io.Writer
 	tty      bool
@@ -353,7 +356,11 @@ func (p *simProgress) update(done, total int) {
 		const width = 30
 		fill := width * done / total
 		eta := time.Duration(float64(el) / float64(done) * float64(total-done))
-		fmt.Fprintf(p.out, "\r%s [%s%s] %3d%% %s left ", p.label, strings.Repeat("#", fill), strings.Repeat(".", width-fill),
+		lab := p.short
+		if lab == "" {
+			lab = p.label
+		}
+		fmt.Fprintf(p.out, "\r%s [%s%s] %3d%% %s left ", lab, strings.Repeat("#", fill), strings.Repeat(".", width-fill),
 			100*done/total, eta.Round(time.Second))
 		return
 	}
