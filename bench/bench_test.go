@@ -115,7 +115,7 @@ func BenchmarkDemoWarm(b *testing.B) {
 		if err != nil {
 			b.Fatal(err)
 		}
-		if ran := RanUncached(doc); len(ran) != 0 {
+		if ran := doc.Ran(); len(ran) != 0 {
 			b.Fatalf("%d directives ran on a warm rebuild: %v", len(ran), ran)
 		}
 	}

@@ -224,30 +224,6 @@ func CopyDemo(src, dst string) (string, error) {
 	return filepath.Join(dst, "paper.md"), err
 }
 
-// RanUncached lists the directives of doc that ran in its build although
-// their kind is not NoCache (a revision directive always runs, building
-// the paper on its other vintage, itself from the cache): on a warm
-// rebuild it is empty.
-func RanUncached(doc *render.Document) []string {
-	always := map[string]bool{}
-	for _, k := range render.Kinds() {
-		if k.NoCache {
-			always[k.Name] = true
-		}
-	}
-	kind := map[string]string{}
-	for _, r := range doc.Results() {
-		kind[r.ID] = r.Kind
-	}
-	var out []string
-	for _, id := range doc.Ran() {
-		if !always[kind[id]] {
-			out = append(out, id)
-		}
-	}
-	return out
-}
-
 // Phases are the wall-clock times of the steps of a Build.
 type Phases struct {
 	Parse, Run, Render, Write time.Duration

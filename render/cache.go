@@ -7,10 +7,12 @@ import (
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
 	"sort"
+	"strings"
 
 	"github.com/galley-econ/galley/internal/atomicfile"
 )
@@ -131,15 +133,29 @@ func (d *Document) specKey(b *block, version string) string {
 	if d.Meta.Decimals != nil {
 		dec = *d.Meta.Decimals
 	}
-	for _, s := range []string{cacheMagic, version, b.kind.Name, b.id, string(spec), string(stars), itoa(dec), itoa(d.opts.PNG), d.opts.Vintage} {
+	for _, s := range []string{cacheMagic, version, b.kind.Name, b.id, string(spec), string(stars), itoa(dec), itoa(d.opts.PNG), d.opts.Vintage, fmt.Sprint(d.opts.nested)} {
 		h.Write([]byte(s))
 		h.Write([]byte{0})
 	}
 	return hex.EncodeToString(h.Sum(nil))
 }
 
-// columnHash hashes one data column (or, for col "", the date axis).
+// columnHash hashes one data column (or, for col "", the date axis). An
+// alias "file:PATH" stands for a whole data file (relative to the
+// manuscript), which a revision report reads through another build.
 func (d *Document) columnHash(alias, col string) (string, bool) {
+	if p, ok := strings.CutPrefix(alias, "file:"); ok {
+		full, err := confine(d.Dir, p, d.opts.AllowOutside)
+		if err != nil {
+			return "", false
+		}
+		raw, err := os.ReadFile(full)
+		if err != nil {
+			return "", false
+		}
+		sum := sha256.Sum256(raw)
+		return hex.EncodeToString(sum[:]), true
+	}
 	f, err := d.data.frame(alias)
 	if err != nil {
 		return "", false
@@ -262,5 +278,5 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	if err := gob.NewEncoder(&buf).Encode(&e); err != nil {
 		return
 	}
-	_ = atomicfile.Write(c.path(b.specKey), buf.Bytes(), 0o644)
+	_ = atomicfile.WriteUnsynced(c.path(b.specKey), buf.Bytes(), 0o644)
 }

@@ -64,15 +64,7 @@ func TestCacheReuse(t *testing.T) {
 		t.Fatalf("cold build reused %v", d1.Reused())
 	}
 	d2, r2 := runCached(t, p, c)
-	// Only the kinds that are never cached (the revision report, which
-	// builds the other vintage — itself from the cache) run again.
-	var uncached []string
-	for _, b := range d2.blocks {
-		if b.kind.NoCache {
-			uncached = append(uncached, b.id)
-		}
-	}
-	if !slices.Equal(d2.Ran(), uncached) || len(d2.Reused())+len(uncached) != d2.Directives() {
+	if len(d2.Ran()) != 0 || len(d2.Reused()) != d2.Directives() {
 		t.Fatalf("warm build ran %v", d2.Ran())
 	}
 	if !bytes.Equal(r1, r2) {
@@ -190,12 +182,12 @@ func TestRevisionOfOneValue(t *testing.T) {
 }
 
 // dependents lists the blocks whose spec mentions word, those that refer
-// to them through from:, models: or residuals:, transitively, and those
-// that are never cached (a revision report reads everything).
+// to them through from:, models: or residuals:, transitively, and the
+// revision reports, which read every other result.
 func dependents(d *Document, word string) []string {
 	in := map[string]bool{}
 	for _, b := range d.blocks {
-		if b.kind.NoCache {
+		if b.kind.Name == "revision" {
 			in[b.id] = true
 		}
 	}

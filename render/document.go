@@ -319,7 +319,7 @@ func (d *Document) run(b *block) (*Result, error) {
 		version = d.opts.Cache.Version
 	}
 	b.specKey = d.specKey(b, version)
-	if res, key, ok := d.cacheLookup(b); ok && !b.kind.NoCache {
+	if res, key, ok := d.cacheLookup(b); ok {
 		b.result, b.fullKey, b.reused = res, key, true
 		return res, nil
 	}
@@ -362,9 +362,7 @@ func (d *Document) run(b *block) (*Result, error) {
 	b.result = res
 	cols, ups, full := d.recordDeps(b)
 	b.fullKey = full
-	if !b.kind.NoCache {
-		d.cacheStore(b, cols, ups)
-	}
+	d.cacheStore(b, cols, ups)
 	return res, nil
 }
 

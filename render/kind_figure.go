@@ -264,6 +264,13 @@ func (s *figureSpec) Run(c *Context) (*Result, error) {
 
 // finish renders the figure and fills in its size and files.
 func (s *figureSpec) finish(c *Context, fig *figures.Figure, vals map[string]any) (*Result, error) {
+	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
+	if c.doc.opts.nested {
+		// Inside a revision report's build of another vintage only the
+		// values are compared; the drawing is skipped.
+		vals["width"], vals["height"] = w, h
+		return &Result{Values: vals, Figure: &Figure{Width: w, Height: h}}, nil
+	}
 	svg, err := fig.Render("svg", 0)
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
@@ -272,7 +279,6 @@ func (s *figureSpec) finish(c *Context, fig *figures.Figure, vals map[string]any
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}
-	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
 	vals["width"], vals["height"] = w, h
 	id := c.ID()
 	vals["files"] = map[string]any{"svg": FigureFolder + "/" + id + ".svg", "pdf": FigureFolder + "/" + id + ".pdf"}

@@ -33,7 +33,6 @@ func init() {
 		Summary: "what changes when the paper is built on another vintage of its data",
 		New:     func() Directive { return &revisionSpec{} },
 		Fields:  []string{"against", "flips", "flipped", "moved", "samples", "inputs", "unchanged"},
-		NoCache: true,
 	})
 }
 
@@ -71,17 +70,25 @@ func (s *revisionSpec) Run(c *Context) (*Result, error) {
 		// Inside the build of the other vintage: a placeholder, never shown.
 		return &Result{Values: map[string]any{"against": s.Against, "flips": 0, "flipped": nil, "moved": 0, "samples": nil, "inputs": nil, "unchanged": 0}}, nil
 	}
-	// Everything else in this build first: the report compares it.
+	// Everything else in this build first: the report compares it. The
+	// report depends on every other result and on the other vintage's
+	// files, which the cache records so that it can reuse the report.
 	for _, b := range d.blocks {
-		if b.kind.NoCache || b == c.b {
+		if b.kind.Name == "revision" {
 			continue
 		}
+		c.b.deps.up(b.id)
 		if _, err := d.run(b); err != nil {
 			return nil, c.Errorf("", "the paper must build before it can be compared (see line %d)", b.line)
 		}
 	}
+	for _, ref := range d.Meta.Data {
+		if p, ok := ref.Vintage[s.Against]; ok {
+			c.b.deps.col("file:"+p, "")
+		}
+	}
 	opts := d.opts
-	opts.Vintage, opts.nested, opts.Progress = s.Against, true, nil
+	opts.Vintage, opts.nested, opts.Progress, opts.PNG = s.Against, true, nil, 0
 	other, err := ParseBytes(d.File, d.src, opts)
 	if err != nil {
 		return nil, c.Wrap("against", err)

@@ -38,9 +38,6 @@ type Kind struct {
 	// Fields are the top-level value names its results carry, for checking
 	// inline references before anything runs. Nil means any.
 	Fields []string
-	// NoCache marks kinds whose results depend on more than the reads the
-	// cache records (a revision report builds another vintage).
-	NoCache bool
 }
 
 var kinds = map[string]*Kind{}

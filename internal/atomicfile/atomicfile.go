@@ -6,11 +6,23 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"sync"
 )
 
 // Write writes data to path through a temporary file in the same
 // directory, synced and then renamed over path.
 func Write(path string, data []byte, perm os.FileMode) error {
+	return write(path, data, perm, true)
+}
+
+// WriteUnsynced is Write without the sync: a reader still sees either the
+// old or the whole new file, but after a power failure the file may be
+// empty. For caches, whose entries are verified when read.
+func WriteUnsynced(path string, data []byte, perm os.FileMode) error {
+	return write(path, data, perm, false)
+}
+
+func write(path string, data []byte, perm os.FileMode, sync bool) error {
 	dir := filepath.Dir(path)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
@@ -28,8 +40,10 @@ func Write(path string, data []byte, perm os.FileMode) error {
 	if _, err := tmp.Write(data); err != nil {
 		return fail(err)
 	}
-	if err := tmp.Sync(); err != nil {
-		return fail(err)
+	if sync {
+		if err := tmp.Sync(); err != nil {
+			return fail(err)
+		}
 	}
 	if err := tmp.Chmod(perm); err != nil {
 		return fail(err)
@@ -66,9 +80,6 @@ func (s *Set) Stage(path string, data []byte) error {
 	}
 	_, werr := tmp.Write(data)
 	if werr == nil {
-		werr = tmp.Sync()
-	}
-	if werr == nil {
 		werr = tmp.Chmod(0o644)
 	}
 	cerr := tmp.Close()
@@ -83,8 +94,30 @@ func (s *Set) Stage(path string, data []byte) error {
 	return nil
 }
 
-// Commit renames every staged file into place.
+// Commit syncs every staged file (all at once, so that the file system
+// can batch them) and then renames each into place.
 func (s *Set) Commit() error {
+	errs := make([]error, len(s.files))
+	var wg sync.WaitGroup
+	for i, f := range s.files {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			fh, err := os.OpenFile(f.tmp, os.O_RDWR, 0)
+			if err == nil {
+				err = fh.Sync()
+				fh.Close()
+			}
+			errs[i] = err
+		}()
+	}
+	wg.Wait()
+	for i, err := range errs {
+		if err != nil {
+			s.Abort()
+			return fmt.Errorf("writing %s: %w", s.files[i].path, err)
+		}
+	}
 	for i, f := range s.files {
 		if err := os.Rename(f.tmp, f.path); err != nil {
 			for _, g := range s.files[i:] {

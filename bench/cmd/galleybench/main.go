@@ -159,7 +159,7 @@ func run(dataDir string, runs int, demo, galley string) error {
 		doc, ph, err := bench.Build(p, true)
 		last = ph
 		if err == nil {
-			if ran := bench.RanUncached(doc); len(ran) != 0 {
+			if ran := doc.Ran(); len(ran) != 0 {
 				err = fmt.Errorf("directives %v ran on a warm build", ran)
 			}
 		}
