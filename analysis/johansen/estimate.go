@@ -99,7 +99,11 @@ func (r *Result) Estimate(rank int, norm []int) (*VECM, error) {
 		}
 		seen[n] = true
 	}
-	vr := r.Vectors.Slice(0, p1, 0, rank)
+	// Everything is computed on the scaled problem (scale.go) and mapped
+	// back. With C = diag(d_norm[1..r]), the scaled relations normalised
+	// the same way are β̃ = Ṽ_r(c'Ṽ_r)⁻¹ = D₁βC⁻¹ (c'β̃ = I, so their
+	// columns are comparable in size), with loadings α̃ = D⁻¹αC.
+	vr := r.vs.Slice(0, p1, 0, rank)
 	cv := mat.NewDense(rank, rank, nil)
 	for i, n := range norm {
 		for j := 0; j < rank; j++ {
@@ -110,27 +114,71 @@ func (r *Result) Estimate(rank int, norm []int) (*VECM, error) {
 	if err := cvInv.Inverse(cv); err != nil {
 		return nil, fmt.Errorf("johansen: cannot normalise on series %v: their coefficients in the first %d eigenvectors are singular", norm, rank)
 	}
-	beta := mat.NewDense(p1, rank, nil)
-	beta.Mul(vr, &cvInv)
+	betaS := mat.NewDense(p1, rank, nil)
+	betaS.Mul(vr, &cvInv)
 	for i, n := range norm { // exact identity on the normalised rows
+		for j := 0; j < rank; j++ {
+			betaS.Set(n, j, b2f(i == j))
+		}
+	}
+	s1 := r.rowScale()
+	c := make([]float64, rank)
+	cInv := make([]float64, rank)
+	for j, n := range norm {
+		c[j], cInv[j] = r.scale[n], 1/r.scale[n]
+	}
+	inv := func(x []float64) []float64 {
+		out := make([]float64, len(x))
+		for i, v := range x {
+			out[i] = 1 / v
+		}
+		return out
+	}
+	beta := outer(inv(s1), betaS, c) // β = D₁⁻¹β̃C
+	for i, n := range norm {
 		for j := 0; j < rank; j++ {
 			beta.Set(n, j, b2f(i == j))
 		}
 	}
-	alpha, omega, err := r.loadings(beta)
+	alphaS, omegaS, err := r.loadings(betaS)
 	if err != nil {
 		return nil, err
 	}
-	v := &VECM{Rank: rank, Norm: append([]int(nil), norm...), Beta: beta, Omega: omega, Terms: r.Terms()}
-	if v.BetaSE, err = r.betaSE(beta, alpha, omega, seen); err != nil {
+	v := &VECM{Rank: rank, Norm: append([]int(nil), norm...), Beta: beta, Omega: outerSym(r.scale, omegaS), Terms: r.Terms()}
+	seS, err := r.betaSE(betaS, alphaS, omegaS, seen)
+	if err != nil {
 		return nil, err
 	}
-	if err := r.shortRun(v, beta); err != nil {
+	v.BetaSE = outer(inv(s1), seS, c)
+	if err := r.shortRun(v, betaS); err != nil {
 		return nil, err
 	}
+	r.unscaleShortRun(v, cInv)
 	v.Pi = mat.NewDense(r.K, p1, nil)
 	v.Pi.Mul(v.Alpha, beta.T())
 	return v, nil
+}
+
+// unscaleShortRun maps the OLS estimates of the scaled short-run equations
+// and their standard errors to the units of y: α = Dα̃C⁻¹ (cInv holds
+// C⁻¹), Γ_i = DΓ̃_iD⁻¹ and Φ = DΦ̃ (the scales are positive, so standard
+// errors map alike).
+func (r *Result) unscaleShortRun(v *VECM, cInv []float64) {
+	d := r.scale
+	v.Alpha = outer(d, v.Alpha, cInv)
+	v.AlphaSE = outer(d, v.AlphaSE, cInv)
+	if v.Short == nil {
+		return
+	}
+	col := make([]float64, len(v.Terms))
+	for j, tm := range v.Terms {
+		col[j] = 1
+		if tm.Kind == LagDiff {
+			col[j] = 1 / d[tm.Series]
+		}
+	}
+	v.Short = outer(d, v.Short, col)
+	v.ShortSE = outer(d, v.ShortSE, col)
 }
 
 func b2f(b bool) float64 {
@@ -147,16 +195,17 @@ func (r *Result) checkRank(rank int) error {
 	return nil
 }
 
-// loadings returns α = S01β(β'S11β)⁻¹ and Ω = S00 − α(β'S11β)α'.
+// loadings returns α = S01β(β'S11β)⁻¹ and Ω = S00 − α(β'S11β)α' on the
+// scaled problem (β in scaled units).
 func (r *Result) loadings(beta *mat.Dense) (*mat.Dense, *mat.SymDense, error) {
 	var sb, bsb, inv mat.Dense
-	sb.Mul(r.S11, beta)
+	sb.Mul(r.s11, beta)
 	bsb.Mul(beta.T(), &sb)
 	if err := inv.Inverse(&bsb); err != nil {
 		return nil, nil, fmt.Errorf("johansen: β'S11β is singular: %v", err)
 	}
 	var s0b, alpha mat.Dense
-	s0b.Mul(r.S01, beta)
+	s0b.Mul(r.s01, beta)
 	alpha.Mul(&s0b, &inv)
 	var fit mat.Dense
 	fit.Mul(&alpha, s0b.T())
@@ -164,13 +213,17 @@ func (r *Result) loadings(beta *mat.Dense) (*mat.Dense, *mat.SymDense, error) {
 	omega := mat.NewSymDense(k, nil)
 	for i := 0; i < k; i++ {
 		for j := i; j < k; j++ {
-			omega.SetSym(i, j, r.S00.At(i, j)-(fit.At(i, j)+fit.At(j, i))/2)
+			omega.SetSym(i, j, r.s00.At(i, j)-(fit.At(i, j)+fit.At(j, i))/2)
 		}
 	}
 	return &alpha, omega, nil
 }
 
-// betaSE returns the asymptotic standard errors of the free rows of β.
+// betaSE returns the asymptotic standard errors of the free rows of β on
+// the scaled problem (β, α, Ω in scaled units). With β̃ = D₁βC⁻¹ and
+// α̃ = D⁻¹αC, normalised as β, the standard errors of β are D₁⁻¹ SE(β̃) C,
+// since α̃'Ω̃⁻¹α̃ = Cα'Ω⁻¹αC and S̃_bb = D_b⁻¹S_bb D_b⁻¹ with D_b the scales of
+// the free rows.
 func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[int]bool) (*mat.Dense, error) {
 	p1, rank := beta.Dims()
 	var free []int
@@ -183,7 +236,7 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 	for a, i := range free {
 		for b, j := range free {
 			if b >= a {
-				sbb.SetSym(a, b, r.S11.At(i, j))
+				sbb.SetSym(a, b, r.s11.At(i, j))
 			}
 		}
 	}
@@ -218,7 +271,8 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 	return se, nil
 }
 
-// shortRun fits each equation by OLS on [β'ỹ_{t−1}, short-run regressors].
+// shortRun fits each scaled equation by OLS on [β̃'ỹ_{t−1}, short-run
+// regressors], β̃ in scaled units; unscaleShortRun maps the result back.
 func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	t, k := r.z0.Dims()
 	rank := v.Rank

@@ -34,6 +34,9 @@ type LagTable struct {
 // Σ̂ = T⁻¹ Σ û_t û_t' (Lütkepohl 2005, §4.3):
 //
 //	AIC = ln|Σ̂| + 2n/T,  BIC = ln|Σ̂| + n ln T / T,  HQ = ln|Σ̂| + 2n ln ln T / T.
+//
+// As in Test, the regressions run on internally scaled series, so that the
+// collinearity check and the choice do not depend on the units of y.
 func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 	if y == nil {
 		return nil, errors.New("johansen: no data")
@@ -47,6 +50,16 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 	if err := checkSeries(y); err != nil {
 		return nil, err
 	}
+	// Fit on the scaled series yD⁻¹ (scale.go): Σ̂ = DΣ̃D, so every ln|Σ̂|
+	// is ln|Σ̃| + shift with the same shift = 2Σ ln d_j for every order,
+	// and the criteria shift alike. The choice is made on the scaled values
+	// and the table reports the values in the units of y.
+	scale := seriesScale(y)
+	var shift float64
+	for _, dj := range scale {
+		shift += 2 * math.Log(dj)
+	}
+	y = scaleColumns(y, scale)
 	rows, k := y.Dims()
 	d := 0
 	switch c {
@@ -121,5 +134,12 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 	tab.AIC = best(func(r LagRow) float64 { return r.AIC })
 	tab.BIC = best(func(r LagRow) float64 { return r.BIC })
 	tab.HQ = best(func(r LagRow) float64 { return r.HQ })
+	for i := range tab.Rows {
+		row := &tab.Rows[i]
+		row.LogDet += shift
+		row.AIC += shift
+		row.BIC += shift
+		row.HQ += shift
+	}
 	return tab, nil
 }

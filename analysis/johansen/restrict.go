@@ -58,17 +58,49 @@ func (r *Result) TestBeta(rank int, h *mat.Dense) (*LR, error) {
 	if s < rank || s > p1 {
 		return nil, fmt.Errorf("johansen: H has %d columns; need between the rank %d and %d", s, rank, p1)
 	}
-	var s11h, hs11h, s01h mat.Dense
-	s11h.Mul(r.S11, h)
-	hs11h.Mul(h.T(), &s11h)
-	s01h.Mul(r.S01, h)
-	lam, vecs, err := reducedRank(r.S00, &s01h, symOf(&hs11h))
+	// On the scaled problem β̃ = D₁β = (D₁H)φ, and only the column space of
+	// D₁H matters: an orthonormal basis Q of it keeps Q'S̃11Q as well
+	// conditioned as S̃11.
+	q, err := orthoBasis(mulRows(h, r.rowScale(), false))
 	if err != nil {
-		return nil, fmt.Errorf("johansen: β = Hφ: %v (does H have full column rank?)", err)
+		return nil, fmt.Errorf("johansen: H does not have full column rank (column %d)", err.col)
 	}
-	beta := mat.NewDense(p1, rank, nil)
-	beta.Mul(h, vecs.Slice(0, s, 0, rank))
+	var s11q, qs11q, s01q mat.Dense
+	s11q.Mul(r.s11, q)
+	qs11q.Mul(q.T(), &s11q)
+	s01q.Mul(r.s01, q)
+	lam, vecs, rerr := reducedRank(r.s00, &s01q, symOf(&qs11q))
+	if rerr != nil {
+		return nil, fmt.Errorf("johansen: β = Hφ: %v (does H have full column rank?)", rerr)
+	}
+	var betaS mat.Dense
+	betaS.Mul(q, vecs.Slice(0, s, 0, rank))
+	beta := mulRows(&betaS, r.rowScale(), true)
 	return r.lr(rank, lam, beta, rank*(p1-s)), nil
+}
+
+// rankError names the first column of a matrix that depends on the ones
+// before it.
+type rankError struct{ col int }
+
+// orthoBasis returns an orthonormal basis (n×m, the thin Q of a Householder
+// QR) of the column space of the n×m matrix a, or the first column whose
+// QR diagonal element is below singularTol times its norm.
+func orthoBasis(a *mat.Dense) (*mat.Dense, *rankError) {
+	n, m := a.Dims()
+	var qr mat.QR
+	qr.Factorize(a)
+	var rr mat.Dense
+	qr.RTo(&rr)
+	for j := 0; j < m; j++ {
+		norm := mat.Norm(a.ColView(j), 2)
+		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
+			return nil, &rankError{col: j}
+		}
+	}
+	var q mat.Dense
+	qr.QTo(&q)
+	return mat.DenseCopyOf(q.Slice(0, n, 0, m)), nil
 }
 
 // TestAlpha tests α = Aψ for the rank-r loadings (Johansen 1995, §8.2,
@@ -96,21 +128,27 @@ func (r *Result) TestAlpha(rank int, a *mat.Dense) (*LR, error) {
 	if m < rank || m >= k {
 		return nil, fmt.Errorf("johansen: A has %d columns; need at least the rank %d and fewer than K = %d", m, rank, k)
 	}
+	// On the scaled problem α̃ = D⁻¹α = (D⁻¹A)ψ. The LR statistic depends
+	// only on the column space of D⁻¹A, so A is replaced by an orthonormal
+	// basis of it (the first m columns of Q) and B = A⊥ by the rest of Q.
+	as := mulRows(a, r.scale, true)
 	var qr mat.QR
-	qr.Factorize(a)
+	qr.Factorize(as)
 	var rr mat.Dense
 	qr.RTo(&rr)
 	for j := 0; j < m; j++ {
-		if math.Abs(rr.At(j, j)) <= singularTol*mat.Norm(a.ColView(j), 2) {
+		norm := mat.Norm(as.ColView(j), 2)
+		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
 			return nil, fmt.Errorf("johansen: A does not have full column rank (column %d)", j)
 		}
 	}
 	var q mat.Dense
 	qr.QTo(&q)
 	b := q.Slice(0, k, m, k)
+	a = mat.DenseCopyOf(q.Slice(0, k, 0, m))
 
 	var s00b, bs00b mat.Dense
-	s00b.Mul(r.S00, b)
+	s00b.Mul(r.s00, b)
 	bs00b.Mul(b.T(), &s00b)
 	var bch mat.Cholesky
 	if !bch.Factorize(symOf(&bs00b)) {
@@ -118,10 +156,10 @@ func (r *Result) TestAlpha(rank int, a *mat.Dense) (*LR, error) {
 	}
 	// G = (B'S00B)⁻¹ B'[S00A  S01].
 	var s00a mat.Dense
-	s00a.Mul(r.S00, a)
+	s00a.Mul(r.s00, a)
 	var bs00a, bs01 mat.Dense
 	bs00a.Mul(b.T(), &s00a)
-	bs01.Mul(b.T(), r.S01)
+	bs01.Mul(b.T(), r.s01)
 	var ga, g1 mat.Dense
 	if err := bch.SolveTo(&ga, &bs00a); err != nil {
 		return nil, err
@@ -134,12 +172,12 @@ func (r *Result) TestAlpha(rank int, a *mat.Dense) (*LR, error) {
 	corr.Mul(bs00a.T(), &ga)
 	saa.Sub(&saa, &corr)
 	var sa1 mat.Dense
-	sa1.Mul(a.T(), r.S01)
+	sa1.Mul(a.T(), r.s01)
 	corr.Reset()
 	corr.Mul(bs00a.T(), &g1)
 	sa1.Sub(&sa1, &corr)
 	var s11 mat.Dense
-	s11.CloneFrom(r.S11)
+	s11.CloneFrom(r.s11)
 	corr.Reset()
 	corr.Mul(bs01.T(), &g1)
 	s11.Sub(&s11, &corr)
@@ -147,7 +185,7 @@ func (r *Result) TestAlpha(rank int, a *mat.Dense) (*LR, error) {
 	if err != nil {
 		return nil, fmt.Errorf("johansen: α = Aψ: %v", err)
 	}
-	beta := mat.DenseCopyOf(vecs.Slice(0, r.P1(), 0, rank))
+	beta := mulRows(vecs.Slice(0, r.P1(), 0, rank), r.rowScale(), true)
 	return r.lr(rank, lam, beta, rank*(k-m)), nil
 }
 

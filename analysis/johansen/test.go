@@ -29,11 +29,18 @@ type Result struct {
 
 	// Product-moment matrices of the residuals R0 (Δy_t) and R1 (ỹ_{t−1})
 	// after the lagged differences and unrestricted deterministic terms are
-	// regressed out: S_ij = T⁻¹ Σ_t R_it R_jt'.
+	// regressed out: S_ij = T⁻¹ Σ_t R_it R_jt', in the units of y.
 	S00, S11 *mat.SymDense
 	S01      *mat.Dense
 
-	z0, z1, zs *mat.Dense // Δy_t, ỹ_{t−1}, short-run regressors (rows t)
+	// The same problem on the internally scaled series yD⁻¹ (scale.go):
+	// scale holds d_1..d_K; s00, s11, s01 and the eigenvectors vs are the
+	// scaled counterparts of S00, S11, S01 and Vectors, and z0, z1, zs the
+	// scaled Δy_t, ỹ_{t−1} and short-run regressors (rows t).
+	scale      []float64
+	s00, s11   *mat.SymDense
+	s01, vs    *mat.Dense
+	z0, z1, zs *mat.Dense
 }
 
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
@@ -53,6 +60,11 @@ func (r *Result) P1() int { return r.K + r.Case.restricted() }
 //
 // The trend term (cases RT and CT) takes the value t at the row t of y (rows
 // numbered from 0), so that it counts the observations of y_{t−1} from 1.
+//
+// The computation runs on the series divided by internal scales d_j (see
+// scale.go) and every result is mapped back to the units of y, so that the
+// outcome does not depend on the units of measurement: the singularity
+// checks are judged on the scaled problem.
 func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
 	if y == nil {
 		return nil, errors.New("johansen: no data")
@@ -78,12 +90,24 @@ func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
 		return nil, fmt.Errorf("johansen: too few observations: %d rows with %d lagged differences leave %d for estimation; case %s with %d series needs more than %d",
 			rows, lags, max(t, 0), c, k, need)
 	}
-	d, z0, z1, zs := design(y, c, lags)
-	res := &Result{Case: c, Lags: lags, K: k, T: t, z0: z0, z1: z1, zs: zs}
+	scale := seriesScale(y)
+	d, z0, z1, zs := design(scaleColumns(y, scale), c, lags)
+	res := &Result{Case: c, Lags: lags, K: k, T: t, scale: scale, z0: z0, z1: z1, zs: zs}
 	if err := res.reduce(d); err != nil {
 		return nil, err
 	}
+	res.unscale()
 	return res, nil
+}
+
+// unscale sets S00 = D S̃00 D, S11 = D₁ S̃11 D₁, S01 = D S̃01 D₁ and the
+// eigenvectors v = D₁⁻¹ ṽ in the units of y (so that v'S11v = ṽ'S̃11ṽ = I).
+func (r *Result) unscale() {
+	s1 := r.rowScale()
+	r.S00 = outerSym(r.scale, r.s00)
+	r.S11 = outerSym(s1, r.s11)
+	r.S01 = outer(r.scale, r.s01, s1)
+	r.Vectors = mulRows(r.vs, s1, true)
 }
 
 // design builds the matrix [short-run regressors | ỹ_{t−1} | Δy_t] with
@@ -174,7 +198,8 @@ func checkSeries(y *mat.Dense) error {
 // column counts as a linear combination of the columns before it.
 const singularTol = 1e-10
 
-// reduce factorises the design and solves the eigenproblem.
+// reduce factorises the (scaled) design and solves the eigenproblem, setting
+// the scaled moment matrices and eigenvectors.
 func (r *Result) reduce(d *mat.Dense) error {
 	t, k := r.z0.Dims()
 	_, p1 := r.z1.Dims()
@@ -211,14 +236,14 @@ func (r *Result) reduce(d *mat.Dense) error {
 			r00.Set(i, j, rr.At(ns+p1+i, ns+p1+j))
 		}
 	}
-	r.S11 = crossSym(r11, nil, ft)
-	r.S00 = crossSym(r10, r00, ft)
-	r.S01 = mat.NewDense(k, p1, nil)
-	r.S01.Mul(r10.T(), r11)
-	r.S01.Scale(1/ft, r.S01)
+	r.s11 = crossSym(r11, nil, ft)
+	r.s00 = crossSym(r10, r00, ft)
+	r.s01 = mat.NewDense(k, p1, nil)
+	r.s01.Mul(r10.T(), r11)
+	r.s01.Scale(1/ft, r.s01)
 
 	var ch mat.Cholesky
-	if !ch.Factorize(r.S00) {
+	if !ch.Factorize(r.s00) {
 		return errors.New("johansen: S00, the moment matrix of the differences, is not positive definite (a constant or collinear series?)")
 	}
 	// A = T⁻¹ R10 S00⁻¹ R10'.
@@ -278,7 +303,7 @@ func (r *Result) reduce(d *mat.Dense) error {
 			}
 		}
 	}
-	r.Vectors = &v
+	r.vs = &v
 	r.Trace, r.MaxEig = statistics(r.Eigenvalues, ft)
 	return nil
 }
