@@ -36,23 +36,30 @@ import (
 // reports those inputs).
 func seriesScale(y *mat.Dense) []float64 {
 	rows, k := y.Dims()
+	raw := y.RawMatrix()
+	at := func(i, j int) float64 { return raw.Data[i*raw.Stride+j] }
 	d := make([]float64, k)
-	for j := 0; j < k; j++ {
+	big := make([]float64, k)
+	for i := 1; i < rows; i++ {
+		for j := 0; j < k; j++ {
+			big[j] = math.Max(big[j], math.Abs(at(i, j)-at(i-1, j)))
+		}
+	}
+	ss := make([]float64, k) // Σ (Δy/big)², safe from overflow and underflow
+	for i := 1; i < rows; i++ {
+		for j := 0; j < k; j++ {
+			if b := big[j]; b > 0 && !math.IsInf(b, 0) {
+				u := (at(i, j) - at(i-1, j)) / b
+				ss[j] += u * u
+			}
+		}
+	}
+	for j := range d {
 		d[j] = 1
-		var big float64
-		for i := 1; i < rows; i++ {
-			big = math.Max(big, math.Abs(y.At(i, j)-y.At(i-1, j)))
+		if b := big[j]; b > 0 && !math.IsInf(b, 0) && !math.IsNaN(b) {
+			rms := b * math.Sqrt(ss[j]/float64(rows-1))
+			d[j] = math.Ldexp(1, int(math.Round(math.Log2(rms))))
 		}
-		if big == 0 || math.IsInf(big, 0) || math.IsNaN(big) {
-			continue
-		}
-		var ss float64 // Σ (Δy/big)², safe from overflow and underflow
-		for i := 1; i < rows; i++ {
-			u := (y.At(i, j) - y.At(i-1, j)) / big
-			ss += u * u
-		}
-		rms := big * math.Sqrt(ss/float64(rows-1))
-		d[j] = math.Ldexp(1, int(math.Round(math.Log2(rms))))
 	}
 	return d
 }
@@ -60,13 +67,15 @@ func seriesScale(y *mat.Dense) []float64 {
 // scaleColumns returns y with column j divided by d[j].
 func scaleColumns(y *mat.Dense, d []float64) *mat.Dense {
 	rows, k := y.Dims()
-	out := mat.NewDense(rows, k, nil)
+	raw := y.RawMatrix()
+	out := make([]float64, rows*k)
 	for i := 0; i < rows; i++ {
-		for j := 0; j < k; j++ {
-			out.Set(i, j, y.At(i, j)/d[j])
+		row := raw.Data[i*raw.Stride : i*raw.Stride+k]
+		for j, v := range row {
+			out[i*k+j] = v / d[j]
 		}
 	}
-	return out
+	return mat.NewDense(rows, k, out)
 }
 
 // rowScale returns the scale of each row of β: d_1..d_K, then 1 for a
