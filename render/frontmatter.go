@@ -25,23 +25,7 @@ type Meta struct {
 func (m *Meta) AllAuthors() []string { return append(append([]string{}, m.Author...), m.Authors...) }
 
 // Authors accepts one name or a list of names.
-type Authors []string
-
-func (a *Authors) UnmarshalYAML(n *yaml.Node) error {
-	switch n.Kind {
-	case yaml.ScalarNode:
-		*a = Authors{n.Value}
-		return nil
-	case yaml.SequenceNode:
-		var s []string
-		if err := n.Decode(&s); err != nil {
-			return err
-		}
-		*a = s
-		return nil
-	}
-	return fmt.Errorf("line %d: author must be a name or a list of names", n.Line)
-}
+type Authors = nameList
 
 // DataRef names a data file, with an optional sheet (XLSX) and vintages.
 type DataRef struct {

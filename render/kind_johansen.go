@@ -134,24 +134,6 @@ func (l *sysLags) UnmarshalYAML(n *yaml.Node) error {
 
 var sysCriteria = []string{"aic", "bic", "hq"}
 
-// nameList is one name or a list of names.
-type nameList []string
-
-func (l *nameList) UnmarshalYAML(n *yaml.Node) error {
-	switch n.Kind {
-	case yaml.ScalarNode:
-		*l = nameList{n.Value}
-		return nil
-	case yaml.SequenceNode:
-		var s []string
-		if err := n.Decode(&s); err != nil {
-			return err
-		}
-		*l = s
-		return nil
-	}
-	return fmt.Errorf("line %d: write a series or a list of series", n.Line)
-}
 
 // sysHypotheses is the `restrict:` key: a mapping from a test's name to one
 // linear equation on the coefficients of every cointegrating relation, or a
