@@ -134,7 +134,6 @@ func (l *sysLags) UnmarshalYAML(n *yaml.Node) error {
 
 var sysCriteria = []string{"aic", "bic", "hq"}
 
-
 // sysHypotheses is the `restrict:` key: a mapping from a test's name to one
 // linear equation on the coefficients of every cointegrating relation, or a
 // list of them tested jointly:
