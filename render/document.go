@@ -292,6 +292,7 @@ func (d *Document) Run() error {
 		case b.result.Figure != nil:
 			figures++
 			b.result.Number = figures
+			b.result.Values["number"] = figures
 		}
 	}
 	for _, r := range d.refs {

@@ -30,6 +30,11 @@ var modelStats = []struct{ key, label string }{
 	{"halflife", "Half-life"}, {"leads", "Leads of Δx"}, {"lags", "Lags of Δx"}, {"bandwidth", "Bandwidth"},
 }
 
+// modelDiagnostics are the residual diagnostics (of ecm results) a model
+// table can show in its lower block: the p-value of each test (for
+// Durbin–Watson, which ols results carry at the top level, the statistic).
+var modelDiagnostics = []string{"bg", "lb", "jb", "arch", "bp", "reset"}
+
 var modelMethod = map[string]string{"ols": "OLS", "ecm": "ECM", "dols": "DOLS", "fmols": "FMOLS"}
 
 func init() {
@@ -69,6 +74,7 @@ func (s *modelTableSpec) Check(c *Context) error {
 	for _, st := range modelStats {
 		keys = append(keys, st.key)
 	}
+	keys = append(keys, modelDiagnostics...)
 	for _, st := range s.stats() {
 		if !slices.Contains(keys, st) {
 			return c.Errorf("stats", "unknown statistic %q%s; valid: %s", st, didYouMean(st, keys), strings.Join(keys, ", "))
@@ -162,10 +168,16 @@ func (s *modelTableSpec) Run(c *Context) (*Result, error) {
 				label = ms.label
 			}
 		}
+		if slices.Contains(modelDiagnostics, st) {
+			label = diagnosticLabel(res, st) + ", p-value"
+		}
 		row := Row{Cells: []Cell{T(label)}, RuleAbove: j == 0}
 		vs := make([]any, n)
 		for i, r := range res {
 			v, ok := r.Values[st]
+			if !ok {
+				v, ok = diagnosticValue(r, st)
+			}
 			vs[i] = v
 			switch x := v.(type) {
 			case int:
@@ -286,4 +298,34 @@ func modelNotes(c *Context, res []*Result) []string {
 		notes = append(notes, "DOLS columns omit the coefficients of the leads and lags of the differenced regressors.")
 	}
 	return notes
+}
+
+// diagnosticValue reads a residual diagnostic from a result's values: the
+// p-value, or for Durbin–Watson the statistic.
+func diagnosticValue(r *Result, name string) (any, bool) {
+	ds, _ := r.Values["diagnostics"].(map[string]any)
+	d, _ := ds[name].(map[string]any)
+	if d == nil {
+		return nil, false
+	}
+	key := "pvalue"
+	if name == "dw" {
+		key = "stat"
+	}
+	v, ok := d[key]
+	return v, ok
+}
+
+// diagnosticLabel is the name of a diagnostic as the first model that
+// has it labels it (e.g. "Breusch–Godfrey LM(12)").
+func diagnosticLabel(res []*Result, name string) string {
+	for _, r := range res {
+		ds, _ := r.Values["diagnostics"].(map[string]any)
+		if d, _ := ds[name].(map[string]any); d != nil {
+			if l, _ := d["test"].(string); l != "" {
+				return l
+			}
+		}
+	}
+	return name
 }
