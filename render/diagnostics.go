@@ -1,6 +1,7 @@
 package render
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -94,7 +95,7 @@ func defaultOrder(f series.Freq) int {
 type diagResult struct {
 	Item  diagItem
 	Label string
-	Dist  string // "χ²(4)", "F(2, 250)", "" for Durbin–Watson
+	Dist  string // "χ²(4)", "F(2, 250)", "" for Durbin–Watson (exact p-value, no reference distribution)
 	Test  diag.Test
 }
 
@@ -137,7 +138,13 @@ func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq) ([]diagResul
 			t, err = diag.RESET(f, r)
 			label = fmt.Sprintf("RESET (powers 2–%d)", r)
 		case "dw":
-			t, err = diag.DurbinWatson(f)
+			// The exact p-value P(d ≤ d̂) under normal errors given the
+			// regressors; past diag.MaxExactDWObs observations the
+			// statistic alone (the note says so).
+			t, err = diag.DurbinWatsonExact(f)
+			if errors.Is(err, diag.ErrDWTooLarge) {
+				t, err = diag.DurbinWatson(f)
+			}
 			label = "Durbin–Watson"
 			it.Order = 0
 		}
@@ -191,6 +198,11 @@ func diagValues(ds []diagResult) map[string]any {
 		if d.Item.Order > 0 {
 			v["order"] = d.Item.Order
 		}
+		if d.Item.Name == "dw" {
+			// pvalue is P(d ≤ d̂), against positive autocorrelation;
+			// pvalue_upper is P(d ≥ d̂) = 1 − pvalue, against negative.
+			v["pvalue_upper"] = 1 - d.Test.PValue
+		}
 		m[d.Item.Name] = v
 	}
 	return m
@@ -217,7 +229,12 @@ func diagNote(ds []diagResult) string {
 		case "reset":
 			parts = append(parts, fmt.Sprintf("RESET with powers 2 to %d of the fitted values (F form)", d.Item.Order))
 		case "dw":
-			parts = append(parts, "Durbin–Watson d, without a p-value since its null distribution depends on the regressors")
+			if math.IsNaN(d.Test.PValue) {
+				parts = append(parts, fmt.Sprintf("Durbin–Watson d, without a p-value: its null distribution depends on the regressors and is computed exactly only up to %d observations", diag.MaxExactDWObs))
+				break
+			}
+			parts = append(parts, "Durbin–Watson d with its exact p-value P(d ≤ d̂) against positive first-order autocorrelation for normal errors given the regressors (Imhof's inversion), "+
+				"only indicative here since the regressors are lagged values of the dependent variable or built from them (ect(-1), lags of its difference), which biases d toward 2 (common practice: Breusch–Godfrey is the valid test)")
 		}
 	}
 	return parts[0] + ": " + strings.Join(parts[1:], "; ") + "."
