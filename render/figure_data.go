@@ -26,6 +26,56 @@ func residualSeries(c *Context, key string, r *Result) (series.Series, error) {
 	return s, err
 }
 
+// relationSeries reads cointegrating relation n (1-based) of a johansen
+// or vecm result: Values["relations"][n−1] = {"dates", "values"}, β_n'ỹ_t
+// as kind_johansen.go stores it. The errors are at the line of key (for a
+// result without relations) or of relKey (for n out of range).
+func relationSeries(c *Context, key, relKey string, r *Result, n int) (series.Series, error) {
+	raw, ok := r.Values["relations"]
+	if !ok && numberValue(r.Values["rank"]) >= 1 {
+		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) carries no relation series; it was probably cached by an earlier galley: build with --no-cache", r.ID, r.Kind, r.Line)
+	}
+	if !ok {
+		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) estimates no cointegrating relation: its rank is %v (the sequential trace tests chose %v), so there is no relation to plot; set rank: (1 … K−1) on it",
+			r.ID, r.Kind, r.Line, r.Values["rank"], r.Values["rank_chosen"])
+	}
+	var list []any
+	switch x := raw.(type) {
+	case []map[string]any:
+		for _, e := range x {
+			list = append(list, e)
+		}
+	case []any:
+		list = x
+	default:
+		return series.Series{}, c.Errorf(key, "%q: its relations are not a list of dated series (got %T)", r.ID, raw)
+	}
+	if n < 1 || n > len(list) {
+		return series.Series{}, c.Errorf(relKey, "relation %d: %q (a %s result, line %d) has %d cointegrating relation%s (rank %d); give relation: 1%s",
+			n, r.ID, r.Kind, r.Line, len(list), plural(len(list)), len(list), map[bool]string{true: "", false: fmt.Sprintf(" … %d", len(list))}[len(list) == 1])
+	}
+	return datedValue(c, key, r, list[n-1], fmt.Sprintf("relation %d", n))
+}
+
+// numberValue reads a count from values (an int in memory, a float64
+// after the results file or the cache); −1 if it is not a number.
+func numberValue(v any) float64 {
+	switch x := v.(type) {
+	case int:
+		return float64(x)
+	case float64:
+		return x
+	}
+	return -1
+}
+
+func plural(n int) string {
+	if n == 1 {
+		return ""
+	}
+	return "s"
+}
+
 // datedField reads a dated series {"dates": [...], "values": [...]} that
 // a result stores under field (what names it in messages).
 func datedField(c *Context, key string, r *Result, field, what string) (series.Series, error) {
@@ -33,6 +83,12 @@ func datedField(c *Context, key string, r *Result, field, what string) (series.S
 	if !ok {
 		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) has no %s series to plot", r.ID, r.Kind, r.Line, what)
 	}
+	return datedValue(c, key, r, raw, what)
+}
+
+// datedValue reads raw, a dated series {"dates": [...], "values": [...]}
+// taken from r's values.
+func datedValue(c *Context, key string, r *Result, raw any, what string) (series.Series, error) {
 	m, ok := raw.(map[string]any)
 	if !ok {
 		return series.Series{}, c.Errorf(key, "%q: its %s values are not a dated series (got %T)", r.ID, what, raw)

@@ -26,6 +26,7 @@ type figureSpec struct {
 	Panels    [][]string  `yaml:"panels"`
 	Names     []string    `yaml:"names"`
 	Residuals string      `yaml:"residuals"`
+	Relation  *int        `yaml:"relation"`
 	Of        string      `yaml:"of"`
 	Y         string      `yaml:"y"`
 	X         []string    `yaml:"x"`
@@ -66,7 +67,7 @@ func init() {
 		Name:    "figure",
 		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient",
 		New:     func() Directive { return &figureSpec{} },
-		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band"},
+		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation"},
 	})
 }
 
@@ -135,8 +136,8 @@ func (s *figureSpec) Check(c *Context) error {
 	ex := s.exprs()
 	switch {
 	case isRegressionPlot(p):
-		if len(ex) > 0 || s.Residuals != "" {
-			return c.Errorf(firstSet(c, "series", "panels", "residuals"), "plot %s draws a regression: give of (an ols id) or y and x, not series, panels or residuals", p)
+		if len(ex) > 0 || s.Residuals != "" || c.Has("relation") {
+			return c.Errorf(firstSet(c, "series", "panels", "residuals", "relation"), "plot %s draws a regression: give of (an ols id) or y and x, not series, panels, residuals or relation", p)
 		}
 		if s.Of != "" {
 			if k := firstSet(c, "y", "x", "const", "data", "sample"); k != "" {
@@ -168,7 +169,19 @@ func (s *figureSpec) Check(c *Context) error {
 			if p != "residuals" && p != "acf" {
 				return c.Errorf("residuals", "residuals can be drawn with plot residuals or acf, not %s", p)
 			}
-			return c.CheckRef("residuals", s.Residuals)
+			if err := c.CheckRef("residuals", s.Residuals); err != nil {
+				return err
+			}
+			if k := c.RefKind(s.Residuals); c.Has("relation") && k != "johansen" && k != "vecm" {
+				return c.Errorf("relation", "relation picks one cointegrating relation of a johansen or vecm result; %q (kind %s) has none: drop relation", s.Residuals, k)
+			}
+			if s.Relation != nil && *s.Relation < 1 {
+				return c.Errorf("relation", "relation %d: relations are numbered from 1", *s.Relation)
+			}
+			return nil
+		}
+		if c.Has("relation") {
+			return c.Errorf("relation", "relation picks a cointegrating relation of the johansen or vecm result named by residuals; give residuals: ID")
 		}
 		if len(ex) == 0 {
 			return c.Errorf("", "this figure has nothing to draw: give series (expressions), panels, residuals (an id), of (an ols id) or y and x")
@@ -413,12 +426,18 @@ func (s *figureSpec) runOneSeries(c *Context, p string, o *figures.Options, vals
 		if err != nil {
 			return nil, drawn{}, err
 		}
-		if ser, err = residualSeries(c, "residuals", r); err != nil {
-			return nil, drawn{}, err
-		}
-		ser.Name = "residual of " + s.Residuals
-		if ser, err = restrict(c, ser, s.Sample); err != nil {
-			return nil, drawn{}, err
+		if r.Kind == "johansen" || r.Kind == "vecm" {
+			if ser, err = s.relation(c, r, vals); err != nil {
+				return nil, drawn{}, err
+			}
+		} else {
+			if ser, err = residualSeries(c, "residuals", r); err != nil {
+				return nil, drawn{}, err
+			}
+			ser.Name = "residual of " + s.Residuals
+			if ser, err = restrict(c, ser, s.Sample); err != nil {
+				return nil, drawn{}, err
+			}
 		}
 	} else {
 		e := s.exprs()[0]
@@ -470,6 +489,50 @@ func (s *figureSpec) runOneSeries(c *Context, p string, o *figures.Options, vals
 	vals["pacf"] = slices.Clone(cg.PACF[1:])
 	vals["band"] = cg.Band
 	return fig, dr, nil
+}
+
+// relation is the cointegrating relation of a johansen or vecm result
+// that the figure draws (relation: N, default 1), within sample. In the
+// cases with an unrestricted constant (c, rt, ct) any shift of the
+// relation's level is absorbed by that constant, so the level is not
+// identified: the sample mean over the plotted dates is subtracted and the
+// zero line is the relation's average. In cases n and rc the level is
+// estimated (zero, or the restricted constant) and β'ỹ_t is drawn as it
+// is. What was drawn goes into vals["relation"].
+func (s *figureSpec) relation(c *Context, r *Result, vals map[string]any) (series.Series, error) {
+	n := 1
+	if s.Relation != nil {
+		n = *s.Relation
+	}
+	ser, err := relationSeries(c, "residuals", "relation", r, n)
+	if err != nil {
+		return ser, err
+	}
+	ser.Name = fmt.Sprintf("relation %d of %s", n, s.Residuals)
+	if ser, err = restrict(c, ser, s.Sample); err != nil {
+		return ser, err
+	}
+	ser.Values = slices.Clone(ser.Values)
+	var mean float64
+	if det, _ := r.Values["det"].(string); det == "c" || det == "rt" || det == "ct" {
+		k := 0
+		for _, v := range ser.Values {
+			if !math.IsNaN(v) {
+				mean += v
+				k++
+			}
+		}
+		mean /= float64(max(k, 1))
+		for i := range ser.Values {
+			ser.Values[i] -= mean
+		}
+	}
+	texts := make([]string, len(ser.Dates))
+	for i, d := range ser.Dates {
+		texts[i] = d.String()
+	}
+	vals["relation"] = map[string]any{"number": n, "mean_removed": mean, "dates": texts, "values": slices.Clone(ser.Values)}
+	return ser, nil
 }
 
 // acfLags is two years of lags for monthly or quarterly data, ten

@@ -8,6 +8,7 @@ import (
 	"io"
 	"math"
 	"math/rand/v2"
+	"os"
 	"slices"
 	"strings"
 	"testing"
@@ -329,5 +330,129 @@ func TestFigureBadInput(t *testing.T) {
 				at += i + len(w)
 			}
 		})
+	}
+}
+
+// TestFigureJohansenRelation: residuals naming a johansen or vecm result
+// draw one cointegrating relation (relation: N, default 1) as a single
+// series about the zero line. (The values themselves are checked against
+// analysis/johansen in TestJohansenRelationFigure.)
+func TestFigureJohansenRelation(t *testing.T) {
+	body := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel, south]\ndet: c\nlags: 1\nrank: 2\n") + "\n" +
+		fence("vecm", "id: v\nfrom: sys\n") + "\n" +
+		fence("figure", "id: z1\nresiduals: sys\ncaption: First relation\n") + "\n" +
+		fence("figure", "id: z2\nresiduals: v\nrelation: 2\nsample: 2005-01..\n") + "\n" +
+		fence("figure", "id: za\nplot: acf\nresiduals: sys\nlags: 4\n")
+	doc := mustBuild(t, body)
+	for _, tc := range []struct {
+		id      string
+		n       int
+		from    string
+		number  int
+		nameFor string
+	}{{"z1", 72, "2004-01", 1, "relation 1 of sys"}, {"z2", 60, "2005-01", 2, "relation 2 of v"}} {
+		r := result(t, doc, tc.id)
+		if got := drawnSeries(t, r.Figure.SVG, tc.n); got != 1 {
+			t.Errorf("%s draws %d series of %d points, want 1", tc.id, got, tc.n)
+		}
+		// the zero line: refColor of figures/style.go (#808080), two vertices
+		styles, verts := svgPaths(t, r.Figure.SVG)
+		zero := 0
+		for i, st := range styles {
+			if strings.Contains(st, "stroke:#808080") && verts[i] == 2 {
+				zero++
+			}
+		}
+		if zero != 1 {
+			t.Errorf("%s has %d zero lines, want 1", tc.id, zero)
+		}
+		rel := r.Values["relation"].(map[string]any)
+		if rel["number"] != tc.number || len(rel["values"].([]float64)) != tc.n || rel["dates"].([]string)[0] != tc.from {
+			t.Errorf("%s: relation number %v, %d values from %v; want %d, %d from %s", tc.id, rel["number"], len(rel["values"].([]float64)), rel["dates"].([]string)[0], tc.number, tc.n, tc.from)
+		}
+		// case c: drawn less its sample mean, so it averages zero
+		var sum float64
+		for _, v := range rel["values"].([]float64) {
+			sum += v
+		}
+		if math.Abs(sum/float64(tc.n)) > 1e-12 {
+			t.Errorf("%s: drawn relation has mean %g, want 0 (demeaned in case c)", tc.id, sum/float64(tc.n))
+		}
+		if s := r.Values["series"].([]map[string]any); len(s) != 1 || s[0]["name"] != tc.nameFor {
+			t.Errorf("%s: series %v, want one named %q", tc.id, s, tc.nameFor)
+		}
+	}
+	if a := result(t, doc, "za").Values["acf"].([]float64); len(a) != 4 {
+		t.Errorf("correlogram of relation 1 has %d lags, want 4", len(a))
+	}
+}
+
+// TestFigureJohansenRelationErrors: a relation out of range, a johansen
+// without relations, and relation where it does not belong are errors at
+// the line of the key at fault.
+func TestFigureJohansenRelationErrors(t *testing.T) {
+	// front matter lines 1–5; the johansen fence is line 7, its id 8, and
+	// its closing fence line 14; the figure fence is line 16, id 17,
+	// residuals 18, relation 19.
+	jo := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: c\nlags: 1\nrank: 1\n") + "\n"
+	jo0 := fence("johansen", "id: sys\ndata: grid\nseries: [south, fuel]\ndet: c\nlags: 1\nlevel: 0.01\n") + "\n"
+	ols := fence("ols", "id: sys\ndata: grid\ny: north\nx: [fuel]\nsample: 2004-01..\nconst: true\n") + "\n"
+	cases := []struct {
+		name, body string
+		want       []string
+	}{
+		{"out of range", jo + fence("figure", "id: f\nresiduals: sys\nrelation: 2\n"), []string{"paper.md:19:", `relation 2: "sys" (a johansen result, line 7) has 1 cointegrating relation (rank 1); give relation: 1`}},
+		{"zero", jo + fence("figure", "id: f\nresiduals: sys\nrelation: 0\n"), []string{"paper.md:19:", "numbered from 1"}},
+		{"rank 0", jo0 + fence("figure", "id: f\nresiduals: sys\n"), []string{"paper.md:18:", `"sys" (a johansen result, line 7) estimates no cointegrating relation: its rank is 0`, "set rank:"}},
+		{"not a system", ols + fence("figure", "id: f\nresiduals: sys\nrelation: 1\n"), []string{"paper.md:19:", `"sys" (kind ols) has none: drop relation`}},
+		{"without residuals", jo + fence("figure", "id: f\ndata: grid\nseries: [north]\nrelation: 1\n"), []string{"paper.md:20:", "give residuals: ID"}},
+		{"regression plot", jo + fence("figure", "id: f\nplot: cusum\ny: north\nx: [fuel]\nrelation: 1\n"), []string{"paper.md:21:", "plot cusum draws a regression"}},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := buildFig(t, tc.body)
+			if err == nil {
+				t.Fatal("no error")
+			}
+			msg, at := err.Error(), 0
+			for _, w := range tc.want {
+				i := strings.Index(msg[at:], w)
+				if i < 0 {
+					t.Fatalf("error %q lacks %q (in order)", msg, w)
+				}
+				at += i + len(w)
+			}
+		})
+	}
+}
+
+// TestFigureJohansenRelationFromCache: the relation drawn from a johansen
+// result reused from the cache (its values decoded from the cache file)
+// equals the one drawn when the johansen ran.
+func TestFigureJohansenRelationFromCache(t *testing.T) {
+	src := front + "\n" + fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: rc\nlags: 1\nrank: 1\n") + "\n" +
+		fence("figure", "id: z\nresiduals: sys\n")
+	p := writeProject(t, src, map[string]string{"data.csv": figCSV()})
+	opts := Options{Cache: &Cache{Dir: t.TempDir(), Version: "test"}}
+	run := func() ([]float64, *Document) {
+		d, err := Parse(p, opts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := d.Run(); err != nil {
+			t.Fatal(err)
+		}
+		return result(t, d, "z").Values["relation"].(map[string]any)["values"].([]float64), d
+	}
+	first, _ := run()
+	if err := os.WriteFile(p, []byte(strings.Replace(src, "residuals: sys\n", "residuals: sys\ncaption: Again\n", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	second, d := run()
+	if fmt.Sprint(d.Reused()) != "[sys]" {
+		t.Fatalf("second build reused %v, want [sys] (the johansen from the cache)", d.Reused())
+	}
+	if !slices.Equal(first, second) || len(first) != 72 {
+		t.Errorf("relation from the cache differs (%d and %d values)", len(first), len(second))
 	}
 }

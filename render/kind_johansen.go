@@ -67,7 +67,7 @@ type varLagsSpec struct {
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
 	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
-	"crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+	"relations", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
 	Register(Kind{Name: "johansen", Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
@@ -707,12 +707,55 @@ func (s *sysState) values() map[string]any {
 		}
 	}
 	v["beta"], v["beta_se"], v["alpha"], v["alpha_se"] = beta, betaSE, alpha, alphaSE
+	v["relations"] = s.relations()
 	tests := []map[string]any{}
 	for _, t := range s.tests {
 		tests = append(tests, map[string]any{"name": t.Name, "hypothesis": t.Hyp, "stat": t.LR.Stat, "df": t.LR.DF, "p": t.LR.P})
 	}
 	v["tests"] = tests
 	return v
+}
+
+// relations is the results-file form of the estimated cointegrating
+// relations over the sample: one dated series per relation j,
+//
+//	z_jt = β_j'ỹ_t,  ỹ_t = y_t (cases n, c, ct), (y_t', 1)' (rc), (y_t', t+1)' (rt),
+//
+// at every observation t = 0 … N−1 of the levels in the directive's sample
+// (the first k+1 enter the estimation only as lags). The restricted trend
+// takes the value t+1 at row t, as in the VECM, where β'ỹ_{t−1} pairs
+// y_{t−1} with the trend value of the row of Δy_t (analysis/johansen.Test).
+// In cases n and rc z_jt is the equilibrium error as estimated, level
+// included. In cases c, rt and ct the unrestricted constant absorbs any
+// shift of the relation, so z_jt has an arbitrary level (in rt the trend
+// origin is a convention for the same reason; in ct z_jt may also carry a
+// linear trend, absorbed by the unrestricted trend).
+func (s *sysState) relations() []map[string]any {
+	m, d := s.vecm, s.d
+	K := s.res.K
+	dates := make([]string, d.N())
+	for i, dt := range d.Dates {
+		dates[i] = dt.String()
+	}
+	out := make([]map[string]any, s.rank)
+	for j := 0; j < s.rank; j++ {
+		z := make([]float64, d.N())
+		for t := range z {
+			var v float64
+			for i := 0; i < K; i++ {
+				v += m.Beta.At(i, j) * d.Cols[i][t]
+			}
+			switch s.res.Case {
+			case johansen.RC:
+				v += m.Beta.At(K, j)
+			case johansen.RT:
+				v += m.Beta.At(K, j) * float64(t+1)
+			}
+			z[t] = v
+		}
+		out[j] = map[string]any{"dates": dates, "values": z}
+	}
+	return out
 }
 
 // lagPhrase says how the lags were set.

@@ -12,6 +12,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
 )
 
@@ -532,5 +533,136 @@ func TestJohansenVecmAfterCache(t *testing.T) {
 		if a != b {
 			t.Errorf("short-run term %d: %v before, %v after the cache", k, a, b)
 		}
+	}
+}
+
+// TestJohansenRelationFigure: a figure of a johansen (or vecm) relation
+// draws β_j'ỹ_t for every observation of the levels, with ỹ_t = (y_t, 1)
+// in case rc and (y_t, t+1) in case rt, less its sample mean in the cases
+// with an unrestricted constant (c, rt). Expected values: β from
+// analysis/johansen Estimate on the Danish data (testdata/data/denmark.csv),
+// the relation formed here (tolerance 1e-10). A check of the series'
+// timing: regressing Δy_it by least squares (analysis/ols) on the
+// unrestricted deterministic terms, the plotted relations at t−1 and
+// Δy_{t−1} must reproduce the loadings α_i that the johansen result reports
+// (α̂ = S01β(β'S11β)⁻¹ is that regression's coefficient by Frisch–Waugh;
+// tolerance 1e-8 relative), which fails if a relation is shifted by a
+// period, or in case rc if its restricted constant is left out.
+func TestJohansenRelationFigure(t *testing.T) {
+	y := sysDenmark(t)
+	n, k := y.Dims()
+	files := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
+	for _, tc := range []struct {
+		det  string
+		cs   johansen.Case
+		rank int
+		from string // "vecm": the figure names a vecm built from the johansen
+	}{
+		{"rc", johansen.RC, 1, ""},
+		{"rt", johansen.RT, 2, "vecm"},
+		{"c", johansen.C, 2, ""},
+		{"n", johansen.N, 1, "vecm"},
+	} {
+		t.Run(tc.det, func(t *testing.T) {
+			res, err := johansen.Test(y, tc.cs, 1)
+			if err != nil {
+				t.Fatal(err)
+			}
+			norm := []int{0, 1}[:tc.rank]
+			m, err := res.Estimate(tc.rank, norm)
+			if err != nil {
+				t.Fatal(err)
+			}
+			target := "dk"
+			doc := sysDKFront + "\n" + fence("johansen", fmt.Sprintf("id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: %s\nlags: 1\nrank: %d\nnormalize: [%s]\n", tc.det, tc.rank, strings.Join([]string{"LRM", "LRY"}[:tc.rank], ", ")))
+			if tc.from == "vecm" {
+				doc += "\n" + fence("vecm", "id: dkv\nfrom: dk\n")
+				target = "dkv"
+			}
+			for j := 1; j <= tc.rank; j++ {
+				doc += "\n" + fence("figure", fmt.Sprintf("id: z%d\nresiduals: %s\nrelation: %d\n", j, target, j))
+			}
+			d, err := Parse(writeProject(t, doc, files), Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if err := d.Run(); err != nil {
+				t.Fatal(err)
+			}
+			byID := map[string]*Result{}
+			for _, r := range d.Results() {
+				byID[r.ID] = r
+			}
+			plotted := make([][]float64, tc.rank)
+			for j := 0; j < tc.rank; j++ {
+				want := make([]float64, n)
+				var mean float64
+				for r := 0; r < n; r++ {
+					for i := 0; i < k; i++ {
+						want[r] += m.Beta.At(i, j) * y.At(r, i)
+					}
+					switch tc.cs {
+					case johansen.RC:
+						want[r] += m.Beta.At(k, j)
+					case johansen.RT:
+						want[r] += m.Beta.At(k, j) * float64(r+1)
+					}
+					mean += want[r] / float64(n)
+				}
+				if tc.cs != johansen.C && tc.cs != johansen.RT {
+					mean = 0
+				}
+				rel := byID[fmt.Sprintf("z%d", j+1)].Values["relation"].(map[string]any)
+				got := rel["values"].([]float64)
+				if len(got) != n {
+					t.Fatalf("relation %d: %d values plotted, want %d (every observation)", j+1, len(got), n)
+				}
+				if dates := rel["dates"].([]string); dates[0] != "1974Q1" || dates[n-1] != "1987Q3" {
+					t.Errorf("relation %d runs %s–%s, want 1974Q1–1987Q3", j+1, dates[0], dates[n-1])
+				}
+				if mr := rel["mean_removed"].(float64); math.Abs(mr-mean) > 1e-10*math.Max(1, math.Abs(mean)) {
+					t.Errorf("relation %d: mean removed %.12g, want %.12g", j+1, mr, mean)
+				}
+				for r := range got {
+					if !sysNear(got[r], want[r]-mean, 1e-10) {
+						t.Fatalf("relation %d at row %d: plotted %.14g, β'ỹ from Estimate %.14g", j+1, r, got[r], want[r]-mean)
+					}
+				}
+				plotted[j] = got
+			}
+			// Δy_it on [unrestricted terms, plotted relations at t−1, Δy_{t−1}], t = 2 … n−1
+			du := map[johansen.Case]int{johansen.N: 0, johansen.RC: 0, johansen.C: 1, johansen.RT: 1, johansen.CT: 2}[tc.cs]
+			rows := n - 2
+			x := mat.NewDense(rows, du+tc.rank+k, nil)
+			for r := 0; r < rows; r++ {
+				s := r + 2
+				if du >= 1 {
+					x.Set(r, 0, 1)
+				}
+				for j := 0; j < tc.rank; j++ {
+					x.Set(r, du+j, plotted[j][s-1])
+				}
+				for i := 0; i < k; i++ {
+					x.Set(r, du+tc.rank+i, y.At(s-1, i)-y.At(s-2, i))
+				}
+			}
+			names := []string{"LRM", "LRY", "IBO", "IDE"}
+			for i := 0; i < k; i++ {
+				dy := make([]float64, rows)
+				for r := range dy {
+					dy[r] = y.At(r+2, i) - y.At(r+1, i)
+				}
+				fit, err := ols.Regress(dy, x)
+				if err != nil {
+					t.Fatal(err)
+				}
+				for j := 0; j < tc.rank; j++ {
+					alpha := byID["dk"].Values["alpha"].([]map[string]any)[j][names[i]].(float64)
+					if !sysNear(fit.Coef[du+j], alpha, 1e-8) {
+						t.Errorf("Δ%s on relation %d at t−1: least squares %.12g, the result's α %.12g", names[i], j+1, fit.Coef[du+j], alpha)
+					}
+				}
+			}
+		})
 	}
 }
