@@ -717,42 +717,17 @@ func (s *sysState) values() map[string]any {
 }
 
 // relations is the results-file form of the estimated cointegrating
-// relations over the sample: one dated series per relation j,
-//
-//	z_jt = β_j'ỹ_t,  ỹ_t = y_t (cases n, c, ct), (y_t', 1)' (rc), (y_t', t+1)' (rt),
-//
-// at every observation t = 0 … N−1 of the levels in the directive's sample
-// (the first k+1 enter the estimation only as lags). The restricted trend
-// takes the value t+1 at row t, as in the VECM, where β'ỹ_{t−1} pairs
-// y_{t−1} with the trend value of the row of Δy_t (analysis/johansen.Test).
-// In cases n and rc z_jt is the equilibrium error as estimated, level
-// included. In cases c, rt and ct the unrestricted constant absorbs any
-// shift of the relation, so z_jt has an arbitrary level (in rt the trend
-// origin is a convention for the same reason; in ct z_jt may also carry a
-// linear trend, absorbed by the unrestricted trend).
+// relations β_j'ỹ_t over the directive's sample, one dated series per
+// relation (johansen.VECM.Relations gives the formula and the meaning of
+// their levels in each case).
 func (s *sysState) relations() []map[string]any {
-	m, d := s.vecm, s.d
-	K := s.res.K
-	dates := make([]string, d.N())
-	for i, dt := range d.Dates {
+	dates := make([]string, s.d.N())
+	for i, dt := range s.d.Dates {
 		dates[i] = dt.String()
 	}
-	out := make([]map[string]any, s.rank)
-	for j := 0; j < s.rank; j++ {
-		z := make([]float64, d.N())
-		for t := range z {
-			var v float64
-			for i := 0; i < K; i++ {
-				v += m.Beta.At(i, j) * d.Cols[i][t]
-			}
-			switch s.res.Case {
-			case johansen.RC:
-				v += m.Beta.At(K, j)
-			case johansen.RT:
-				v += m.Beta.At(K, j) * float64(t+1)
-			}
-			z[t] = v
-		}
+	zs := s.vecm.Relations(s.res.Case, levelsMatrix(s.d))
+	out := make([]map[string]any, len(zs))
+	for j, z := range zs {
 		out[j] = map[string]any{"dates": dates, "values": z}
 	}
 	return out

@@ -311,3 +311,38 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	}
 	return nil
 }
+
+// Relations returns the estimated cointegrating relations over the rows
+// of y (the levels, T×K, in the order Test saw them):
+//
+//	z_jt = β_j'ỹ_t,  ỹ_t = y_t (cases N, C, CT), (y_t', 1)' (RC), (y_t', t+1)' (RT),
+//
+// one slice per relation. The restricted trend takes the value t+1 at row
+// t, as in the VECM, where β'ỹ_{t−1} pairs y_{t−1} with the trend value of
+// the row of Δy_t (see Test). In cases N and RC z_jt is the equilibrium
+// error as estimated, level included; in C, RT and CT the unrestricted
+// constant absorbs any shift of the relation, so its level is arbitrary
+// (and in CT it may carry a linear trend, absorbed by the unrestricted
+// trend).
+func (m *VECM) Relations(c Case, y *mat.Dense) [][]float64 {
+	rows, k := y.Dims()
+	out := make([][]float64, m.Rank)
+	for j := range out {
+		z := make([]float64, rows)
+		for t := range z {
+			var v float64
+			for i := 0; i < k; i++ {
+				v += m.Beta.At(i, j) * y.At(t, i)
+			}
+			switch c {
+			case RC:
+				v += m.Beta.At(k, j)
+			case RT:
+				v += m.Beta.At(k, j) * float64(t+1)
+			}
+			z[t] = v
+		}
+		out[j] = z
+	}
+	return out
+}
