@@ -58,7 +58,7 @@ func (s *poSpec) Check(c *Context) error {
 		return c.Errorf("", "galley po: the key \"x\" is required (one or more regressors)")
 	}
 	if len(s.X) > coint.POMaxRegressors {
-		return c.Errorf("x", "%d regressors is beyond the Phillips–Ouliaris (1990) tables (at most %d); simulated critical values (crit: simulate) are planned but not yet available", len(s.X), coint.POMaxRegressors)
+		return c.Errorf("x", "%d regressors is beyond the Phillips–Ouliaris (1990) tables (at most %d); use engle-granger, which takes up to 11 regressors and offers simulated critical values (crit: simulate)", len(s.X), coint.POMaxRegressors)
 	}
 	if _, _, err := s.settings(c); err != nil {
 		return err
