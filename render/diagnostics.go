@@ -1,6 +1,8 @@
 package render
 
 import (
+	"crypto/sha256"
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"math"
@@ -99,8 +101,11 @@ type diagResult struct {
 	Test  diag.Test
 }
 
-// runDiagnostics computes the diagnostics of a fit.
-func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq) ([]diagResult, error) {
+// runDiagnostics computes the diagnostics of a fit. dwNull gives the null
+// distribution of the Durbin–Watson statistic for a design (memoised per
+// build: it costs an eigenvalue decomposition, and a grid of models on the
+// same regressors shares it).
+func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq, dwNull func(*ols.Fit) (*diag.DWNull, error)) ([]diagResult, error) {
 	var out []diagResult
 	for _, it := range items {
 		r := it.Order
@@ -141,8 +146,10 @@ func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq) ([]diagResul
 			// The exact p-value P(d ≤ d̂) under normal errors given the
 			// regressors; past diag.MaxExactDWObs observations the
 			// statistic alone (the note says so).
-			t, err = diag.DurbinWatsonExact(f)
-			if errors.Is(err, diag.ErrDWTooLarge) {
+			var nd *diag.DWNull
+			if nd, err = dwNull(f); err == nil {
+				t = diag.Test{Name: "Durbin–Watson", Stat: f.DW(), PValue: nd.CDF(f.DW())}
+			} else if errors.Is(err, diag.ErrDWTooLarge) {
 				t, err = diag.DurbinWatson(f)
 			}
 			label = "Durbin–Watson"
@@ -238,4 +245,33 @@ func diagNote(ds []diagResult) string {
 		}
 	}
 	return parts[0] + ": " + strings.Join(parts[1:], "; ") + "."
+}
+
+// dwNull returns the Durbin–Watson null distribution for the design of f,
+// computed once per build for each distinct design.
+func (c *Context) dwNull(f *ols.Fit) (*diag.DWNull, error) {
+	h := sha256.New()
+	n, k := f.X().Dims()
+	var buf [8]byte
+	binary.LittleEndian.PutUint64(buf[:], uint64(n*1000003+k))
+	h.Write(buf[:])
+	for i := 0; i < n; i++ {
+		for j := 0; j < k; j++ {
+			binary.LittleEndian.PutUint64(buf[:], math.Float64bits(f.X().At(i, j)))
+			h.Write(buf[:])
+		}
+	}
+	key := string(h.Sum(nil))
+	if nd, ok := c.doc.dwMemo[key]; ok {
+		return nd, nil
+	}
+	nd, err := diag.NewDWNull(f.X())
+	if err != nil {
+		return nil, err
+	}
+	if c.doc.dwMemo == nil {
+		c.doc.dwMemo = map[string]*diag.DWNull{}
+	}
+	c.doc.dwMemo[key] = nd
+	return nd, nil
 }

@@ -12,6 +12,7 @@ import (
 	"github.com/yuin/goldmark/text"
 	"gopkg.in/yaml.v3"
 
+	"github.com/galley-econ/galley/analysis/diag"
 	"github.com/galley-econ/galley/analysis/series"
 )
 
@@ -42,7 +43,8 @@ type Document struct {
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
 
-	src    []byte // the manuscript as read (normalised line ends)
+	src    []byte                  // the manuscript as read (normalised line ends)
+	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
 	blocks []*block
 	byID   map[string]*block
 	refs   []*RefNode

@@ -155,7 +155,7 @@ func (s *ecmSpec) Run(c *Context) (*Result, error) {
 		}
 		return nil, c.Errorf(key, "error-correction model of %s: %v", rel.Y, err)
 	}
-	diags, err := runDiagnostics(m.Fit, items, d.Freq)
+	diags, err := runDiagnostics(m.Fit, items, d.Freq, c.dwNull)
 	if err != nil {
 		return nil, c.Errorf("diagnostics", "%v", err)
 	}

@@ -3,6 +3,7 @@
 package atomicfile
 
 import (
+	"bytes"
 	"fmt"
 	"os"
 	"path/filepath"
@@ -68,8 +69,13 @@ type Set struct {
 
 type staged struct{ path, tmp string }
 
-// Stage writes data to a temporary file beside path.
+// Stage writes data to a temporary file beside path. A file that already
+// holds exactly data is left as it is (not rewritten, not synced), so a
+// rebuild that changes nothing writes nothing.
 func (s *Set) Stage(path string, data []byte) error {
+	if old, err := os.ReadFile(path); err == nil && bytes.Equal(old, data) {
+		return nil
+	}
 	dir := filepath.Dir(path)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
