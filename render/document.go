@@ -13,7 +13,6 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/diag"
-	"github.com/galley-econ/galley/analysis/series"
 )
 
 // Options control how a manuscript is read.
@@ -422,8 +421,6 @@ type Input struct {
 	Path   string `json:"path"`
 	SHA256 string `json:"sha256"`
 }
-
-var _ = series.Undated
 
 // Directives is the number of directive blocks.
 func (d *Document) Directives() int { return len(d.blocks) }

@@ -10,7 +10,6 @@ import (
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/renderer"
-	ghtml "github.com/yuin/goldmark/renderer/html"
 	"github.com/yuin/goldmark/util"
 
 	"github.com/galley-econ/galley/templates"
@@ -289,5 +288,3 @@ func stripXMLProlog(b []byte) []byte {
 	}
 	return b
 }
-
-var _ = ghtml.WithUnsafe

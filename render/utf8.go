@@ -1,7 +1,6 @@
 package render
 
 import (
-	"bytes"
 	"unicode/utf8"
 )
 
@@ -19,6 +18,5 @@ func firstBadUTF8Line(b []byte) int {
 		}
 		b = b[size:]
 	}
-	_ = bytes.MinRead
 	return line
 }
