@@ -424,6 +424,3 @@ type Input struct {
 
 // Directives is the number of directive blocks.
 func (d *Document) Directives() int { return len(d.blocks) }
-
-// InlineValues is the number of inline value references.
-func (d *Document) InlineValues() int { return len(d.refs) }

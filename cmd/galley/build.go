@@ -149,9 +149,6 @@ func (c *checkCmd) Run() error {
 	if err != nil {
 		return err
 	}
-	if err := doc.Check(); err != nil {
-		return err
-	}
-	fmt.Fprintf(os.Stdout, "%s: %d directives, %d inline values: no problems found\n", c.Manuscript, doc.Directives(), doc.InlineValues())
-	return nil
+	// Quiet on success, as every command: the exit code says it.
+	return doc.Check()
 }
