@@ -18,53 +18,15 @@ import (
 // sysLags is the `lags:` key of a VECM: a number of lagged differences
 // (`lags: 1`), a criterion with the default maximum (`lags: bic`), or a
 // criterion with a maximum (`lags: {select: aic, max: 8}`).
-type sysLags struct {
-	Set    bool
-	Fixed  int
-	Select string
-	Max    *int
-}
-
-const sysLagsHelp = "lags: write a number of lagged differences, a criterion (aic, bic, hq), or {select: aic, max: 8}"
+type sysLags struct{ lagChoice }
 
 func (l *sysLags) UnmarshalYAML(n *yaml.Node) error {
-	l.Set = true
-	switch n.Kind {
-	case yaml.ScalarNode:
-		var k int
-		if err := n.Decode(&k); err == nil {
-			if k < 0 {
-				return fmt.Errorf("line %d: lags must be zero or more, got %d", n.Line, k)
-			}
-			l.Fixed = k
-			return nil
+	return l.decode(n, func(s string) error {
+		if !slices.Contains(sysCriteria, strings.ToLower(s)) {
+			return fmt.Errorf("select must be aic, bic or hq, not %q", s)
 		}
-		if !slices.Contains(sysCriteria, strings.ToLower(n.Value)) {
-			return fmt.Errorf("line %d: %s", n.Line, sysLagsHelp)
-		}
-		l.Select = strings.ToLower(n.Value)
 		return nil
-	case yaml.MappingNode:
-		var m struct {
-			Select string `yaml:"select"`
-			Max    *int   `yaml:"max"`
-		}
-		if err := checkKeys(n, &m); err != nil {
-			return err
-		}
-		if err := n.Decode(&m); err != nil {
-			return err
-		}
-		if !slices.Contains(sysCriteria, strings.ToLower(m.Select)) {
-			return fmt.Errorf("line %d: lags: select must be aic, bic or hq, not %q", n.Line, m.Select)
-		}
-		if m.Max != nil && *m.Max < 0 {
-			return fmt.Errorf("line %d: lags: max must be zero or more", n.Line)
-		}
-		l.Select, l.Max = strings.ToLower(m.Select), m.Max
-		return nil
-	}
-	return fmt.Errorf("line %d: %s", n.Line, sysLagsHelp)
+	}, "lags: write a number of lagged differences, a criterion (aic, bic, hq), or {select: aic, max: 8}")
 }
 
 var sysCriteria = []string{"aic", "bic", "hq"}

@@ -9,17 +9,18 @@ import (
 	"github.com/galley-econ/galley/analysis/unitroot"
 )
 
-// LagSpec is the `lags:` key of a test: a fixed number (`lags: 4`), a
-// selector with the default maximum (`lags: aic`), or a selector with a
-// maximum (`lags: {select: aic, max: 12}`).
-type LagSpec struct {
+// lagChoice is the grammar every `lags:` key shares: a fixed number
+// (`lags: 4`), a selector with the default maximum (`lags: aic`), or a
+// selector with a maximum (`lags: {select: aic, max: 12}`). Which
+// selectors a key accepts is for its kind to say (valid).
+type lagChoice struct {
 	Set    bool
 	Fixed  int
 	Select string
 	Max    *int
 }
 
-func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
+func (l *lagChoice) decode(n *yaml.Node, valid func(string) error, help string) error {
 	l.Set = true
 	switch n.Kind {
 	case yaml.ScalarNode:
@@ -31,8 +32,8 @@ func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
 			l.Fixed = k
 			return nil
 		}
-		if _, err := unitroot.ParseSelector(n.Value); err != nil {
-			return fmt.Errorf("line %d: lags: write a number, a selector (aic, bic, tstat), or {select: aic, max: 12}", n.Line)
+		if valid(n.Value) != nil {
+			return fmt.Errorf("line %d: %s", n.Line, help)
 		}
 		l.Select = strings.ToLower(n.Value)
 		return nil
@@ -47,7 +48,7 @@ func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
 		if err := n.Decode(&m); err != nil {
 			return err
 		}
-		if _, err := unitroot.ParseSelector(m.Select); err != nil {
+		if err := valid(m.Select); err != nil {
 			return fmt.Errorf("line %d: lags: %v", n.Line, err)
 		}
 		if m.Max != nil && *m.Max < 0 {
@@ -56,7 +57,16 @@ func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
 		l.Select, l.Max = strings.ToLower(m.Select), m.Max
 		return nil
 	}
-	return fmt.Errorf("line %d: lags: write a number, a selector (aic, bic, tstat), or {select: aic, max: 12}", n.Line)
+	return fmt.Errorf("line %d: %s", n.Line, help)
+}
+
+// LagSpec is the `lags:` key of a unit-root or residual-based test, with
+// the selectors aic, bic and tstat.
+type LagSpec struct{ lagChoice }
+
+func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
+	return l.decode(n, func(s string) error { _, err := unitroot.ParseSelector(s); return err },
+		"lags: write a number, a selector (aic, bic, tstat), or {select: aic, max: 12}")
 }
 
 // Rule converts the spec into a lag rule; def is used when lags is absent.

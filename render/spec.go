@@ -26,8 +26,8 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 	for t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}
-	if reflect.PointerTo(t).Implements(unmarshalerType) && n.Kind != yaml.MappingNode {
-		return nil
+	if reflect.PointerTo(t).Implements(unmarshalerType) {
+		return nil // such types decode, and check, their own keys
 	}
 	switch t.Kind() {
 	case reflect.Struct:
