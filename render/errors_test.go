@@ -87,15 +87,20 @@ func TestBadInput(t *testing.T) {
 			if err == nil {
 				t.Fatal("no error")
 			}
-			msg := err.Error()
-			at := 0
-			for _, w := range tc.want {
-				i := strings.Index(msg[at:], w)
-				if i < 0 {
-					t.Fatalf("error %q lacks %q (in order)", msg, w)
-				}
-				at += i + len(w)
-			}
+			inOrder(t, err.Error(), tc.want)
 		})
+	}
+}
+
+// inOrder fails the test unless msg contains each of want, in order.
+func inOrder(t *testing.T, msg string, want []string) {
+	t.Helper()
+	at := 0
+	for _, w := range want {
+		i := strings.Index(msg[at:], w)
+		if i < 0 {
+			t.Fatalf("error %q lacks %q (in order)", msg, w)
+		}
+		at += i + len(w)
 	}
 }

@@ -130,15 +130,7 @@ func runBad(t *testing.T, doc string, files map[string]string, want ...string) {
 	if err == nil {
 		t.Fatal("no error")
 	}
-	msg := err.Error()
-	at := 0
-	for _, w := range want {
-		i := strings.Index(msg[at:], w)
-		if i < 0 {
-			t.Fatalf("error %q lacks %q (in order)", msg, w)
-		}
-		at += i + len(w)
-	}
+	inOrder(t, err.Error(), want)
 }
 
 // checkEG compares an engle-granger result (or one of its rows) with

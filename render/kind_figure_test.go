@@ -321,14 +321,7 @@ func TestFigureBadInput(t *testing.T) {
 			if err == nil {
 				t.Fatal("no error")
 			}
-			msg, at := err.Error(), 0
-			for _, w := range tc.want {
-				i := strings.Index(msg[at:], w)
-				if i < 0 {
-					t.Fatalf("error %q lacks %q (in order)", msg, w)
-				}
-				at += i + len(w)
-			}
+			inOrder(t, err.Error(), tc.want)
 		})
 	}
 }
@@ -414,14 +407,7 @@ func TestFigureJohansenRelationErrors(t *testing.T) {
 			if err == nil {
 				t.Fatal("no error")
 			}
-			msg, at := err.Error(), 0
-			for _, w := range tc.want {
-				i := strings.Index(msg[at:], w)
-				if i < 0 {
-					t.Fatalf("error %q lacks %q (in order)", msg, w)
-				}
-				at += i + len(w)
-			}
+			inOrder(t, err.Error(), tc.want)
 		})
 	}
 }

@@ -453,15 +453,7 @@ func TestJohansenBadInput(t *testing.T) {
 			if err == nil {
 				t.Fatal("no error")
 			}
-			msg := err.Error()
-			pos := 0
-			for _, w := range tc.want {
-				i := strings.Index(msg[pos:], w)
-				if i < 0 {
-					t.Fatalf("error %q lacks %q (in order)", msg, w)
-				}
-				pos += i + len(w)
-			}
+			inOrder(t, err.Error(), tc.want)
 		})
 	}
 }
