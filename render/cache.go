@@ -143,7 +143,22 @@ func (d *Document) specKey(b *block, version string) string {
 // columnHash hashes one data column (or, for col "", the date axis). An
 // alias "file:PATH" stands for a whole data file (relative to the
 // manuscript), which a revision report reads through another build.
+// Hashes are remembered for the build: every block that read a column
+// checks it against the same hash.
 func (d *Document) columnHash(alias, col string) (string, bool) {
+	key := [2]string{alias, col}
+	if h, ok := d.hashes[key]; ok {
+		return h, h != ""
+	}
+	h, ok := d.hashColumn(alias, col)
+	if d.hashes == nil {
+		d.hashes = map[[2]string]string{}
+	}
+	d.hashes[key] = h
+	return h, ok
+}
+
+func (d *Document) hashColumn(alias, col string) (string, bool) {
 	if p, ok := strings.CutPrefix(alias, "file:"); ok {
 		full, err := confine(d.Dir, p, d.opts.AllowOutside)
 		if err != nil {

@@ -44,6 +44,7 @@ type Document struct {
 
 	src    []byte                  // the manuscript as read (normalised line ends)
 	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
+	hashes map[[2]string]string    // data column hashes, by (alias, column)
 	blocks []*block
 	byID   map[string]*block
 	refs   []*RefNode
