@@ -29,7 +29,7 @@ import (
 	"github.com/galley-econ/galley/analysis/unitroot"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/render"
+	"github.com/galley-econ/galley/engine"
 )
 
 // Sizes of the workloads.
@@ -238,16 +238,16 @@ func (p Phases) Total() time.Duration { return p.Parse + p.Run + p.Render + p.Wr
 // render HTML and the results file in memory, and write them with the
 // figures (SVG and PDF) into out/ beside the manuscript through one
 // atomicfile.Set. It returns the document and the time of each step.
-func Build(manuscript string, cache bool) (*render.Document, Phases, error) {
+func Build(manuscript string, cache bool) (*engine.Document, Phases, error) {
 	var ph Phases
 	t0 := time.Now()
 	dir := filepath.Dir(manuscript)
-	var opts render.Options
+	var opts engine.Options
 	if cache {
 		cd := filepath.Join(dir, ".galley-cache")
-		opts.Cache = &render.Cache{Dir: cd, Version: version.BuildID(cd)}
+		opts.Cache = &engine.Cache{Dir: cd, Version: version.BuildID(cd)}
 	}
-	doc, err := render.Parse(manuscript, opts)
+	doc, err := engine.Parse(manuscript, opts)
 	if err != nil {
 		return nil, ph, err
 	}
@@ -263,13 +263,13 @@ func Build(manuscript string, cache bool) (*render.Document, Phases, error) {
 	if files[base+".results.json"], err = doc.ResultsJSON(version.Version); err != nil {
 		return nil, ph, err
 	}
-	if files[base+".html"], err = doc.HTML(render.HTMLOptions{Version: version.Version}); err != nil {
+	if files[base+".html"], err = doc.HTML(engine.HTMLOptions{Version: version.Version}); err != nil {
 		return nil, ph, err
 	}
 	for _, r := range doc.Results() {
 		if r.Figure != nil {
-			files[filepath.Join(render.FigureFolder, r.ID+".svg")] = r.Figure.SVG
-			files[filepath.Join(render.FigureFolder, r.ID+".pdf")] = r.Figure.PDF
+			files[filepath.Join(engine.FigureFolder, r.ID+".svg")] = r.Figure.SVG
+			files[filepath.Join(engine.FigureFolder, r.ID+".pdf")] = r.Figure.PDF
 		}
 	}
 	t3 := time.Now()

@@ -8,7 +8,7 @@ import (
 
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/render"
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/revision"
 )
 
@@ -25,11 +25,11 @@ type buildCmd struct {
 }
 
 func (b *buildCmd) Run() error {
-	opts := render.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage, PNG: b.PNG}
+	opts := engine.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage, PNG: b.PNG}
 	if !b.NoCache {
 		opts.Cache = cacheFor(b.Manuscript, b.Fresh)
 	}
-	doc, err := render.Parse(b.Manuscript, opts)
+	doc, err := engine.Parse(b.Manuscript, opts)
 	if err != nil {
 		return err
 	}
@@ -79,7 +79,7 @@ func (b *buildCmd) Run() error {
 // outputs renders every requested format in memory, keyed by path
 // relative to the output folder. Nothing touches the disk until all of
 // them have rendered.
-func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]byte, error) {
+func outputs(doc *engine.Document, formats []string, pngDPI int) (map[string][]byte, error) {
 	base := strings.TrimSuffix(filepath.Base(doc.File), filepath.Ext(doc.File))
 	files := map[string][]byte{}
 	results, err := doc.ResultsJSON(version.Version)
@@ -90,24 +90,24 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 	for _, f := range formats {
 		switch f {
 		case "html":
-			b, err := doc.HTML(render.HTMLOptions{Version: version.Version})
+			b, err := doc.HTML(engine.HTMLOptions{Version: version.Version})
 			if err != nil {
 				return nil, err
 			}
 			files[base+".html"] = b
 		case "latex", "tex":
-			b, err := doc.LaTeX(render.LaTeXOptions{Version: version.Version, FigureDir: render.FigureFolder})
+			b, err := doc.LaTeX(engine.LaTeXOptions{Version: version.Version, FigureDir: engine.FigureFolder})
 			if err != nil {
 				return nil, err
 			}
 			files[base+".tex"] = b
 			for _, r := range doc.Results() {
 				if r.Table != nil {
-					files[filepath.Join("tables", r.ID+".tex")] = render.LaTeXTable(r)
+					files[filepath.Join("tables", r.ID+".tex")] = engine.LaTeXTable(r)
 				}
 			}
 		case "markdown", "md":
-			b, err := doc.Markdown(render.MarkdownOptions{FigureDir: render.FigureFolder})
+			b, err := doc.Markdown(engine.MarkdownOptions{FigureDir: engine.FigureFolder})
 			if err != nil {
 				return nil, err
 			}
@@ -120,8 +120,8 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 	// names both), whatever the formats asked for.
 	for _, r := range doc.Results() {
 		if r.Figure != nil {
-			files[filepath.Join(render.FigureFolder, r.ID+".svg")] = r.Figure.SVG
-			files[filepath.Join(render.FigureFolder, r.ID+".pdf")] = r.Figure.PDF
+			files[filepath.Join(engine.FigureFolder, r.ID+".svg")] = r.Figure.SVG
+			files[filepath.Join(engine.FigureFolder, r.ID+".pdf")] = r.Figure.PDF
 		}
 	}
 	if pngDPI > 0 {
@@ -131,7 +131,7 @@ func outputs(doc *render.Document, formats []string, pngDPI int) (map[string][]b
 				if err != nil {
 					return nil, err
 				}
-				files[filepath.Join(render.FigureFolder, r.ID+".png")] = png
+				files[filepath.Join(engine.FigureFolder, r.ID+".png")] = png
 			}
 		}
 	}
@@ -145,7 +145,7 @@ type checkCmd struct {
 }
 
 func (c *checkCmd) Run() error {
-	doc, err := render.Parse(c.Manuscript, render.Options{AllowOutside: c.AllowOutside, Vintage: c.Vintage})
+	doc, err := engine.Parse(c.Manuscript, engine.Options{AllowOutside: c.AllowOutside, Vintage: c.Vintage})
 	if err != nil {
 		return err
 	}

@@ -8,7 +8,7 @@ import (
 
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/render"
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/revision"
 )
 
@@ -76,7 +76,7 @@ func writeReport(rep *revision.Report, path string) error {
 // buildVintage runs the manuscript on one data vintage (using the cache)
 // and returns its results as a results file.
 func buildVintage(manuscript, vintage string) (*revision.File, error) {
-	doc, err := render.Parse(manuscript, render.Options{Vintage: vintage, Cache: cacheFor(manuscript, false)})
+	doc, err := engine.Parse(manuscript, engine.Options{Vintage: vintage, Cache: cacheFor(manuscript, false)})
 	if err != nil {
 		return nil, err
 	}
@@ -86,7 +86,7 @@ func buildVintage(manuscript, vintage string) (*revision.File, error) {
 	return resultsOf(doc, fmt.Sprintf("%s [vintage %s]", manuscript, vintage))
 }
 
-func resultsOf(doc *render.Document, label string) (*revision.File, error) {
+func resultsOf(doc *engine.Document, label string) (*revision.File, error) {
 	b, err := doc.ResultsJSON(version.Version)
 	if err != nil {
 		return nil, err
@@ -107,7 +107,7 @@ func resultsOf(doc *render.Document, label string) (*revision.File, error) {
 }
 
 // cacheFor is the result cache beside a manuscript.
-func cacheFor(manuscript string, fresh bool) *render.Cache {
+func cacheFor(manuscript string, fresh bool) *engine.Cache {
 	dir := filepath.Join(filepath.Dir(manuscript), ".galley-cache")
-	return &render.Cache{Dir: dir, Version: version.BuildID(dir), Fresh: fresh}
+	return &engine.Cache{Dir: dir, Version: version.BuildID(dir), Fresh: fresh}
 }

@@ -21,7 +21,7 @@ import (
 
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/render"
+	"github.com/galley-econ/galley/engine"
 )
 
 type watchCmd struct {
@@ -51,8 +51,8 @@ func (c *watchCmd) Run() error {
 func (c *watchCmd) watcher(log io.Writer) *watcher {
 	return &watcher{
 		manuscript: c.Manuscript,
-		options: func() render.Options {
-			o := render.Options{AllowOutside: c.AllowOutside, Vintage: c.Vintage, PNG: c.PNG}
+		options: func() engine.Options {
+			o := engine.Options{AllowOutside: c.AllowOutside, Vintage: c.Vintage, PNG: c.PNG}
 			if !c.NoCache {
 				o.Cache = cacheFor(c.Manuscript, false)
 			}
@@ -71,7 +71,7 @@ func (c *watchCmd) watcher(log io.Writer) *watcher {
 // asks the server for the build counter and reloads when it moves.
 type watcher struct {
 	manuscript string
-	options    func() render.Options
+	options    func() engine.Options
 	out        string   // "" = no files written
 	formats    []string // written to out
 	png        int
@@ -81,7 +81,7 @@ type watcher struct {
 	mu      sync.Mutex
 	version int    // counts the pages served; the page reloads when it moves
 	page    []byte // what / serves
-	good    *render.Document
+	good    *engine.Document
 	seen    int // the latest version a page reported as loaded
 	files   []string
 }
@@ -203,7 +203,7 @@ func sameState(a, b map[string]fileState) bool {
 }
 
 // dataFiles lists the data files a document's front matter names.
-func dataFiles(doc *render.Document) []string {
+func dataFiles(doc *engine.Document) []string {
 	var out []string
 	add := func(p string) {
 		if p == "" {
@@ -234,7 +234,7 @@ func dataFiles(doc *render.Document) []string {
 // also go to the log.
 func (w *watcher) build() {
 	start := time.Now()
-	doc, err := render.Parse(w.manuscript, w.options())
+	doc, err := engine.Parse(w.manuscript, w.options())
 	if doc != nil {
 		w.mu.Lock()
 		w.files = dataFiles(doc)
@@ -248,7 +248,7 @@ func (w *watcher) build() {
 	w.mu.Unlock()
 	var page []byte
 	if err == nil {
-		page, err = doc.HTML(render.HTMLOptions{Version: version.Version, Script: reloadScript(next)})
+		page, err = doc.HTML(engine.HTMLOptions{Version: version.Version, Script: reloadScript(next)})
 	}
 	if err == nil && w.out != "" {
 		err = w.write(doc)
@@ -263,7 +263,7 @@ func (w *watcher) build() {
 		good := w.good
 		w.mu.Unlock()
 		if good != nil {
-			if page, err = good.HTML(render.HTMLOptions{Version: version.Version, Script: reloadScript(next), Error: msg}); err != nil {
+			if page, err = good.HTML(engine.HTMLOptions{Version: version.Version, Script: reloadScript(next), Error: msg}); err != nil {
 				w.logf("%v", err)
 				page = nil
 			}
@@ -286,7 +286,7 @@ func (w *watcher) build() {
 
 // write stores the outputs of a good build in the output folder, all
 // files together (see buildCmd.Run).
-func (w *watcher) write(doc *render.Document) error {
+func (w *watcher) write(doc *engine.Document) error {
 	files, err := outputs(doc, w.formats, w.png)
 	if err != nil {
 		return err

@@ -1,0 +1,329 @@
+package engine
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/dataio"
+)
+
+// dataStore loads each data alias once per build and remembers the
+// files read, with their hashes, for the results file.
+type dataStore struct {
+	doc    *Document
+	frames map[string]*series.Frame
+	errs   map[string]error
+	read   map[string]string // relative path → sha256
+}
+
+func newDataStore(d *Document) *dataStore {
+	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{}}
+}
+
+func (s *dataStore) inputs() []Input {
+	var out []Input
+	for p, h := range s.read {
+		out = append(out, Input{Path: p, SHA256: h})
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Path < out[j].Path })
+	return out
+}
+
+// aliases lists the front matter's data aliases.
+func (s *dataStore) aliases() []string {
+	var out []string
+	for a := range s.doc.Meta.Data {
+		out = append(out, a)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// path resolves an alias to a file path, honouring the vintage option.
+func (s *dataStore) path(alias string) (DataRef, string, error) {
+	ref, ok := s.doc.Meta.Data[alias]
+	if !ok {
+		if len(s.doc.Meta.Data) == 0 {
+			return ref, "", fmt.Errorf("unknown data alias %q: the front matter has no data: section", alias)
+		}
+		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, didYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
+	}
+	p := ref.Path
+	if v := s.doc.opts.Vintage; v != "" && v != "default" && len(ref.Vintage) > 0 {
+		vp, ok := ref.Vintage[v]
+		if !ok {
+			var names []string
+			for k := range ref.Vintage {
+				names = append(names, k)
+			}
+			sort.Strings(names)
+			return ref, "", fmt.Errorf("data alias %q has no vintage %q (it has %s)", alias, v, strings.Join(names, ", "))
+		}
+		p = vp
+	} else if p == "" && len(ref.Vintage) > 0 {
+		var names []string
+		for k := range ref.Vintage {
+			names = append(names, k)
+		}
+		sort.Strings(names)
+		return ref, "", fmt.Errorf("data alias %q has only vintages (%s): choose one with --vintage", alias, strings.Join(names, ", "))
+	}
+	return ref, p, nil
+}
+
+// frame loads the data behind an alias (once).
+func (s *dataStore) frame(alias string) (*series.Frame, error) {
+	if f, ok := s.frames[alias]; ok {
+		return f, nil
+	}
+	if err, ok := s.errs[alias]; ok {
+		return nil, err
+	}
+	f, err := s.load(alias)
+	if err != nil {
+		s.errs[alias] = err
+		return nil, err
+	}
+	s.frames[alias] = f
+	return f, nil
+}
+
+func (s *dataStore) load(alias string) (*series.Frame, error) {
+	ref, rel, err := s.path(alias)
+	if err != nil {
+		return nil, err
+	}
+	full, err := confine(s.doc.Dir, rel, s.doc.opts.AllowOutside)
+	if err != nil {
+		return nil, fmt.Errorf("data alias %q: %w", alias, err)
+	}
+	raw, err := os.ReadFile(full)
+	if err != nil {
+		return nil, fmt.Errorf("data alias %q: %w", alias, err)
+	}
+	sum := sha256.Sum256(raw)
+	s.read[filepath.ToSlash(rel)] = hex.EncodeToString(sum[:])
+	display := filepath.Join(s.doc.Dir, rel)
+	var f *series.Frame
+	switch strings.ToLower(filepath.Ext(full)) {
+	case ".xlsx":
+		f, err = dataio.ReadXLSX(strings.NewReader(string(raw)), display, ref.Sheet)
+	default:
+		if ref.Sheet != "" {
+			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
+		}
+		f, err = series.ReadCSV(strings.NewReader(string(raw)), display)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return f, nil
+}
+
+// confine resolves rel against root and refuses a result outside root
+// (after following symlinks), unless allow is set.
+func confine(root, rel string, allow bool) (string, error) {
+	p := rel
+	if !filepath.IsAbs(p) {
+		p = filepath.Join(root, rel)
+	}
+	if allow {
+		return p, nil
+	}
+	if filepath.IsAbs(rel) {
+		return "", fmt.Errorf("path %q is absolute; data paths must be relative to the manuscript's folder (or pass --allow-outside)", rel)
+	}
+	absRoot, err := filepath.Abs(root)
+	if err != nil {
+		return "", err
+	}
+	realRoot, err := filepath.EvalSymlinks(absRoot)
+	if err != nil {
+		return "", err
+	}
+	absP, err := filepath.Abs(p)
+	if err != nil {
+		return "", err
+	}
+	if r, err := filepath.Rel(absRoot, absP); err != nil || r == ".." || strings.HasPrefix(r, ".."+string(filepath.Separator)) {
+		return "", fmt.Errorf("path %q leads outside the manuscript's folder; refused (pass --allow-outside to permit it)", rel)
+	}
+	realP, err := filepath.EvalSymlinks(absP)
+	if err != nil {
+		if os.IsNotExist(err) {
+			return "", fmt.Errorf("data file %s does not exist", filepath.Join(root, rel))
+		}
+		return "", err
+	}
+	r, err := filepath.Rel(realRoot, realP)
+	if err != nil || r == ".." || strings.HasPrefix(r, ".."+string(filepath.Separator)) {
+		return "", fmt.Errorf("path %q is a link that leads outside the manuscript's folder; refused (pass --allow-outside to permit it)", rel)
+	}
+	return realP, nil
+}
+
+// maxMagnitude is the largest absolute value an analysis accepts: the
+// square of anything larger overflows float64 (about 1.8e308).
+const maxMagnitude = 1e150
+
+// Data is a set of aligned series for one analysis: a common sample with
+// no missing values.
+type Data struct {
+	Freq   series.Freq
+	Dates  []series.Date
+	Cols   [][]float64
+	Labels []string // the expressions as written
+	Frame  *series.Frame
+	// Dropped are the dates inside the sample left out for missing values
+	// (with missing: drop).
+	Dropped []series.Date
+}
+
+// N is the number of observations.
+func (d *Data) N() int { return len(d.Dates) }
+
+// Range is "FIRST–LAST" of the sample.
+func (d *Data) Range() string {
+	if len(d.Dates) == 0 {
+		return "empty"
+	}
+	return d.Dates[0].String() + "–" + d.Dates[len(d.Dates)-1].String()
+}
+
+// SampleNote is "Sample 2004-01–2025-12, N = 264." and, when
+// observations with missing values were dropped, which ones.
+func (d *Data) SampleNote() string {
+	s := fmt.Sprintf("Sample %s, N = %d.", d.Range(), d.N())
+	if len(d.Dropped) > 0 {
+		var ds []string
+		for _, x := range d.Dropped {
+			ds = append(ds, x.String())
+		}
+		s += fmt.Sprintf(" %d observations with missing values inside the sample were left out (%s); lags and differences span the gaps as if the remaining observations were consecutive.", len(d.Dropped), strings.Join(ds, ", "))
+	}
+	return s
+}
+
+// Data evaluates expressions on the data behind alias, restricts them to
+// sample (may be ""), and aligns them on their common non-missing span.
+// dataKey, exprKey and sampleKey name the YAML keys for error positions.
+func (c *Context) Data(alias string, exprs []string, sample string) (*Data, error) {
+	f, err := c.doc.data.frame(alias)
+	if err != nil {
+		return nil, c.Wrap("data", err)
+	}
+	ss := make([]*series.Series, len(exprs))
+	c.b.deps.col(alias, "")
+	for i, s := range exprs {
+		e, err := series.ParseExpr(s)
+		if err != nil {
+			return nil, c.Errorf(c.exprKey(s), "%v", err)
+		}
+		for _, col := range e.Columns() {
+			c.b.deps.col(alias, col)
+		}
+		v, err := series.Eval(e, f)
+		if err != nil {
+			return nil, c.Errorf(c.exprKey(s), "%v", err)
+		}
+		v.Name = s
+		ss[i] = v
+	}
+	if sample != "" {
+		w, err := series.ParseWindow(sample)
+		if err != nil {
+			return nil, c.Errorf("sample", "sample %q: %v", sample, err)
+		}
+		for i := range ss {
+			if ss[i], err = w.Apply(ss[i]); err != nil {
+				return nil, c.Errorf("sample", "%v", err)
+			}
+		}
+	}
+	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: c.b.dir.Base().Missing == "drop"})
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	for j, col := range al.Values {
+		for i, v := range col {
+			if math.Abs(v) > maxMagnitude {
+				return nil, c.Errorf(c.exprKey(exprs[j]), "%s: %s is %g on %s (line %d): values this large overflow sums of squares; rescale the series (divide by a power of ten, or take logs)",
+					f.Source, exprs[j], v, al.Dates[i], f.LineOf(al.Dates[i]))
+			}
+		}
+	}
+	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f, Dropped: al.Dropped}, nil
+}
+
+// CheckData validates an alias, expressions and a sample without running.
+func (c *Context) CheckData(alias string, exprs []string, sample string) error {
+	if alias == "" {
+		if len(c.doc.Meta.Data) == 1 {
+			return nil
+		}
+		return c.Errorf("", "galley %s: the key \"data\" is required", c.b.kind.Name)
+	}
+	f, err := c.doc.data.frame(alias)
+	if err != nil {
+		return c.Wrap("data", err)
+	}
+	for _, s := range exprs {
+		e, err := series.ParseExpr(s)
+		if err != nil {
+			return c.Errorf(c.exprKey(s), "%v", err)
+		}
+		for _, col := range e.Columns() {
+			if !f.Has(col) {
+				hint := ""
+				if cl := f.Closest(col); cl != "" {
+					hint = " (did you mean " + cl + "?)"
+				}
+				return c.Errorf(c.exprKey(s), "series %q: %s has no column %q%s", s, f.Source, col, hint)
+			}
+		}
+	}
+	if sample != "" {
+		if _, err := series.ParseWindow(sample); err != nil {
+			return c.Errorf("sample", "sample %q: %v", sample, err)
+		}
+	}
+	return nil
+}
+
+// DataAlias returns alias, or the only alias when alias is "".
+func (c *Context) DataAlias(alias string) string {
+	if alias == "" && len(c.doc.Meta.Data) == 1 {
+		for a := range c.doc.Meta.Data {
+			return a
+		}
+	}
+	return alias
+}
+
+// exprKey finds the YAML key whose value mentions the expression, for the
+// error position; falls back to the fence line.
+func (c *Context) exprKey(expr string) string {
+	n := c.b.node
+	if n == nil {
+		return ""
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		v := n.Content[i+1]
+		if v.Value == expr {
+			return n.Content[i].Value
+		}
+		for _, e := range v.Content {
+			if e.Value == expr {
+				return n.Content[i].Value
+			}
+		}
+	}
+	return ""
+}

@@ -1,0 +1,427 @@
+package engine
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/text"
+	"gopkg.in/yaml.v3"
+
+	"github.com/galley-econ/galley/analysis/diag"
+)
+
+// Options control how a manuscript is read.
+type Options struct {
+	// AllowOutside lets data paths leave the manuscript's folder tree.
+	AllowOutside bool
+	// Vintage chooses among a data alias's vintages ("" = the default).
+	Vintage string
+	// Progress, if set, receives one line per directive as it runs.
+	Progress func(msg string)
+	// Cache, if set, stores results between builds and reuses those whose
+	// inputs are unchanged.
+	Cache *Cache
+	// PNG is the resolution of PNG figures wanted (0: none).
+	PNG int
+
+	nested bool // a build made by a revision directive for another vintage
+}
+
+// Document is a parsed manuscript: front matter, Markdown body, and its
+// directives in order.
+type Document struct {
+	File     string // the manuscript path as given
+	Dir      string // its folder, the root for data paths
+	Meta     *Meta
+	Body     []byte // the Markdown after the front matter
+	BodyLine int    // file line of Body's first line
+	Root     ast.Node
+
+	src    []byte                  // the manuscript as read (normalised line ends)
+	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
+	hashes map[[2]string]string    // data column hashes, by (alias, column)
+	blocks []*block
+	byID   map[string]*block
+	refs   []*RefNode
+	atNode map[ast.Node]*block
+	opts   Options
+	data   *dataStore
+	ran    bool
+}
+
+// block is one directive in the manuscript.
+type block struct {
+	kind     *Kind
+	id       string
+	line     int // file line of the opening fence
+	endLine  int // file line of the closing fence
+	startOff int // body offset of the opening fence line
+	endOff   int // body offset just past the closing fence line
+	node     *yaml.Node
+	raw      map[string]any
+	dir      Directive
+	result   *Result
+	err      error
+	running  bool
+
+	specKey string // what the block asks for (cache lookup)
+	fullKey string // specKey and the hashes of everything it read
+	deps    deps   // what it read while running
+	reused  bool   // its result came from the cache
+}
+
+// Parse reads and parses a manuscript, decodes every directive strictly,
+// and checks ids. It does not load data or run anything.
+func Parse(path string, opts Options) (*Document, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("reading manuscript: %w", err)
+	}
+	return ParseBytes(path, src, opts)
+}
+
+// ParseBytes is Parse on manuscript bytes already read from path.
+func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
+	if !utf8Valid(src) {
+		return nil, errAt(path, firstBadUTF8Line(src), "manuscript is not valid UTF-8")
+	}
+	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
+	front, body, bodyLine, _ := splitFrontMatter(src)
+	meta, err := parseMeta(path, front)
+	if err != nil {
+		return nil, err
+	}
+	d := &Document{
+		src:  src,
+		File: path, Dir: filepath.Dir(path), Meta: meta,
+		Body: body, BodyLine: bodyLine, byID: map[string]*block{}, atNode: map[ast.Node]*block{}, opts: opts,
+	}
+	d.data = newDataStore(d)
+	d.Root = newMarkdown().Parser().Parse(text.NewReader(body))
+	var errs []error
+	ordinal := map[string]int{}
+	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if !entering {
+			return ast.WalkContinue, nil
+		}
+		switch n := n.(type) {
+		case *ast.FencedCodeBlock:
+			b, err := d.discoverBlock(n, ordinal)
+			if err != nil {
+				errs = append(errs, err)
+			} else if b != nil {
+				d.blocks = append(d.blocks, b)
+				d.atNode[n] = b
+			}
+		case *RefNode:
+			d.refs = append(d.refs, n)
+		}
+		return ast.WalkContinue, nil
+	})
+	for _, b := range d.blocks {
+		if prev, dup := d.byID[b.id]; dup {
+			errs = append(errs, errAt(path, b.line, "duplicate id %q (first used on line %d)", b.id, prev.line))
+			continue
+		}
+		d.byID[b.id] = b
+	}
+	if len(errs) > 0 {
+		return nil, errors.Join(errs...)
+	}
+	return d, nil
+}
+
+// LineOf converts a body offset to a file line.
+func (d *Document) LineOf(off int) int {
+	if off > len(d.Body) {
+		off = len(d.Body)
+	}
+	return d.BodyLine + bytes.Count(d.Body[:off], []byte("\n"))
+}
+
+func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int) (*block, error) {
+	if n.Info == nil {
+		return nil, nil
+	}
+	info := strings.Fields(string(n.Info.Segment.Value(d.Body)))
+	if len(info) == 0 || info[0] != "galley" {
+		return nil, nil
+	}
+	infoOff := n.Info.Segment.Start
+	lineStart := bytes.LastIndexByte(d.Body[:infoOff], '\n') + 1
+	line := d.LineOf(infoOff)
+	if len(info) < 2 {
+		return nil, errAt(d.File, line, "a galley block needs a directive kind after \"galley\"; kinds: %s", strings.Join(kindNames(), ", "))
+	}
+	k, err := lookupKind(info[1])
+	if err != nil {
+		return nil, wrapAt(d.File, line, err)
+	}
+	var body bytes.Buffer
+	lines := n.Lines()
+	for i := 0; i < lines.Len(); i++ {
+		s := lines.At(i)
+		body.Write(s.Value(d.Body))
+	}
+	bodyLine := line + 1
+	b := &block{kind: k, line: line, startOff: lineStart}
+	b.endOff, b.endLine = d.closingFence(n, line)
+	ordinal[k.Name]++
+	dir := k.New()
+	var root yaml.Node
+	if err := yaml.Unmarshal(body.Bytes(), &root); err != nil {
+		return nil, yamlError(d.File, bodyLine, err)
+	}
+	if len(root.Content) > 0 {
+		doc := root.Content[0]
+		if doc.Kind != yaml.MappingNode {
+			return nil, errAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
+		}
+		if err := checkKeys(doc, dir); err != nil {
+			return nil, yamlError(d.File, bodyLine, err)
+		}
+		if err := doc.Decode(dir); err != nil {
+			return nil, yamlError(d.File, bodyLine, err)
+		}
+		if err := doc.Decode(&b.raw); err != nil {
+			return nil, yamlError(d.File, bodyLine, err)
+		}
+		b.node = doc
+	}
+	b.dir = dir
+	if m := dir.Base().Missing; m != "" && m != "error" && m != "drop" {
+		return nil, errAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
+	}
+	b.id = dir.Base().ID
+	if b.id == "" {
+		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])
+	} else if !validID(b.id) {
+		return nil, errAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter", b.id)
+	}
+	return b, nil
+}
+
+// closingFence finds the closing fence of a fenced block: the body offset
+// just past it and its file line.
+func (d *Document) closingFence(n *ast.FencedCodeBlock, openLine int) (int, int) {
+	off := bytes.IndexByte(d.Body[n.Info.Segment.Start:], '\n')
+	if off < 0 {
+		return len(d.Body), openLine
+	}
+	pos := n.Info.Segment.Start + off + 1
+	lines := n.Lines()
+	if lines.Len() > 0 {
+		pos = lines.At(lines.Len() - 1).Stop
+	}
+	// The closing fence is the next line (if any) after the content.
+	rest := d.Body[pos:]
+	nl := bytes.IndexByte(rest, '\n')
+	if nl < 0 {
+		return len(d.Body), d.LineOf(len(d.Body))
+	}
+	return pos + nl + 1, d.LineOf(pos)
+}
+
+// keyLine is the file line of a top-level key in a block's YAML, or the
+// fence line when the key is absent.
+func (d *Document) keyLine(b *block, key string) int {
+	if b.node != nil {
+		for i := 0; i+1 < len(b.node.Content); i += 2 {
+			if b.node.Content[i].Value == key {
+				return b.line + b.node.Content[i].Line
+			}
+		}
+	}
+	return b.line
+}
+
+func validID(s string) bool {
+	for i, r := range s {
+		switch {
+		case r >= 'a' && r <= 'z', r >= 'A' && r <= 'Z':
+		case i > 0 && (r >= '0' && r <= '9' || r == '_' || r == '-'):
+		default:
+			return false
+		}
+	}
+	return s != ""
+}
+
+// Check validates every directive and inline reference without running
+// any analysis. Data files are read to check aliases and columns.
+func (d *Document) Check() error {
+	var errs []error
+	for _, b := range d.blocks {
+		c := &Context{doc: d, b: b}
+		if err := b.dir.Check(c); err != nil {
+			errs = append(errs, wrapAt(d.File, b.line, err))
+		}
+	}
+	for _, r := range d.refs {
+		if _, err := d.checkRef(r); err != nil {
+			errs = append(errs, err)
+		}
+	}
+	return errors.Join(errs...)
+}
+
+// Run runs every directive (each once; references between directives run
+// their target first) and numbers tables and figures in document order.
+func (d *Document) Run() error {
+	if err := d.Check(); err != nil {
+		return err
+	}
+	var errs []error
+	for _, b := range d.blocks {
+		if _, err := d.run(b); err != nil && !errors.Is(err, errUpstream) {
+			errs = append(errs, err)
+		}
+	}
+	if len(errs) > 0 {
+		return errors.Join(errs...)
+	}
+	tables, figures := 0, 0
+	for _, b := range d.blocks {
+		switch {
+		case b.result.Table != nil:
+			tables++
+			b.result.Number = tables
+		case b.result.Figure != nil:
+			figures++
+			b.result.Number = figures
+			b.result.Values["number"] = figures
+		}
+	}
+	for _, r := range d.refs {
+		if _, err := d.formatRef(r, plainFormat); err != nil {
+			errs = append(errs, err)
+		}
+	}
+	d.ran = true
+	return errors.Join(errs...)
+}
+
+var errUpstream = errors.New("an upstream directive failed")
+
+func (d *Document) run(b *block) (*Result, error) {
+	if b.result != nil || b.err != nil {
+		return b.result, b.err
+	}
+	if b.running {
+		return nil, errAt(d.File, b.line, "directive %q depends on itself", b.id)
+	}
+	b.running = true
+	defer func() { b.running = false }()
+	version := ""
+	if d.opts.Cache != nil {
+		version = d.opts.Cache.Version
+	}
+	b.specKey = d.specKey(b, version)
+	if res, key, ok := d.cacheLookup(b); ok {
+		b.result, b.fullKey, b.reused = res, key, true
+		return res, nil
+	}
+	if d.opts.Progress != nil {
+		d.opts.Progress(fmt.Sprintf("%s %s (line %d)", b.kind.Name, b.id, b.line))
+	}
+	b.deps = deps{}
+	c := &Context{doc: d, b: b}
+	res, err := safeRun(b.dir, c)
+	if err != nil {
+		b.err = wrapAt(d.File, b.line, err)
+		return nil, b.err
+	}
+	res.ID, res.Kind, res.Line, res.Spec = b.id, b.kind.Name, b.line, b.raw
+	if res.Values == nil {
+		res.Values = map[string]any{}
+	}
+	if res.Table != nil && res.Table.Caption == "" {
+		res.Table.Caption = b.dir.Base().Caption
+	}
+	if res.Figure != nil && res.Figure.Caption == "" {
+		res.Figure.Caption = b.dir.Base().Caption
+	}
+	if note := b.dir.Base().Note; note != "" {
+		if res.Table != nil {
+			res.Table.Notes = append(res.Table.Notes, note)
+		}
+		if res.Figure != nil {
+			res.Figure.Notes = append(res.Figure.Notes, note)
+		}
+	}
+	if res.Figure != nil && d.opts.PNG > 0 {
+		png, err := res.Figure.RenderPNG(d.opts.PNG)
+		if err != nil {
+			b.err = wrapAt(d.File, b.line, err)
+			return nil, b.err
+		}
+		res.Figure.PNG, res.Figure.PNGDPI = png, d.opts.PNG
+	}
+	b.result = res
+	cols, ups, full := d.recordDeps(b)
+	b.fullKey = full
+	d.cacheStore(b, cols, ups)
+	return res, nil
+}
+
+// Reused lists the ids of the results taken from the cache; Ran those
+// computed in this build.
+func (d *Document) Reused() []string { return d.idsWhere(func(b *block) bool { return b.reused }) }
+
+// Ran lists the ids of the results computed in this build.
+func (d *Document) Ran() []string {
+	return d.idsWhere(func(b *block) bool { return b.result != nil && !b.reused })
+}
+
+func (d *Document) idsWhere(f func(*block) bool) []string {
+	var out []string
+	for _, b := range d.blocks {
+		if f(b) {
+			out = append(out, b.id)
+		}
+	}
+	return out
+}
+
+// safeRun turns a panic inside an analysis into an error, so that a bug
+// never leaves a half-written output behind.
+func safeRun(dir Directive, c *Context) (res *Result, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			res, err = nil, fmt.Errorf("internal error while running this directive: %v (please report it)", p)
+		}
+	}()
+	res, err = dir.Run(c)
+	if err == nil && res == nil {
+		err = errors.New("internal error: the directive produced no result")
+	}
+	return res, err
+}
+
+// Results lists the results in document order (after Run).
+func (d *Document) Results() []*Result {
+	out := make([]*Result, 0, len(d.blocks))
+	for _, b := range d.blocks {
+		if b.result != nil {
+			out = append(out, b.result)
+		}
+	}
+	return out
+}
+
+// Inputs lists the data files read, with their SHA-256.
+func (d *Document) Inputs() []Input { return d.data.inputs() }
+
+// Input is one data file read by a build.
+type Input struct {
+	Path   string `json:"path"`
+	SHA256 string `json:"sha256"`
+}
+
+// Directives is the number of directive blocks.
+func (d *Document) Directives() int { return len(d.blocks) }

@@ -1,0 +1,114 @@
+package engine
+
+import (
+	"bytes"
+	"fmt"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+)
+
+// Meta is the manuscript's front matter.
+type Meta struct {
+	Title    string             `yaml:"title"`
+	Author   Authors            `yaml:"author"`
+	Authors  Authors            `yaml:"authors"`
+	Date     string             `yaml:"date"`
+	Abstract string             `yaml:"abstract"`
+	Data     map[string]DataRef `yaml:"data"`
+	Stars    []float64          `yaml:"stars"`
+	Decimals *int               `yaml:"decimals"`
+	Keywords []string           `yaml:"keywords"`
+}
+
+// AllAuthors joins author and authors.
+func (m *Meta) AllAuthors() []string { return append(append([]string{}, m.Author...), m.Authors...) }
+
+// Authors accepts one name or a list of names.
+type Authors = nameList
+
+// DataRef names a data file, with an optional sheet (XLSX) and vintages.
+type DataRef struct {
+	Path    string            `yaml:"path"`
+	Sheet   string            `yaml:"sheet"`
+	Vintage map[string]string `yaml:"vintage"`
+	Line    int               `yaml:"-"`
+}
+
+func (d *DataRef) UnmarshalYAML(n *yaml.Node) error {
+	d.Line = n.Line
+	if n.Kind == yaml.ScalarNode {
+		d.Path = n.Value
+		return nil
+	}
+	type plain DataRef
+	var p plain
+	if err := checkKeys(n, &p); err != nil {
+		return err
+	}
+	if err := n.Decode(&p); err != nil {
+		return err
+	}
+	p.Line = n.Line
+	*d = DataRef(p)
+	if d.Path == "" && len(d.Vintage) == 0 {
+		return fmt.Errorf("line %d: a data entry needs a path", n.Line)
+	}
+	return nil
+}
+
+// splitFrontMatter separates a leading YAML block delimited by lines of
+// "---" from the body. bodyLine is the 1-based line of the body's first
+// line in the file.
+func splitFrontMatter(src []byte) (front []byte, body []byte, bodyLine int, ok bool) {
+	s := src
+	s = bytes.TrimPrefix(s, []byte("\xef\xbb\xbf"))
+	if !bytes.HasPrefix(s, []byte("---\n")) && !bytes.HasPrefix(s, []byte("---\r\n")) {
+		return nil, s, 1, false
+	}
+	lines := bytes.SplitAfter(s, []byte("\n"))
+	for i := 1; i < len(lines); i++ {
+		l := strings.TrimRight(string(lines[i]), "\r\n")
+		if l == "---" || l == "..." {
+			front = bytes.Join(lines[1:i], nil)
+			body = bytes.Join(lines[i+1:], nil)
+			return front, body, i + 2, true
+		}
+	}
+	return nil, s, 1, false
+}
+
+// parseMeta decodes front matter strictly. Line numbers in errors are
+// file lines (the front matter starts on line 2).
+func parseMeta(file string, front []byte) (*Meta, error) {
+	m := &Meta{}
+	if len(bytes.TrimSpace(front)) == 0 {
+		return m, nil
+	}
+	var root yaml.Node
+	if err := yaml.Unmarshal(front, &root); err != nil {
+		return nil, yamlError(file, 1, err)
+	}
+	if len(root.Content) == 0 {
+		return m, nil
+	}
+	doc := root.Content[0]
+	if doc.Kind != yaml.MappingNode {
+		return nil, errAt(file, 2, "front matter must be a mapping of keys to values")
+	}
+	if err := checkKeys(doc, m); err != nil {
+		return nil, yamlError(file, 1, err)
+	}
+	if err := doc.Decode(m); err != nil {
+		return nil, yamlError(file, 1, err)
+	}
+	for _, p := range m.Stars {
+		if !(p > 0 && p < 1) {
+			return nil, errAt(file, 2, "stars: each threshold must be a probability between 0 and 1, got %g", p)
+		}
+	}
+	if m.Decimals != nil && (*m.Decimals < 0 || *m.Decimals > 10) {
+		return nil, errAt(file, 2, "decimals must be between 0 and 10")
+	}
+	return m, nil
+}

@@ -1,0 +1,290 @@
+package engine
+
+import (
+	"bytes"
+	"fmt"
+	"html"
+	"html/template"
+	"regexp"
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/renderer"
+	"github.com/yuin/goldmark/util"
+
+	"github.com/galley-econ/galley/templates"
+)
+
+// HTMLOptions tune the HTML writer.
+type HTMLOptions struct {
+	Version string
+	// Script is extra HTML placed before </body> (the live preview's
+	// reload hook); empty for files.
+	Script template.HTML
+	// Error, if set, is shown in a banner at the top (live preview).
+	Error string
+}
+
+// HTML renders the document as one self-contained HTML file: the style
+// sheet is inlined, figures are inline SVG, math is typeset with HTML.
+func (d *Document) HTML(o HTMLOptions) ([]byte, error) {
+	md := newMarkdown()
+	md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&htmlNodes{doc: d}, 100)))
+	var body bytes.Buffer
+	if err := md.Renderer().Render(&body, d.Body, d.Root); err != nil {
+		return nil, err
+	}
+	if o.Error != "" {
+		body.WriteString(`<div class="build-error">` + html.EscapeString(o.Error) + `</div>`)
+	}
+	t, err := template.New("page").Parse(templates.PageHTML)
+	if err != nil {
+		return nil, err
+	}
+	var out bytes.Buffer
+	err = t.Execute(&out, map[string]any{
+		"Version":  o.Version,
+		"Title":    d.Meta.Title,
+		"Authors":  d.Meta.AllAuthors(),
+		"Date":     d.Meta.Date,
+		"Abstract": d.Meta.Abstract,
+		"CSS":      template.CSS(templates.StyleCSS),
+		"Body":     template.HTML(body.String()),
+		"Script":   o.Script,
+	})
+	return out.Bytes(), err
+}
+
+type htmlNodes struct{ doc *Document }
+
+func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
+	reg.Register(ast.KindFencedCodeBlock, h.fenced)
+	reg.Register(KindRef, h.ref)
+	reg.Register(KindMath, h.math)
+}
+
+func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	n := node.(*ast.FencedCodeBlock)
+	b, ok := h.doc.atNode[n]
+	if !ok { // an ordinary code block
+		if entering {
+			w.WriteString("<pre><code")
+			if lang := n.Language(src); lang != nil {
+				w.WriteString(` class="language-` + html.EscapeString(string(lang)) + `"`)
+			}
+			w.WriteString(">")
+			for i := 0; i < n.Lines().Len(); i++ {
+				seg := n.Lines().At(i)
+				w.WriteString(html.EscapeString(string(seg.Value(src))))
+			}
+		} else {
+			w.WriteString("</code></pre>\n")
+		}
+		return ast.WalkContinue, nil
+	}
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	if b.result == nil {
+		return ast.WalkSkipChildren, fmt.Errorf("directive %q has not run", b.id)
+	}
+	writeHTMLResult(w, b.result)
+	return ast.WalkSkipChildren, nil
+}
+
+func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	t, err := h.doc.formatRef(node.(*RefNode), plainFormat)
+	if err != nil {
+		return ast.WalkStop, err
+	}
+	switch {
+	case t.target != nil:
+		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(anchor(t.target)), html.EscapeString(t.text))
+	case t.numeric:
+		w.WriteString(html.EscapeString(htmlMinus(t.text)))
+	default:
+		w.WriteString(html.EscapeString(t.text))
+	}
+	return ast.WalkContinue, nil
+}
+
+func (h *htmlNodes) math(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if entering {
+		n := node.(*MathNode)
+		cls := "math"
+		if n.Display {
+			cls = "math-display"
+		}
+		w.WriteString(`<span class="` + cls + `">` + texToHTML(n.TeX) + `</span>`)
+	}
+	return ast.WalkContinue, nil
+}
+
+// htmlMinus replaces a leading hyphen-minus with a true minus sign.
+func htmlMinus(s string) string {
+	if strings.HasPrefix(s, "-") {
+		return "−" + s[1:]
+	}
+	return s
+}
+
+func anchor(r *Result) string {
+	if r.Figure != nil {
+		return "fig-" + r.ID
+	}
+	return "tab-" + r.ID
+}
+
+func writeHTMLResult(w util.BufWriter, r *Result) {
+	switch {
+	case r.Table != nil:
+		fmt.Fprintf(w, `<div class="result table" id="%s">`+"\n", html.EscapeString(anchor(r)))
+		writeHTMLCaption(w, r.Label(), r.Table.Caption)
+		writeHTMLTable(w, r.Table)
+		writeHTMLNotes(w, r.Table.Notes)
+		w.WriteString("</div>\n")
+	case r.Figure != nil:
+		fmt.Fprintf(w, `<figure class="result" id="%s">`+"\n", html.EscapeString(anchor(r)))
+		writeHTMLCaption(w, r.Label(), r.Figure.Caption)
+		w.Write(inlineSVG(r.Figure.SVG))
+		writeHTMLNotes(w, r.Figure.Notes)
+		w.WriteString("</figure>\n")
+	case r.Text != "":
+		w.WriteString("<p>" + html.EscapeString(r.Text) + "</p>\n")
+	}
+}
+
+func writeHTMLCaption(w util.BufWriter, label, caption string) {
+	w.WriteString(`<p class="caption"><span class="label">` + html.EscapeString(label) + `.</span>`)
+	if caption != "" {
+		w.WriteString(" " + html.EscapeString(caption))
+	}
+	w.WriteString("</p>\n")
+}
+
+func writeHTMLNotes(w util.BufWriter, notes []string) {
+	if len(notes) == 0 {
+		return
+	}
+	w.WriteString(`<div class="notes">`)
+	for i, n := range notes {
+		if i == 0 {
+			w.WriteString("<p><em>Notes:</em> " + html.EscapeString(n) + "</p>")
+		} else {
+			w.WriteString("<p>" + html.EscapeString(n) + "</p>")
+		}
+	}
+	w.WriteString("</div>\n")
+}
+
+func writeHTMLTable(w util.BufWriter, t *Table) {
+	w.WriteString(`<table class="results">` + "\n<thead>\n")
+	for _, row := range t.Head {
+		w.WriteString("<tr>")
+		col := 0
+		for _, c := range row {
+			cls := ""
+			if col < t.Stub {
+				cls = ` class="stub"`
+			}
+			span := ""
+			if c.Span > 1 {
+				span = fmt.Sprintf(` colspan="%d"`, c.Span)
+			}
+			w.WriteString("<th" + cls + span + ">" + htmlCell(c) + "</th>")
+			col += max(c.Span, 1)
+		}
+		w.WriteString("</tr>\n")
+	}
+	w.WriteString("</thead>\n<tbody>\n")
+	for _, row := range t.Body {
+		if row.RuleAbove {
+			w.WriteString(`<tr class="block">`)
+		} else {
+			w.WriteString("<tr>")
+		}
+		col := 0
+		for _, c := range row.Cells {
+			cls := "text"
+			switch {
+			case col < t.Stub:
+				cls = "stub"
+			case c.IsNum:
+				cls = "num"
+			}
+			span := ""
+			if c.Span > 1 {
+				span = fmt.Sprintf(` colspan="%d"`, c.Span)
+			}
+			w.WriteString(`<td class="` + cls + `"` + span + ">" + htmlCell(c) + "</td>")
+			col += max(c.Span, 1)
+		}
+		w.WriteString("</tr>\n")
+	}
+	w.WriteString("</tbody>\n</table>\n")
+}
+
+// htmlCell renders a cell. Numbers get a true minus and fixed-width
+// trailing boxes — one for stars or the closing parenthesis, one for a
+// bracketed suffix such as a lag count — so that right alignment lines
+// the decimal points up within a column.
+func htmlCell(c Cell) string {
+	if !c.IsNum {
+		return html.EscapeString(c.Text)
+	}
+	s, neg := numText(c)
+	if neg {
+		s = "−" + s
+	}
+	var trail string
+	if c.Paren {
+		s = "(" + s
+		trail = ")"
+	}
+	trail += stars(c.Stars)
+	out := html.EscapeString(s) + `<span class="stars">` + html.EscapeString(trail) + `</span>`
+	if sfx := strings.TrimSpace(c.Suffix); sfx != "" {
+		out += `<span class="sfx">` + html.EscapeString(sfx) + `</span>`
+	}
+	return out
+}
+
+// inlineSVG prepares a standalone SVG file for inlining in HTML: it drops
+// the XML declaration and any comments before the root element, and the
+// root's namespace declarations (xmlns, xmlns:xlink), which HTML's parser
+// supplies itself for an inline <svg> and which would otherwise put
+// http:// addresses into a page that uses no network.
+func inlineSVG(b []byte) []byte {
+	b = stripXMLProlog(b)
+	for bytes.HasPrefix(b, []byte("<!--")) {
+		i := bytes.Index(b, []byte("-->"))
+		if i < 0 {
+			break
+		}
+		b = bytes.TrimSpace(b[i+3:])
+	}
+	if !bytes.HasPrefix(b, []byte("<svg")) {
+		return b
+	}
+	end := bytes.IndexByte(b, '>')
+	if end < 0 {
+		return b
+	}
+	tag := svgNamespaceAttr.ReplaceAll(b[:end], nil)
+	return append(tag, b[end:]...)
+}
+
+var svgNamespaceAttr = regexp.MustCompile(`\s+xmlns(:xlink)?="[^"]*"`)
+
+// stripXMLProlog drops an <?xml …?> declaration so that SVG can be inlined.
+func stripXMLProlog(b []byte) []byte {
+	if bytes.HasPrefix(b, []byte("<?xml")) {
+		if i := bytes.Index(b, []byte("?>")); i >= 0 {
+			return bytes.TrimSpace(b[i+2:])
+		}
+	}
+	return b
+}

@@ -1,0 +1,126 @@
+package engine
+
+import (
+	"fmt"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/series"
+)
+
+// ols: a least-squares regression with a choice of standard errors.
+type olsSpec struct {
+	Common   `yaml:",inline"`
+	Data     string   `yaml:"data"`
+	Y        string   `yaml:"y"`
+	X        []string `yaml:"x"`
+	SE       string   `yaml:"se"`
+	Sample   string   `yaml:"sample"`
+	Const    *bool    `yaml:"const"`
+	Decimals *int     `yaml:"decimals"`
+}
+
+func init() {
+	Register(Kind{
+		Name:    "ols",
+		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
+		New:     func() Directive { return &olsSpec{} },
+		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample"},
+	})
+}
+
+func (s *olsSpec) Check(c *Context) error {
+	if err := c.Require("y", s.Y == ""); err != nil {
+		return err
+	}
+	if _, err := ols.ParseCov(s.SE); err != nil {
+		return c.Errorf("se", "%v", err)
+	}
+	if len(s.X) == 0 && s.Const != nil && !*s.Const {
+		return c.Errorf("x", "a regression needs at least one regressor: give x, or keep the constant")
+	}
+	return c.CheckData(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+}
+
+func (s *olsSpec) Run(c *Context) (*Result, error) {
+	cov, _ := ols.ParseCov(s.SE)
+	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	if err != nil {
+		return nil, err
+	}
+	withConst := s.Const == nil || *s.Const
+	var terms []string
+	if withConst {
+		terms = append(terms, "const")
+	}
+	terms = append(terms, s.X...)
+	n, k := d.N(), len(terms)
+	if n <= k {
+		return nil, c.Errorf("", "too few observations: %d in the sample %s for %d coefficients", n, d.Range(), k)
+	}
+	x := mat.NewDense(n, k, nil)
+	for i := 0; i < n; i++ {
+		j := 0
+		if withConst {
+			x.Set(i, 0, 1)
+			j = 1
+		}
+		for l := range s.X {
+			x.Set(i, j+l, d.Cols[1+l][i])
+		}
+	}
+	fit, err := ols.Regress(d.Cols[0], x)
+	if err != nil {
+		return nil, collinearError(c, "x", err, terms)
+	}
+	coefs := fit.Table(cov, false)
+	dec := c.Decimals()
+	if s.Decimals != nil {
+		dec = *s.Decimals
+	}
+	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(s.Y)}}}
+	t.Body = coefRows(c, terms, coefs, dec, false)
+	t.Body = append(t.Body,
+		Row{Cells: []Cell{T("N"), I(fit.N)}, RuleAbove: true},
+		Row{Cells: []Cell{T("R²"), N(fit.R2(), dec)}},
+		Row{Cells: []Cell{T("Adjusted R²"), N(fit.R2Adj(), dec)}},
+		Row{Cells: []Cell{T("Durbin–Watson"), N(fit.DW(), dec)}},
+	)
+	t.Notes = []string{
+		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", s.Y, cov.Describe(), fit.DF()),
+		c.StarNote() + " " + d.SampleNote(),
+	}
+	if w := condNote(fit); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+	vals := map[string]any{
+		"coef":   coefValues(terms, coefs),
+		"nobs":   fit.N,
+		"r2":     fit.R2(),
+		"r2_adj": fit.R2Adj(),
+		"dw":     fit.DW(),
+		"cov":    cov.String(),
+		"sigma":  sqrt(fit.Sigma2()),
+		"loglik": fit.LogLik(),
+		"sample": sampleValues(d),
+		"resid":  datedValues(d.Dates, fit.Resid),
+	}
+	return &Result{Table: t, Values: vals}, nil
+}
+
+// datedValues is the results-file form of a dated series:
+// {"dates": [...], "values": [...]}, the shape figure directives read
+// back (see residualSeries in figure_data.go).
+func datedValues(dates []series.Date, v []float64) map[string]any {
+	ds := make([]string, len(dates))
+	for i, d := range dates {
+		ds[i] = d.String()
+	}
+	return map[string]any{"dates": ds, "values": append([]float64(nil), v...)}
+}
+
+// sampleValues is the results-file form of a sample.
+func sampleValues(d *Data) map[string]any {
+	return map[string]any{"from": d.Dates[0].String(), "to": d.Dates[len(d.Dates)-1].String(), "n": d.N()}
+}

@@ -1,0 +1,449 @@
+package engine
+
+import (
+	"bytes"
+	"fmt"
+	"strings"
+	"text/template"
+
+	"github.com/yuin/goldmark/ast"
+	east "github.com/yuin/goldmark/extension/ast"
+
+	"github.com/galley-econ/galley/templates"
+)
+
+// LaTeXOptions tune the LaTeX writer.
+type LaTeXOptions struct {
+	Version string
+	// FigureDir is the folder (relative to the .tex file) holding figures.
+	FigureDir string
+}
+
+// LaTeX renders the document as a complete article that compiles with
+// pdflatex using standard packages (booktabs, dcolumn, amsmath,
+// graphicx, hyperref). Figures are included as PDF from FigureDir.
+func (d *Document) LaTeX(o LaTeXOptions) ([]byte, error) {
+	if o.FigureDir == "" {
+		o.FigureDir = "figures"
+	}
+	var out bytes.Buffer
+	t, err := template.New("preamble").Parse(templates.PreambleTeX)
+	if err != nil {
+		return nil, err
+	}
+	err = t.Execute(&out, map[string]string{
+		"Version":  o.Version,
+		"Title":    texEscape(d.Meta.Title),
+		"Authors":  texAuthors(d.Meta.AllAuthors()),
+		"Date":     texEscape(d.Meta.Date),
+		"Abstract": texEscape(d.Meta.Abstract),
+	})
+	if err != nil {
+		return nil, err
+	}
+	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root)}
+	if err := w.blocks(d.Root); err != nil {
+		return nil, err
+	}
+	out.WriteString("\n\\end{document}\n")
+	return out.Bytes(), nil
+}
+
+// LaTeXTable renders one table result as a standalone fragment that an
+// existing paper can \input (it needs booktabs and dcolumn, and the
+// column type d defined as D{.}{.}{-1}).
+func LaTeXTable(r *Result) []byte {
+	var b bytes.Buffer
+	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} and\n")
+	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
+	writeTeXTable(&b, r)
+	return b.Bytes()
+}
+
+type texWriter struct {
+	doc    *Document
+	out    *bytes.Buffer
+	figDir string
+	top    int // the highest heading level used, typeset as \section
+}
+
+// topHeading is the smallest heading level in the document (1 if none),
+// so that a paper whose sections are "##" (the title being in the front
+// matter) gets \section, not \subsection.
+func topHeading(root ast.Node) int {
+	top := 6
+	for n := root.FirstChild(); n != nil; n = n.NextSibling() {
+		if h, ok := n.(*ast.Heading); ok && h.Level < top {
+			top = h.Level
+		}
+	}
+	if top == 6 {
+		return 1
+	}
+	return top
+}
+
+func texAuthors(names []string) string {
+	esc := make([]string, len(names))
+	for i, n := range names {
+		esc[i] = texEscape(n)
+	}
+	return strings.Join(esc, " \\and ")
+}
+
+func (w *texWriter) blocks(parent ast.Node) error {
+	for n := parent.FirstChild(); n != nil; n = n.NextSibling() {
+		if err := w.block(n); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+var texSections = []string{"section", "subsection", "subsubsection", "paragraph", "subparagraph", "subparagraph"}
+
+func (w *texWriter) block(n ast.Node) error {
+	src := w.doc.Body
+	o := w.out
+	switch n := n.(type) {
+	case *ast.Heading:
+		o.WriteString("\n\\" + texSections[min(max(n.Level-w.top, 0), 5)] + "{")
+		if err := w.inlines(n); err != nil {
+			return err
+		}
+		o.WriteString("}\n")
+	case *ast.Paragraph, *ast.TextBlock:
+		o.WriteString("\n")
+		if err := w.inlines(n); err != nil {
+			return err
+		}
+		o.WriteString("\n")
+	case *ast.ThematicBreak:
+		o.WriteString("\n\\medskip\\noindent\\rule{\\linewidth}{0.4pt}\\medskip\n")
+	case *ast.Blockquote:
+		o.WriteString("\n\\begin{quote}")
+		if err := w.blocks(n); err != nil {
+			return err
+		}
+		o.WriteString("\\end{quote}\n")
+	case *ast.List:
+		env := "itemize"
+		if n.IsOrdered() {
+			env = "enumerate"
+		}
+		o.WriteString("\n\\begin{" + env + "}\\tightlist\n")
+		for it := n.FirstChild(); it != nil; it = it.NextSibling() {
+			o.WriteString("\\item ")
+			if err := w.blocks(it); err != nil {
+				return err
+			}
+		}
+		o.WriteString("\\end{" + env + "}\n")
+	case *ast.FencedCodeBlock:
+		if b, ok := w.doc.atNode[n]; ok {
+			if b.result == nil {
+				return fmt.Errorf("directive %q has not run", b.id)
+			}
+			w.result(b.result)
+			return nil
+		}
+		w.verbatim(n, src)
+	case *ast.CodeBlock:
+		w.verbatim(n, src)
+	case *ast.HTMLBlock:
+		// raw HTML has no LaTeX meaning; it is left out
+	case *east.Table:
+		w.mdTable(n)
+	default:
+		return w.blocks(n)
+	}
+	return nil
+}
+
+func (w *texWriter) verbatim(n ast.Node, src []byte) {
+	w.out.WriteString("\n\\begin{verbatim}\n")
+	for i := 0; i < n.Lines().Len(); i++ {
+		seg := n.Lines().At(i)
+		line := string(seg.Value(src))
+		w.out.WriteString(strings.ReplaceAll(line, `\end{verbatim}`, `\end {verbatim}`))
+	}
+	w.out.WriteString("\\end{verbatim}\n")
+}
+
+func (w *texWriter) mdTable(t *east.Table) {
+	cols := len(t.Alignments)
+	w.out.WriteString("\n\\begin{center}\n\\begin{tabular}{" + strings.Repeat("l", cols) + "}\n\\toprule\n")
+	for row := t.FirstChild(); row != nil; row = row.NextSibling() {
+		first := true
+		for cell := row.FirstChild(); cell != nil; cell = cell.NextSibling() {
+			if !first {
+				w.out.WriteString(" & ")
+			}
+			first = false
+			_ = w.inlines(cell)
+		}
+		w.out.WriteString(" \\\\\n")
+		if _, ok := row.(*east.TableHeader); ok {
+			w.out.WriteString("\\midrule\n")
+		}
+	}
+	w.out.WriteString("\\bottomrule\n\\end{tabular}\n\\end{center}\n")
+}
+
+func (w *texWriter) inlines(parent ast.Node) error {
+	for n := parent.FirstChild(); n != nil; n = n.NextSibling() {
+		if err := w.inline(n); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+func (w *texWriter) inline(n ast.Node) error {
+	src := w.doc.Body
+	o := w.out
+	switch n := n.(type) {
+	case *ast.Text:
+		o.WriteString(texEscape(string(n.Segment.Value(src))))
+		if n.HardLineBreak() {
+			o.WriteString("\\\\\n")
+		} else if n.SoftLineBreak() {
+			o.WriteString("\n")
+		}
+	case *ast.String:
+		o.WriteString(texEscape(string(n.Value)))
+	case *ast.Emphasis:
+		cmd := "\\emph{"
+		if n.Level >= 2 {
+			cmd = "\\textbf{"
+		}
+		o.WriteString(cmd)
+		if err := w.inlines(n); err != nil {
+			return err
+		}
+		o.WriteString("}")
+	case *ast.CodeSpan:
+		var b strings.Builder
+		for c := n.FirstChild(); c != nil; c = c.NextSibling() {
+			if t, ok := c.(*ast.Text); ok {
+				b.Write(t.Segment.Value(src))
+			}
+		}
+		o.WriteString("\\texttt{" + texEscape(b.String()) + "}")
+	case *ast.Link:
+		o.WriteString("\\href{" + texURL(string(n.Destination)) + "}{")
+		if err := w.inlines(n); err != nil {
+			return err
+		}
+		o.WriteString("}")
+	case *ast.AutoLink:
+		o.WriteString("\\url{" + texURL(string(n.URL(src))) + "}")
+	case *ast.Image:
+		o.WriteString("\\includegraphics[width=\\linewidth]{" + texURL(string(n.Destination)) + "}")
+	case *ast.RawHTML:
+		// left out
+	case *east.Strikethrough:
+		return w.inlines(n)
+	case *MathNode:
+		if n.Display {
+			o.WriteString("\\[" + n.TeX + "\\]")
+		} else {
+			o.WriteString("$" + n.TeX + "$")
+		}
+	case *RefNode:
+		t, err := w.doc.formatRef(n, plainFormat)
+		if err != nil {
+			return err
+		}
+		switch {
+		case t.target != nil:
+			kind := "Table"
+			if t.target.Figure != nil {
+				kind = "Figure"
+			}
+			o.WriteString(kind + "~\\ref{" + texLabel(t.target) + "}")
+		case t.numeric:
+			o.WriteString(texNumber(t.text))
+		default:
+			o.WriteString(texEscape(t.text))
+		}
+	default:
+		return w.inlines(n)
+	}
+	return nil
+}
+
+func texLabel(r *Result) string {
+	if r.Figure != nil {
+		return "fig:" + r.ID
+	}
+	return "tab:" + r.ID
+}
+
+// texNumber puts a number in math mode when it has a sign, so that the
+// minus is a true minus.
+func texNumber(s string) string {
+	if strings.HasPrefix(s, "-") {
+		return "$-" + s[1:] + "$"
+	}
+	return texEscape(s)
+}
+
+func (w *texWriter) result(r *Result) {
+	switch {
+	case r.Table != nil:
+		w.out.WriteString("\n")
+		writeTeXTable(w.out, r)
+	case r.Figure != nil:
+		fmt.Fprintf(w.out, "\n\\begin{figure}[htbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
+		fmt.Fprintf(w.out, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
+		writeTeXNotes(w.out, r.Figure.Notes)
+		w.out.WriteString("\\end{figure}\n")
+	case r.Text != "":
+		w.out.WriteString("\n" + texEscape(r.Text) + "\n")
+	}
+}
+
+func writeTeXTable(b *bytes.Buffer, r *Result) {
+	t := r.Table
+	cols := t.Cols()
+	spec := strings.Repeat("l", t.Stub) + strings.Repeat("d", max(cols-t.Stub, 0))
+	fmt.Fprintf(b, "\\begin{table}[htbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
+	// Wide tables get tighter columns; one still wider than the text is
+	// scaled down to fit.
+	if cols > 7 {
+		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
+	}
+	b.WriteString("\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{%\n")
+	b.WriteString("\\begin{tabular}{" + spec + "}\n\\toprule\n")
+	for _, row := range t.Head {
+		writeTeXRow(b, row, t.Stub, true)
+	}
+	b.WriteString("\\midrule\n")
+	for _, row := range t.Body {
+		if row.RuleAbove {
+			b.WriteString("\\midrule\n")
+		}
+		writeTeXRow(b, row.Cells, t.Stub, false)
+	}
+	b.WriteString("\\bottomrule\n\\end{tabular}}\n")
+	writeTeXNotes(b, t.Notes)
+	b.WriteString("\\end{table}\n")
+}
+
+func writeTeXNotes(b *bytes.Buffer, notes []string) {
+	if len(notes) == 0 {
+		return
+	}
+	b.WriteString("\\par\\smallskip\\begin{minipage}{0.9\\linewidth}\\footnotesize\n")
+	for i, n := range notes {
+		if i == 0 {
+			b.WriteString("\\emph{Notes:} ")
+		}
+		b.WriteString(texEscape(n) + "\\par\n")
+	}
+	b.WriteString("\\end{minipage}\n")
+}
+
+func writeTeXRow(b *bytes.Buffer, cells []Cell, stub int, head bool) {
+	col := 0
+	for i, c := range cells {
+		if i > 0 {
+			b.WriteString(" & ")
+		}
+		span := max(c.Span, 1)
+		switch {
+		case c.IsNum && col >= stub:
+			b.WriteString(texNumCell(c))
+		case col < stub && span == 1:
+			b.WriteString(texEscape(c.Text))
+		default:
+			align := "c"
+			if col < stub {
+				align = "l"
+			}
+			fmt.Fprintf(b, "\\multicolumn{%d}{%s}{%s}", span, align, texEscape(c.Text))
+		}
+		col += span
+	}
+	b.WriteString(" \\\\\n")
+	if head && hasSpan(cells) {
+		// a spanning header row gets a short rule under its groups
+		col = 0
+		for _, c := range cells {
+			span := max(c.Span, 1)
+			if span > 1 && c.Text != "" {
+				fmt.Fprintf(b, "\\cmidrule(lr){%d-%d}", col+1, col+span)
+			}
+			col += span
+		}
+		b.WriteString("\n")
+	}
+}
+
+// texNumCell writes a number for a dcolumn D column (math mode): the
+// minus is a true minus, stars are superscripts.
+func texNumCell(c Cell) string {
+	s, neg := numText(c)
+	if s == "n/a" || s == "∞" {
+		return "\\multicolumn{1}{c}{" + texEscape(s) + "}"
+	}
+	if neg {
+		s = "-" + s
+	}
+	if c.Paren {
+		s = "(" + s + ")"
+	}
+	if c.Stars > 0 {
+		s += "^{" + stars(c.Stars) + "}"
+	}
+	if c.Suffix != "" {
+		s += "\\,{\\scriptstyle\\text{" + texEscape(strings.TrimSpace(c.Suffix)) + "}}"
+	}
+	return s
+}
+
+// texReplacer escapes LaTeX's special characters and maps the Unicode
+// that tables and prose use to commands pdflatex knows.
+var texReplacer = strings.NewReplacer(
+	`\`, `\textbackslash{}`, `{`, `\{`, `}`, `\}`, `$`, `\$`, `&`, `\&`, `#`, `\#`,
+	`^`, `\textasciicircum{}`, `_`, `\_`, `~`, `\textasciitilde{}`, `%`, `\%`,
+	`<`, `\textless{}`, `>`, `\textgreater{}`, `|`, `\textbar{}`,
+	"−", `\ensuremath{-}`, "–", "--", "—", "---", "…", `\ldots{}`, "·", `\ensuremath{\cdot}`,
+	"×", `\ensuremath{\times}`, "±", `\ensuremath{\pm}`, "≤", `\ensuremath{\leq}`, "≥", `\ensuremath{\geq}`,
+	"≠", `\ensuremath{\neq}`, "≈", `\ensuremath{\approx}`, "√", `\ensuremath{\surd}`, "∞", `\ensuremath{\infty}`,
+	"²", `\ensuremath{^2}`, "³", `\ensuremath{^3}`, "¹", `\ensuremath{^1}`,
+	"α", `\ensuremath{\alpha}`, "β", `\ensuremath{\beta}`, "γ", `\ensuremath{\gamma}`, "δ", `\ensuremath{\delta}`,
+	"ε", `\ensuremath{\varepsilon}`, "ϵ", `\ensuremath{\epsilon}`, "θ", `\ensuremath{\theta}`, "λ", `\ensuremath{\lambda}`,
+	"μ", `\ensuremath{\mu}`, "π", `\ensuremath{\pi}`, "ρ", `\ensuremath{\rho}`, "σ", `\ensuremath{\sigma}`,
+	"τ", `\ensuremath{\tau}`, "φ", `\ensuremath{\varphi}`, "ϕ", `\ensuremath{\phi}`, "χ", `\ensuremath{\chi}`,
+	"ψ", `\ensuremath{\psi}`, "ω", `\ensuremath{\omega}`, "Γ", `\ensuremath{\Gamma}`, "Δ", `\ensuremath{\Delta}`,
+	"Λ", `\ensuremath{\Lambda}`, "Π", `\ensuremath{\Pi}`, "Σ", `\ensuremath{\Sigma}`, "Φ", `\ensuremath{\Phi}`,
+	"Ω", `\ensuremath{\Omega}`, "η", `\ensuremath{\eta}`, "κ", `\ensuremath{\kappa}`, "ν", `\ensuremath{\nu}`, "ξ", `\ensuremath{\xi}`, "ζ", `\ensuremath{\zeta}`,
+	"⌊", `\ensuremath{\lfloor}`, "⌋", `\ensuremath{\rfloor}`, "⌈", `\ensuremath{\lceil}`, "⌉", `\ensuremath{\rceil}`,
+	"¼", `\ensuremath{\tfrac14}`, "½", `\ensuremath{\tfrac12}`, "∑", `\ensuremath{\sum}`, "∈", `\ensuremath{\in}`,
+	"→", `\ensuremath{\to}`, "⇒", `\ensuremath{\Rightarrow}`, "∼", `\ensuremath{\sim}`, "≡", `\ensuremath{\equiv}`,
+	"∂", `\ensuremath{\partial}`, "∏", `\ensuremath{\prod}`, "∣", `\ensuremath{\mid}`, "⊥", `\ensuremath{\perp}`,
+	"₀", `\ensuremath{_0}`, "₁", `\ensuremath{_1}`, "₂", `\ensuremath{_2}`, "₃", `\ensuremath{_3}`, "₄", `\ensuremath{_4}`,
+	"₅", `\ensuremath{_5}`, "₆", `\ensuremath{_6}`, "₇", `\ensuremath{_7}`, "₈", `\ensuremath{_8}`, "₉", `\ensuremath{_9}`,
+	"⁰", `\ensuremath{^0}`, "⁴", `\ensuremath{^4}`, "⁵", `\ensuremath{^5}`, "⁶", `\ensuremath{^6}`, "⁷", `\ensuremath{^7}`,
+	"⁸", `\ensuremath{^8}`, "⁹", `\ensuremath{^9}`, "⁻", `\ensuremath{^-}`, "ᵀ", `\ensuremath{^\top}`, "′", `\ensuremath{'}`,
+	"\u0302", "", "\u0303", "", "\u0304", "", "\u2009", `\,`, "\u00a0", "~", "\u2005", " ", "\u2003", `\quad{}`,
+)
+
+// texEscape makes literal text safe in LaTeX's text mode.
+func texEscape(s string) string { return texReplacer.Replace(s) }
+
+// texURL escapes the characters that break \href and \url arguments.
+func texURL(s string) string {
+	return strings.NewReplacer(`\`, `/`, `%`, `\%`, `#`, `\#`, `{`, `%7B`, `}`, `%7D`).Replace(s)
+}
+
+func hasSpan(cells []Cell) bool {
+	for _, c := range cells {
+		if c.Span > 1 && c.Text != "" {
+			return true
+		}
+	}
+	return false
+}

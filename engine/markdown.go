@@ -1,0 +1,158 @@
+package engine
+
+import (
+	"bytes"
+	"fmt"
+	"sort"
+	"strings"
+)
+
+// MarkdownOptions tune the Markdown writer.
+type MarkdownOptions struct {
+	FigureDir string // folder of the SVG figures, relative to the .md file
+}
+
+// Markdown renders the document as CommonMark with pipe tables: the
+// author's text is kept byte for byte, each directive block is replaced
+// by its table or figure, and each inline value by its text.
+func (d *Document) Markdown(o MarkdownOptions) ([]byte, error) {
+	if o.FigureDir == "" {
+		o.FigureDir = "figures"
+	}
+	type repl struct {
+		start, end int
+		text       string
+	}
+	var rs []repl
+	for _, b := range d.blocks {
+		if b.result == nil {
+			return nil, fmt.Errorf("directive %q has not run", b.id)
+		}
+		rs = append(rs, repl{b.startOff, b.endOff, mdResult(b.result, o.FigureDir)})
+	}
+	for _, n := range d.refs {
+		t, err := d.formatRef(n, plainFormat)
+		if err != nil {
+			return nil, err
+		}
+		s := mdEscape(t.text)
+		if t.target != nil {
+			s = t.text
+		}
+		rs = append(rs, repl{n.Offset, n.End, s})
+	}
+	sort.Slice(rs, func(i, j int) bool { return rs[i].start < rs[j].start })
+	var out bytes.Buffer
+	if d.Meta.Title != "" {
+		out.WriteString("# " + mdEscape(d.Meta.Title) + "\n\n")
+	}
+	if a := d.Meta.AllAuthors(); len(a) > 0 {
+		out.WriteString(mdEscape(strings.Join(a, ", ")) + "\n\n")
+	}
+	if d.Meta.Date != "" {
+		out.WriteString(mdEscape(d.Meta.Date) + "\n\n")
+	}
+	if d.Meta.Abstract != "" {
+		out.WriteString("**Abstract.** " + mdEscape(d.Meta.Abstract) + "\n\n")
+	}
+	pos := 0
+	for _, r := range rs {
+		if r.start < pos {
+			continue // nested (cannot happen for well-formed input)
+		}
+		out.Write(d.Body[pos:r.start])
+		out.WriteString(r.text)
+		pos = r.end
+	}
+	out.Write(d.Body[pos:])
+	return out.Bytes(), nil
+}
+
+func mdResult(r *Result, figDir string) string {
+	var b strings.Builder
+	switch {
+	case r.Table != nil:
+		t := r.Table
+		fmt.Fprintf(&b, "**%s.** %s\n\n", r.Label(), mdEscape(t.Caption))
+		cols := t.Cols()
+		head := mdHeader(t, cols)
+		b.WriteString("| " + strings.Join(head, " | ") + " |\n|")
+		for i := 0; i < cols; i++ {
+			if i < t.Stub {
+				b.WriteString(":---|")
+			} else {
+				b.WriteString("---:|")
+			}
+		}
+		b.WriteString("\n")
+		for _, row := range t.Body {
+			cells := make([]string, 0, cols)
+			for _, c := range row.Cells {
+				cells = append(cells, mdCell(c))
+				for k := 1; k < c.Span; k++ {
+					cells = append(cells, "")
+				}
+			}
+			for len(cells) < cols {
+				cells = append(cells, "")
+			}
+			b.WriteString("| " + strings.Join(cells, " | ") + " |\n")
+		}
+		for _, n := range t.Notes {
+			b.WriteString("\n*" + mdEscape(n) + "*\n")
+		}
+		b.WriteString("\n")
+	case r.Figure != nil:
+		fmt.Fprintf(&b, "![%s. %s](%s/%s.svg)\n\n", r.Label(), mdEscape(r.Figure.Caption), figDir, r.ID)
+		fmt.Fprintf(&b, "**%s.** %s\n", r.Label(), mdEscape(r.Figure.Caption))
+		for _, n := range r.Figure.Notes {
+			b.WriteString("\n*" + mdEscape(n) + "*\n")
+		}
+		b.WriteString("\n")
+	case r.Text != "":
+		b.WriteString(mdEscape(r.Text) + "\n\n")
+	}
+	return b.String()
+}
+
+// mdHeader flattens the header rows into one row of labels: a spanning
+// group label is prefixed to each column it covers.
+func mdHeader(t *Table, cols int) []string {
+	out := make([]string, cols)
+	for _, row := range t.Head {
+		col := 0
+		for _, c := range row {
+			span := max(c.Span, 1)
+			for k := 0; k < span && col+k < cols; k++ {
+				if txt := mdEscape(c.Text); txt != "" {
+					if out[col+k] != "" {
+						out[col+k] += " "
+					}
+					out[col+k] += txt
+				}
+			}
+			col += span
+		}
+	}
+	return out
+}
+
+func mdCell(c Cell) string {
+	if !c.IsNum {
+		return mdEscape(c.Text)
+	}
+	s, neg := numText(c)
+	if neg {
+		s = "-" + s
+	}
+	if c.Paren {
+		s = "(" + s + ")"
+	}
+	return s + strings.Repeat(`\*`, c.Stars) + mdEscape(c.Suffix)
+}
+
+var mdReplacer = strings.NewReplacer(`\`, `\\`, "*", `\*`, "_", `\_`, "|", `\|`, "`", "\\`",
+	"<", `\<`, ">", `\>`, "[", `\[`, "]", `\]`, "#", `\#`, "$", `\$`, "{", `\{`, "}", `\}`)
+
+// mdEscape makes literal text safe in CommonMark inline context.
+func mdEscape(s string) string { return mdReplacer.Replace(s) }

@@ -1,0 +1,227 @@
+package engine
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+)
+
+// An inline reference is {{id.path [verb]}}: id names a directive, path
+// walks its values (map keys; for lists of terms, the term name; or an
+// index), verb is an optional printf verb such as %.2f.
+type ref struct {
+	id   string
+	path []string
+	verb string
+}
+
+func parseRef(s string) (ref, error) {
+	var r ref
+	f := strings.Fields(s)
+	if len(f) == 0 || len(f) > 2 {
+		return r, fmt.Errorf("inline value {{%s}}: write {{id.field}} or {{id.field %%.3f}}", s)
+	}
+	if len(f) == 2 {
+		r.verb = f[1]
+		if !strings.HasPrefix(r.verb, "%") || strings.Count(r.verb, "%") != 1 || !strings.ContainsAny(r.verb[len(r.verb)-1:], "fegdsvGE") {
+			return r, fmt.Errorf("inline value {{%s}}: %q is not a printf verb such as %%.3f or %%d", s, r.verb)
+		}
+	}
+	parts := strings.Split(f[0], ".")
+	r.id = parts[0]
+	r.path = parts[1:]
+	if r.id == "" || len(r.path) == 0 || slices.Contains(r.path, "") {
+		return r, fmt.Errorf("inline value {{%s}}: write id.field, e.g. {{north.stat}}", s)
+	}
+	return r, nil
+}
+
+// Fields every result has, whatever its kind.
+var commonFields = []string{"label", "number", "id", "kind"}
+
+func (d *Document) checkRef(n *RefNode) (ref, error) {
+	line := d.LineOf(n.Offset)
+	r, err := parseRef(n.Ref)
+	if err != nil {
+		return r, errAt(d.File, line, "%v", err)
+	}
+	b, ok := d.byID[r.id]
+	if !ok {
+		return r, errAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, didYouMean(r.id, d.ids()))
+	}
+	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(commonFields, r.path[0]) {
+		all := append(slices.Clone(f), commonFields...)
+		return r, errAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], didYouMean(r.path[0], all), strings.Join(all, ", "))
+	}
+	return r, nil
+}
+
+// refText is an inline value as text, with numeric true when it is a
+// number (so that writers can typeset its sign).
+type refText struct {
+	text    string
+	numeric bool
+	target  *Result // set for label references
+}
+
+type refFormat int
+
+const plainFormat refFormat = 0
+
+func (d *Document) formatRef(n *RefNode, _ refFormat) (refText, error) {
+	line := d.LineOf(n.Offset)
+	r, err := d.checkRef(n)
+	if err != nil {
+		return refText{}, err
+	}
+	res := d.byID[r.id].result
+	if res == nil {
+		return refText{}, errAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
+	}
+	var v any
+	switch r.path[0] {
+	case "label":
+		return refText{text: res.Label(), target: res}, nil
+	case "number":
+		v = res.Number
+	case "id":
+		v = res.ID
+	case "kind":
+		v = res.Kind
+	default:
+		v, err = lookup(res.Values, r.path)
+		if err != nil {
+			return refText{}, errAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+		}
+	}
+	s, num, err := formatValue(v, r.verb, d.defaultDecimals())
+	if err != nil {
+		return refText{}, errAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+	}
+	return refText{text: s, numeric: num}, nil
+}
+
+func (d *Document) defaultDecimals() int {
+	if d.Meta.Decimals != nil {
+		return *d.Meta.Decimals
+	}
+	return 3
+}
+
+// lookup walks path through nested maps and lists.
+func lookup(v any, path []string) (any, error) {
+	for i, p := range path {
+		switch x := v.(type) {
+		case map[string]any:
+			next, ok := x[p]
+			if !ok {
+				return nil, fmt.Errorf("no field %q%s; there are: %s", strings.Join(path[:i+1], "."), didYouMean(p, keys(x)), strings.Join(keys(x), ", "))
+			}
+			v = next
+		case []map[string]any:
+			found := false
+			for _, e := range x {
+				if name, _ := e["term"].(string); name == p {
+					v, found = e, true
+					break
+				}
+				if name, _ := e["name"].(string); name == p {
+					v, found = e, true
+					break
+				}
+			}
+			if !found {
+				if k, err := strconv.Atoi(p); err == nil && k >= 0 && k < len(x) {
+					v, found = x[k], true
+				}
+			}
+			if !found {
+				var names []string
+				for _, e := range x {
+					if name, ok := e["term"].(string); ok {
+						names = append(names, name)
+					} else if name, ok := e["name"].(string); ok {
+						names = append(names, name)
+					}
+				}
+				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), didYouMean(p, names))
+			}
+		case []float64:
+			k, err := strconv.Atoi(p)
+			if err != nil || k < 0 || k >= len(x) {
+				return nil, fmt.Errorf("%s is a list of %d numbers; use an index 0..%d", strings.Join(path[:i], "."), len(x), len(x)-1)
+			}
+			v = x[k]
+		default:
+			return nil, fmt.Errorf("%s is a single value; it has no field %q", strings.Join(path[:i], "."), p)
+		}
+	}
+	return v, nil
+}
+
+func keys(m map[string]any) []string {
+	var out []string
+	for k := range m {
+		out = append(out, k)
+	}
+	slices.Sort(out)
+	return out
+}
+
+// formatValue formats a scalar value for prose.
+func formatValue(v any, verb string, dec int) (string, bool, error) {
+	switch x := v.(type) {
+	case float64:
+		if math.IsNaN(x) {
+			return "n/a", false, nil
+		}
+		if verb == "" {
+			verb = "%." + strconv.Itoa(dec) + "f"
+		}
+		if strings.HasSuffix(verb, "d") {
+			return fmt.Sprintf(verb, int(math.Round(x))), true, nil
+		}
+		return fixNegZero(fmt.Sprintf(verb, x)), true, nil
+	case int:
+		if verb == "" || strings.HasSuffix(verb, "d") {
+			if verb == "" {
+				verb = "%d"
+			}
+			return fmt.Sprintf(verb, x), true, nil
+		}
+		return fmt.Sprintf(verb, float64(x)), true, nil
+	case string:
+		if verb != "" && verb != "%s" && verb != "%v" {
+			return "", false, fmt.Errorf("the value is text (%q); %s does not apply", x, verb)
+		}
+		return x, false, nil
+	case bool:
+		if x {
+			return "yes", false, nil
+		}
+		return "no", false, nil
+	case nil:
+		return "n/a", false, nil
+	}
+	return "", false, fmt.Errorf("the value is a group (%s), not a single number; name one of its fields", describe(v))
+}
+
+func describe(v any) string {
+	switch x := v.(type) {
+	case map[string]any:
+		return "fields " + strings.Join(keys(x), ", ")
+	case []map[string]any:
+		return fmt.Sprintf("a list of %d entries", len(x))
+	}
+	return fmt.Sprintf("%T", v)
+}
+
+// fixNegZero turns "-0.000" into "0.000".
+func fixNegZero(s string) string {
+	if strings.HasPrefix(s, "-") && strings.Trim(s[1:], "0.") == "" {
+		return s[1:]
+	}
+	return s
+}

@@ -1,0 +1,58 @@
+package engine
+
+import "errors"
+
+// Result is what one directive produced: values for prose and the
+// results file, and at most one table or figure for the document.
+type Result struct {
+	ID     string
+	Kind   string
+	Line   int            // manuscript line of the opening fence
+	Spec   map[string]any // the spec as written
+	Values map[string]any // full-precision values, keyed in lower case
+	Table  *Table
+	Figure *Figure
+	Text   string // a paragraph of prose (rare)
+	Number int    // table or figure number in the document (1-based)
+}
+
+// Label is "Table N" or "Figure N", or "" when there is nothing to refer to.
+func (r *Result) Label() string {
+	switch {
+	case r.Table != nil:
+		return "Table " + itoa(r.Number)
+	case r.Figure != nil:
+		return "Figure " + itoa(r.Number)
+	}
+	return ""
+}
+
+// Figure is a rendered figure in every format the writers need.
+type Figure struct {
+	Caption string
+	SVG     []byte
+	PDF     []byte
+	// PNGAt renders the figure as PNG at a resolution in dots per inch
+	// (not kept in the result cache).
+	PNGAt func(dpi int) ([]byte, error)
+	// PNG is the figure rendered at PNGDPI, made while the build runs when
+	// PNG output is asked for, so that it survives the cache.
+	PNG    []byte
+	PNGDPI int
+	Width  float64 // inches
+	Height float64 // inches
+	Notes  []string
+}
+
+// RenderPNG renders the figure as PNG at dpi dots per inch.
+func (f *Figure) RenderPNG(dpi int) ([]byte, error) {
+	if f.PNG != nil && f.PNGDPI == dpi {
+		return f.PNG, nil
+	}
+	if f.PNGAt == nil {
+		return nil, errNoPNG
+	}
+	return f.PNGAt(dpi)
+}
+
+var errNoPNG = errors.New("this figure has no PNG renderer")

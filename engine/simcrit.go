@@ -1,0 +1,641 @@
+package engine
+
+// crit: simulate — Monte Carlo critical values at the directive's own
+// sample size, number of variables, deterministic case and lags.
+//
+// The adf, engle-granger, johansen and vecm directives accept
+//
+//	crit: simulate   # or table (the default: published response surfaces/tables)
+//	reps: 20000      # replications, simulate.MinReps..simulate.MaxReps
+//	seed: 1          # generator seed, 0..2^63−1
+//
+// The simulation is analysis/simulate.Run on every core; this file only
+// resolves the keys, keeps simulated tables on disk beside the result cache
+// (keyed by simulate.Spec.Key, so a rebuild or another directive with the
+// same experiment reads them back), reports progress for long runs, and
+// formats notes and values.
+
+import (
+	"bytes"
+	"context"
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"slices"
+	"strconv"
+	"strings"
+	"sync/atomic"
+	"time"
+
+	"github.com/galley-econ/galley/analysis/coint"
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/simulate"
+	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/internal/atomicfile"
+)
+
+// Defaults of crit: simulate.
+//
+// DefaultSimReps = 20,000: the Monte Carlo standard error of a quantile
+// falls as 1/√R; at 20,000 replications the 5% critical value of the ADF
+// τ (case c, T = 200) has an MCSE of about 0.01, below the two decimals
+// a table prints, and the 1% value about 0.02, while one such run takes
+// well under a second on two cores. Larger systems cost more per
+// replication (Johansen with 6 series at T = 10,000 takes minutes), and
+// their authors can lower reps: or accept the one-off cost, since the
+// table is stored.
+//
+// DefaultSimSeed = 1: a fixed seed, so that a build is reproducible and
+// two directives with the same experiment share one stored table.
+const (
+	DefaultSimReps = 20_000
+	DefaultSimSeed = 1
+)
+
+// SimKeys are the crit:, reps: and seed: keys (exported only so that the
+// YAML decoder sees the embedded fields).
+type SimKeys struct {
+	Crit string `yaml:"crit"`
+	Reps *int   `yaml:"reps"`
+	Seed *int64 `yaml:"seed"`
+}
+
+// simSettings is a validated crit: simulate.
+type simSettings struct {
+	Reps int
+	Seed uint64
+}
+
+// simKinds are the kinds that accept crit: simulate.
+var simKinds = []string{"adf", "engle-granger", "johansen", "vecm"}
+
+// simulated reports whether the keys ask for simulated critical values
+// (only meaningful after settings accepted them).
+func (k *SimKeys) simulated() bool { return strings.EqualFold(strings.TrimSpace(k.Crit), "simulate") }
+
+// settings validates the keys for a directive of kind; it returns nil
+// (and no error) when the critical values come from the tables.
+func (k *SimKeys) settings(c *Context, kind string) (*simSettings, error) {
+	switch strings.ToLower(strings.TrimSpace(k.Crit)) {
+	case "", "table":
+		if c.Has("reps") {
+			return nil, c.Errorf("reps", "reps applies only with crit: simulate")
+		}
+		if c.Has("seed") {
+			return nil, c.Errorf("seed", "seed applies only with crit: simulate")
+		}
+		return nil, nil
+	case "simulate":
+	default:
+		return nil, c.Errorf("crit", "crit: write simulate (Monte Carlo critical values at this sample size) or table (the published tables, the default), not %q", k.Crit)
+	}
+	if !slices.Contains(simKinds, kind) {
+		return nil, c.Errorf("crit", "crit: simulate is available for %s, not for %s", strings.Join(simKinds, ", "), kind)
+	}
+	s := &simSettings{Reps: DefaultSimReps, Seed: DefaultSimSeed}
+	if k.Reps != nil {
+		if *k.Reps < simulate.MinReps || *k.Reps > simulate.MaxReps {
+			return nil, c.Errorf("reps", "reps must be %d..%d replications, not %d", simulate.MinReps, simulate.MaxReps, *k.Reps)
+		}
+		s.Reps = *k.Reps
+	}
+	if k.Seed != nil {
+		if *k.Seed < 0 {
+			return nil, c.Errorf("seed", "seed must be zero or more, not %d", *k.Seed)
+		}
+		s.Seed = uint64(*k.Seed)
+	}
+	return s, nil
+}
+
+// spec is the experiment for one statistic.
+func (s *simSettings) spec(test, cs string, n, t, lags int) simulate.Spec {
+	return simulate.Spec{Test: test, Case: cs, N: n, T: t, Lags: lags, Reps: s.Reps, Seed: s.Seed}
+}
+
+// simRuns counts the simulations actually run (not read from the store),
+// for tests.
+var simRuns atomic.Int64
+
+// simProgressOut is where progress goes when Options.Progress is not set.
+var simProgressOut io.Writer = os.Stderr
+
+// simCrit returns the simulated null distribution for sp: from the store
+// beside the result cache when a valid entry exists, else by running the
+// simulation (and storing it). key names the manuscript key an error is
+// reported at.
+func simCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error) {
+	if err := sp.Validate(); err != nil {
+		return nil, c.Errorf(key, "crit: simulate: %v", strings.TrimPrefix(err.Error(), "simulate: "))
+	}
+	st := simStoreFor(c.doc)
+	if r, ok := st.load(sp); ok {
+		return r, nil
+	}
+	label := fmt.Sprintf("galley: %s %s (line %d): simulating %s critical values, N=%d, T=%d, %s replications",
+		c.b.kind.Name, c.b.id, c.b.line, sp.Test, sp.N, sp.T, group(sp.Reps))
+	short := fmt.Sprintf("galley: %s: %s N=%d T=%d", c.b.id, sp.Test, sp.N, sp.T)
+	pr := newSimProgress(label, c.doc.opts.Progress, simProgressOut)
+	pr.short = short
+	simRuns.Add(1)
+	r, err := simulate.Run(context.Background(), sp, pr.update)
+	pr.finish(err)
+	if err != nil {
+		return nil, c.Errorf(key, "crit: simulate: %v", strings.TrimPrefix(err.Error(), "simulate: "))
+	}
+	st.save(r)
+	return r, nil
+}
+
+// ---------------------------------------------------------------- store
+
+// simStore keeps simulated tables in <cache>/sim/, one file per
+// simulate.Spec.Key. It exists only when the document has a result cache
+// (with --no-cache nothing is read or written). A table depends only on
+// its key, which names the simulation algorithm's version, so the store
+// is not cleared when galley itself changes, nor by Cache.Fresh.
+type simStore struct{ dir string }
+
+func simStoreFor(d *Document) simStore {
+	if d.opts.Cache == nil || d.opts.Cache.Dir == "" {
+		return simStore{}
+	}
+	return simStore{dir: filepath.Join(d.opts.Cache.Dir, "sim")}
+}
+
+func (s simStore) path(key string) string {
+	h := sha256.Sum256([]byte(key))
+	return filepath.Join(s.dir, hex.EncodeToString(h[:])+".sim")
+}
+
+const simMagic = "galley-sim-table-1\n"
+
+// encodeSim writes r as: magic, key, lower, nobs, reps, seed, levels,
+// values, MCSE, the sorted sample (little-endian), then the SHA-256 of
+// all that.
+func encodeSim(r *simulate.Result) []byte {
+	var b bytes.Buffer
+	b.WriteString(simMagic)
+	u32 := func(v int) { binary.Write(&b, binary.LittleEndian, uint32(v)) }
+	u64 := func(v uint64) { binary.Write(&b, binary.LittleEndian, v) }
+	fs := func(x []float64) {
+		u32(len(x))
+		binary.Write(&b, binary.LittleEndian, x)
+	}
+	u32(len(r.Key))
+	b.WriteString(r.Key)
+	lower := uint64(0)
+	if r.Lower {
+		lower = 1
+	}
+	u64(lower)
+	u64(uint64(r.NObs))
+	u64(uint64(r.Reps))
+	u64(r.Seed)
+	fs(r.Levels)
+	fs(r.Values)
+	fs(r.MCSE)
+	fs(r.Sample)
+	sum := sha256.Sum256(b.Bytes())
+	b.Write(sum[:])
+	return b.Bytes()
+}
+
+var errSimCorrupt = errors.New("corrupt simulated table")
+
+// decodeSim reads what encodeSim wrote and checks it is the table of sp.
+func decodeSim(raw []byte, sp simulate.Spec) (*simulate.Result, error) {
+	if len(raw) < len(simMagic)+sha256.Size || string(raw[:len(simMagic)]) != simMagic {
+		return nil, errSimCorrupt
+	}
+	body, sum := raw[:len(raw)-sha256.Size], raw[len(raw)-sha256.Size:]
+	if h := sha256.Sum256(body); !bytes.Equal(h[:], sum) {
+		return nil, errSimCorrupt
+	}
+	rd := bytes.NewReader(body[len(simMagic):])
+	var n32 uint32
+	var err error
+	u32 := func() int {
+		if err == nil {
+			err = binary.Read(rd, binary.LittleEndian, &n32)
+		}
+		return int(n32)
+	}
+	u64 := func() uint64 {
+		var v uint64
+		if err == nil {
+			err = binary.Read(rd, binary.LittleEndian, &v)
+		}
+		return v
+	}
+	fs := func(max int) []float64 {
+		n := u32()
+		if err != nil || n > max || n*8 > rd.Len() {
+			err = errSimCorrupt
+			return nil
+		}
+		x := make([]float64, n)
+		err = binary.Read(rd, binary.LittleEndian, x)
+		return x
+	}
+	kl := u32()
+	if err != nil || kl > rd.Len() {
+		return nil, errSimCorrupt
+	}
+	kb := make([]byte, kl)
+	rd.Read(kb)
+	r := &simulate.Result{Spec: sp, Key: string(kb)}
+	r.Lower = u64() == 1
+	r.NObs = int(u64())
+	r.Reps = int(u64())
+	r.Seed = u64()
+	r.Levels = fs(16)
+	r.Values = fs(16)
+	r.MCSE = fs(16)
+	r.Sample = fs(simulate.MaxReps)
+	if err != nil || rd.Len() != 0 {
+		return nil, errSimCorrupt
+	}
+	if r.Key != sp.Key() || r.Reps != sp.Reps || r.Seed != sp.Seed || len(r.Sample) != r.Reps ||
+		!slices.Equal(r.Levels, simulate.Levels) || len(r.Values) != len(r.Levels) || len(r.MCSE) != len(r.Levels) ||
+		!slices.IsSorted(r.Sample) {
+		return nil, errSimCorrupt
+	}
+	for _, x := range r.Sample {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, errSimCorrupt
+		}
+	}
+	return r, nil
+}
+
+// load returns the stored table of sp; a missing, corrupt or foreign
+// file is ignored (the simulation runs again and replaces it).
+func (s simStore) load(sp simulate.Spec) (*simulate.Result, bool) {
+	if s.dir == "" {
+		return nil, false
+	}
+	raw, err := os.ReadFile(s.path(sp.Key()))
+	if err != nil {
+		return nil, false
+	}
+	r, err := decodeSim(raw, sp)
+	if err != nil {
+		return nil, false
+	}
+	return r, true
+}
+
+// save stores r; a failure only costs a rerun next time.
+func (s simStore) save(r *simulate.Result) {
+	if s.dir == "" {
+		return
+	}
+	_ = atomicfile.Write(s.path(r.Key), encodeSim(r), 0o644)
+}
+
+// ---------------------------------------------------------------- progress
+
+// simProgress reports a long simulation: nothing for runs shorter than
+// simQuiet; after that a redrawn bar when out is a terminal, otherwise
+// (or through Options.Progress) a plain line at each quarter.
+type simProgress struct {
+	label    string
+	short    string // the label beside a terminal's bar ("" = label)
+	sink     func(string)
+	out      io.Writer
+	tty      bool
+	start    time.Time
+	shown    bool
+	lastDraw time.Time
+	nextQ    int // next quarter to print, plain mode
+	lastDone int
+}
+
+const simQuiet = time.Second
+
+func newSimProgress(label string, sink func(string), out io.Writer) *simProgress {
+	p := &simProgress{label: label, sink: sink, out: out, start: time.Now()}
+	if sink == nil {
+		if f, ok := out.(*os.File); ok {
+			if fi, err := f.Stat(); err == nil && fi.Mode()&os.ModeCharDevice != 0 {
+				p.tty = true
+			}
+		}
+	}
+	return p
+}
+
+func (p *simProgress) line(s string) {
+	if p.sink != nil {
+		p.sink(s)
+	} else if p.out != nil {
+		fmt.Fprintln(p.out, s)
+	}
+}
+
+func (p *simProgress) update(done, total int) {
+	p.lastDone = done
+	now := time.Now()
+	el := now.Sub(p.start)
+	if el < simQuiet || done >= total {
+		return // finish reports the end
+	}
+	if p.tty {
+		if p.shown && now.Sub(p.lastDraw) < 100*time.Millisecond {
+			return
+		}
+		p.shown, p.lastDraw = true, now
+		const width = 30
+		fill := width * done / total
+		eta := time.Duration(float64(el) / float64(done) * float64(total-done))
+		lab := p.short
+		if lab == "" {
+			lab = p.label
+		}
+		fmt.Fprintf(p.out, "\r%s [%s%s] %3d%% %s left ", lab, strings.Repeat("#", fill), strings.Repeat(".", width-fill),
+			100*done/total, eta.Round(time.Second))
+		return
+	}
+	q := 4 * done / total // quarters done
+	if !p.shown || q >= p.nextQ {
+		p.shown = true
+		p.nextQ = q + 1
+		p.line(fmt.Sprintf("%s: %d%% after %s", p.label, 100*done/total, el.Round(100*time.Millisecond)))
+	}
+}
+
+// finish ends the report: quiet for a short successful run.
+func (p *simProgress) finish(err error) {
+	el := time.Since(p.start).Round(100 * time.Millisecond)
+	if p.tty && p.shown {
+		fmt.Fprintln(p.out)
+	}
+	if err == nil && !p.shown && el < simQuiet {
+		return
+	}
+	if err != nil {
+		p.line(fmt.Sprintf("%s: stopped after %s", p.label, el))
+		return
+	}
+	p.line(fmt.Sprintf("%s: done in %s", p.label, el))
+}
+
+// ---------------------------------------------------------------- values and notes
+
+// group writes n with thousands separators: 20,000.
+func group(n int) string {
+	s := strconv.Itoa(n)
+	var b strings.Builder
+	for i, ch := range s {
+		if i > 0 && (len(s)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(ch)
+	}
+	return b.String()
+}
+
+// simLevelMap keys a simulated quantity by level: {"1%": …, "2.5%": …}.
+func simLevelMap(r *simulate.Result, x []float64) map[string]any {
+	m := map[string]any{}
+	for i, l := range r.Levels {
+		m[pct(l)] = x[i]
+	}
+	return m
+}
+
+// simCritValues are the simulated critical values in the form of the
+// tables' (critical.Value by level).
+func simCritValues(r *simulate.Result) []critical.Value {
+	out := make([]critical.Value, len(r.Levels))
+	for i, l := range r.Levels {
+		out[i] = critical.Value{Level: l, Value: r.Values[i]}
+	}
+	return out
+}
+
+// simAt is the simulated critical value at level.
+func simAt(r *simulate.Result, level float64) float64 {
+	for i, l := range r.Levels {
+		if math.Abs(l-level) < 1e-9 {
+			return r.Values[i]
+		}
+	}
+	return math.NaN()
+}
+
+// simMCSEText lists the Monte Carlo standard errors: "0.021 (1%), …".
+func simMCSEText(r *simulate.Result) string {
+	var parts []string
+	for i, l := range r.Levels {
+		parts = append(parts, strconv.FormatFloat(r.MCSE[i], 'g', 2, 64)+" ("+pct(l)+")")
+	}
+	return strings.Join(parts, ", ")
+}
+
+// simSource is the crit_source text of a τ test: "simulated: R
+// replications, seed S, T=… …".
+func simSource(r *simulate.Result, what string, chosen bool) string {
+	lag := fmt.Sprintf("%d lagged differences", r.Spec.Lags)
+	if r.Spec.Lags == 1 {
+		lag = "1 lagged difference"
+	}
+	if chosen {
+		lag += " (the order the criterion chose, held fixed in every replication)"
+	}
+	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d observations in the test regression, %s, %s; Monte Carlo standard errors %s",
+		group(r.Reps), r.Seed, r.NObs, what, lag, simMCSEText(r))
+}
+
+// simURValues adds the simulated fields to a τ test's values.
+func simURValues(v map[string]any, r *simulate.Result, stat float64) {
+	v["crit"] = simLevelMap(r, r.Values)
+	v["crit_mcse"] = simLevelMap(r, r.MCSE)
+	v["pvalue"] = r.PValue(stat)
+	v["pvalue_source"] = pSimSource(r)
+	v["sim_key"] = r.Key
+	v["sim"] = map[string]any{"reps": r.Reps, "seed": int(r.Seed), "t": r.NObs, "lags": r.Spec.Lags, "n": r.Spec.N}
+}
+
+func pSimSource(r *simulate.Result) string {
+	if r.Lower {
+		return fmt.Sprintf("simulated, the share of the %s replications at or below the statistic", group(r.Reps))
+	}
+	return fmt.Sprintf("simulated, the share of the %s replications at or above the statistic", group(r.Reps))
+}
+
+// simADF replaces the tabulated critical values and p-value of an ADF
+// outcome by simulated ones at its regression's T and lags (the chosen
+// order when a criterion chose it). T of the simulated series is NObs +
+// 1 + lags, so that its Dickey–Fuller regression has NObs observations.
+func simADF(c *Context, s *simSettings, u urTest, o *urOutcome) (*simulate.Result, error) {
+	sp := s.spec(simulate.ADF, u.Det.String(), 1, o.NObs+1+o.Lags, o.Lags)
+	r, err := simCrit(c, "crit", sp)
+	if err != nil {
+		return nil, err
+	}
+	o.Crit = simCritValues(r)
+	o.CritSource = simSource(r, "case "+u.Det.String(), u.Lags.Select != unitroot.Fixed)
+	o.PValue, o.PClipped = r.PValue(o.Stat), false
+	o.PSource = pSimSource(r)
+	if o.Extra == nil {
+		o.Extra = map[string]any{}
+	}
+	o.Extra["crit_mcse"] = simLevelMap(r, r.MCSE)
+	o.Extra["sim_key"] = r.Key
+	o.Extra["sim"] = map[string]any{"reps": r.Reps, "seed": int(r.Seed), "t": r.NObs, "lags": r.Spec.Lags, "n": 1}
+	return r, nil
+}
+
+// simEG replaces the tabulated critical values and p-value of one
+// Engle–Granger row by simulated ones: N independent random walks, the
+// static regression with the case's terms, and the residual
+// Dickey–Fuller regression with the row's lags at the row's T.
+func simEG(c *Context, s *simSettings, det critical.Case, rule unitroot.LagRule, res *coint.EGResult) (*simulate.Result, error) {
+	sp := s.spec(simulate.EG, det.String(), res.Vars, res.NObs+1+res.Lags, res.Lags)
+	r, err := simCrit(c, "crit", sp)
+	if err != nil {
+		return nil, err
+	}
+	res.Crit = simCritValues(r)
+	res.CritSource = simSource(r, fmt.Sprintf("N=%d variables, case %s of the static regression", res.Vars, det), rule.Select != unitroot.Fixed)
+	res.PValue = r.PValue(res.Stat)
+	return r, nil
+}
+
+// simEGNote is the Engle–Granger note on simulated critical values.
+func simEGNote(sims []*simulate.Result, vars []string, deps []int) string {
+	var b strings.Builder
+	r0 := sims[0]
+	fmt.Fprintf(&b, "Critical values: simulated, %s replications with seed %d of %d independent Gaussian random walks, the static regression with the same deterministic terms and the residual Dickey–Fuller regression with the same lags (held fixed when a criterion chose them) at the same T", group(r0.Reps), r0.Seed, r0.Spec.N)
+	var ts []string
+	for r, sr := range sims {
+		s := fmt.Sprintf("T=%d, %d lags, Monte Carlo standard errors %s", sr.NObs, sr.Spec.Lags, simMCSEText(sr))
+		if len(sims) > 1 {
+			s = vars[deps[r]] + ": " + s
+		}
+		ts = append(ts, s)
+	}
+	fmt.Fprintf(&b, " (%s); stars by these critical values. p-value: the share of the replications at or below τ.", strings.Join(ts, "; "))
+	return b.String()
+}
+
+// sysSim holds the simulated tables of a Johansen rank test: for rank r
+// (row r) the null distributions of the trace and maximum-eigenvalue
+// statistics for H(0) in a system of K−r independent Gaussian random
+// walks, with the same case, lags and T (asymptotically the null
+// distribution of the test of rank r in K series; Johansen 1995, ch. 11).
+type sysSim struct {
+	trace, maxeig []*simulate.Result
+	pT, pM        []float64 // simulated p-values of the statistics
+	chosenLag     bool
+}
+
+// simJohansen fills the critical values of s from simulations and
+// chooses the rank with them by the sequential trace procedure (the
+// first r whose trace statistic does not exceed its critical value at
+// the level, as johansen.Result.Rank does with the tables).
+func simJohansen(c *Context, set *simSettings, s *sysState) (*sysSim, error) {
+	r := s.res
+	out := &sysSim{chosenLag: s.lags != nil}
+	s.crT, s.crM = make([][3]float64, r.K), make([][3]float64, r.K)
+	for i := 0; i < r.K; i++ {
+		for _, stat := range []string{simulate.JohansenTrace, simulate.JohansenMaxEig} {
+			sp := set.spec(stat, r.Case.String(), r.K-i, r.T+r.Lags+1, r.Lags)
+			sr, err := simCrit(c, "crit", sp)
+			if err != nil {
+				return nil, err
+			}
+			var cv [3]float64
+			for j, l := range johansen.Levels {
+				cv[j] = simAt(sr, l)
+			}
+			if stat == simulate.JohansenTrace {
+				out.trace, s.crT[i] = append(out.trace, sr), cv
+				out.pT = append(out.pT, sr.PValue(s.trace[i]))
+			} else {
+				out.maxeig, s.crM[i] = append(out.maxeig, sr), cv
+				out.pM = append(out.pM, sr.PValue(s.max[i]))
+			}
+		}
+	}
+	li := slices.Index(johansen.Levels[:], s.st.Level)
+	if li < 0 {
+		return nil, c.Errorf("level", "level must be 0.10, 0.05 or 0.01, not %g", s.st.Level)
+	}
+	s.chosen = r.K
+	for i := 0; i < r.K; i++ {
+		if s.trace[i] <= s.crT[i][li] {
+			s.chosen = i
+			break
+		}
+	}
+	return out, nil
+}
+
+// critText names the source of a rank test's critical values.
+func (s *sysState) critText() string {
+	if s.sim == nil {
+		return critSource(s.res.Case)
+	}
+	r0 := s.sim.trace[0]
+	lag := fmt.Sprintf("%d lagged differences", r0.Spec.Lags)
+	if s.sim.chosenLag {
+		lag += " (the order the criterion chose, held fixed in every replication)"
+	}
+	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, case %s; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
+		group(r0.Reps), r0.Seed, r0.NObs, lag, s.res.Case)
+}
+
+// mcseNote lists the Monte Carlo standard errors of the simulated
+// critical values, in the order of the table's columns.
+func (s *sysSim) mcseNote() string {
+	row := func(rs []*simulate.Result) string {
+		var parts []string
+		for i, r := range rs {
+			var e []string
+			for _, l := range johansen.Levels {
+				e = append(e, strconv.FormatFloat(r.MCSE[slices.Index(r.Levels, l)], 'g', 2, 64))
+			}
+			parts = append(parts, fmt.Sprintf("r=%d: %s", i, strings.Join(e, "/")))
+		}
+		return strings.Join(parts, "; ")
+	}
+	return fmt.Sprintf("Monte Carlo standard errors of the simulated critical values (10%%/5%%/1%%): trace %s; maximum eigenvalue %s. Simulated p-values are in the results file.",
+		row(s.trace), row(s.maxeig))
+}
+
+// values adds the simulated fields to a rank test's values.
+func (s *sysSim) values(v map[string]any) {
+	mcse := func(rs []*simulate.Result) []map[string]any {
+		out := make([]map[string]any, len(rs))
+		for i, r := range rs {
+			out[i] = map[string]any{}
+			for _, l := range johansen.Levels {
+				out[i][pct(l)] = r.MCSE[slices.Index(r.Levels, l)]
+			}
+		}
+		return out
+	}
+	keys := func(rs []*simulate.Result) []string {
+		out := make([]string, len(rs))
+		for i, r := range rs {
+			out[i] = r.Key
+		}
+		return out
+	}
+	r0 := s.trace[0]
+	v["crit_source"] = fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %d lagged differences", group(r0.Reps), r0.Seed, r0.NObs, r0.Spec.Lags)
+	v["crit_mcse_trace"], v["crit_mcse_maxeig"] = mcse(s.trace), mcse(s.maxeig)
+	v["pvalue_trace"], v["pvalue_maxeig"] = slices.Clone(s.pT), slices.Clone(s.pM)
+	v["sim_key"] = map[string]any{"trace": keys(s.trace), "maxeig": keys(s.maxeig)}
+	v["sim"] = map[string]any{"reps": r0.Reps, "seed": int(r0.Seed), "t": r0.NObs, "lags": r0.Spec.Lags}
+}

@@ -1,0 +1,121 @@
+package engine
+
+import (
+	"errors"
+	"fmt"
+	"reflect"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+)
+
+// checkKeys reports the first mapping key in n that has no field in the
+// struct pointed to by out, with the closest valid key suggested. It
+// descends into nested struct fields; types with their own UnmarshalYAML
+// check themselves. Errors carry "line N:" relative to the YAML text.
+func checkKeys(n *yaml.Node, out any) error {
+	return checkKeysType(n, reflect.TypeOf(out))
+}
+
+var unmarshalerType = reflect.TypeOf((*yaml.Unmarshaler)(nil)).Elem()
+
+func checkKeysType(n *yaml.Node, t reflect.Type) error {
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	if reflect.PointerTo(t).Implements(unmarshalerType) {
+		return nil // such types decode, and check, their own keys
+	}
+	switch t.Kind() {
+	case reflect.Struct:
+		if n.Kind != yaml.MappingNode {
+			return nil // a type error that Decode will report
+		}
+		fields := yamlFields(t)
+		names := make([]string, 0, len(fields))
+		for k := range fields {
+			names = append(names, k)
+		}
+		sort.Strings(names)
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			k := n.Content[i]
+			ft, ok := fields[k.Value]
+			if !ok {
+				return fmt.Errorf("line %d: unknown key %q%s; valid keys: %s", k.Line, k.Value, didYouMean(k.Value, names), strings.Join(names, ", "))
+			}
+			if err := checkKeysType(n.Content[i+1], ft); err != nil {
+				return err
+			}
+		}
+	case reflect.Slice:
+		if n.Kind == yaml.SequenceNode {
+			for _, c := range n.Content {
+				if err := checkKeysType(c, t.Elem()); err != nil {
+					return err
+				}
+			}
+		}
+	case reflect.Map:
+		if n.Kind == yaml.MappingNode {
+			for i := 1; i < len(n.Content); i += 2 {
+				if err := checkKeysType(n.Content[i], t.Elem()); err != nil {
+					return err
+				}
+			}
+		}
+	}
+	return nil
+}
+
+// yamlFields maps YAML keys to field types, following ",inline".
+func yamlFields(t reflect.Type) map[string]reflect.Type {
+	out := map[string]reflect.Type{}
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		if !f.IsExported() {
+			continue
+		}
+		tag := f.Tag.Get("yaml")
+		if tag == "-" {
+			continue
+		}
+		name, opts, _ := strings.Cut(tag, ",")
+		if strings.Contains(opts, "inline") {
+			for k, v := range yamlFields(f.Type) {
+				out[k] = v
+			}
+			continue
+		}
+		if name == "" {
+			name = strings.ToLower(f.Name)
+		}
+		out[name] = f.Type
+	}
+	return out
+}
+
+var yamlLineRE = regexp.MustCompile(`line (\d+)`)
+
+// yamlError turns a yaml.v3 error (with lines relative to the YAML text)
+// into a PosError with the file line; base is the file line of YAML line 1.
+func yamlError(file string, base int, err error) error {
+	msg := err.Error()
+	msg = strings.TrimPrefix(msg, "yaml: ")
+	msg = strings.TrimPrefix(msg, "unmarshal errors:\n  ")
+	line := 0
+	if m := yamlLineRE.FindStringSubmatch(msg); m != nil {
+		l, _ := strconv.Atoi(m[1])
+		line = base + l - 1
+		msg = strings.TrimSpace(yamlLineRE.ReplaceAllString(msg, ""))
+		msg = strings.TrimPrefix(msg, ":")
+		msg = strings.TrimSpace(msg)
+	}
+	var te *yaml.TypeError
+	if errors.As(err, &te) && len(te.Errors) > 1 {
+		msg = strings.ReplaceAll(msg, "\n", ";")
+	}
+	return &PosError{File: file, Line: line, Msg: msg}
+}

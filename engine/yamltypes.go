@@ -1,0 +1,26 @@
+package engine
+
+import (
+	"fmt"
+
+	"gopkg.in/yaml.v3"
+)
+
+// nameList is one name or a list of names.
+type nameList []string
+
+func (l *nameList) UnmarshalYAML(n *yaml.Node) error {
+	switch n.Kind {
+	case yaml.ScalarNode:
+		*l = nameList{n.Value}
+		return nil
+	case yaml.SequenceNode:
+		var s []string
+		if err := n.Decode(&s); err != nil {
+			return err
+		}
+		*l = s
+		return nil
+	}
+	return fmt.Errorf("line %d: write one name or a list of names", n.Line)
+}
