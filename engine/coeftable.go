@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"strings"
@@ -14,16 +16,16 @@ const condWarn = 1e8
 // coefRows lays out coefficients the usual way: the estimate with stars on
 // one row, its standard error in parentheses on the next. With noStars
 // the stars are left off (for estimates whose usual t-ratios are invalid).
-func coefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars bool) []Row {
-	var rows []Row
+func coefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars bool) []table.Row {
+	var rows []table.Row
 	for i, t := range terms {
 		st := 0
 		if !noStars {
 			st = c.StarsFor(coefs[i].P)
 		}
 		rows = append(rows,
-			Row{Cells: []Cell{T(t), Starred(coefs[i].Est, dec, st)}},
-			Row{Cells: []Cell{Empty, SECell(coefs[i].SE, dec)}},
+			table.Row{Cells: []table.Cell{table.T(t), table.Starred(coefs[i].Est, dec, st)}},
+			table.Row{Cells: []table.Cell{table.Empty, table.SECell(coefs[i].SE, dec)}},
 		)
 	}
 	return rows

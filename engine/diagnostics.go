@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"crypto/sha256"
 	"encoding/binary"
@@ -173,17 +175,17 @@ func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq, dwNull func(
 
 // testRows lays out a test the way every block of tests is shown: the
 // statistic on one row, its p-value on the next.
-func testRows(label string, stat, p float64, dec int, ruleAbove bool) []Row {
-	rows := []Row{{Cells: []Cell{T(label), N(stat, dec)}, RuleAbove: ruleAbove}}
+func testRows(label string, stat, p float64, dec int, ruleAbove bool) []table.Row {
+	rows := []table.Row{{Cells: []table.Cell{table.T(label), table.N(stat, dec)}, RuleAbove: ruleAbove}}
 	if !math.IsNaN(p) {
-		rows = append(rows, Row{Cells: []Cell{T("    p-value"), N(p, dec)}})
+		rows = append(rows, table.Row{Cells: []table.Cell{table.T("    p-value"), table.N(p, dec)}})
 	}
 	return rows
 }
 
 // diagRows are the table rows of the diagnostics.
-func diagRows(ds []diagResult, dec int) []Row {
-	var rows []Row
+func diagRows(ds []diagResult, dec int) []table.Row {
+	var rows []table.Row
 	for i, d := range ds {
 		label := d.Label
 		if d.Dist != "" {

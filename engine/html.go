@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"bytes"
 	"fmt"
@@ -180,7 +182,7 @@ func writeHTMLNotes(w util.BufWriter, notes []string) {
 	w.WriteString("</div>\n")
 }
 
-func writeHTMLTable(w util.BufWriter, t *Table) {
+func writeHTMLTable(w util.BufWriter, t *table.Table) {
 	w.WriteString(`<table class="results">` + "\n<thead>\n")
 	for _, row := range t.Head {
 		w.WriteString("<tr>")
@@ -231,11 +233,11 @@ func writeHTMLTable(w util.BufWriter, t *Table) {
 // trailing boxes — one for stars or the closing parenthesis, one for a
 // bracketed suffix such as a lag count — so that right alignment lines
 // the decimal points up within a column.
-func htmlCell(c Cell) string {
+func htmlCell(c table.Cell) string {
 	if !c.IsNum {
 		return html.EscapeString(c.Text)
 	}
-	s, neg := numText(c)
+	s, neg := table.NumText(c)
 	if neg {
 		s = "−" + s
 	}
@@ -244,7 +246,7 @@ func htmlCell(c Cell) string {
 		s = "(" + s
 		trail = ")"
 	}
-	trail += stars(c.Stars)
+	trail += table.Stars(c.Stars)
 	out := html.EscapeString(s) + `<span class="stars">` + html.EscapeString(trail) + `</span>`
 	if sfx := strings.TrimSpace(c.Suffix); sfx != "" {
 		out += `<span class="sfx">` + html.EscapeString(sfx) + `</span>`

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"math"
 
@@ -36,7 +38,7 @@ func (s *descriptivesSpec) Run(c *Context) (*Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{{T("Series"), T("N"), T("Mean"), T("Std. dev."), T("Min"), T("Max"), T("First"), T("Last")}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T("Series"), table.T("N"), table.T("Mean"), table.T("Std. dev."), table.T("Min"), table.T("Max"), table.T("First"), table.T("Last")}}}
 	var vals []map[string]any
 	for _, name := range s.Series {
 		d, err := c.Data(c.DataAlias(s.Data), []string{name}, s.Sample)
@@ -50,7 +52,7 @@ func (s *descriptivesSpec) Run(c *Context) (*Result, error) {
 			lo, hi = math.Min(lo, v), math.Max(hi, v)
 		}
 		first, last := d.Dates[0].String(), d.Dates[len(d.Dates)-1].String()
-		t.Body = append(t.Body, Row{Cells: []Cell{T(name), I(len(x)), N(mean, dec), N(sd, dec), N(lo, dec), N(hi, dec), T(first), T(last)}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(name), table.I(len(x)), table.N(mean, dec), table.N(sd, dec), table.N(lo, dec), table.N(hi, dec), table.T(first), table.T(last)}})
 		vals = append(vals, map[string]any{"name": name, "n": len(x), "mean": mean, "sd": sd, "min": lo, "max": hi, "first": first, "last": last})
 	}
 	t.Notes = []string{"Std. dev. is the sample standard deviation (divisor N − 1). First and Last are the first and last dates with data" + sampleClause(s.Sample) + "."}

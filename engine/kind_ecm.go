@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"math"
@@ -165,23 +167,23 @@ func (s *ecmSpec) Run(c *Context) (*Result, error) {
 	}
 	unit := periodUnit(d.Freq)
 	adj := m.Adjust
-	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(ecm.DiffName(rel.Y, 0))}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(rel.Y, 0))}}}
 	rows := coefRows(c, m.Names, m.Coef, dec, false)
 	// The half-life goes right under the adjustment coefficient (term 1:
 	// rows 2 and 3 are its estimate and standard error).
-	var hl []Row
+	var hl []table.Row
 	if adj.HasHalfLife {
-		hl = []Row{{Cells: []Cell{T("    half-life, " + unit), N(adj.HalfLife, dec)}}, {Cells: []Cell{Empty, SECell(adj.HalfLifeSE, dec)}}}
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life, " + unit), table.N(adj.HalfLife, dec)}}, {Cells: []table.Cell{table.Empty, table.SECell(adj.HalfLifeSE, dec)}}}
 	} else {
-		hl = []Row{{Cells: []Cell{T("    half-life"), T("none: no error correction")}}}
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life"), table.T("none: no error correction")}}}
 	}
-	body := append([]Row{}, rows[:4]...)
+	body := append([]table.Row{}, rows[:4]...)
 	body = append(body, hl...)
 	body = append(body, rows[4:]...)
 	body = append(body,
-		Row{Cells: []Cell{T("N"), I(m.Fit.N)}, RuleAbove: true},
-		Row{Cells: []Cell{T("R²"), N(m.Fit.R2(), dec)}},
-		Row{Cells: []Cell{T("Adjusted R²"), N(m.Fit.R2Adj(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(m.Fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(m.Fit.R2(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(m.Fit.R2Adj(), dec)}},
 	)
 	body = append(body, diagRows(diags, dec)...)
 	t.Body = body

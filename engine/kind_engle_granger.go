@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"errors"
 	"fmt"
@@ -158,32 +160,32 @@ func (s *egSpec) Run(c *Context) (*Result, error) {
 	} else {
 		terms = append(terms, s.X...)
 	}
-	t := &Table{Stub: 1}
-	t.Head = [][]Cell{
-		{Empty, Empty, Empty, Empty, Empty, Span("Critical values", 3), Span("Static relation", len(terms))},
-		append([]Cell{T("Dependent variable"), T("ADF τ"), T("p-value"), T("Lags"), T("N"), T("1%"), T("5%"), T("10%")}, textCells(terms)...),
+	t := &table.Table{Stub: 1}
+	t.Head = [][]table.Cell{
+		{table.Empty, table.Empty, table.Empty, table.Empty, table.Empty, table.Span("Critical values", 3), table.Span("Static relation", len(terms))},
+		append([]table.Cell{table.T("Dependent variable"), table.T("ADF τ"), table.T("p-value"), table.T("Lags"), table.T("N"), table.T("1%"), table.T("5%"), table.T("10%")}, textCells(terms)...),
 	}
 	each := make([]map[string]any, len(rows))
 	for r, res := range rows {
 		dep := vars[deps[r]]
 		o := egOutcome(res)
-		cells := []Cell{T(dep), Starred(res.Stat, dec, o.stars(c)), N(res.PValue, dec), I(res.Lags), I(res.NObs)}
+		cells := []table.Cell{table.T(dep), table.Starred(res.Stat, dec, o.stars(c)), table.N(res.PValue, dec), table.I(res.Lags), table.I(res.NObs)}
 		for _, l := range critical.MacKinnonLevels {
 			v, ok := critAt(res.Crit, l)
 			if !ok {
 				v = math.NaN()
 			}
-			cells = append(cells, N(v, dec))
+			cells = append(cells, table.N(v, dec))
 		}
 		static := staticMap(res, det, vars, deps[r])
 		for _, term := range terms {
 			if term == dep {
-				cells = append(cells, T("—"))
+				cells = append(cells, table.T("—"))
 				continue
 			}
-			cells = append(cells, N(static[term].(float64), dec))
+			cells = append(cells, table.N(static[term].(float64), dec))
 		}
-		t.Body = append(t.Body, Row{Cells: cells})
+		t.Body = append(t.Body, table.Row{Cells: cells})
 		each[r] = egValues(res, o, static, d, dep)
 		each[r]["name"] = dep
 		if sims[r] != nil { // crit: simulate (simcrit.go)
@@ -276,10 +278,10 @@ func egValues(r *coint.EGResult, o *urOutcome, static map[string]any, d *Data, d
 	return v
 }
 
-func textCells(s []string) []Cell {
-	out := make([]Cell, len(s))
+func textCells(s []string) []table.Cell {
+	out := make([]table.Cell, len(s))
 	for i, x := range s {
-		out[i] = T(x)
+		out[i] = table.T(x)
 	}
 	return out
 }

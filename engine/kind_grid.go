@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"errors"
 	"fmt"
@@ -681,44 +683,44 @@ func isInt(v any) bool {
 // table lays the cells out: rows are the combinations of every varied key
 // but the last, columns the values of the last; with one varied key, one
 // row per value and a single column.
-func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *Table {
+func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *table.Table {
 	k := len(s.over)
 	rows, cols := s.shape()
-	t := &Table{}
+	t := &table.Table{}
 	if k == 1 {
 		t.Stub = 1
-		t.Head = [][]Cell{{T(s.over[0].key.Value), T(sh.heading(shown))}}
+		t.Head = [][]table.Cell{{table.T(s.over[0].key.Value), table.T(sh.heading(shown))}}
 		for r := 0; r < rows; r++ {
-			t.Body = append(t.Body, sh.rows([]Cell{T(s.over[0].labels[r])}, shown[r:r+1], dec, false)...)
+			t.Body = append(t.Body, sh.rows([]table.Cell{table.T(s.over[0].labels[r])}, shown[r:r+1], dec, false)...)
 		}
 		return t
 	}
 	last := s.over[k-1]
 	t.Stub = k - 1
-	top := make([]Cell, k-1)
+	top := make([]table.Cell, k-1)
 	for i := range top {
-		top[i] = Empty
+		top[i] = table.Empty
 	}
-	top = append(top, Span(last.key.Value, cols))
-	sub := make([]Cell, 0, k-1+cols)
+	top = append(top, table.Span(last.key.Value, cols))
+	sub := make([]table.Cell, 0, k-1+cols)
 	for _, a := range s.over[:k-1] {
-		sub = append(sub, T(a.key.Value))
+		sub = append(sub, table.T(a.key.Value))
 	}
 	for _, l := range last.labels {
-		sub = append(sub, T(l))
+		sub = append(sub, table.T(l))
 	}
-	t.Head = [][]Cell{top, sub}
+	t.Head = [][]table.Cell{top, sub}
 	var prev []int
 	for r := 0; r < rows; r++ {
 		idx := s.cells[r*cols].index
-		stub := make([]Cell, k-1)
+		stub := make([]table.Cell, k-1)
 		same := prev != nil
 		for a := 0; a < k-1; a++ {
 			same = same && prev[a] == idx[a]
 			if same {
-				stub[a] = Empty // the same as the row above: left blank
+				stub[a] = table.Empty // the same as the row above: left blank
 			} else {
-				stub[a] = T(s.over[a].labels[idx[a]])
+				stub[a] = table.T(s.over[a].labels[idx[a]])
 			}
 		}
 		newBlock := k > 2 && prev != nil && prev[0] != idx[0]
@@ -730,29 +732,29 @@ func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *Table {
 
 // rows is one combination row: the values, and for coefficients their
 // standard errors in parentheses on the row below.
-func (sh gridShow) rows(stub []Cell, cells []gridShown, dec int, ruleAbove bool) []Row {
-	main := Row{Cells: slices.Clone(stub), RuleAbove: ruleAbove}
+func (sh gridShow) rows(stub []table.Cell, cells []gridShown, dec int, ruleAbove bool) []table.Row {
+	main := table.Row{Cells: slices.Clone(stub), RuleAbove: ruleAbove}
 	for _, v := range cells {
 		switch {
 		case v.missing:
-			main.Cells = append(main.Cells, T(""))
+			main.Cells = append(main.Cells, table.T(""))
 		case v.isInt:
-			main.Cells = append(main.Cells, I(int(v.est)))
+			main.Cells = append(main.Cells, table.I(int(v.est)))
 		default:
-			main.Cells = append(main.Cells, Starred(v.est, dec, v.stars))
+			main.Cells = append(main.Cells, table.Starred(v.est, dec, v.stars))
 		}
 	}
-	out := []Row{main}
+	out := []table.Row{main}
 	if sh.coef && sh.field == "" {
-		se := Row{}
+		se := table.Row{}
 		for range stub {
-			se.Cells = append(se.Cells, Empty)
+			se.Cells = append(se.Cells, table.Empty)
 		}
 		for _, v := range cells {
 			if v.missing || !v.hasSE {
-				se.Cells = append(se.Cells, T(""))
+				se.Cells = append(se.Cells, table.T(""))
 			} else {
-				se.Cells = append(se.Cells, SECell(v.se, dec))
+				se.Cells = append(se.Cells, table.SECell(v.se, dec))
 			}
 		}
 		out = append(out, se)

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"slices"
@@ -95,9 +97,9 @@ func (s *johansenSpec) Run(c *Context) (*Result, error) {
 		dec = *s.Decimals
 	}
 	r := st.res
-	t := &Table{Stub: 1, Head: [][]Cell{
-		{Empty, Empty, Span("Trace", 4), Span("Maximum eigenvalue", 4)},
-		{T("Rank r"), T("Eigenvalue"), T("Statistic"), T("10%"), T("5%"), T("1%"), T("Statistic"), T("10%"), T("5%"), T("1%")},
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{
+		{table.Empty, table.Empty, table.Span("Trace", 4), table.Span("Maximum eigenvalue", 4)},
+		{table.T("Rank r"), table.T("Eigenvalue"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")},
 	}}
 	stars := func(stat float64, cv [3]float64) int {
 		n := 0
@@ -109,15 +111,15 @@ func (s *johansenSpec) Run(c *Context) (*Result, error) {
 		return n
 	}
 	for i := 0; i < r.K; i++ {
-		row := []Cell{T(itoa(i)), N(r.Eigenvalues[i], dec), Starred(st.trace[i], 2, stars(st.trace[i], st.crT[i]))}
+		row := []table.Cell{table.T(itoa(i)), table.N(r.Eigenvalues[i], dec), table.Starred(st.trace[i], 2, stars(st.trace[i], st.crT[i]))}
 		for _, v := range st.crT[i] {
-			row = append(row, N(v, 2))
+			row = append(row, table.N(v, 2))
 		}
-		row = append(row, Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
+		row = append(row, table.Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
 		for _, v := range st.crM[i] {
-			row = append(row, N(v, 2))
+			row = append(row, table.N(v, 2))
 		}
-		t.Body = append(t.Body, Row{Cells: row})
+		t.Body = append(t.Body, table.Row{Cells: row})
 	}
 	t.Notes = []string{sysNote(st, s.Lags.Select)}
 	if st.sim != nil { // crit: simulate (simcrit.go)

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"math"
@@ -187,12 +189,12 @@ func (s *dolsSpec) Run(c *Context) (*Result, error) {
 		return nil, err
 	}
 	dec := decimalsOr(c, s.Decimals)
-	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
 	t.Body = longRunRows(c, terms, coefs, nd, dec)
 	t.Body = append(t.Body,
-		Row{Cells: []Cell{T("N"), I(r.Fit.N)}, RuleAbove: true},
-		Row{Cells: []Cell{T("Leads of Δx"), I(r.Leads)}},
-		Row{Cells: []Cell{T("Lags of Δx"), I(r.Lags)}},
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.Fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("Leads of Δx"), table.I(r.Leads)}},
+		table.Row{Cells: []table.Cell{table.T("Lags of Δx"), table.I(r.Lags)}},
 	)
 	t.Body = append(t.Body, waldRows(walds, dec)...)
 	sd := &Data{Dates: d.Dates[r.First : r.Last+1]}
@@ -297,11 +299,11 @@ func (s *fmolsSpec) Run(c *Context) (*Result, error) {
 		return nil, err
 	}
 	dec := decimalsOr(c, s.Decimals)
-	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
 	t.Body = longRunRows(c, r.Names, r.Table, nd, dec)
 	t.Body = append(t.Body,
-		Row{Cells: []Cell{T("N"), I(r.N)}, RuleAbove: true},
-		Row{Cells: []Cell{T("Bandwidth"), N(r.Bandwidth, 2)}},
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("Bandwidth"), table.N(r.Bandwidth, 2)}},
 	)
 	t.Body = append(t.Body, waldRows(walds, dec)...)
 	sd := &Data{Dates: d.Dates[r.First:]}
@@ -338,7 +340,7 @@ func decimalsOr(c *Context, d *int) int {
 
 // longRunRows shows the long-run coefficients first, then the
 // deterministic terms (terms holds the deterministic terms first).
-func longRunRows(c *Context, terms []string, coefs []ols.Coef, nd, dec int) []Row {
+func longRunRows(c *Context, terms []string, coefs []ols.Coef, nd, dec int) []table.Row {
 	rows := coefRows(c, terms[nd:], coefs[nd:], dec, false)
 	if nd > 0 {
 		det := coefRows(c, terms[:nd], coefs[:nd], dec, false)
@@ -536,8 +538,8 @@ func runWald(c *Context, rs []restriction, lr longrun.Coefs) ([]waldResult, erro
 	return out, nil
 }
 
-func waldRows(ws []waldResult, dec int) []Row {
-	var rows []Row
+func waldRows(ws []waldResult, dec int) []table.Row {
+	var rows []table.Row
 	for i, w := range ws {
 		rows = append(rows, testRows(fmt.Sprintf("Wald: %s, χ²(%d)", w.Text, w.W.DF), w.W.Stat, w.W.PValue, dec, i == 0)...)
 	}

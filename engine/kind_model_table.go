@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"math"
@@ -133,32 +135,32 @@ func (s *modelTableSpec) Run(c *Context) (*Result, error) {
 	}
 	dec := decimalsOr(c, s.Decimals)
 	n := len(s.Models)
-	head1 := []Cell{T("")}
-	head2 := []Cell{T("")}
-	head3 := []Cell{T("Dependent variable")}
+	head1 := []table.Cell{table.T("")}
+	head2 := []table.Cell{table.T("")}
+	head3 := []table.Cell{table.T("Dependent variable")}
 	for i, r := range res {
-		head1 = append(head1, T(fmt.Sprintf("(%d)", i+1)))
+		head1 = append(head1, table.T(fmt.Sprintf("(%d)", i+1)))
 		label := modelMethod[r.Kind]
 		if len(s.Labels) > 0 {
 			label = s.Labels[i]
 		}
-		head2 = append(head2, T(label))
-		head3 = append(head3, T(modelDep(r)))
+		head2 = append(head2, table.T(label))
+		head3 = append(head3, table.T(modelDep(r)))
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{head1, head2, head3}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{head1, head2, head3}}
 	for _, term := range terms {
-		est := []Cell{T(term)}
-		se := []Cell{Empty}
+		est := []table.Cell{table.T(term)}
+		se := []table.Cell{table.Empty}
 		for i := range res {
 			cf, ok := coefs[i][term]
 			if !ok {
-				est, se = append(est, Empty), append(se, Empty)
+				est, se = append(est, table.Empty), append(se, table.Empty)
 				continue
 			}
-			est = append(est, Starred(cf.est, dec, starsOrZero(c, cf.p)))
-			se = append(se, SECell(cf.se, dec))
+			est = append(est, table.Starred(cf.est, dec, starsOrZero(c, cf.p)))
+			se = append(se, table.SECell(cf.se, dec))
 		}
-		t.Body = append(t.Body, Row{Cells: est}, Row{Cells: se})
+		t.Body = append(t.Body, table.Row{Cells: est}, table.Row{Cells: se})
 	}
 	statVals := map[string]any{}
 	for j, st := range s.stats() {
@@ -171,7 +173,7 @@ func (s *modelTableSpec) Run(c *Context) (*Result, error) {
 		if slices.Contains(modelDiagnostics, st) {
 			label = diagnosticLabel(res, st) + ", p-value"
 		}
-		row := Row{Cells: []Cell{T(label)}, RuleAbove: j == 0}
+		row := table.Row{Cells: []table.Cell{table.T(label)}, RuleAbove: j == 0}
 		vs := make([]any, n)
 		for i, r := range res {
 			v, ok := r.Values[st]
@@ -181,17 +183,17 @@ func (s *modelTableSpec) Run(c *Context) (*Result, error) {
 			vs[i] = v
 			switch x := v.(type) {
 			case int:
-				row.Cells = append(row.Cells, I(x))
+				row.Cells = append(row.Cells, table.I(x))
 			case float64:
 				if ok && st == "bandwidth" && x != math.Trunc(x) {
-					row.Cells = append(row.Cells, N(x, 2))
+					row.Cells = append(row.Cells, table.N(x, 2))
 				} else if st == "bandwidth" || st == "leads" || st == "lags" {
-					row.Cells = append(row.Cells, I(int(x)))
+					row.Cells = append(row.Cells, table.I(int(x)))
 				} else {
-					row.Cells = append(row.Cells, N(x, dec))
+					row.Cells = append(row.Cells, table.N(x, dec))
 				}
 			default:
-				row.Cells = append(row.Cells, Empty)
+				row.Cells = append(row.Cells, table.Empty)
 			}
 		}
 		statVals[st] = vs

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 
@@ -79,13 +81,13 @@ func (s *olsSpec) Run(c *Context) (*Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
 	t.Body = coefRows(c, terms, coefs, dec, false)
 	t.Body = append(t.Body,
-		Row{Cells: []Cell{T("N"), I(fit.N)}, RuleAbove: true},
-		Row{Cells: []Cell{T("R²"), N(fit.R2(), dec)}},
-		Row{Cells: []Cell{T("Adjusted R²"), N(fit.R2Adj(), dec)}},
-		Row{Cells: []Cell{T("Durbin–Watson"), N(fit.DW(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(fit.R2(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(fit.R2Adj(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Durbin–Watson"), table.N(fit.DW(), dec)}},
 	)
 	t.Notes = []string{
 		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", s.Y, cov.Describe(), fit.DF()),

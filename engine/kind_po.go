@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"math"
@@ -92,27 +94,27 @@ func (s *poSpec) Run(c *Context) (*Result, error) {
 	}
 	pu := &urOutcome{Stat: r.Pu, PValue: math.NaN(), Crit: r.CritPu, Upper: true}
 	pz := &urOutcome{Stat: r.Pz, PValue: math.NaN(), Crit: r.CritPz, Upper: true}
-	t := &Table{Stub: 1, Head: [][]Cell{
-		{Empty, Empty, Span("Critical values", 3)},
-		{T(""), T("Statistic"), T("1%"), T("5%"), T("10%")},
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{
+		{table.Empty, table.Empty, table.Span("Critical values", 3)},
+		{table.T(""), table.T("Statistic"), table.T("1%"), table.T("5%"), table.T("10%")},
 	}}
 	for _, row := range []struct {
 		label string
 		o     *urOutcome
 	}{{"Variance ratio P̂u (" + s.Y + " dependent)", pu}, {"Trace P̂z", pz}} {
-		cells := []Cell{T(row.label), Starred(row.o.Stat, dec, row.o.stars(c))}
+		cells := []table.Cell{table.T(row.label), table.Starred(row.o.Stat, dec, row.o.stars(c))}
 		for _, l := range coint.POLevels {
 			v, ok := critAt(row.o.Crit, l)
 			if !ok {
 				v = math.NaN()
 			}
-			cells = append(cells, N(v, dec))
+			cells = append(cells, table.N(v, dec))
 		}
-		t.Body = append(t.Body, Row{Cells: cells})
+		t.Body = append(t.Body, table.Row{Cells: cells})
 	}
 	t.Body = append(t.Body,
-		Row{Cells: []Cell{T("Bandwidth (Bartlett lags)"), I(r.Lags)}, RuleAbove: true},
-		Row{Cells: []Cell{T("Observations (T − 1)"), I(r.NObs)}},
+		table.Row{Cells: []table.Cell{table.T("Bandwidth (Bartlett lags)"), table.I(r.Lags)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("Observations (T − 1)"), table.I(r.NObs)}},
 	)
 	vars := append([]string{s.Y}, s.X...)
 	letter := string(rune('a' + int(det)))

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"encoding/json"
 	"fmt"
@@ -186,23 +188,23 @@ func (s *revisionSpec) table(c *Context, rep *revision.Report) *Result {
 	if max == 0 {
 		max = 12
 	}
-	t := &Table{Stub: 2, Head: [][]Cell{{T("Result"), T("What"), T("Before"), T("After")}}}
+	t := &table.Table{Stub: 2, Head: [][]table.Cell{{table.T("Result"), table.T("What"), table.T("Before"), table.T("After")}}}
 	var flipped, samples []map[string]any
 	block := func(title string) {
-		t.Body = append(t.Body, Row{Cells: []Cell{Span(title, 4)}, RuleAbove: len(t.Body) > 0})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span(title, 4)}, RuleAbove: len(t.Body) > 0})
 	}
 	if s.shows("conclusions") {
 		block("Conclusions that changed")
 		n := 0
 		for _, it := range rep.Items {
 			for _, f := range it.Flips {
-				t.Body = append(t.Body, Row{Cells: []Cell{T(it.ID), T(f.What), T(f.Old), T(f.New)}})
+				t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T(f.What), table.T(f.Old), table.T(f.New)}})
 				flipped = append(flipped, map[string]any{"id": it.ID, "what": f.What, "old": f.Old, "new": f.New})
 				n++
 			}
 		}
 		if n == 0 {
-			t.Body = append(t.Body, Row{Cells: []Cell{Span("none", 4)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
 		}
 	}
 	if s.shows("samples") {
@@ -213,14 +215,14 @@ func (s *revisionSpec) table(c *Context, rep *revision.Report) *Result {
 				continue
 			}
 			before, after := sampleText(it.Samples)
-			t.Body = append(t.Body, Row{Cells: []Cell{T(it.ID), T("sample"), T(before), T(after)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T("sample"), table.T(before), table.T(after)}})
 			for _, ch := range it.Samples {
 				samples = append(samples, map[string]any{"id": it.ID, "what": ch.What, "old": ch.Old, "new": ch.New})
 			}
 			n++
 		}
 		if n == 0 {
-			t.Body = append(t.Body, Row{Cells: []Cell{Span("none", 4)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
 		}
 	}
 	type mv struct {
@@ -242,10 +244,10 @@ func (s *revisionSpec) table(c *Context, rep *revision.Report) *Result {
 	if s.shows("numbers") {
 		block(fmt.Sprintf("Numbers that moved most (%d of %d that moved; p-values aside)", min(max, len(ranked)), len(moved)))
 		for _, m := range ranked[:min(max, len(ranked))] {
-			t.Body = append(t.Body, Row{Cells: []Cell{T(m.id), T(fmt.Sprintf("%s (%+.1f%%)", m.ch.What, 100*m.ch.Rel)), T(m.ch.Old), T(m.ch.New)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(m.id), table.T(fmt.Sprintf("%s (%+.1f%%)", m.ch.What, 100*m.ch.Rel)), table.T(m.ch.Old), table.T(m.ch.New)}})
 		}
 		if len(moved) == 0 {
-			t.Body = append(t.Body, Row{Cells: []Cell{Span("none", 4)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
 		}
 	}
 	var inputs []string

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"strings"
@@ -143,10 +145,10 @@ func (s *urSpec) Run(c *Context) (*Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{{T(""), T(s.Series)}}}
-	t.Body = append(t.Body, Row{Cells: []Cell{T(o.Test + " statistic, " + o.StatName), Starred(o.Stat, dec, o.stars(c))}})
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Series)}}}
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(o.Test + " statistic, " + o.StatName), table.Starred(o.Stat, dec, o.stars(c))}})
 	if !isNaN(o.PValue) {
-		p := N(o.PValue, dec)
+		p := table.N(o.PValue, dec)
 		if o.PClipped {
 			if o.PValue >= 0.1 {
 				p.Suffix = " (>)"
@@ -154,20 +156,20 @@ func (s *urSpec) Run(c *Context) (*Result, error) {
 				p.Suffix = " (<)"
 			}
 		}
-		t.Body = append(t.Body, Row{Cells: []Cell{T("p-value"), p}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("p-value"), p}})
 	}
 	lagLabel := "Lagged differences"
 	if o.IsBW {
 		lagLabel = "Bandwidth (Bartlett lags)"
 	}
-	t.Body = append(t.Body, Row{Cells: []Cell{T(lagLabel), I(o.Lags)}}, Row{Cells: []Cell{T("Observations"), I(o.NObs)}})
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(lagLabel), table.I(o.Lags)}}, table.Row{Cells: []table.Cell{table.T("Observations"), table.I(o.NObs)}})
 	if u.Name == "za" {
 		bi := o.Extra["break_index"].(int)
-		t.Body = append(t.Body, Row{Cells: []Cell{T("Break (first date of the new regime)"), T(d.Dates[bi].String())}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("Break (first date of the new regime)"), table.T(d.Dates[bi].String())}})
 		o.Extra["break"] = d.Dates[bi].String()
 	}
 	for i, cv := range o.Crit {
-		row := Row{Cells: []Cell{T("Critical value, " + pct(cv.Level)), N(cv.Value, dec)}, RuleAbove: i == 0}
+		row := table.Row{Cells: []table.Cell{table.T("Critical value, " + pct(cv.Level)), table.N(cv.Value, dec)}, RuleAbove: i == 0}
 		t.Body = append(t.Body, row)
 	}
 	t.Notes = append(t.Notes, urNote(u, o, s.Series), c.StarNote()+" "+d.SampleNote())

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"regexp"
@@ -156,20 +158,20 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 		dec = *s.Decimals
 	}
 	nt := len(levT)
-	head1 := []Cell{T(""), Span("Levels", nt)}
-	head2 := []Cell{T("Series")}
+	head1 := []table.Cell{table.T(""), table.Span("Levels", nt)}
+	head2 := []table.Cell{table.T("Series")}
 	for _, u := range levT {
-		head2 = append(head2, T(urTitles[u.Name]))
+		head2 = append(head2, table.T(urTitles[u.Name]))
 	}
 	if s.diffs() {
-		head1 = append(head1, Span("First differences", nt))
+		head1 = append(head1, table.Span("First differences", nt))
 		for _, u := range difT {
-			head2 = append(head2, T(urTitles[u.Name]))
+			head2 = append(head2, table.T(urTitles[u.Name]))
 		}
 	}
-	head1 = append(head1, T(""))
-	head2 = append(head2, T("Order"))
-	t := &Table{Stub: 1, Head: [][]Cell{head1, head2}}
+	head1 = append(head1, table.T(""))
+	head2 = append(head2, table.T("Order"))
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{head1, head2}}
 
 	// crit5[block][test] collects 5% critical values and T for the note.
 	type critSeen struct {
@@ -180,7 +182,7 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 	crit5 := [2][]critSeen{make([]critSeen, nt), make([]critSeen, nt)}
 	var vals []map[string]any
 	for _, name := range s.Series {
-		row := []Cell{T(name)}
+		row := []table.Cell{table.T(name)}
 		entry := map[string]any{"name": name}
 		var verdicts [2]int
 		for block, exprs := range [][]urTest{levT, difT} {
@@ -205,7 +207,7 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 					return nil, c.Errorf("series", "%s of %s: %v", urTitles[u.Name], expr, err)
 				}
 				outs = append(outs, o)
-				cell := Starred(o.Stat, dec, o.stars(c))
+				cell := table.Starred(o.Stat, dec, o.stars(c))
 				cell.Suffix = fmt.Sprintf(" [%d]", o.Lags)
 				row = append(row, cell)
 				v := o.values()
@@ -227,8 +229,8 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 		}
 		ord := order(verdicts[0], verdicts[1], s.diffs())
 		entry["order"] = ord
-		row = append(row, T(ord))
-		t.Body = append(t.Body, Row{Cells: row})
+		row = append(row, table.T(ord))
+		t.Body = append(t.Body, table.Row{Cells: row})
 		vals = append(vals, entry)
 	}
 

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"slices"
@@ -81,7 +83,7 @@ func (s *vecmSpec) Run(c *Context) (*Result, error) {
 	vals := st.values()
 	vals["show"] = s.show()
 	vals["short"] = shortValues(st)
-	var t *Table
+	var t *table.Table
 	if s.show() == "relations" {
 		t = relationsTable(st, dec)
 	} else {
@@ -94,42 +96,42 @@ func (s *vecmSpec) Run(c *Context) (*Result, error) {
 
 // relationsTable shows β and α side by side for each relation, then the
 // likelihood-ratio tests.
-func relationsTable(st *sysState, dec int) *Table {
+func relationsTable(st *sysState, dec int) *table.Table {
 	m := st.vecm
 	r := st.rank
 	cols := 1 + 2*r
-	head1, head2 := []Cell{Empty}, []Cell{Empty}
+	head1, head2 := []table.Cell{table.Empty}, []table.Cell{table.Empty}
 	for j := 0; j < r; j++ {
-		head1 = append(head1, Span(fmt.Sprintf("Relation %d", j+1), 2))
-		head2 = append(head2, T("β"), T("α"))
+		head1 = append(head1, table.Span(fmt.Sprintf("Relation %d", j+1), 2))
+		head2 = append(head2, table.T("β"), table.T("α"))
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{head1, head2}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{head1, head2}}
 	for i, name := range st.st.Coefs {
-		est, se := []Cell{T(name)}, []Cell{Empty}
+		est, se := []table.Cell{table.T(name)}, []table.Cell{table.Empty}
 		for j := 0; j < r; j++ {
-			est = append(est, N(m.Beta.At(i, j), dec))
+			est = append(est, table.N(m.Beta.At(i, j), dec))
 			if slices.Contains(st.norm, i) {
-				se = append(se, Empty)
+				se = append(se, table.Empty)
 			} else {
-				se = append(se, SECell(m.BetaSE.At(i, j), dec))
+				se = append(se, table.SECell(m.BetaSE.At(i, j), dec))
 			}
 			if i < st.res.K {
-				est = append(est, N(m.Alpha.At(i, j), dec))
-				se = append(se, SECell(m.AlphaSE.At(i, j), dec))
+				est = append(est, table.N(m.Alpha.At(i, j), dec))
+				se = append(se, table.SECell(m.AlphaSE.At(i, j), dec))
 			} else {
-				est, se = append(est, Empty), append(se, Empty)
+				est, se = append(est, table.Empty), append(se, table.Empty)
 			}
 		}
-		t.Body = append(t.Body, Row{Cells: est}, Row{Cells: se})
+		t.Body = append(t.Body, table.Row{Cells: est}, table.Row{Cells: se})
 	}
 	for i, ts := range st.tests {
-		row := []Cell{T(fmt.Sprintf("LR %s: %s", ts.Name, ts.Hyp)), N(ts.LR.Stat, dec)}
+		row := []table.Cell{table.T(fmt.Sprintf("LR %s: %s", ts.Name, ts.Hyp)), table.N(ts.LR.Stat, dec)}
 		row[1].Suffix = fmt.Sprintf(" [%d]", ts.LR.DF)
-		row = append(row, N(ts.LR.P, dec))
+		row = append(row, table.N(ts.LR.P, dec))
 		for len(row) < cols {
-			row = append(row, Empty)
+			row = append(row, table.Empty)
 		}
-		t.Body = append(t.Body, Row{Cells: row, RuleAbove: i == 0})
+		t.Body = append(t.Body, table.Row{Cells: row, RuleAbove: i == 0})
 	}
 	var norm []string
 	for j, i := range st.norm {
@@ -157,19 +159,19 @@ func shortRunTerm(tm johansen.Term, names []string) (label, key string) {
 
 // shortRunTable has one column per equation: the loadings on each
 // relation, then the Γ_i and the unrestricted deterministic terms.
-func shortRunTable(st *sysState, dec int) *Table {
+func shortRunTable(st *sysState, dec int) *table.Table {
 	m := st.vecm
-	head := []Cell{Empty}
+	head := []table.Cell{table.Empty}
 	for _, n := range st.st.Names {
-		head = append(head, T("Δ"+n))
+		head = append(head, table.T("Δ"+n))
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{head}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{head}}
 	add := func(label string, est, se func(eq int) float64, rule bool) {
-		e, s := []Cell{T(label)}, []Cell{Empty}
+		e, s := []table.Cell{table.T(label)}, []table.Cell{table.Empty}
 		for eq := range st.st.Names {
-			e, s = append(e, N(est(eq), dec)), append(s, SECell(se(eq), dec))
+			e, s = append(e, table.N(est(eq), dec)), append(s, table.SECell(se(eq), dec))
 		}
-		t.Body = append(t.Body, Row{Cells: e, RuleAbove: rule}, Row{Cells: s})
+		t.Body = append(t.Body, table.Row{Cells: e, RuleAbove: rule}, table.Row{Cells: s})
 	}
 	for j := 0; j < st.rank; j++ {
 		add(fmt.Sprintf("Relation %d (α)", j+1), func(eq int) float64 { return m.Alpha.At(eq, j) }, func(eq int) float64 { return m.AlphaSE.At(eq, j) }, false)
@@ -251,13 +253,13 @@ func (s *varLagsSpec) Run(c *Context) (*Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	t := &Table{Stub: 1, Head: [][]Cell{{T("Lagged differences"), T("Coefficients"), T("ln det Σ"), T("AIC"), T("BIC"), T("HQ")}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T("Lagged differences"), table.T("Coefficients"), table.T("ln det Σ"), table.T("AIC"), table.T("BIC"), table.T("HQ")}}}
 	var rows []map[string]any
 	for _, r := range lt.Rows {
-		t.Body = append(t.Body, Row{Cells: []Cell{T(itoa(r.Lags)), I(r.Params), N(r.LogDet, dec), N(r.AIC, dec), N(r.BIC, dec), N(r.HQ, dec)}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(itoa(r.Lags)), table.I(r.Params), table.N(r.LogDet, dec), table.N(r.AIC, dec), table.N(r.BIC, dec), table.N(r.HQ, dec)}})
 		rows = append(rows, map[string]any{"lags": r.Lags, "params": r.Params, "logdet": r.LogDet, "aic": r.AIC, "bic": r.BIC, "hq": r.HQ})
 	}
-	t.Body = append(t.Body, Row{Cells: []Cell{T("Minimum at"), Empty, Empty, I(lt.AIC), I(lt.BIC), I(lt.HQ)}, RuleAbove: true})
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("Minimum at"), table.Empty, table.Empty, table.I(lt.AIC), table.I(lt.BIC), table.I(lt.HQ)}, RuleAbove: true})
 	det := map[johansen.Case]string{johansen.N: "no deterministic terms", johansen.RC: "a constant", johansen.C: "a constant",
 		johansen.RT: "a constant and trend", johansen.CT: "a constant and trend"}[cs]
 	t.Notes = []string{fmt.Sprintf("VAR in the levels of %s with %s (for case %s), fitted by least squares with k + 1 lags for k = 0–%d lagged differences on the common sample of T = %d observations; Σ is the residual covariance, and the criteria are ln det Σ plus a penalty per coefficient (2/T, ln T/T, 2 ln ln T/T).",

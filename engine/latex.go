@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"bytes"
 	"fmt"
@@ -345,7 +347,7 @@ func writeTeXNotes(b *bytes.Buffer, notes []string) {
 	b.WriteString("\\end{minipage}\n")
 }
 
-func writeTeXRow(b *bytes.Buffer, cells []Cell, stub int, head bool) {
+func writeTeXRow(b *bytes.Buffer, cells []table.Cell, stub int, head bool) {
 	col := 0
 	for i, c := range cells {
 		if i > 0 {
@@ -383,8 +385,8 @@ func writeTeXRow(b *bytes.Buffer, cells []Cell, stub int, head bool) {
 
 // texNumCell writes a number for a dcolumn D column (math mode): the
 // minus is a true minus, stars are superscripts.
-func texNumCell(c Cell) string {
-	s, neg := numText(c)
+func texNumCell(c table.Cell) string {
+	s, neg := table.NumText(c)
 	if s == "n/a" || s == "∞" {
 		return "\\multicolumn{1}{c}{" + texEscape(s) + "}"
 	}
@@ -395,7 +397,7 @@ func texNumCell(c Cell) string {
 		s = "(" + s + ")"
 	}
 	if c.Stars > 0 {
-		s += "^{" + stars(c.Stars) + "}"
+		s += "^{" + table.Stars(c.Stars) + "}"
 	}
 	if c.Suffix != "" {
 		s += "\\,{\\scriptstyle\\text{" + texEscape(strings.TrimSpace(c.Suffix)) + "}}"
@@ -439,7 +441,7 @@ func texURL(s string) string {
 	return strings.NewReplacer(`\`, `/`, `%`, `\%`, `#`, `\#`, `{`, `%7B`, `}`, `%7D`).Replace(s)
 }
 
-func hasSpan(cells []Cell) bool {
+func hasSpan(cells []table.Cell) bool {
 	for _, c := range cells {
 		if c.Span > 1 && c.Text != "" {
 			return true

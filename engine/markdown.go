@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"bytes"
 	"fmt"
@@ -117,7 +119,7 @@ func mdResult(r *Result, figDir string) string {
 
 // mdHeader flattens the header rows into one row of labels: a spanning
 // group label is prefixed to each column it covers.
-func mdHeader(t *Table, cols int) []string {
+func mdHeader(t *table.Table, cols int) []string {
 	out := make([]string, cols)
 	for _, row := range t.Head {
 		col := 0
@@ -137,11 +139,11 @@ func mdHeader(t *Table, cols int) []string {
 	return out
 }
 
-func mdCell(c Cell) string {
+func mdCell(c table.Cell) string {
 	if !c.IsNum {
 		return mdEscape(c.Text)
 	}
-	s, neg := numText(c)
+	s, neg := table.NumText(c)
 	if neg {
 		s = "-" + s
 	}

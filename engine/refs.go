@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import (
 	"fmt"
 	"math"
@@ -183,7 +185,7 @@ func formatValue(v any, verb string, dec int) (string, bool, error) {
 		if strings.HasSuffix(verb, "d") {
 			return fmt.Sprintf(verb, int(math.Round(x))), true, nil
 		}
-		return fixNegZero(fmt.Sprintf(verb, x)), true, nil
+		return table.FixNegZero(fmt.Sprintf(verb, x)), true, nil
 	case int:
 		if verb == "" || strings.HasSuffix(verb, "d") {
 			if verb == "" {
@@ -216,12 +218,4 @@ func describe(v any) string {
 		return fmt.Sprintf("a list of %d entries", len(x))
 	}
 	return fmt.Sprintf("%T", v)
-}
-
-// fixNegZero turns "-0.000" into "0.000".
-func fixNegZero(s string) string {
-	if strings.HasPrefix(s, "-") && strings.Trim(s[1:], "0.") == "" {
-		return s[1:]
-	}
-	return s
 }

@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/table"
+
 import "errors"
 
 // Result is what one directive produced: values for prose and the
@@ -10,7 +12,7 @@ type Result struct {
 	Line   int            // manuscript line of the opening fence
 	Spec   map[string]any // the spec as written
 	Values map[string]any // full-precision values, keyed in lower case
-	Table  *Table
+	Table  *table.Table
 	Figure *Figure
 	Text   string // a paragraph of prose (rare)
 	Number int    // table or figure number in the document (1-based)

@@ -1,4 +1,4 @@
-package engine
+package table
 
 import (
 	"math"
@@ -9,7 +9,7 @@ import (
 // numText formats a number cell's digits with an ASCII minus, and
 // reports whether it is negative. NaN is "·" so that a table never shows
 // a misleading number.
-func numText(c Cell) (string, bool) {
+func NumText(c Cell) (string, bool) {
 	if math.IsNaN(c.Num) {
 		return "n/a", false
 	}
@@ -19,11 +19,19 @@ func numText(c Cell) (string, bool) {
 		}
 		return "∞", true
 	}
-	s := fixNegZero(strconv.FormatFloat(c.Num, 'f', c.Dec, 64))
+	s := FixNegZero(strconv.FormatFloat(c.Num, 'f', c.Dec, 64))
 	if strings.HasPrefix(s, "-") {
 		return s[1:], true
 	}
 	return s, false
 }
 
-func stars(n int) string { return strings.Repeat("*", n) }
+func Stars(n int) string { return strings.Repeat("*", n) }
+
+// fixNegZero turns "-0.000" into "0.000".
+func FixNegZero(s string) string {
+	if strings.HasPrefix(s, "-") && strings.Trim(s[1:], "0.") == "" {
+		return s[1:]
+	}
+	return s
+}

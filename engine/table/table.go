@@ -1,4 +1,4 @@
-package engine
+package table
 
 // Table is a formatted result table, independent of output format. All
 // text is literal Unicode; each writer escapes and translates it.
