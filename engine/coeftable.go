@@ -1,12 +1,11 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // condWarn is the condition number of the column-scaled design above

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"crypto/sha256"
 	"encoding/binary"
@@ -14,6 +12,7 @@ import (
 	"github.com/galley-econ/galley/analysis/diag"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // A residual diagnostic as written in a `diagnostics:` list: a name and,

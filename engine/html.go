@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"bytes"
 	"fmt"
@@ -14,6 +12,7 @@ import (
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
+	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/templates"
 )
 

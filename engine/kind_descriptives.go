@@ -1,11 +1,11 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"math"
 
 	"gonum.org/v1/gonum/stat"
+
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // descriptives: per-series summary statistics.

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"math"
@@ -10,6 +8,7 @@ import (
 	"github.com/galley-econ/galley/analysis/ecm"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // ecm: a single-equation error-correction model around the long-run

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"errors"
 	"fmt"
@@ -14,6 +12,7 @@ import (
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/simulate"
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // engle-granger: the two-step residual-based test of no cointegration.

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"errors"
 	"fmt"
@@ -14,6 +12,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // grid: one directive of another kind repeated over every combination of

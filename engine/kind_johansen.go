@@ -1,11 +1,11 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"slices"
 	"strings"
+
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // This file holds the system-cointegration directives:

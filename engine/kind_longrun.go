@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"math"
@@ -15,6 +13,7 @@ import (
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/longrun"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // dols and fmols: estimates of a cointegrating relation with valid

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"math"
@@ -9,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // model-table: several estimated models side by side, one column each.

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 
@@ -9,6 +7,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // ols: a least-squares regression with a choice of standard errors.

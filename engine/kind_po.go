@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"math"
@@ -10,6 +8,7 @@ import (
 	"github.com/galley-econ/galley/analysis/coint"
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // po: the Phillips–Ouliaris residual-based tests P̂u and P̂z.

@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"encoding/json"
 	"fmt"
@@ -11,6 +9,7 @@ import (
 	"sort"
 	"strings"
 
+	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/revision"
 )
 

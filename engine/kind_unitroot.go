@@ -1,13 +1,12 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // urSpec is the spec of a single unit-root or stationarity test: adf,

@@ -1,12 +1,12 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"regexp"
 	"slices"
 	"strings"
+
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // unitroot-table: several series × several tests, in levels and first

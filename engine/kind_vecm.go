@@ -1,13 +1,12 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"slices"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // The vecm directive (relations, loadings and tests, or the short-run

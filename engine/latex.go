@@ -1,7 +1,5 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"bytes"
 	"fmt"
@@ -11,6 +9,7 @@ import (
 	"github.com/yuin/goldmark/ast"
 	east "github.com/yuin/goldmark/extension/ast"
 
+	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/templates"
 )
 

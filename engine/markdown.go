@@ -1,12 +1,12 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"bytes"
 	"fmt"
 	"sort"
 	"strings"
+
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // MarkdownOptions tune the Markdown writer.

@@ -1,13 +1,13 @@
 package engine
 
-import "github.com/galley-econ/galley/engine/table"
-
 import (
 	"fmt"
 	"math"
 	"slices"
 	"strconv"
 	"strings"
+
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // An inline reference is {{id.path [verb]}}: id names a directive, path

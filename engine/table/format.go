@@ -6,7 +6,7 @@ import (
 	"strings"
 )
 
-// numText formats a number cell's digits with an ASCII minus, and
+// NumText formats a number cell's digits with an ASCII minus, and
 // reports whether it is negative. NaN is "·" so that a table never shows
 // a misleading number.
 func NumText(c Cell) (string, bool) {
@@ -28,7 +28,7 @@ func NumText(c Cell) (string, bool) {
 
 func Stars(n int) string { return strings.Repeat("*", n) }
 
-// fixNegZero turns "-0.000" into "0.000".
+// FixNegZero turns "-0.000" into "0.000".
 func FixNegZero(s string) string {
 	if strings.HasPrefix(s, "-") && strings.Trim(s[1:], "0.") == "" {
 		return s[1:]
