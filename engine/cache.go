@@ -288,6 +288,11 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	if r.Spec != nil {
 		r.Spec = toGob(r.Spec).(map[string]any)
 	}
+	if r.Test != nil {
+		t := *r.Test
+		t.Extra = toGob(t.Extra).(map[string]any)
+		r.Test = &t
+	}
 	e := cacheEntry{Magic: cacheMagic, Version: c.Version, SpecKey: b.specKey, Columns: cols, Upstream: ups, FullKey: b.fullKey, Result: &r}
 	var buf bytes.Buffer
 	if err := gob.NewEncoder(&buf).Encode(&e); err != nil {

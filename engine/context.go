@@ -3,6 +3,7 @@ package engine
 import (
 	"errors"
 	"fmt"
+	"gopkg.in/yaml.v3"
 	"slices"
 	"strings"
 )
@@ -118,6 +119,17 @@ func (c *Context) Result(key, id string, kinds ...string) (*Result, error) {
 	return res, nil
 }
 
+// Upstream returns the directive with the given id without running it,
+// for reading what it declares through a contract interface (such as
+// RelationSource). If kinds are given, the target must be one of them.
+func (c *Context) Upstream(key, id string, kinds ...string) (Directive, error) {
+	b, err := c.refBlock(key, id, kinds...)
+	if err != nil {
+		return nil, err
+	}
+	return b.dir, nil
+}
+
 // CheckRef validates a reference to another directive without running it.
 func (c *Context) CheckRef(key, id string, kinds ...string) error {
 	_, err := c.refBlock(key, id, kinds...)
@@ -157,7 +169,66 @@ func (d *Document) ids() []string {
 	return out
 }
 
-// pct formats a probability as a percentage: 0.05 → "5%", 0.025 → "2.5%".
-func pct(p float64) string {
-	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.4f", p*100), "0"), ".") + "%"
+// Line is the manuscript line of the directive's opening fence.
+func (c *Context) Line() int { return c.b.line }
+
+// Missing is the directive's missing-value rule ("", "error" or "drop").
+func (c *Context) Missing() string { return c.b.dir.Base().Missing }
+
+// RunSafely runs dir in this context, turning a panic inside the
+// analysis into an error at the directive's line.
+func (c *Context) RunSafely(dir Directive) (*Result, error) { return safeRun(dir, c) }
+
+// Variant is a directive decoded from YAML that the engine built rather
+// than the manuscript (a grid cell): it runs in the place of the
+// directive that made it, with that directive's line and dependencies.
+type Variant struct{ b *block }
+
+// Dir is the variant's decoded directive.
+func (v *Variant) Dir() Directive { return v.b.dir }
+
+// Raw is the variant's spec as a plain map (for the results file).
+func (v *Variant) Raw() map[string]any { return v.b.raw }
+
+// NewVariant decodes n strictly as a directive of kind k with the given id.
+// The error is a YAML or key error without a position.
+func (c *Context) NewVariant(k *Kind, id string, n *yaml.Node) (*Variant, error) {
+	dir := k.New()
+	if err := checkKeys(n, dir); err != nil {
+		return nil, err
+	}
+	if err := n.Decode(dir); err != nil {
+		return nil, err
+	}
+	var raw map[string]any
+	if err := n.Decode(&raw); err != nil {
+		return nil, err
+	}
+	// The variant is this directive's own block with the variant's kind,
+	// id, YAML and spec; everything else (the position, and whatever a
+	// build records about a block while it runs) stays this directive's:
+	// see InVariant.
+	cb := *c.b
+	cb.kind, cb.id, cb.node, cb.raw, cb.dir = k, id, n, raw, dir
+	cb.result, cb.err = nil, nil
+	return &Variant{b: &cb}, nil
+}
+
+// InVariant runs f with a Context for v. Whatever the build records on
+// the block while f runs (such as the data it read) is carried back to
+// this directive's block, so that it depends on everything its variants
+// use.
+func (c *Context) InVariant(v *Variant, f func(*Context) error) error {
+	own := c.b
+	cb := *own
+	cb.kind, cb.id, cb.node, cb.raw, cb.dir = v.b.kind, v.b.id, v.b.node, v.b.raw, v.b.dir
+	cb.result, cb.err = nil, nil
+	cc := *c
+	cc.b = &cb
+	err := f(&cc)
+	kept := *own
+	*own = cb
+	own.kind, own.id, own.node, own.raw, own.dir = kept.kind, kept.id, kept.node, kept.raw, kept.dir
+	own.result, own.err, own.running = kept.result, kept.err, kept.running
+	return err
 }

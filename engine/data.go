@@ -215,6 +215,13 @@ func (d *Data) SampleNote() string {
 // sample (may be ""), and aligns them on their common non-missing span.
 // dataKey, exprKey and sampleKey name the YAML keys for error positions.
 func (c *Context) Data(alias string, exprs []string, sample string) (*Data, error) {
+	return c.DataUsing(alias, exprs, sample, c.b.dir.Base().Missing)
+}
+
+// DataUsing is Data with the missing-value rule given ("error" or "",
+// or "drop") instead of the directive's own: a directive that builds on
+// another's relation reads the data as that directive did.
+func (c *Context) DataUsing(alias string, exprs []string, sample, missing string) (*Data, error) {
 	f, err := c.doc.data.frame(alias)
 	if err != nil {
 		return nil, c.Wrap("data", err)
@@ -247,7 +254,7 @@ func (c *Context) Data(alias string, exprs []string, sample string) (*Data, erro
 			}
 		}
 	}
-	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: c.b.dir.Base().Missing == "drop"})
+	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: missing == "drop"})
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}

@@ -200,6 +200,7 @@ type regressionSpec struct {
 	data, y, sample string
 	x               []string
 	withConst       bool
+	missing         string // "" for the figure's own rule
 }
 
 // regressionOf resolves the regression for the fit and stability plots.
@@ -210,13 +211,25 @@ func (s *figureSpec) regressionOf(c *Context) (regressionSpec, error) {
 	if _, err := c.Result("of", s.Of, "ols"); err != nil {
 		return regressionSpec{}, err
 	}
-	o := c.doc.byID[s.Of].dir.(*olsSpec)
-	return regressionSpec{data: c.DataAlias(o.Data), y: o.Y, x: o.X, sample: o.Sample, withConst: o.Const == nil || *o.Const}, nil
+	up, err := c.Upstream("of", s.Of, "ols")
+	if err != nil {
+		return regressionSpec{}, err
+	}
+	src, ok := up.(DesignSource)
+	if !ok {
+		return regressionSpec{}, c.Errorf("of", "%q is not a single-equation regression", s.Of)
+	}
+	o := src.RegressionDesign()
+	return regressionSpec{data: c.DataAlias(o.Data), y: o.Y, x: o.X, sample: o.Sample, withConst: o.Const, missing: o.Missing}, nil
 }
 
 // buildDesign evaluates the regression's series and forms X.
 func buildDesign(c *Context, r regressionSpec) (*design, error) {
-	d, err := c.Data(r.data, append([]string{r.y}, r.x...), r.sample)
+	missing := r.missing
+	if missing == "" {
+		missing = c.Missing()
+	}
+	d, err := c.DataUsing(r.data, append([]string{r.y}, r.x...), r.sample, missing)
 	if err != nil {
 		return nil, err
 	}

@@ -40,15 +40,18 @@ func init() {
 }
 
 // source is the directive named by from: and the relation it estimated.
-func (s *ecmSpec) source(c *Context) (lrRelation, error) {
-	if err := c.CheckRef("from", s.From, ecmFrom...); err != nil {
-		return lrRelation{}, err
+func (s *ecmSpec) source(c *Context) (LongRun, error) {
+	up, err := c.Upstream("from", s.From, ecmFrom...)
+	if err != nil {
+		return LongRun{}, err
 	}
-	src, ok := c.doc.byID[s.From].dir.(longRunSource)
+	src, ok := up.(RelationSource)
 	if !ok {
-		return lrRelation{}, c.Errorf("from", "%q holds no long-run relation", s.From)
+		return LongRun{}, c.Errorf("from", "%q holds no long-run relation", s.From)
 	}
-	return src.relation(c), nil
+	rel := src.Relation()
+	rel.Data = c.DataAlias(rel.Data)
+	return rel, nil
 }
 
 func (s *ecmSpec) lagOrders(c *Context) (p, q int, err error) {
@@ -76,10 +79,10 @@ func (s *ecmSpec) lagOrders(c *Context) (p, q int, err error) {
 	return p, q, nil
 }
 
-func (s *ecmSpec) settings(c *Context) (lrRelation, int, int, ols.CovSpec, []diagItem, error) {
+func (s *ecmSpec) settings(c *Context) (LongRun, int, int, ols.CovSpec, []diagItem, error) {
 	var cov ols.CovSpec
 	if s.From == "" {
-		return lrRelation{}, 0, 0, cov, nil, c.Errorf("", "galley ecm: the key \"from\" is required: the id of an engle-granger, dols or fmols result")
+		return LongRun{}, 0, 0, cov, nil, c.Errorf("", "galley ecm: the key \"from\" is required: the id of an engle-granger, dols or fmols result")
 	}
 	rel, err := s.source(c)
 	if err != nil {
@@ -127,7 +130,7 @@ func (s *ecmSpec) Run(c *Context) (*Result, error) {
 		sample = s.Sample
 	}
 	exprs := append(append([]string{rel.Y}, rel.X...), s.Extra...)
-	d, err := c.Data(rel.Data, exprs, sample)
+	d, err := c.DataUsing(rel.Data, exprs, sample, rel.Missing)
 	if err != nil {
 		return nil, err
 	}
@@ -218,25 +221,6 @@ func (s *ecmSpec) Run(c *Context) (*Result, error) {
 	vals["actual"] = datedValues(sd.Dates, actual)
 	vals["fitted"] = datedValues(sd.Dates, m.Fit.Fitted)
 	return &Result{Table: t, Values: vals}, nil
-}
-
-// residSeries reads the long-run residuals a result stores in
-// Values["resid"] as {dates, values}.
-func residSeries(r *Result) ([]string, map[string]float64, error) {
-	m, ok := r.Values["resid"].(map[string]any)
-	if !ok {
-		return nil, nil, fmt.Errorf("the %s result has no residual series", r.Kind)
-	}
-	dates, ok1 := m["dates"].([]string)
-	vals, ok2 := m["values"].([]float64)
-	if !ok1 || !ok2 || len(dates) != len(vals) {
-		return nil, nil, fmt.Errorf("the %s result's residual series is malformed", r.Kind)
-	}
-	out := make(map[string]float64, len(dates))
-	for i, d := range dates {
-		out[d] = vals[i]
-	}
-	return dates, out, nil
 }
 
 func periodUnit(f series.Freq) string {

@@ -43,33 +43,9 @@ func init() {
 	})
 }
 
-// lrRelation is where a long-run relation was estimated: an ecm that
-// refers to it uses the same data, variables and (by default) sample.
-type lrRelation struct {
-	Data, Y, Sample string
-	X               []string
-}
-
-// longRunSource is implemented by the kinds whose result carries a
-// long-run relation (its residuals in Values["resid"]).
-type longRunSource interface {
-	relation(c *Context) lrRelation
-}
-
-func (s *egSpec) relation(c *Context) lrRelation {
-	return lrRelation{Data: c.DataAlias(s.Data), Y: s.Y, X: s.X, Sample: s.Sample}
-}
-
-// parseDet reads a det: key (default c).
-func parseDet(c *Context, det string) (critical.Case, error) {
-	if det == "" {
-		return critical.Const, nil
-	}
-	d, err := critical.ParseCase(det)
-	if err != nil {
-		return d, c.Errorf("det", "%v", err)
-	}
-	return d, nil
+// Relation says where the long-run relation was estimated.
+func (s *egSpec) Relation() LongRun {
+	return LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
 }
 
 func (s *egSpec) Check(c *Context) error {
@@ -165,10 +141,14 @@ func (s *egSpec) Run(c *Context) (*Result, error) {
 		append([]table.Cell{table.T("Dependent variable"), table.T("ADF τ"), table.T("p-value"), table.T("Lags"), table.T("N"), table.T("1%"), table.T("5%"), table.T("10%")}, textCells(terms)...),
 	}
 	each := make([]map[string]any, len(rows))
+	var first *Outcome // the test of the first row: the result's Test
 	for r, res := range rows {
 		dep := vars[deps[r]]
 		o := egOutcome(res)
-		cells := []table.Cell{table.T(dep), table.Starred(res.Stat, dec, o.stars(c)), table.N(res.PValue, dec), table.I(res.Lags), table.I(res.NObs)}
+		if r == 0 {
+			first = o
+		}
+		cells := []table.Cell{table.T(dep), table.Starred(res.Stat, dec, o.stars(c.Stars())), table.N(res.PValue, dec), table.I(res.Lags), table.I(res.NObs)}
 		for _, l := range critical.MacKinnonLevels {
 			v, ok := critAt(res.Crit, l)
 			if !ok {
@@ -210,7 +190,7 @@ func (s *egSpec) Run(c *Context) (*Result, error) {
 	if all {
 		vals["each"] = each
 	}
-	return &Result{Table: t, Values: vals}, nil
+	return &Result{Table: t, Values: vals, Test: first}, nil
 }
 
 // egError turns an analysis error into a manuscript error.
@@ -236,8 +216,8 @@ func egError(c *Context, err error, vars []string, dep int, det critical.Case) e
 }
 
 // egOutcome puts a result into the unit-root form that decides stars.
-func egOutcome(r *coint.EGResult) *urOutcome {
-	return &urOutcome{Stat: r.Stat, PValue: r.PValue, Crit: r.Crit}
+func egOutcome(r *coint.EGResult) *Outcome {
+	return &Outcome{Stat: r.Stat, PValue: r.PValue, Crit: r.Crit}
 }
 
 // staticMap names the static coefficients: deterministic terms, then
@@ -256,16 +236,7 @@ func staticMap(r *coint.EGResult, det critical.Case, vars []string, dep int) map
 	return m
 }
 
-// residValues is the results-file form of a residual series.
-func residValues(d *Data, first int, e []float64) map[string]any {
-	dates := make([]string, len(e))
-	for i := range e {
-		dates[i] = d.Dates[first+i].String()
-	}
-	return map[string]any{"dates": dates, "values": append([]float64(nil), e...)}
-}
-
-func egValues(r *coint.EGResult, o *urOutcome, static map[string]any, d *Data, dep string) map[string]any {
+func egValues(r *coint.EGResult, o *Outcome, static map[string]any, d *Data, dep string) map[string]any {
 	v := map[string]any{
 		"stat": r.Stat, "pvalue": r.PValue, "lags": r.Lags, "nobs": r.NObs,
 		"crit": critMap(r.Crit), "crit_source": r.CritSource, "static": static,

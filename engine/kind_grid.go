@@ -66,8 +66,8 @@ type gridCell struct {
 	id    string
 	index []int // position along each axis
 	over  map[string]any
-	label string // "lags: 2, det: ct"
-	b     *block // the cell as a block of the target kind
+	label string   // "lags: 2, det: ct"
+	v     *Variant // the cell as a directive of the target kind
 }
 
 func init() {
@@ -108,7 +108,7 @@ func (g *gridDirective) Check(c *Context) error {
 		return err
 	}
 	for _, cell := range s.cells {
-		err := s.inCell(c, cell, func(cc *Context) error { return cell.b.dir.Check(cc) })
+		err := c.InVariant(cell.v, func(cc *Context) error { return cell.v.Dir().Check(cc) })
 		if err != nil {
 			return cellError(c, cell, err)
 		}
@@ -118,7 +118,7 @@ func (g *gridDirective) Check(c *Context) error {
 
 // at is an error at a YAML node of the grid's block.
 func (s *gridSpec) at(c *Context, n *yaml.Node, format string, args ...any) error {
-	return &PosError{File: c.File(), Line: c.b.line + n.Line, Msg: fmt.Sprintf(format, args...)}
+	return &PosError{File: c.File(), Line: c.Line() + n.Line, Msg: fmt.Sprintf(format, args...)}
 }
 
 // value is the value node of a top-level key, or nil.
@@ -243,7 +243,7 @@ func (s *gridSpec) readOver(c *Context, keys []string) error {
 			return s.at(c, k, "over: %q is a key of the grid itself and cannot vary", k.Value)
 		}
 		if fk, _ := s.value(k.Value); fk != nil {
-			return s.at(c, k, "over: %q is also fixed on line %d; give it in one place", k.Value, c.b.line+fk.Line)
+			return s.at(c, k, "over: %q is also fixed on line %d; give it in one place", k.Value, c.Line()+fk.Line)
 		}
 		if v.Kind != yaml.SequenceNode {
 			return s.at(c, k, "over: %s: give a list of values, e.g. %s: [%s, ...]", k.Value, k.Value, nodeText(v))
@@ -288,7 +288,7 @@ func combinations(axes []gridAxis) [][]int {
 
 // newCell builds the YAML of one combination and decodes it strictly.
 func (s *gridSpec) newCell(c *Context, i int, idx []int) (*gridCell, error) {
-	gridID := c.b.id
+	gridID := c.ID()
 	n := &yaml.Node{Kind: yaml.MappingNode, Tag: "!!map", Line: s.node.Line, Column: s.node.Column}
 	for j := 0; j+1 < len(s.node.Content); j += 2 {
 		if slices.Contains(gridKeys, s.node.Content[j].Value) {
@@ -303,49 +303,18 @@ func (s *gridSpec) newCell(c *Context, i int, idx []int) (*gridCell, error) {
 		n.Content = append(n.Content, &key, ax.values[idx[a]])
 		var v any
 		if err := ax.values[idx[a]].Decode(&v); err != nil {
-			return nil, yamlError(c.File(), c.b.line+1, err)
+			return nil, yamlError(c.File(), c.Line()+1, err)
 		}
 		cell.over[ax.key.Value] = v
 		parts = append(parts, ax.key.Value+": "+ax.labels[idx[a]])
 	}
 	cell.label = strings.Join(parts, ", ")
-	dir := s.kind.New()
-	if err := checkKeys(n, dir); err != nil {
-		return nil, cellError(c, cell, yamlError(c.File(), c.b.line+1, err))
+	v, err := c.NewVariant(s.kind, cell.id, n)
+	if err != nil {
+		return nil, cellError(c, cell, yamlError(c.File(), c.Line()+1, err))
 	}
-	if err := n.Decode(dir); err != nil {
-		return nil, cellError(c, cell, yamlError(c.File(), c.b.line+1, err))
-	}
-	var raw map[string]any
-	if err := n.Decode(&raw); err != nil {
-		return nil, cellError(c, cell, yamlError(c.File(), c.b.line+1, err))
-	}
-	// The cell is the grid's own block with the cell's kind, id, YAML and
-	// spec; everything else (the position, and whatever a build records
-	// about a block while it runs) stays the grid's: see inCell.
-	cb := *c.b
-	cb.kind, cb.id, cb.node, cb.raw, cb.dir = s.kind, cell.id, n, raw, dir
-	cb.result, cb.err = nil, nil
-	cell.b = &cb
+	cell.v = v
 	return cell, nil
-}
-
-// inCell runs f with a Context for the cell. Whatever the build records on
-// the block while f runs (such as the data it read) is carried back to
-// the grid's block, so that the grid depends on everything its cells use.
-func (s *gridSpec) inCell(c *Context, cell *gridCell, f func(*Context) error) error {
-	grid := c.b
-	cb := *grid
-	cb.kind, cb.id, cb.node, cb.raw, cb.dir = cell.b.kind, cell.b.id, cell.b.node, cell.b.raw, cell.b.dir
-	cb.result, cb.err = nil, nil
-	cc := *c
-	cc.b = &cb
-	err := f(&cc)
-	kept := *grid
-	*grid = cb
-	grid.kind, grid.id, grid.node, grid.raw, grid.dir = kept.kind, kept.id, kept.node, kept.raw, kept.dir
-	grid.result, grid.err, grid.running = kept.result, kept.err, kept.running
-	return err
 }
 
 // cellError names the cell in an error, keeping its manuscript line.
@@ -359,7 +328,7 @@ func cellError(c *Context, cell *gridCell, err error) error {
 		}
 		return &PosError{File: pe.File, Line: pe.Line, Msg: msg, Err: pe.Err}
 	}
-	return &PosError{File: c.File(), Line: c.b.line, Msg: prefix, Err: err}
+	return &PosError{File: c.File(), Line: c.Line(), Msg: prefix, Err: err}
 }
 
 // nodeText is a YAML value as a short label: scalars as written, lists
@@ -400,15 +369,15 @@ func (g *gridDirective) Run(c *Context) (*Result, error) {
 	results := make([]*Result, len(s.cells))
 	for i, cell := range s.cells {
 		var res *Result
-		err := s.inCell(c, cell, func(cc *Context) error {
+		err := c.InVariant(cell.v, func(cc *Context) error {
 			var err error
-			res, err = safeRun(cell.b.dir, cc)
+			res, err = cc.RunSafely(cell.v.Dir())
 			return err
 		})
 		if err != nil {
 			return nil, cellError(c, cell, err)
 		}
-		res.ID, res.Kind, res.Line, res.Spec = cell.id, s.kind.Name, c.b.line, cell.b.raw
+		res.ID, res.Kind, res.Line, res.Spec = cell.id, s.kind.Name, c.Line(), cell.v.Raw()
 		if res.Values == nil {
 			res.Values = map[string]any{}
 		}
@@ -591,20 +560,24 @@ func (sh gridShow) pick(c *Context, cell *gridCell, r *Result) (gridShown, error
 	}
 	out := gridShown{est: x, isInt: isInt(v)}
 	if sh.test {
-		out.stars = testStars(c, cell.b.dir, r.Values)
+		out.stars = testStars(c, r)
 		out.testRef, _ = r.Values["test"].(string)
 	}
 	return out, nil
 }
 
 // testStars counts the star levels at which a test rejects, by the test's
-// own rule: for the unit-root kinds, urOutcome.stars on the cell's
+// own rule: for the unit-root kinds, Outcome.stars on the cell's
 // statistic and critical values; for other tests with two or more
 // critical values the same rule, the tail inferred from their order (a
 // lower-tail test has its 1% value below its 10% value), which uses the
 // critical value at each star level it tabulates and the p-value at the
 // others; with fewer, the p-value.
-func testStars(c *Context, dir Directive, v map[string]any) int {
+func testStars(c *Context, r *Result) int {
+	if r.Test != nil {
+		return r.Test.stars(c.Stars())
+	}
+	v := r.Values
 	stat, ok := toFloat(v["stat"])
 	if !ok || math.IsNaN(stat) {
 		return 0
@@ -614,14 +587,10 @@ func testStars(c *Context, dir Directive, v map[string]any) int {
 		p = math.NaN()
 	}
 	crit := critFromValues(v["crit"])
-	if u, isUR := dir.(*urSpec); isUR {
-		o := &urOutcome{Stat: stat, PValue: p, Crit: crit, Upper: u.test == "kpss"}
-		return o.stars(c)
-	}
 	if len(crit) >= 2 {
 		lo, hi := crit[0], crit[len(crit)-1] // sorted by level
-		o := &urOutcome{Stat: stat, PValue: p, Crit: crit, Upper: lo.Value > hi.Value}
-		return o.stars(c)
+		o := &Outcome{Stat: stat, PValue: p, Crit: crit, Upper: lo.Value > hi.Value}
+		return o.stars(c.Stars())
 	}
 	if !math.IsNaN(p) {
 		return c.StarsFor(p)

@@ -57,12 +57,14 @@ func init() {
 		New: func() Directive { return &fmolsSpec{} }})
 }
 
-func (s *dolsSpec) relation(c *Context) lrRelation {
-	return lrRelation{Data: c.DataAlias(s.Data), Y: s.Y, X: s.X, Sample: s.Sample}
+// Relation says where the long-run relation was estimated.
+func (s *dolsSpec) Relation() LongRun {
+	return LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
 }
 
-func (s *fmolsSpec) relation(c *Context) lrRelation {
-	return lrRelation{Data: c.DataAlias(s.Data), Y: s.Y, X: s.X, Sample: s.Sample}
+// Relation says where the long-run relation was estimated.
+func (s *fmolsSpec) Relation() LongRun {
+	return LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
 }
 
 // checkRelation checks the keys both estimators share.
@@ -328,13 +330,6 @@ func (s *fmolsSpec) Run(c *Context) (*Result, error) {
 		"resid":  residValues(d, 0, relationResid(d, sp.Det, r.Coef)),
 	}
 	return &Result{Table: t, Values: vals}, nil
-}
-
-func decimalsOr(c *Context, d *int) int {
-	if d != nil {
-		return *d
-	}
-	return c.Decimals()
 }
 
 // longRunRows shows the long-run coefficients first, then the

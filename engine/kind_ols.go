@@ -6,7 +6,6 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/ols"
-	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/engine/table"
 )
 
@@ -110,18 +109,7 @@ func (s *olsSpec) Run(c *Context) (*Result, error) {
 	return &Result{Table: t, Values: vals}, nil
 }
 
-// datedValues is the results-file form of a dated series:
-// {"dates": [...], "values": [...]}, the shape figure directives read
-// back (see residualSeries in figure_data.go).
-func datedValues(dates []series.Date, v []float64) map[string]any {
-	ds := make([]string, len(dates))
-	for i, d := range dates {
-		ds[i] = d.String()
-	}
-	return map[string]any{"dates": ds, "values": append([]float64(nil), v...)}
-}
-
-// sampleValues is the results-file form of a sample.
-func sampleValues(d *Data) map[string]any {
-	return map[string]any{"from": d.Dates[0].String(), "to": d.Dates[len(d.Dates)-1].String(), "n": d.N()}
+// RegressionDesign says where the regression was estimated.
+func (s *olsSpec) RegressionDesign() Design {
+	return Design{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing, Const: s.Const == nil || *s.Const}
 }

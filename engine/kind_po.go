@@ -91,17 +91,17 @@ func (s *poSpec) Run(c *Context) (*Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	pu := &urOutcome{Stat: r.Pu, PValue: math.NaN(), Crit: r.CritPu, Upper: true}
-	pz := &urOutcome{Stat: r.Pz, PValue: math.NaN(), Crit: r.CritPz, Upper: true}
+	pu := &Outcome{Stat: r.Pu, PValue: math.NaN(), Crit: r.CritPu, Upper: true}
+	pz := &Outcome{Stat: r.Pz, PValue: math.NaN(), Crit: r.CritPz, Upper: true}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{
 		{table.Empty, table.Empty, table.Span("Critical values", 3)},
 		{table.T(""), table.T("Statistic"), table.T("1%"), table.T("5%"), table.T("10%")},
 	}}
 	for _, row := range []struct {
 		label string
-		o     *urOutcome
+		o     *Outcome
 	}{{"Variance ratio P̂u (" + s.Y + " dependent)", pu}, {"Trace P̂z", pz}} {
-		cells := []table.Cell{table.T(row.label), table.Starred(row.o.Stat, dec, row.o.stars(c))}
+		cells := []table.Cell{table.T(row.label), table.Starred(row.o.Stat, dec, row.o.stars(c.Stars()))}
 		for _, l := range coint.POLevels {
 			v, ok := critAt(row.o.Crit, l)
 			if !ok {

@@ -145,7 +145,7 @@ func (s *urSpec) Run(c *Context) (*Result, error) {
 		dec = *s.Decimals
 	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Series)}}}
-	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(o.Test + " statistic, " + o.StatName), table.Starred(o.Stat, dec, o.stars(c))}})
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(o.Test + " statistic, " + o.StatName), table.Starred(o.Stat, dec, o.stars(c.Stars()))}})
 	if !isNaN(o.PValue) {
 		p := table.N(o.PValue, dec)
 		if o.PClipped {
@@ -180,12 +180,12 @@ func (s *urSpec) Run(c *Context) (*Result, error) {
 	} else {
 		vals["det"] = u.Det.String()
 	}
-	return &Result{Table: t, Values: vals}, nil
+	return &Result{Table: t, Values: vals, Test: o}, nil
 }
 
 // urNote explains the test: the null, the deterministic terms, the lag
 // or bandwidth choice, and the sources of the critical values and p-value.
-func urNote(u urTest, o *urOutcome, series string) string {
+func urNote(u urTest, o *Outcome, series string) string {
 	var b strings.Builder
 	fmt.Fprintf(&b, "H0: %s %s.", series, o.Null)
 	if u.Name == "za" {

@@ -113,7 +113,7 @@ func (s *urTableSpec) Check(c *Context) error {
 
 // verdict classifies one block of tests: +1 all point to stationarity,
 // −1 all point to a unit root, 0 they disagree.
-func verdict(outs []*urOutcome, level float64) int {
+func verdict(outs []*Outcome, level float64) int {
 	stat, unit := 0, 0
 	for _, o := range outs {
 		rej := o.rejects(level)
@@ -199,7 +199,7 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 			if err != nil {
 				return nil, err
 			}
-			var outs []*urOutcome
+			var outs []*Outcome
 			bv := map[string]any{}
 			for i, u := range exprs {
 				o, err := u.run(d.Cols[0])
@@ -207,7 +207,7 @@ func (s *urTableSpec) Run(c *Context) (*Result, error) {
 					return nil, c.Errorf("series", "%s of %s: %v", urTitles[u.Name], expr, err)
 				}
 				outs = append(outs, o)
-				cell := table.Starred(o.Stat, dec, o.stars(c))
+				cell := table.Starred(o.Stat, dec, o.stars(c.Stars()))
 				cell.Suffix = fmt.Sprintf(" [%d]", o.Lags)
 				row = append(row, cell)
 				v := o.values()

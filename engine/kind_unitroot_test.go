@@ -137,19 +137,19 @@ func TestUnitRootBadInput(t *testing.T) {
 }
 
 func TestOrderVerdict(t *testing.T) {
-	unit := &urOutcome{Stat: -1, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
-	stat := &urOutcome{Stat: -5, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
-	kpssRej := &urOutcome{Stat: 1, Upper: true, Crit: []critical.Value{{Level: 0.05, Value: 0.463}}}
-	kpssOK := &urOutcome{Stat: 0.1, Upper: true, Crit: []critical.Value{{Level: 0.05, Value: 0.463}}}
+	unit := &Outcome{Stat: -1, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
+	stat := &Outcome{Stat: -5, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
+	kpssRej := &Outcome{Stat: 1, Upper: true, Crit: []critical.Value{{Level: 0.05, Value: 0.463}}}
+	kpssOK := &Outcome{Stat: 0.1, Upper: true, Crit: []critical.Value{{Level: 0.05, Value: 0.463}}}
 	for _, tc := range []struct {
-		lev, dif []*urOutcome
+		lev, dif []*Outcome
 		want     string
 	}{
-		{[]*urOutcome{stat, kpssOK}, []*urOutcome{stat, kpssOK}, "I(0)"},
-		{[]*urOutcome{unit, kpssRej}, []*urOutcome{stat, kpssOK}, "I(1)"},
-		{[]*urOutcome{unit, kpssRej}, []*urOutcome{unit, kpssRej}, "I(2)"},
-		{[]*urOutcome{unit, kpssOK}, []*urOutcome{stat, kpssOK}, "unclear"},
-		{[]*urOutcome{unit, kpssRej}, []*urOutcome{unit, kpssOK}, "unclear"},
+		{[]*Outcome{stat, kpssOK}, []*Outcome{stat, kpssOK}, "I(0)"},
+		{[]*Outcome{unit, kpssRej}, []*Outcome{stat, kpssOK}, "I(1)"},
+		{[]*Outcome{unit, kpssRej}, []*Outcome{unit, kpssRej}, "I(2)"},
+		{[]*Outcome{unit, kpssOK}, []*Outcome{stat, kpssOK}, "unclear"},
+		{[]*Outcome{unit, kpssRej}, []*Outcome{unit, kpssOK}, "unclear"},
 	} {
 		if got := order(verdict(tc.lev, 0.05), verdict(tc.dif, 0.05), true); got != tc.want {
 			t.Errorf("verdict = %s, want %s", got, tc.want)

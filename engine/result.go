@@ -15,7 +15,11 @@ type Result struct {
 	Table  *table.Table
 	Figure *Figure
 	Text   string // a paragraph of prose (rare)
-	Number int    // table or figure number in the document (1-based)
+	// Test is the hypothesis test the result reports, in the form every
+	// consumer reads (stars, rejection, critical values); nil for
+	// results that are not one test.
+	Test   *Outcome
+	Number int // table or figure number in the document (1-based)
 }
 
 // Label is "Table N" or "Figure N", or "" when there is nothing to refer to.

@@ -476,7 +476,7 @@ func pSimSource(r *simulate.Result) string {
 // outcome by simulated ones at its regression's T and lags (the chosen
 // order when a criterion chose it). T of the simulated series is NObs +
 // 1 + lags, so that its Dickey–Fuller regression has NObs observations.
-func simADF(c *Context, s *simSettings, u urTest, o *urOutcome) (*simulate.Result, error) {
+func simADF(c *Context, s *simSettings, u urTest, o *Outcome) (*simulate.Result, error) {
 	sp := s.spec(simulate.ADF, u.Det.String(), 1, o.NObs+1+o.Lags, o.Lags)
 	r, err := simCrit(c, "crit", sp)
 	if err != nil {
