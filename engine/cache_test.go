@@ -186,18 +186,18 @@ func TestRevisionOfOneValue(t *testing.T) {
 // revision reports, which read every other result.
 func dependents(d *Document, word string) []string {
 	in := map[string]bool{}
-	for _, b := range d.blocks {
-		if b.kind.Name == "revision" {
-			in[b.id] = true
+	for _, r := range d.Results() {
+		if r.Kind == "revision" {
+			in[r.ID] = true
 		}
 	}
 	for changed := true; changed; {
 		changed = false
-		for _, b := range d.blocks {
-			if in[b.id] {
+		for _, r := range d.Results() {
+			if in[r.ID] {
 				continue
 			}
-			spec, _ := json.Marshal(b.raw)
+			spec, _ := json.Marshal(r.Spec)
 			hit := strings.Contains(string(spec), word)
 			for id := range in {
 				if strings.Contains(string(spec), `"`+id+`"`) {
@@ -205,7 +205,7 @@ func dependents(d *Document, word string) []string {
 				}
 			}
 			if hit {
-				in[b.id], changed = true, true
+				in[r.ID], changed = true, true
 			}
 		}
 	}

@@ -3,9 +3,10 @@ package engine
 import (
 	"errors"
 	"fmt"
-	"gopkg.in/yaml.v3"
 	"slices"
 	"strings"
+
+	"gopkg.in/yaml.v3"
 )
 
 // Context is what a directive sees while it is checked or run: its own
@@ -232,3 +233,92 @@ func (c *Context) InVariant(v *Variant, f func(*Context) error) error {
 	own.result, own.err, own.running = kept.result, kept.err, kept.running
 	return err
 }
+
+// ItemLine is the manuscript line of entry i of the list under key
+// (the key's own line if there is no such entry).
+func (c *Context) ItemLine(key string, i int) int {
+	line := c.doc.keyLine(c.b, key)
+	n := c.b.node
+	if n == nil {
+		return line
+	}
+	for j := 0; j+1 < len(n.Content); j += 2 {
+		if n.Content[j].Value == key {
+			v := n.Content[j+1]
+			if v.Kind == yaml.SequenceNode && i < len(v.Content) {
+				return c.b.line + v.Content[i].Line
+			}
+		}
+	}
+	return line
+}
+
+// ItemErrorf is an error at entry i of the list under key.
+func (c *Context) ItemErrorf(key string, i int, format string, args ...any) error {
+	return &PosError{File: c.doc.File, Line: c.ItemLine(key, i), Msg: fmt.Sprintf(format, args...)}
+}
+
+// Kind is the directive's kind name.
+func (c *Context) Kind() string { return c.b.kind.Name }
+
+// Nested reports whether this build is the nested build of another data
+// vintage made by a revision directive (figures are not drawn there).
+func (c *Context) Nested() bool { return c.doc.opts.nested }
+
+// HasVintage reports whether some data alias names the vintage.
+func (c *Context) HasVintage(name string) bool {
+	for _, ref := range c.doc.Meta.Data {
+		if _, ok := ref.Vintage[name]; ok {
+			return true
+		}
+	}
+	return false
+}
+
+// UpstreamContext is a Context for the directive with the given id, for
+// a directive of the same family that redoes that directive's analysis
+// (its result came from the cache without its working state).
+func (c *Context) UpstreamContext(id string) *Context {
+	b, ok := c.doc.byID[id]
+	if !ok {
+		return nil
+	}
+	return &Context{doc: c.doc, b: b}
+}
+
+// RunAllExcept runs every directive not of the given kind first and makes
+// this directive depend on all of them (a report that compares the whole
+// build). The error names the line of the first that failed.
+func (c *Context) RunAllExcept(kind string) error {
+	for _, b := range c.doc.blocks {
+		if b.kind.Name == kind {
+			continue
+		}
+		c.b.deps.up(b.id)
+		if _, err := c.doc.run(b); err != nil {
+			return c.Errorf("", "the paper must build before it can be compared (see line %d)", b.line)
+		}
+	}
+	return nil
+}
+
+// ParseVintage reads the manuscript again for another data vintage, as a
+// nested build (no progress, no PNG, figures not drawn; Run builds it),
+// and makes this directive depend on that vintage's files.
+func (c *Context) ParseVintage(vintage string) (*Document, error) {
+	d := c.doc
+	for _, ref := range d.Meta.Data {
+		if p, ok := ref.Vintage[vintage]; ok {
+			c.b.deps.col("file:"+p, "")
+		}
+	}
+	opts := d.opts
+	opts.Vintage, opts.nested, opts.Progress, opts.PNG = vintage, true, nil, 0
+	return ParseBytes(d.File, d.src, opts)
+}
+
+// Vintage is the data vintage this document was built on ("" = default).
+func (d *Document) Vintage() string { return d.opts.Vintage }
+
+// Document is the document being built.
+func (c *Context) Document() *Document { return c.doc }

@@ -6,7 +6,6 @@ import (
 	"strings"
 
 	"gonum.org/v1/gonum/mat"
-	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/series"
 )
@@ -256,26 +255,3 @@ func buildDesign(c *Context, r regressionSpec) (*design, error) {
 	return &design{dates: d.Dates, y: d.Cols[0], x: x, terms: terms, yName: r.y, d: d}, nil
 }
 
-// itemLine is the manuscript line of entry i of the list under key
-// (the key's own line if there is no such entry).
-func (c *Context) itemLine(key string, i int) int {
-	line := c.doc.keyLine(c.b, key)
-	n := c.b.node
-	if n == nil {
-		return line
-	}
-	for j := 0; j+1 < len(n.Content); j += 2 {
-		if n.Content[j].Value == key {
-			v := n.Content[j+1]
-			if v.Kind == yaml.SequenceNode && i < len(v.Content) {
-				return c.b.line + v.Content[i].Line
-			}
-		}
-	}
-	return line
-}
-
-// itemErrorf is an error at entry i of the list under key.
-func (c *Context) itemErrorf(key string, i int, format string, args ...any) error {
-	return &PosError{File: c.doc.File, Line: c.itemLine(key, i), Msg: fmt.Sprintf(format, args...)}
-}

@@ -16,7 +16,11 @@ func TestECMActualFitted(t *testing.T) {
 	if err := doc.Run(); err != nil {
 		t.Fatal(err)
 	}
-	fig, ecm := doc.byID["ecmfit"].result, doc.byID["ecm_north"].result
+	byID := map[string]*Result{}
+	for _, r := range doc.Results() {
+		byID[r.ID] = r
+	}
+	fig, ecm := byID["ecmfit"], byID["ecm_north"]
 	if fig == nil || fig.Figure == nil || ecm == nil {
 		t.Fatal("the demo lacks the ecmfit figure or the ecm_north result")
 	}

@@ -106,7 +106,7 @@ func (k *SystemKeys) settings(c *Context) (sysSettings, error) {
 		return st, c.Errorf("det", "det: %q is not a case; write n, rc, c, rt or ct", k.Det)
 	}
 	if !k.Lags.Set {
-		return st, c.Errorf("", "galley %s: the key \"lags\" is required (a number of lagged differences, or aic, bic or hq)", c.b.kind.Name)
+		return st, c.Errorf("", "galley %s: the key \"lags\" is required (a number of lagged differences, or aic, bic or hq)", c.Kind())
 	}
 	st.Level = 0.05
 	if k.Level != nil {
@@ -177,7 +177,7 @@ func (k *SystemKeys) settings(c *Context) (sysSettings, error) {
 	}
 	st.SmallSample = k.SmallSample
 	// crit: simulate (simcrit.go)
-	if sim, err := k.SimKeys.settings(c, c.b.kind.Name); err != nil {
+	if sim, err := k.SimKeys.settings(c, c.Kind()); err != nil {
 		return st, err
 	} else if sim != nil && k.SmallSample {
 		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")

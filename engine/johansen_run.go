@@ -104,7 +104,7 @@ func (k *SystemKeys) run(c *Context) (*sysState, error) {
 		return nil, err
 	}
 	K := len(st.Names)
-	sim, err := k.SimKeys.settings(c, c.b.kind.Name) // crit: simulate (simcrit.go)
+	sim, err := k.SimKeys.settings(c, c.Kind()) // crit: simulate (simcrit.go)
 	if err != nil {
 		return nil, err
 	}

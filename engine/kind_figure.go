@@ -125,7 +125,7 @@ func (s *figureSpec) Check(c *Context) error {
 	}
 	for i, w := range s.Shade {
 		if _, _, err := parseShade(w); err != nil {
-			return c.itemErrorf("shade", i, "%v", err)
+			return c.ItemErrorf("shade", i, "%v", err)
 		}
 	}
 	if s.Sample != "" {
@@ -278,7 +278,7 @@ func (s *figureSpec) Run(c *Context) (*Result, error) {
 // finish renders the figure and fills in its size and files.
 func (s *figureSpec) finish(c *Context, fig *figures.Figure, vals map[string]any) (*Result, error) {
 	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
-	if c.doc.opts.nested {
+	if c.Nested() {
 		// Inside a revision report's build of another vintage only the
 		// values are compared; the drawing is skipped.
 		vals["width"], vals["height"] = w, h
@@ -335,13 +335,13 @@ func (s *figureSpec) shade(c *Context, ss []series.Series, o *figures.Options) e
 	for i, w := range s.Shade {
 		a, b, err := parseShade(w)
 		if err != nil {
-			return c.itemErrorf("shade", i, "%v", err)
+			return c.ItemErrorf("shade", i, "%v", err)
 		}
 		if a.Freq != from.Freq {
-			return c.itemErrorf("shade", i, "shaded window %s to %s is %s but the figure's data are %s", a, b, a.Freq, from.Freq)
+			return c.ItemErrorf("shade", i, "shaded window %s to %s is %s but the figure's data are %s", a, b, a.Freq, from.Freq)
 		}
 		if a.Before(from) || to.Before(b) {
-			return c.itemErrorf("shade", i, "shaded window %s to %s lies outside the plotted data, which run from %s to %s", a, b, from, to)
+			return c.ItemErrorf("shade", i, "shaded window %s to %s lies outside the plotted data, which run from %s to %s", a, b, from, to)
 		}
 		o.Shade = append(o.Shade, figures.Window{From: a, To: b})
 	}
@@ -374,10 +374,10 @@ func (s *figureSpec) runLines(c *Context, p string, o *figures.Options) (*figure
 	k := 0
 	for gi, g := range groups {
 		if len(g) == 0 {
-			return nil, dr, c.itemErrorf("panels", gi, "panel %d has no series", gi+1)
+			return nil, dr, c.ItemErrorf("panels", gi, "panel %d has no series", gi+1)
 		}
 		if len(g) > figures.MaxSeries {
-			return nil, dr, c.itemErrorf("panels", gi, "panel %d has %d series; one panel holds at most %d", gi+1, len(g), figures.MaxSeries)
+			return nil, dr, c.ItemErrorf("panels", gi, "panel %d has %d series; one panel holds at most %d", gi+1, len(g), figures.MaxSeries)
 		}
 		var pn figures.Panel
 		for _, e := range g {

@@ -377,22 +377,11 @@ type restriction struct {
 	line int
 }
 
-// itemLine is the file line of item i of the list under key.
-func itemLine(c *Context, key string, i int) int {
-	if n := c.b.node; n != nil {
-		for j := 0; j+1 < len(n.Content); j += 2 {
-			if n.Content[j].Value == key && i < len(n.Content[j+1].Content) {
-				return c.b.line + n.Content[j+1].Content[i].Line
-			}
-		}
-	}
-	return c.doc.keyLine(c.b, key)
-}
 
 func parseRestrictions(c *Context, list []string, terms []string) ([]restriction, error) {
 	var out []restriction
 	for i, s := range list {
-		line := itemLine(c, "restrict", i)
+		line := c.ItemLine("restrict", i)
 		var rs restriction
 		rs.Text, rs.line = s, line
 		for _, eq := range strings.Split(s, ";") {

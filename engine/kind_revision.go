@@ -41,13 +41,7 @@ func (s *revisionSpec) Check(c *Context) error {
 	if err := c.Require("against", s.Against == ""); err != nil {
 		return err
 	}
-	found := false
-	for _, ref := range c.doc.Meta.Data {
-		if _, ok := ref.Vintage[s.Against]; ok {
-			found = true
-		}
-	}
-	if !found {
+	if !c.HasVintage(s.Against) {
 		return c.Errorf("against", "no data alias has a vintage %q (name vintages in the front matter: data: ALIAS: {path: …, vintage: {%s: …}})", s.Against, s.Against)
 	}
 	for _, sh := range s.Show {
@@ -66,31 +60,18 @@ func (s *revisionSpec) shows(part string) bool {
 }
 
 func (s *revisionSpec) Run(c *Context) (*Result, error) {
-	d := c.doc
-	if d.opts.nested {
+	if c.Nested() {
 		// Inside the build of the other vintage: a placeholder, never shown.
 		return &Result{Values: map[string]any{"against": s.Against, "flips": 0, "flipped": nil, "moved": 0, "samples": nil, "inputs": nil, "unchanged": 0}}, nil
 	}
 	// Everything else in this build first: the report compares it. The
 	// report depends on every other result and on the other vintage's
 	// files, which the cache records so that it can reuse the report.
-	for _, b := range d.blocks {
-		if b.kind.Name == "revision" {
-			continue
-		}
-		c.b.deps.up(b.id)
-		if _, err := d.run(b); err != nil {
-			return nil, c.Errorf("", "the paper must build before it can be compared (see line %d)", b.line)
-		}
+	if err := c.RunAllExcept("revision"); err != nil {
+		return nil, err
 	}
-	for _, ref := range d.Meta.Data {
-		if p, ok := ref.Vintage[s.Against]; ok {
-			c.b.deps.col("file:"+p, "")
-		}
-	}
-	opts := d.opts
-	opts.Vintage, opts.nested, opts.Progress, opts.PNG = s.Against, true, nil, 0
-	other, err := ParseBytes(d.File, d.src, opts)
+	d := c.Document()
+	other, err := c.ParseVintage(s.Against)
 	if err != nil {
 		return nil, c.Wrap("against", err)
 	}
@@ -102,8 +83,8 @@ func (s *revisionSpec) Run(c *Context) (*Result, error) {
 		return nil, err
 	}
 	cur := "this build"
-	if d.opts.Vintage != "" {
-		cur = "vintage " + d.opts.Vintage
+	if d.Vintage() != "" {
+		cur = "vintage " + d.Vintage()
 	}
 	newF, err := asRevisionFile(d, cur)
 	if err != nil {
@@ -117,7 +98,7 @@ func (s *revisionSpec) Run(c *Context) (*Result, error) {
 // comparison reads: the values as a results file holds them once read
 // back (numbers as float64, lists as []any), without the round trip.
 func asRevisionFile(d *Document, label string) (*revision.File, error) {
-	f := &revision.File{Path: label, Galley: "build", Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage}
+	f := &revision.File{Path: label, Galley: "build", Manuscript: filepath.Base(d.File), Vintage: d.Vintage()}
 	for _, in := range d.Inputs() {
 		f.Inputs = append(f.Inputs, revision.Input{Path: in.Path, SHA256: in.SHA256})
 	}

@@ -56,10 +56,13 @@ func (s *vecmSpec) Run(c *Context) (*Result, error) {
 		if _, err := c.Result("from", s.From, "johansen"); err != nil {
 			return nil, err
 		}
-		jb := c.doc.byID[s.From]
-		js := jb.dir.(*johansenSpec)
+		up, err := c.Upstream("from", s.From, "johansen")
+		if err != nil {
+			return nil, err
+		}
+		js := up.(*johansenSpec)
 		if js.state == nil { // its result came from the cache: redo the analysis
-			st, err := js.run(&Context{doc: c.doc, b: jb})
+			st, err := js.run(c.UpstreamContext(s.From))
 			if err != nil {
 				return nil, err
 			}

@@ -33,11 +33,8 @@ import (
 	"sync/atomic"
 	"time"
 
-	"github.com/galley-econ/galley/analysis/coint"
 	"github.com/galley-econ/galley/analysis/critical"
-	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/simulate"
-	"github.com/galley-econ/galley/analysis/unitroot"
 	"github.com/galley-econ/galley/internal/atomicfile"
 )
 
@@ -123,6 +120,10 @@ func (s *simSettings) spec(test, cs string, n, t, lags int) simulate.Spec {
 // simRuns counts the simulations actually run (not read from the store),
 // for tests.
 var simRuns atomic.Int64
+
+// SimRuns is the number of simulations run (not read from the store) by
+// this process, for tests.
+func SimRuns() int64 { return simRuns.Load() }
 
 // simProgressOut is where progress goes when Options.Progress is not set.
 var simProgressOut io.Writer = os.Stderr
@@ -470,172 +471,4 @@ func pSimSource(r *simulate.Result) string {
 		return fmt.Sprintf("simulated, the share of the %s replications at or below the statistic", group(r.Reps))
 	}
 	return fmt.Sprintf("simulated, the share of the %s replications at or above the statistic", group(r.Reps))
-}
-
-// simADF replaces the tabulated critical values and p-value of an ADF
-// outcome by simulated ones at its regression's T and lags (the chosen
-// order when a criterion chose it). T of the simulated series is NObs +
-// 1 + lags, so that its Dickey–Fuller regression has NObs observations.
-func simADF(c *Context, s *simSettings, u urTest, o *Outcome) (*simulate.Result, error) {
-	sp := s.spec(simulate.ADF, u.Det.String(), 1, o.NObs+1+o.Lags, o.Lags)
-	r, err := simCrit(c, "crit", sp)
-	if err != nil {
-		return nil, err
-	}
-	o.Crit = simCritValues(r)
-	o.CritSource = simSource(r, "case "+u.Det.String(), u.Lags.Select != unitroot.Fixed)
-	o.PValue, o.PClipped = r.PValue(o.Stat), false
-	o.PSource = pSimSource(r)
-	if o.Extra == nil {
-		o.Extra = map[string]any{}
-	}
-	o.Extra["crit_mcse"] = simLevelMap(r, r.MCSE)
-	o.Extra["sim_key"] = r.Key
-	o.Extra["sim"] = map[string]any{"reps": r.Reps, "seed": int(r.Seed), "t": r.NObs, "lags": r.Spec.Lags, "n": 1}
-	return r, nil
-}
-
-// simEG replaces the tabulated critical values and p-value of one
-// Engle–Granger row by simulated ones: N independent random walks, the
-// static regression with the case's terms, and the residual
-// Dickey–Fuller regression with the row's lags at the row's T.
-func simEG(c *Context, s *simSettings, det critical.Case, rule unitroot.LagRule, res *coint.EGResult) (*simulate.Result, error) {
-	sp := s.spec(simulate.EG, det.String(), res.Vars, res.NObs+1+res.Lags, res.Lags)
-	r, err := simCrit(c, "crit", sp)
-	if err != nil {
-		return nil, err
-	}
-	res.Crit = simCritValues(r)
-	res.CritSource = simSource(r, fmt.Sprintf("N=%d variables, case %s of the static regression", res.Vars, det), rule.Select != unitroot.Fixed)
-	res.PValue = r.PValue(res.Stat)
-	return r, nil
-}
-
-// simEGNote is the Engle–Granger note on simulated critical values.
-func simEGNote(sims []*simulate.Result, vars []string, deps []int) string {
-	var b strings.Builder
-	r0 := sims[0]
-	fmt.Fprintf(&b, "Critical values: simulated, %s replications with seed %d of %d independent Gaussian random walks, the static regression with the same deterministic terms and the residual Dickey–Fuller regression with the same lags (held fixed when a criterion chose them) at the same T", group(r0.Reps), r0.Seed, r0.Spec.N)
-	var ts []string
-	for r, sr := range sims {
-		s := fmt.Sprintf("T=%d, %d lags, Monte Carlo standard errors %s", sr.NObs, sr.Spec.Lags, simMCSEText(sr))
-		if len(sims) > 1 {
-			s = vars[deps[r]] + ": " + s
-		}
-		ts = append(ts, s)
-	}
-	fmt.Fprintf(&b, " (%s); stars by these critical values. p-value: the share of the replications at or below τ.", strings.Join(ts, "; "))
-	return b.String()
-}
-
-// sysSim holds the simulated tables of a Johansen rank test: for rank r
-// (row r) the null distributions of the trace and maximum-eigenvalue
-// statistics for H(0) in a system of K−r independent Gaussian random
-// walks, with the same case, lags and T (asymptotically the null
-// distribution of the test of rank r in K series; Johansen 1995, ch. 11).
-type sysSim struct {
-	trace, maxeig []*simulate.Result
-	pT, pM        []float64 // simulated p-values of the statistics
-	chosenLag     bool
-}
-
-// simJohansen fills the critical values of s from simulations and
-// chooses the rank with them by the sequential trace procedure (the
-// first r whose trace statistic does not exceed its critical value at
-// the level, as johansen.Result.Rank does with the tables).
-func simJohansen(c *Context, set *simSettings, s *sysState) (*sysSim, error) {
-	r := s.res
-	out := &sysSim{chosenLag: s.lags != nil}
-	s.crT, s.crM = make([][3]float64, r.K), make([][3]float64, r.K)
-	for i := 0; i < r.K; i++ {
-		for _, stat := range []string{simulate.JohansenTrace, simulate.JohansenMaxEig} {
-			sp := set.spec(stat, r.Case.String(), r.K-i, r.T+r.Lags+1, r.Lags)
-			sr, err := simCrit(c, "crit", sp)
-			if err != nil {
-				return nil, err
-			}
-			var cv [3]float64
-			for j, l := range johansen.Levels {
-				cv[j] = simAt(sr, l)
-			}
-			if stat == simulate.JohansenTrace {
-				out.trace, s.crT[i] = append(out.trace, sr), cv
-				out.pT = append(out.pT, sr.PValue(s.trace[i]))
-			} else {
-				out.maxeig, s.crM[i] = append(out.maxeig, sr), cv
-				out.pM = append(out.pM, sr.PValue(s.max[i]))
-			}
-		}
-	}
-	li := slices.Index(johansen.Levels[:], s.st.Level)
-	if li < 0 {
-		return nil, c.Errorf("level", "level must be 0.10, 0.05 or 0.01, not %g", s.st.Level)
-	}
-	s.chosen = r.K
-	for i := 0; i < r.K; i++ {
-		if s.trace[i] <= s.crT[i][li] {
-			s.chosen = i
-			break
-		}
-	}
-	return out, nil
-}
-
-// critText names the source of a rank test's critical values.
-func (s *sysState) critText() string {
-	if s.sim == nil {
-		return critSource(s.res.Case)
-	}
-	r0 := s.sim.trace[0]
-	lag := fmt.Sprintf("%d lagged differences", r0.Spec.Lags)
-	if s.sim.chosenLag {
-		lag += " (the order the criterion chose, held fixed in every replication)"
-	}
-	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, case %s; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
-		group(r0.Reps), r0.Seed, r0.NObs, lag, s.res.Case)
-}
-
-// mcseNote lists the Monte Carlo standard errors of the simulated
-// critical values, in the order of the table's columns.
-func (s *sysSim) mcseNote() string {
-	row := func(rs []*simulate.Result) string {
-		var parts []string
-		for i, r := range rs {
-			var e []string
-			for _, l := range johansen.Levels {
-				e = append(e, strconv.FormatFloat(r.MCSE[slices.Index(r.Levels, l)], 'g', 2, 64))
-			}
-			parts = append(parts, fmt.Sprintf("r=%d: %s", i, strings.Join(e, "/")))
-		}
-		return strings.Join(parts, "; ")
-	}
-	return fmt.Sprintf("Monte Carlo standard errors of the simulated critical values (10%%/5%%/1%%): trace %s; maximum eigenvalue %s. Simulated p-values are in the results file.",
-		row(s.trace), row(s.maxeig))
-}
-
-// values adds the simulated fields to a rank test's values.
-func (s *sysSim) values(v map[string]any) {
-	mcse := func(rs []*simulate.Result) []map[string]any {
-		out := make([]map[string]any, len(rs))
-		for i, r := range rs {
-			out[i] = map[string]any{}
-			for _, l := range johansen.Levels {
-				out[i][pct(l)] = r.MCSE[slices.Index(r.Levels, l)]
-			}
-		}
-		return out
-	}
-	keys := func(rs []*simulate.Result) []string {
-		out := make([]string, len(rs))
-		for i, r := range rs {
-			out[i] = r.Key
-		}
-		return out
-	}
-	r0 := s.trace[0]
-	v["crit_source"] = fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %d lagged differences", group(r0.Reps), r0.Seed, r0.NObs, r0.Spec.Lags)
-	v["crit_mcse_trace"], v["crit_mcse_maxeig"] = mcse(s.trace), mcse(s.maxeig)
-	v["pvalue_trace"], v["pvalue_maxeig"] = slices.Clone(s.pT), slices.Clone(s.pM)
-	v["sim_key"] = map[string]any{"trace": keys(s.trace), "maxeig": keys(s.maxeig)}
-	v["sim"] = map[string]any{"reps": r0.Reps, "seed": int(r0.Seed), "t": r0.NObs, "lags": r0.Spec.Lags}
 }

@@ -9,7 +9,6 @@ import (
 	"reflect"
 	"strings"
 	"testing"
-	"time"
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/johansen"
@@ -138,9 +137,9 @@ func TestSimStore(t *testing.T) {
 	spec := "series: infl\ndet: c\nlags: 1\ncrit: simulate\nreps: 2000\n"
 	p := macroProject(t, fence("adf", "id: a\n"+spec)+"\n"+fence("adf", "id: b\n"+spec+"caption: again\n"))
 	dir := filepath.Join(filepath.Dir(p), ".galley-cache")
-	before := simRuns.Load()
+	before := SimRuns()
 	v1, _ := buildValues(t, p, Options{Cache: &Cache{Dir: dir, Version: "v1"}})
-	if n := simRuns.Load() - before; n != 1 {
+	if n := SimRuns() - before; n != 1 {
 		t.Fatalf("first build ran %d simulations, want 1 (two directives, one experiment)", n)
 	}
 	if !reflect.DeepEqual(v1["a"]["crit"], v1["b"]["crit"]) {
@@ -152,9 +151,9 @@ func TestSimStore(t *testing.T) {
 	if err != nil {
 		t.Fatalf("no stored table: %v", err)
 	}
-	before = simRuns.Load()
+	before = SimRuns()
 	v2, _ := buildValues(t, p, Options{Cache: &Cache{Dir: dir, Version: "v2"}})
-	if n := simRuns.Load() - before; n != 0 {
+	if n := SimRuns() - before; n != 0 {
 		t.Errorf("rebuild ran %d simulations, want 0", n)
 	}
 	if !reflect.DeepEqual(v1["a"], v2["a"]) {
@@ -168,9 +167,9 @@ func TestSimStore(t *testing.T) {
 		if err := os.WriteFile(file, bad, 0o644); err != nil {
 			t.Fatal(err)
 		}
-		before = simRuns.Load()
+		before = SimRuns()
 		v3, _ := buildValues(t, p, Options{Cache: &Cache{Dir: dir, Version: "v3-" + name}})
-		if n := simRuns.Load() - before; n != 1 {
+		if n := SimRuns() - before; n != 1 {
 			t.Errorf("%s entry: %d simulations, want 1", name, n)
 		}
 		if !reflect.DeepEqual(v1["a"], v3["a"]) {
@@ -179,28 +178,6 @@ func TestSimStore(t *testing.T) {
 		if now, _ := os.ReadFile(file); !bytes.Equal(now, raw) {
 			t.Errorf("%s entry was not replaced by the recomputed table", name)
 		}
-	}
-}
-
-// TestSimStoreRoundTrip: encode/decode keeps every field, and a table is
-// refused for another spec.
-func TestSimStoreRoundTrip(t *testing.T) {
-	sp := simulate.Spec{Test: "eg", Case: "ct", N: 3, T: 80, Lags: 1, Reps: 300, Seed: 9, Workers: 1}
-	r, err := simulate.Run(t.Context(), sp, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
-	got, err := decodeSim(encodeSim(r), sp)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !reflect.DeepEqual(got, r) {
-		t.Errorf("round trip changed the result")
-	}
-	other := sp
-	other.Seed = 10
-	if _, err := decodeSim(encodeSim(r), other); err == nil {
-		t.Error("a table was accepted for another seed")
 	}
 }
 
@@ -333,39 +310,4 @@ func TestSimBadKeys(t *testing.T) {
 		runBad(t, front+"\n"+fence("johansen", "id: j\nseries: [y, x]\nlags: 1\n")+fence("vecm", "id: v\nfrom: j\ncrit: simulate\n"),
 			files, "paper.md:", "crit cannot be set here")
 	})
-}
-
-// TestSimProgress: a short run is quiet; a long one prints plain lines at
-// the quarters (when the output is not a terminal) and a last line.
-func TestSimProgress(t *testing.T) {
-	var lines []string
-	sink := func(s string) { lines = append(lines, s) }
-	p := newSimProgress("sim", sink, nil)
-	for d := 128; d <= 1000; d += 128 {
-		p.update(d, 1000)
-	}
-	p.update(1000, 1000)
-	p.finish(nil)
-	if len(lines) != 0 {
-		t.Errorf("short run printed %q", lines)
-	}
-	p = newSimProgress("sim", sink, nil)
-	p.start = time.Now().Add(-2 * time.Second)
-	for d := 100; d <= 1000; d += 100 {
-		p.update(d, 1000)
-	}
-	p.finish(nil)
-	// 10% (the first line once past the quiet second), then 30%, 50% and
-	// 80% as each new quarter is entered, then the last line.
-	if len(lines) < 3 || len(lines) > 5 || !strings.HasPrefix(lines[0], "sim: 10% after") || !strings.Contains(lines[len(lines)-1], "done in") {
-		t.Errorf("long run printed %q", lines)
-	}
-	var buf bytes.Buffer
-	p = newSimProgress("sim", nil, &buf)
-	p.start = time.Now().Add(-2 * time.Second)
-	p.update(500, 1000)
-	p.finish(nil)
-	if !strings.Contains(buf.String(), "sim: 50% after") || strings.Contains(buf.String(), "\r") {
-		t.Errorf("plain output %q", buf.String())
-	}
 }
