@@ -27,9 +27,10 @@ import (
 	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/engine"
+	_ "github.com/galley-econ/galley/kinds"
 )
 
 // Sizes of the workloads.

@@ -12,10 +12,10 @@ import (
 // which a table note warns of near-collinearity.
 const condWarn = 1e8
 
-// coefRows lays out coefficients the usual way: the estimate with stars on
+// CoefRows lays out coefficients the usual way: the estimate with stars on
 // one row, its standard error in parentheses on the next. With noStars
 // the stars are left off (for estimates whose usual t-ratios are invalid).
-func coefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars bool) []table.Row {
+func CoefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars bool) []table.Row {
 	var rows []table.Row
 	for i, t := range terms {
 		st := 0
@@ -30,8 +30,8 @@ func coefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars boo
 	return rows
 }
 
-// coefValues is the results-file form of a coefficient table.
-func coefValues(terms []string, coefs []ols.Coef) []map[string]any {
+// CoefValues is the results-file form of a coefficient table.
+func CoefValues(terms []string, coefs []ols.Coef) []map[string]any {
 	out := make([]map[string]any, len(terms))
 	for i, t := range terms {
 		out[i] = map[string]any{"term": t, "est": coefs[i].Est, "se": coefs[i].SE, "t": coefs[i].T, "p": coefs[i].P}
@@ -39,16 +39,16 @@ func coefValues(terms []string, coefs []ols.Coef) []map[string]any {
 	return out
 }
 
-// condNote warns when the design is badly conditioned.
-func condNote(f *ols.Fit) string {
+// CondNote warns when the design is badly conditioned.
+func CondNote(f *ols.Fit) string {
 	if f.Cond > condWarn {
 		return fmt.Sprintf("Warning: the regressors are nearly collinear (condition number %.2g); estimates may be imprecise.", f.Cond)
 	}
 	return ""
 }
 
-// collinearError names the regressor that is collinear with earlier ones.
-func collinearError(c *Context, key string, err error, terms []string) error {
+// CollinearError names the regressor that is collinear with earlier ones.
+func CollinearError(c *Context, key string, err error, terms []string) error {
 	if ce, ok := err.(*ols.CollinearError); ok && ce.Col < len(terms) {
 		if ce.Col == 0 {
 			return c.Errorf(key, "regressor %q is zero throughout the sample", terms[0])

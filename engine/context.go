@@ -7,6 +7,8 @@ import (
 	"strings"
 
 	"gopkg.in/yaml.v3"
+
+	"github.com/galley-econ/galley/engine/contract"
 )
 
 // Context is what a directive sees while it is checked or run: its own
@@ -92,7 +94,7 @@ func (c *Context) StarsFor(p float64) int {
 func (c *Context) StarNote() string {
 	var parts []string
 	for i, t := range c.Stars() {
-		parts = append(parts, fmt.Sprintf("%s p < %s", strings.Repeat("*", i+1), pct(t)))
+		parts = append(parts, fmt.Sprintf("%s p < %s", strings.Repeat("*", i+1), contract.Pct(t)))
 	}
 	return strings.Join(parts, ", ") + "."
 }
@@ -151,7 +153,7 @@ func (c *Context) refBlock(key, id string, kinds ...string) (*block, error) {
 	}
 	b, ok := c.doc.byID[id]
 	if !ok {
-		return nil, c.Errorf(key, "no directive has id %q%s", id, didYouMean(id, c.doc.ids()))
+		return nil, c.Errorf(key, "no directive has id %q%s", id, DidYouMean(id, c.doc.ids()))
 	}
 	if b == c.b {
 		return nil, c.Errorf(key, "a directive cannot refer to itself")

@@ -53,7 +53,7 @@ func (s *dataStore) path(alias string) (DataRef, string, error) {
 		if len(s.doc.Meta.Data) == 0 {
 			return ref, "", fmt.Errorf("unknown data alias %q: the front matter has no data: section", alias)
 		}
-		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, didYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
+		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, DidYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
 	}
 	p := ref.Path
 	if v := s.doc.opts.Vintage; v != "" && v != "default" && len(ref.Vintage) > 0 {

@@ -17,7 +17,7 @@ import (
 
 // A residual diagnostic as written in a `diagnostics:` list: a name and,
 // for the tests that have one, an order in parentheses: "bg(4)", "jb".
-type diagItem struct {
+type DiagItem struct {
 	Name  string // bg | lb | jb | arch | bp | reset | dw
 	Order int    // 0: the default for the data's frequency
 }
@@ -30,17 +30,17 @@ var diagKinds = []struct {
 }{{"bg", true}, {"lb", true}, {"jb", false}, {"arch", true}, {"bp", false}, {"reset", true}, {"dw", false}}
 
 // defaultDiagnostics is the set used when the key is absent: all seven.
-func defaultDiagnostics() []diagItem {
-	out := make([]diagItem, len(diagKinds))
+func defaultDiagnostics() []DiagItem {
+	out := make([]DiagItem, len(diagKinds))
 	for i, k := range diagKinds {
-		out[i] = diagItem{Name: k.name}
+		out[i] = DiagItem{Name: k.name}
 	}
 	return out
 }
 
-// parseDiagnostics reads a diagnostics list; set is whether the key was
+// ParseDiagnostics reads a diagnostics list; set is whether the key was
 // written (an empty list then means none).
-func parseDiagnostics(c *Context, key string, list []string, set bool) ([]diagItem, error) {
+func ParseDiagnostics(c *Context, key string, list []string, set bool) ([]DiagItem, error) {
 	if !set {
 		return defaultDiagnostics(), nil
 	}
@@ -49,11 +49,11 @@ func parseDiagnostics(c *Context, key string, list []string, set bool) ([]diagIt
 		names = append(names, k.name)
 	}
 	seen := map[string]bool{}
-	var out []diagItem
+	var out []DiagItem
 	for _, s := range list {
 		t := strings.ToLower(strings.ReplaceAll(s, " ", ""))
 		name, arg, hasArg := strings.Cut(t, "(")
-		it := diagItem{Name: name}
+		it := DiagItem{Name: name}
 		ordered, known := false, false
 		for _, k := range diagKinds {
 			if k.name == name {
@@ -61,7 +61,7 @@ func parseDiagnostics(c *Context, key string, list []string, set bool) ([]diagIt
 			}
 		}
 		if !known {
-			return nil, c.Errorf(key, "unknown diagnostic %q%s; write one of %s, with an order where it takes one, e.g. bg(4)", s, didYouMean(name, names), strings.Join(names, ", "))
+			return nil, c.Errorf(key, "unknown diagnostic %q%s; write one of %s, with an order where it takes one, e.g. bg(4)", s, DidYouMean(name, names), strings.Join(names, ", "))
 		}
 		if hasArg {
 			if !ordered {
@@ -96,17 +96,17 @@ func defaultOrder(f series.Freq) int {
 
 // diagResult is one diagnostic computed.
 type diagResult struct {
-	Item  diagItem
+	Item  DiagItem
 	Label string
 	Dist  string // "χ²(4)", "F(2, 250)", "" for Durbin–Watson (exact p-value, no reference distribution)
 	Test  diag.Test
 }
 
-// runDiagnostics computes the diagnostics of a fit. dwNull gives the null
+// RunDiagnostics computes the diagnostics of a fit. dwNull gives the null
 // distribution of the Durbin–Watson statistic for a design (memoised per
 // build: it costs an eigenvalue decomposition, and a grid of models on the
 // same regressors shares it).
-func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq, dwNull func(*ols.Fit) (*diag.DWNull, error)) ([]diagResult, error) {
+func RunDiagnostics(f *ols.Fit, items []DiagItem, freq series.Freq, dwNull func(*ols.Fit) (*diag.DWNull, error)) ([]diagResult, error) {
 	var out []diagResult
 	for _, it := range items {
 		r := it.Order
@@ -172,9 +172,9 @@ func runDiagnostics(f *ols.Fit, items []diagItem, freq series.Freq, dwNull func(
 	return out, nil
 }
 
-// testRows lays out a test the way every block of tests is shown: the
+// TestRows lays out a test the way every block of tests is shown: the
 // statistic on one row, its p-value on the next.
-func testRows(label string, stat, p float64, dec int, ruleAbove bool) []table.Row {
+func TestRows(label string, stat, p float64, dec int, ruleAbove bool) []table.Row {
 	rows := []table.Row{{Cells: []table.Cell{table.T(label), table.N(stat, dec)}, RuleAbove: ruleAbove}}
 	if !math.IsNaN(p) {
 		rows = append(rows, table.Row{Cells: []table.Cell{table.T("    p-value"), table.N(p, dec)}})
@@ -182,21 +182,21 @@ func testRows(label string, stat, p float64, dec int, ruleAbove bool) []table.Ro
 	return rows
 }
 
-// diagRows are the table rows of the diagnostics.
-func diagRows(ds []diagResult, dec int) []table.Row {
+// DiagRows are the table rows of the diagnostics.
+func DiagRows(ds []diagResult, dec int) []table.Row {
 	var rows []table.Row
 	for i, d := range ds {
 		label := d.Label
 		if d.Dist != "" {
 			label += ", " + d.Dist
 		}
-		rows = append(rows, testRows(label, d.Test.Stat, d.Test.PValue, dec, i == 0)...)
+		rows = append(rows, TestRows(label, d.Test.Stat, d.Test.PValue, dec, i == 0)...)
 	}
 	return rows
 }
 
-// diagValues is the results-file form: name → {stat, df, df2, pvalue, order}.
-func diagValues(ds []diagResult) map[string]any {
+// DiagValues is the results-file form: name → {stat, df, df2, pvalue, order}.
+func DiagValues(ds []diagResult) map[string]any {
 	m := map[string]any{}
 	for _, d := range ds {
 		v := map[string]any{"test": d.Label, "stat": d.Test.Stat, "df": d.Test.DF, "pvalue": d.Test.PValue}
@@ -216,8 +216,8 @@ func diagValues(ds []diagResult) map[string]any {
 	return m
 }
 
-// diagNote explains the diagnostics block.
-func diagNote(ds []diagResult) string {
+// DiagNote explains the diagnostics block.
+func DiagNote(ds []diagResult) string {
 	if len(ds) == 0 {
 		return ""
 	}
@@ -248,9 +248,9 @@ func diagNote(ds []diagResult) string {
 	return parts[0] + ": " + strings.Join(parts[1:], "; ") + "."
 }
 
-// dwNull returns the Durbin–Watson null distribution for the design of f,
+// DwNull returns the Durbin–Watson null distribution for the design of f,
 // computed once per build for each distinct design.
-func (c *Context) dwNull(f *ols.Fit) (*diag.DWNull, error) {
+func (c *Context) DwNull(f *ols.Fit) (*diag.DWNull, error) {
 	h := sha256.New()
 	n, k := f.X().Dims()
 	var buf [8]byte

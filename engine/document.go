@@ -158,7 +158,7 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	if len(info) < 2 {
 		return nil, errAt(d.File, line, "a galley block needs a directive kind after \"galley\"; kinds: %s", strings.Join(kindNames(), ", "))
 	}
-	k, err := lookupKind(info[1])
+	k, err := LookupKind(info[1])
 	if err != nil {
 		return nil, wrapAt(d.File, line, err)
 	}
@@ -175,7 +175,7 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	dir := k.New()
 	var root yaml.Node
 	if err := yaml.Unmarshal(body.Bytes(), &root); err != nil {
-		return nil, yamlError(d.File, bodyLine, err)
+		return nil, YamlError(d.File, bodyLine, err)
 	}
 	if len(root.Content) > 0 {
 		doc := root.Content[0]
@@ -183,13 +183,13 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 			return nil, errAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
 		}
 		if err := checkKeys(doc, dir); err != nil {
-			return nil, yamlError(d.File, bodyLine, err)
+			return nil, YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(dir); err != nil {
-			return nil, yamlError(d.File, bodyLine, err)
+			return nil, YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(&b.raw); err != nil {
-			return nil, yamlError(d.File, bodyLine, err)
+			return nil, YamlError(d.File, bodyLine, err)
 		}
 		b.node = doc
 	}
@@ -200,7 +200,7 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	b.id = dir.Base().ID
 	if b.id == "" {
 		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])
-	} else if !validID(b.id) {
+	} else if !ValidID(b.id) {
 		return nil, errAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter", b.id)
 	}
 	return b, nil
@@ -240,7 +240,7 @@ func (d *Document) keyLine(b *block, key string) int {
 	return b.line
 }
 
-func validID(s string) bool {
+func ValidID(s string) bool {
 	for i, r := range s {
 		switch {
 		case r >= 'a' && r <= 'z', r >= 'A' && r <= 'Z':

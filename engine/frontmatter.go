@@ -25,7 +25,7 @@ type Meta struct {
 func (m *Meta) AllAuthors() []string { return append(append([]string{}, m.Author...), m.Authors...) }
 
 // Authors accepts one name or a list of names.
-type Authors = nameList
+type Authors = NameList
 
 // DataRef names a data file, with an optional sheet (XLSX) and vintages.
 type DataRef struct {
@@ -87,7 +87,7 @@ func parseMeta(file string, front []byte) (*Meta, error) {
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(front, &root); err != nil {
-		return nil, yamlError(file, 1, err)
+		return nil, YamlError(file, 1, err)
 	}
 	if len(root.Content) == 0 {
 		return m, nil
@@ -97,10 +97,10 @@ func parseMeta(file string, front []byte) (*Meta, error) {
 		return nil, errAt(file, 2, "front matter must be a mapping of keys to values")
 	}
 	if err := checkKeys(doc, m); err != nil {
-		return nil, yamlError(file, 1, err)
+		return nil, YamlError(file, 1, err)
 	}
 	if err := doc.Decode(m); err != nil {
-		return nil, yamlError(file, 1, err)
+		return nil, YamlError(file, 1, err)
 	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {

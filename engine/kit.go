@@ -10,8 +10,8 @@ import (
 	"github.com/galley-econ/galley/analysis/series"
 )
 
-// parseDet reads a det: key (default c).
-func parseDet(c *Context, det string) (critical.Case, error) {
+// ParseDet reads a det: key (default c).
+func ParseDet(c *Context, det string) (critical.Case, error) {
 	if det == "" {
 		return critical.Const, nil
 	}
@@ -22,8 +22,8 @@ func parseDet(c *Context, det string) (critical.Case, error) {
 	return d, nil
 }
 
-// residValues is the results-file form of a residual series.
-func residValues(d *Data, first int, e []float64) map[string]any {
+// ResidValues is the results-file form of a residual series.
+func ResidValues(d *Data, first int, e []float64) map[string]any {
 	dates := make([]string, len(e))
 	for i := range e {
 		dates[i] = d.Dates[first+i].String()
@@ -31,10 +31,10 @@ func residValues(d *Data, first int, e []float64) map[string]any {
 	return map[string]any{"dates": dates, "values": append([]float64(nil), e...)}
 }
 
-// datedValues is the results-file form of a dated series:
+// DatedValues is the results-file form of a dated series:
 // {"dates": [...], "values": [...]}, the shape figure directives read
 // back (see residualSeries in figure_data.go).
-func datedValues(dates []series.Date, v []float64) map[string]any {
+func DatedValues(dates []series.Date, v []float64) map[string]any {
 	ds := make([]string, len(dates))
 	for i, d := range dates {
 		ds[i] = d.String()
@@ -42,21 +42,21 @@ func datedValues(dates []series.Date, v []float64) map[string]any {
 	return map[string]any{"dates": ds, "values": append([]float64(nil), v...)}
 }
 
-// sampleValues is the results-file form of a sample.
-func sampleValues(d *Data) map[string]any {
+// SampleValues is the results-file form of a sample.
+func SampleValues(d *Data) map[string]any {
 	return map[string]any{"from": d.Dates[0].String(), "to": d.Dates[len(d.Dates)-1].String(), "n": d.N()}
 }
 
-func decimalsOr(c *Context, d *int) int {
+func DecimalsOr(c *Context, d *int) int {
 	if d != nil {
 		return *d
 	}
 	return c.Decimals()
 }
 
-// residSeries reads the long-run residuals a result stores in
+// ResidSeries reads the long-run residuals a result stores in
 // Values["resid"] as {dates, values}.
-func residSeries(r *Result) ([]string, map[string]float64, error) {
+func ResidSeries(r *Result) ([]string, map[string]float64, error) {
 	m, ok := r.Values["resid"].(map[string]any)
 	if !ok {
 		return nil, nil, fmt.Errorf("the %s result has no residual series", r.Kind)

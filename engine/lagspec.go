@@ -9,18 +9,18 @@ import (
 	"github.com/galley-econ/galley/analysis/unitroot"
 )
 
-// lagChoice is the grammar every `lags:` key shares: a fixed number
+// LagChoice is the grammar every `lags:` key shares: a fixed number
 // (`lags: 4`), a selector with the default maximum (`lags: aic`), or a
 // selector with a maximum (`lags: {select: aic, max: 12}`). Which
 // selectors a key accepts is for its kind to say (valid).
-type lagChoice struct {
+type LagChoice struct {
 	Set    bool
 	Fixed  int
 	Select string
 	Max    *int
 }
 
-func (l *lagChoice) decode(n *yaml.Node, valid func(string) error, help string) error {
+func (l *LagChoice) Decode(n *yaml.Node, valid func(string) error, help string) error {
 	l.Set = true
 	switch n.Kind {
 	case yaml.ScalarNode:
@@ -62,10 +62,10 @@ func (l *lagChoice) decode(n *yaml.Node, valid func(string) error, help string) 
 
 // LagSpec is the `lags:` key of a unit-root or residual-based test, with
 // the selectors aic, bic and tstat.
-type LagSpec struct{ lagChoice }
+type LagSpec struct{ LagChoice }
 
 func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
-	return l.decode(n, func(s string) error { _, err := unitroot.ParseSelector(s); return err },
+	return l.Decode(n, func(s string) error { _, err := unitroot.ParseSelector(s); return err },
 		"lags: write a number, a selector (aic, bic, tstat), or {select: aic, max: 12}")
 }
 
@@ -85,8 +85,8 @@ func (l LagSpec) Rule(def unitroot.LagRule) unitroot.LagRule {
 	return r
 }
 
-// describeLags is a phrase for a table note: "chosen by AIC from 0–15".
-func describeLags(r unitroot.LagRule, maxUsed int) string {
+// DescribeLags is a phrase for a table note: "chosen by AIC from 0–15".
+func DescribeLags(r unitroot.LagRule, maxUsed int) string {
 	if r.Select == unitroot.Fixed {
 		return fmt.Sprintf("fixed at %d", r.Lags)
 	}
@@ -101,5 +101,5 @@ func describeLags(r unitroot.LagRule, maxUsed int) string {
 	return fmt.Sprintf("chosen by %s from 0–%d on a common sample, then re-estimated on the full sample", name, maxUsed)
 }
 
-// defaultLags is AIC with the default maximum ⌊12(T/100)^{1/4}⌋.
-var defaultLags = unitroot.LagRule{Select: unitroot.AIC, Max: -1}
+// DefaultLags is AIC with the default maximum ⌊12(T/100)^{1/4}⌋.
+var DefaultLags = unitroot.LagRule{Select: unitroot.AIC, Max: -1}

@@ -51,11 +51,11 @@ func (d *Document) checkRef(n *RefNode) (ref, error) {
 	}
 	b, ok := d.byID[r.id]
 	if !ok {
-		return r, errAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, didYouMean(r.id, d.ids()))
+		return r, errAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, DidYouMean(r.id, d.ids()))
 	}
 	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(commonFields, r.path[0]) {
 		all := append(slices.Clone(f), commonFields...)
-		return r, errAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], didYouMean(r.path[0], all), strings.Join(all, ", "))
+		return r, errAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], DidYouMean(r.path[0], all), strings.Join(all, ", "))
 	}
 	return r, nil
 }
@@ -93,7 +93,7 @@ func (d *Document) formatRef(n *RefNode, _ refFormat) (refText, error) {
 	case "kind":
 		v = res.Kind
 	default:
-		v, err = lookup(res.Values, r.path)
+		v, err = Lookup(res.Values, r.path)
 		if err != nil {
 			return refText{}, errAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
 		}
@@ -112,14 +112,14 @@ func (d *Document) defaultDecimals() int {
 	return 3
 }
 
-// lookup walks path through nested maps and lists.
-func lookup(v any, path []string) (any, error) {
+// Lookup walks path through nested maps and lists.
+func Lookup(v any, path []string) (any, error) {
 	for i, p := range path {
 		switch x := v.(type) {
 		case map[string]any:
 			next, ok := x[p]
 			if !ok {
-				return nil, fmt.Errorf("no field %q%s; there are: %s", strings.Join(path[:i+1], "."), didYouMean(p, keys(x)), strings.Join(keys(x), ", "))
+				return nil, fmt.Errorf("no field %q%s; there are: %s", strings.Join(path[:i+1], "."), DidYouMean(p, Keys(x)), strings.Join(Keys(x), ", "))
 			}
 			v = next
 		case []map[string]any:
@@ -148,7 +148,7 @@ func lookup(v any, path []string) (any, error) {
 						names = append(names, name)
 					}
 				}
-				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), didYouMean(p, names))
+				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), DidYouMean(p, names))
 			}
 		case []float64:
 			k, err := strconv.Atoi(p)
@@ -163,7 +163,7 @@ func lookup(v any, path []string) (any, error) {
 	return v, nil
 }
 
-func keys(m map[string]any) []string {
+func Keys(m map[string]any) []string {
 	var out []string
 	for k := range m {
 		out = append(out, k)
@@ -213,7 +213,7 @@ func formatValue(v any, verb string, dec int) (string, bool, error) {
 func describe(v any) string {
 	switch x := v.(type) {
 	case map[string]any:
-		return "fields " + strings.Join(keys(x), ", ")
+		return "fields " + strings.Join(Keys(x), ", ")
 	case []map[string]any:
 		return fmt.Sprintf("a list of %d entries", len(x))
 	}

@@ -20,7 +20,7 @@ func FuzzInlineRef(f *testing.F) {
 		if err != nil {
 			return
 		}
-		v, err := lookup(vals, r.path)
+		v, err := Lookup(vals, r.path)
 		if err != nil {
 			return
 		}

@@ -69,10 +69,10 @@ func kindNames() []string {
 	return names
 }
 
-func lookupKind(name string) (*Kind, error) {
+func LookupKind(name string) (*Kind, error) {
 	k, ok := kinds[name]
 	if !ok {
-		return nil, fmt.Errorf("unknown directive kind %q%s", name, didYouMean(name, kindNames()))
+		return nil, fmt.Errorf("unknown directive kind %q%s", name, DidYouMean(name, kindNames()))
 	}
 	return k, nil
 }

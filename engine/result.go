@@ -1,5 +1,7 @@
 package engine
 
+import "github.com/galley-econ/galley/engine/contract"
+
 import "github.com/galley-econ/galley/engine/table"
 
 import "errors"
@@ -18,7 +20,7 @@ type Result struct {
 	// Test is the hypothesis test the result reports, in the form every
 	// consumer reads (stars, rejection, critical values); nil for
 	// results that are not one test.
-	Test   *Outcome
+	Test   *contract.Outcome
 	Number int // table or figure number in the document (1-based)
 }
 
@@ -62,3 +64,7 @@ func (f *Figure) RenderPNG(dpi int) ([]byte, error) {
 }
 
 var errNoPNG = errors.New("this figure has no PNG renderer")
+
+// FigureFolder is the folder, relative to the output folder, that
+// cmd/galley writes figures into as ID.svg, ID.pdf (and ID.png).
+const FigureFolder = "figures"

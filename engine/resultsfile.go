@@ -38,7 +38,7 @@ func (d *Document) ResultsJSON(version string) ([]byte, error) {
 		if spec == nil {
 			spec = map[string]any{}
 		}
-		rf.Results = append(rf.Results, ResultsRecord{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number, Spec: spec, Values: jsonSafe(r.Values).(map[string]any)})
+		rf.Results = append(rf.Results, ResultsRecord{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number, Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
 	}
 	if rf.Results == nil {
 		rf.Results = []ResultsRecord{}
@@ -50,9 +50,9 @@ func (d *Document) ResultsJSON(version string) ([]byte, error) {
 	return append(b, '\n'), nil
 }
 
-// jsonSafe replaces NaN and ±Inf (which JSON cannot hold) by null and the
+// JsonSafe replaces NaN and ±Inf (which JSON cannot hold) by null and the
 // strings "inf"/"-inf".
-func jsonSafe(v any) any {
+func JsonSafe(v any) any {
 	switch x := v.(type) {
 	case float64:
 		switch {
@@ -67,25 +67,25 @@ func jsonSafe(v any) any {
 	case []float64:
 		out := make([]any, len(x))
 		for i, e := range x {
-			out[i] = jsonSafe(e)
+			out[i] = JsonSafe(e)
 		}
 		return out
 	case map[string]any:
 		out := make(map[string]any, len(x))
 		for k, e := range x {
-			out[k] = jsonSafe(e)
+			out[k] = JsonSafe(e)
 		}
 		return out
 	case []map[string]any:
 		out := make([]any, len(x))
 		for i, e := range x {
-			out[i] = jsonSafe(e)
+			out[i] = JsonSafe(e)
 		}
 		return out
 	case []any:
 		out := make([]any, len(x))
 		for i, e := range x {
-			out[i] = jsonSafe(e)
+			out[i] = JsonSafe(e)
 		}
 		return out
 	}

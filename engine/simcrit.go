@@ -35,6 +35,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/simulate"
+	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/internal/atomicfile"
 )
 
@@ -64,8 +65,8 @@ type SimKeys struct {
 	Seed *int64 `yaml:"seed"`
 }
 
-// simSettings is a validated crit: simulate.
-type simSettings struct {
+// SimSettings is a validated crit: simulate.
+type SimSettings struct {
 	Reps int
 	Seed uint64
 }
@@ -77,9 +78,9 @@ var simKinds = []string{"adf", "engle-granger", "johansen", "vecm"}
 // (only meaningful after settings accepted them).
 func (k *SimKeys) simulated() bool { return strings.EqualFold(strings.TrimSpace(k.Crit), "simulate") }
 
-// settings validates the keys for a directive of kind; it returns nil
+// Settings validates the keys for a directive of kind; it returns nil
 // (and no error) when the critical values come from the tables.
-func (k *SimKeys) settings(c *Context, kind string) (*simSettings, error) {
+func (k *SimKeys) Settings(c *Context, kind string) (*SimSettings, error) {
 	switch strings.ToLower(strings.TrimSpace(k.Crit)) {
 	case "", "table":
 		if c.Has("reps") {
@@ -96,7 +97,7 @@ func (k *SimKeys) settings(c *Context, kind string) (*simSettings, error) {
 	if !slices.Contains(simKinds, kind) {
 		return nil, c.Errorf("crit", "crit: simulate is available for %s, not for %s", strings.Join(simKinds, ", "), kind)
 	}
-	s := &simSettings{Reps: DefaultSimReps, Seed: DefaultSimSeed}
+	s := &SimSettings{Reps: DefaultSimReps, Seed: DefaultSimSeed}
 	if k.Reps != nil {
 		if *k.Reps < simulate.MinReps || *k.Reps > simulate.MaxReps {
 			return nil, c.Errorf("reps", "reps must be %d..%d replications, not %d", simulate.MinReps, simulate.MaxReps, *k.Reps)
@@ -112,8 +113,8 @@ func (k *SimKeys) settings(c *Context, kind string) (*simSettings, error) {
 	return s, nil
 }
 
-// spec is the experiment for one statistic.
-func (s *simSettings) spec(test, cs string, n, t, lags int) simulate.Spec {
+// Spec is the experiment for one statistic.
+func (s *SimSettings) Spec(test, cs string, n, t, lags int) simulate.Spec {
 	return simulate.Spec{Test: test, Case: cs, N: n, T: t, Lags: lags, Reps: s.Reps, Seed: s.Seed}
 }
 
@@ -125,14 +126,14 @@ var simRuns atomic.Int64
 // this process, for tests.
 func SimRuns() int64 { return simRuns.Load() }
 
-// simProgressOut is where progress goes when Options.Progress is not set.
-var simProgressOut io.Writer = os.Stderr
+// SimProgressOut is where progress goes when Options.Progress is not set.
+var SimProgressOut io.Writer = os.Stderr
 
-// simCrit returns the simulated null distribution for sp: from the store
+// SimCrit returns the simulated null distribution for sp: from the store
 // beside the result cache when a valid entry exists, else by running the
 // simulation (and storing it). key names the manuscript key an error is
 // reported at.
-func simCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error) {
+func SimCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error) {
 	if err := sp.Validate(); err != nil {
 		return nil, c.Errorf(key, "crit: simulate: %v", strings.TrimPrefix(err.Error(), "simulate: "))
 	}
@@ -141,9 +142,9 @@ func simCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error)
 		return r, nil
 	}
 	label := fmt.Sprintf("galley: %s %s (line %d): simulating %s critical values, N=%d, T=%d, %s replications",
-		c.b.kind.Name, c.b.id, c.b.line, sp.Test, sp.N, sp.T, group(sp.Reps))
+		c.b.kind.Name, c.b.id, c.b.line, sp.Test, sp.N, sp.T, Group(sp.Reps))
 	short := fmt.Sprintf("galley: %s: %s N=%d T=%d", c.b.id, sp.Test, sp.N, sp.T)
-	pr := newSimProgress(label, c.doc.opts.Progress, simProgressOut)
+	pr := newSimProgress(label, c.doc.opts.Progress, SimProgressOut)
 	pr.short = short
 	simRuns.Add(1)
 	r, err := simulate.Run(context.Background(), sp, pr.update)
@@ -157,23 +158,23 @@ func simCrit(c *Context, key string, sp simulate.Spec) (*simulate.Result, error)
 
 // ---------------------------------------------------------------- store
 
-// simStore keeps simulated tables in <cache>/sim/, one file per
+// SimStore keeps simulated tables in <cache>/sim/, one file per
 // simulate.Spec.Key. It exists only when the document has a result cache
 // (with --no-cache nothing is read or written). A table depends only on
 // its key, which names the simulation algorithm's version, so the store
 // is not cleared when galley itself changes, nor by Cache.Fresh.
-type simStore struct{ dir string }
+type SimStore struct{ Dir string }
 
-func simStoreFor(d *Document) simStore {
+func simStoreFor(d *Document) SimStore {
 	if d.opts.Cache == nil || d.opts.Cache.Dir == "" {
-		return simStore{}
+		return SimStore{}
 	}
-	return simStore{dir: filepath.Join(d.opts.Cache.Dir, "sim")}
+	return SimStore{Dir: filepath.Join(d.opts.Cache.Dir, "sim")}
 }
 
-func (s simStore) path(key string) string {
+func (s SimStore) Path(key string) string {
 	h := sha256.Sum256([]byte(key))
-	return filepath.Join(s.dir, hex.EncodeToString(h[:])+".sim")
+	return filepath.Join(s.Dir, hex.EncodeToString(h[:])+".sim")
 }
 
 const simMagic = "galley-sim-table-1\n"
@@ -279,11 +280,11 @@ func decodeSim(raw []byte, sp simulate.Spec) (*simulate.Result, error) {
 
 // load returns the stored table of sp; a missing, corrupt or foreign
 // file is ignored (the simulation runs again and replaces it).
-func (s simStore) load(sp simulate.Spec) (*simulate.Result, bool) {
-	if s.dir == "" {
+func (s SimStore) load(sp simulate.Spec) (*simulate.Result, bool) {
+	if s.Dir == "" {
 		return nil, false
 	}
-	raw, err := os.ReadFile(s.path(sp.Key()))
+	raw, err := os.ReadFile(s.Path(sp.Key()))
 	if err != nil {
 		return nil, false
 	}
@@ -295,11 +296,11 @@ func (s simStore) load(sp simulate.Spec) (*simulate.Result, bool) {
 }
 
 // save stores r; a failure only costs a rerun next time.
-func (s simStore) save(r *simulate.Result) {
-	if s.dir == "" {
+func (s SimStore) save(r *simulate.Result) {
+	if s.Dir == "" {
 		return
 	}
-	_ = atomicfile.Write(s.path(r.Key), encodeSim(r), 0o644)
+	_ = atomicfile.Write(s.Path(r.Key), encodeSim(r), 0o644)
 }
 
 // ---------------------------------------------------------------- progress
@@ -391,8 +392,8 @@ func (p *simProgress) finish(err error) {
 
 // ---------------------------------------------------------------- values and notes
 
-// group writes n with thousands separators: 20,000.
-func group(n int) string {
+// Group writes n with thousands separators: 20,000.
+func Group(n int) string {
 	s := strconv.Itoa(n)
 	var b strings.Builder
 	for i, ch := range s {
@@ -404,18 +405,18 @@ func group(n int) string {
 	return b.String()
 }
 
-// simLevelMap keys a simulated quantity by level: {"1%": …, "2.5%": …}.
-func simLevelMap(r *simulate.Result, x []float64) map[string]any {
+// SimLevelMap keys a simulated quantity by level: {"1%": …, "2.5%": …}.
+func SimLevelMap(r *simulate.Result, x []float64) map[string]any {
 	m := map[string]any{}
 	for i, l := range r.Levels {
-		m[pct(l)] = x[i]
+		m[contract.Pct(l)] = x[i]
 	}
 	return m
 }
 
-// simCritValues are the simulated critical values in the form of the
+// SimCritValues are the simulated critical values in the form of the
 // tables' (critical.Value by level).
-func simCritValues(r *simulate.Result) []critical.Value {
+func SimCritValues(r *simulate.Result) []critical.Value {
 	out := make([]critical.Value, len(r.Levels))
 	for i, l := range r.Levels {
 		out[i] = critical.Value{Level: l, Value: r.Values[i]}
@@ -423,8 +424,8 @@ func simCritValues(r *simulate.Result) []critical.Value {
 	return out
 }
 
-// simAt is the simulated critical value at level.
-func simAt(r *simulate.Result, level float64) float64 {
+// SimAt is the simulated critical value at level.
+func SimAt(r *simulate.Result, level float64) float64 {
 	for i, l := range r.Levels {
 		if math.Abs(l-level) < 1e-9 {
 			return r.Values[i]
@@ -433,18 +434,18 @@ func simAt(r *simulate.Result, level float64) float64 {
 	return math.NaN()
 }
 
-// simMCSEText lists the Monte Carlo standard errors: "0.021 (1%), …".
-func simMCSEText(r *simulate.Result) string {
+// SimMCSEText lists the Monte Carlo standard errors: "0.021 (1%), …".
+func SimMCSEText(r *simulate.Result) string {
 	var parts []string
 	for i, l := range r.Levels {
-		parts = append(parts, strconv.FormatFloat(r.MCSE[i], 'g', 2, 64)+" ("+pct(l)+")")
+		parts = append(parts, strconv.FormatFloat(r.MCSE[i], 'g', 2, 64)+" ("+contract.Pct(l)+")")
 	}
 	return strings.Join(parts, ", ")
 }
 
-// simSource is the crit_source text of a τ test: "simulated: R
+// SimSource is the crit_source text of a τ test: "simulated: R
 // replications, seed S, T=… …".
-func simSource(r *simulate.Result, what string, chosen bool) string {
+func SimSource(r *simulate.Result, what string, chosen bool) string {
 	lag := fmt.Sprintf("%d lagged differences", r.Spec.Lags)
 	if r.Spec.Lags == 1 {
 		lag = "1 lagged difference"
@@ -453,22 +454,22 @@ func simSource(r *simulate.Result, what string, chosen bool) string {
 		lag += " (the order the criterion chose, held fixed in every replication)"
 	}
 	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d observations in the test regression, %s, %s; Monte Carlo standard errors %s",
-		group(r.Reps), r.Seed, r.NObs, what, lag, simMCSEText(r))
+		Group(r.Reps), r.Seed, r.NObs, what, lag, SimMCSEText(r))
 }
 
-// simURValues adds the simulated fields to a τ test's values.
-func simURValues(v map[string]any, r *simulate.Result, stat float64) {
-	v["crit"] = simLevelMap(r, r.Values)
-	v["crit_mcse"] = simLevelMap(r, r.MCSE)
+// SimURValues adds the simulated fields to a τ test's values.
+func SimURValues(v map[string]any, r *simulate.Result, stat float64) {
+	v["crit"] = SimLevelMap(r, r.Values)
+	v["crit_mcse"] = SimLevelMap(r, r.MCSE)
 	v["pvalue"] = r.PValue(stat)
-	v["pvalue_source"] = pSimSource(r)
+	v["pvalue_source"] = PSimSource(r)
 	v["sim_key"] = r.Key
 	v["sim"] = map[string]any{"reps": r.Reps, "seed": int(r.Seed), "t": r.NObs, "lags": r.Spec.Lags, "n": r.Spec.N}
 }
 
-func pSimSource(r *simulate.Result) string {
+func PSimSource(r *simulate.Result) string {
 	if r.Lower {
-		return fmt.Sprintf("simulated, the share of the %s replications at or below the statistic", group(r.Reps))
+		return fmt.Sprintf("simulated, the share of the %s replications at or below the statistic", Group(r.Reps))
 	}
-	return fmt.Sprintf("simulated, the share of the %s replications at or above the statistic", group(r.Reps))
+	return fmt.Sprintf("simulated, the share of the %s replications at or above the statistic", Group(r.Reps))
 }

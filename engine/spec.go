@@ -34,7 +34,7 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 		if n.Kind != yaml.MappingNode {
 			return nil // a type error that Decode will report
 		}
-		fields := yamlFields(t)
+		fields := YamlFields(t)
 		names := make([]string, 0, len(fields))
 		for k := range fields {
 			names = append(names, k)
@@ -44,7 +44,7 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 			k := n.Content[i]
 			ft, ok := fields[k.Value]
 			if !ok {
-				return fmt.Errorf("line %d: unknown key %q%s; valid keys: %s", k.Line, k.Value, didYouMean(k.Value, names), strings.Join(names, ", "))
+				return fmt.Errorf("line %d: unknown key %q%s; valid keys: %s", k.Line, k.Value, DidYouMean(k.Value, names), strings.Join(names, ", "))
 			}
 			if err := checkKeysType(n.Content[i+1], ft); err != nil {
 				return err
@@ -70,8 +70,8 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 	return nil
 }
 
-// yamlFields maps YAML keys to field types, following ",inline".
-func yamlFields(t reflect.Type) map[string]reflect.Type {
+// YamlFields maps YAML keys to field types, following ",inline".
+func YamlFields(t reflect.Type) map[string]reflect.Type {
 	out := map[string]reflect.Type{}
 	for i := 0; i < t.NumField(); i++ {
 		f := t.Field(i)
@@ -84,7 +84,7 @@ func yamlFields(t reflect.Type) map[string]reflect.Type {
 		}
 		name, opts, _ := strings.Cut(tag, ",")
 		if strings.Contains(opts, "inline") {
-			for k, v := range yamlFields(f.Type) {
+			for k, v := range YamlFields(f.Type) {
 				out[k] = v
 			}
 			continue
@@ -99,9 +99,9 @@ func yamlFields(t reflect.Type) map[string]reflect.Type {
 
 var yamlLineRE = regexp.MustCompile(`line (\d+)`)
 
-// yamlError turns a yaml.v3 error (with lines relative to the YAML text)
+// YamlError turns a yaml.v3 error (with lines relative to the YAML text)
 // into a PosError with the file line; base is the file line of YAML line 1.
-func yamlError(file string, base int, err error) error {
+func YamlError(file string, base int, err error) error {
 	msg := err.Error()
 	msg = strings.TrimPrefix(msg, "yaml: ")
 	msg = strings.TrimPrefix(msg, "unmarshal errors:\n  ")

@@ -19,8 +19,8 @@ func closest(s string, candidates []string) string {
 	return best
 }
 
-// didYouMean formats a suggestion suffix, or "".
-func didYouMean(s string, candidates []string) string {
+// DidYouMean formats a suggestion suffix, or "".
+func DidYouMean(s string, candidates []string) string {
 	if c := closest(s, candidates); c != "" {
 		return " (did you mean " + c + "?)"
 	}

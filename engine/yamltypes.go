@@ -6,13 +6,13 @@ import (
 	"gopkg.in/yaml.v3"
 )
 
-// nameList is one name or a list of names.
-type nameList []string
+// NameList is one name or a list of names.
+type NameList []string
 
-func (l *nameList) UnmarshalYAML(n *yaml.Node) error {
+func (l *NameList) UnmarshalYAML(n *yaml.Node) error {
 	switch n.Kind {
 	case yaml.ScalarNode:
-		*l = nameList{n.Value}
+		*l = NameList{n.Value}
 		return nil
 	case yaml.SequenceNode:
 		var s []string

@@ -6,9 +6,10 @@ import (
 	"path/filepath"
 	"strings"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/engine"
+	_ "github.com/galley-econ/galley/kinds"
 	"github.com/galley-econ/galley/revision"
 )
 

@@ -19,9 +19,9 @@ import (
 	"syscall"
 	"time"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
-	"github.com/galley-econ/galley/engine"
 )
 
 type watchCmd struct {

@@ -1,0 +1,264 @@
+package ecm
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/galley-econ/galley/analysis/ecm"
+	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/engine/table"
+)
+
+// ecm: a single-equation error-correction model around the long-run
+// relation of an engle-granger, dols or fmols result.
+type ecmSpec struct {
+	engine.Common `yaml:",inline"`
+	From          string   `yaml:"from"`
+	Lags          *int     `yaml:"lags"`
+	YLags         *int     `yaml:"ylags"`
+	XLags         *int     `yaml:"xlags"`
+	SE            string   `yaml:"se"`
+	Extra         []string `yaml:"extra"`
+	Sample        string   `yaml:"sample"`
+	Diagnostics   []string `yaml:"diagnostics"`
+	Decimals      *int     `yaml:"decimals"`
+}
+
+// ecmFrom are the kinds whose long-run relation an ecm can use.
+var ecmFrom = []string{"engle-granger", "dols", "fmols"}
+
+func init() {
+	engine.Register(engine.Kind{
+		Name:    "ecm",
+		Summary: "error-correction model around an estimated long-run relation, with residual diagnostics",
+		New:     func() engine.Directive { return &ecmSpec{} },
+		Fields: []string{"coef", "alpha", "alpha_se", "halflife", "halflife_se", "error_corrects", "diagnostics", "nobs", "r2", "r2_adj",
+			"sigma", "cov", "se_desc", "ylags", "xlags", "from", "y", "sample"},
+	})
+}
+
+// source is the directive named by from: and the relation it estimated.
+func (s *ecmSpec) source(c *engine.Context) (contract.LongRun, error) {
+	up, err := c.Upstream("from", s.From, ecmFrom...)
+	if err != nil {
+		return contract.LongRun{}, err
+	}
+	src, ok := up.(contract.RelationSource)
+	if !ok {
+		return contract.LongRun{}, c.Errorf("from", "%q holds no long-run relation", s.From)
+	}
+	rel := src.Relation()
+	rel.Data = c.DataAlias(rel.Data)
+	return rel, nil
+}
+
+func (s *ecmSpec) lagOrders(c *engine.Context) (p, q int, err error) {
+	p, q = 1, 1
+	if s.Lags != nil {
+		if s.YLags != nil || s.XLags != nil {
+			return 0, 0, c.Errorf("lags", "write lags (both orders) or ylags and xlags, not both")
+		}
+		p, q = *s.Lags, *s.Lags
+	}
+	if s.YLags != nil {
+		p = *s.YLags
+	}
+	if s.XLags != nil {
+		q = *s.XLags
+	}
+	for _, k := range []struct {
+		key string
+		v   int
+	}{{"lags", p}, {"ylags", p}, {"xlags", q}} {
+		if k.v < 0 && c.Has(k.key) {
+			return 0, 0, c.Errorf(k.key, "%s must be zero or more", k.key)
+		}
+	}
+	return p, q, nil
+}
+
+func (s *ecmSpec) settings(c *engine.Context) (contract.LongRun, int, int, ols.CovSpec, []engine.DiagItem, error) {
+	var cov ols.CovSpec
+	if s.From == "" {
+		return contract.LongRun{}, 0, 0, cov, nil, c.Errorf("", "galley ecm: the key \"from\" is required: the id of an engle-granger, dols or fmols result")
+	}
+	rel, err := s.source(c)
+	if err != nil {
+		return rel, 0, 0, cov, nil, err
+	}
+	p, q, err := s.lagOrders(c)
+	if err != nil {
+		return rel, 0, 0, cov, nil, err
+	}
+	if cov, err = ols.ParseCov(s.SE); err != nil {
+		return rel, 0, 0, cov, nil, c.Errorf("se", "%v", err)
+	}
+	ds, err := engine.ParseDiagnostics(c, "diagnostics", s.Diagnostics, c.Has("diagnostics"))
+	return rel, p, q, cov, ds, err
+}
+
+func (s *ecmSpec) Check(c *engine.Context) error {
+	rel, _, _, _, _, err := s.settings(c)
+	if err != nil {
+		return err
+	}
+	sample := rel.Sample
+	if s.Sample != "" {
+		sample = s.Sample
+	}
+	exprs := append(append([]string{rel.Y}, rel.X...), s.Extra...)
+	return c.CheckData(rel.Data, exprs, sample)
+}
+
+func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
+	rel, p, q, cov, items, err := s.settings(c)
+	if err != nil {
+		return nil, err
+	}
+	up, err := c.Result("from", s.From, ecmFrom...)
+	if err != nil {
+		return nil, err
+	}
+	_, ectVals, err := engine.ResidSeries(up)
+	if err != nil {
+		return nil, c.Errorf("from", "%q: %v", s.From, err)
+	}
+	sample := rel.Sample
+	if s.Sample != "" {
+		sample = s.Sample
+	}
+	exprs := append(append([]string{rel.Y}, rel.X...), s.Extra...)
+	d, err := c.DataUsing(rel.Data, exprs, sample, rel.Missing)
+	if err != nil {
+		return nil, err
+	}
+	ect := make([]float64, d.N())
+	for i, dt := range d.Dates {
+		ect[i] = math.NaN()
+		if v, ok := ectVals[dt.String()]; ok {
+			ect[i] = v
+		}
+	}
+	nx := len(rel.X)
+	in := ecm.Input{
+		Y: d.Cols[0], YName: rel.Y, X: d.Cols[1 : 1+nx], XNames: rel.X, ECT: ect,
+		Extra: d.Cols[1+nx:], ExtraNames: append([]string{}, s.Extra...),
+	}
+	m, err := ecm.Estimate(in, ecm.Spec{YLags: p, XLags: q, Cov: cov})
+	if err != nil {
+		key := "from"
+		switch {
+		case c.Has("lags") && strings.Contains(err.Error(), "observations"):
+			key = "lags"
+		case len(s.Extra) > 0 && strings.Contains(err.Error(), "collinear"):
+			key = "extra"
+		case c.Has("sample"):
+			key = "sample"
+		}
+		return nil, c.Errorf(key, "error-correction model of %s: %v", rel.Y, err)
+	}
+	diags, err := engine.RunDiagnostics(m.Fit, items, d.Freq, c.DwNull)
+	if err != nil {
+		return nil, c.Errorf("diagnostics", "%v", err)
+	}
+	dec := c.Decimals()
+	if s.Decimals != nil {
+		dec = *s.Decimals
+	}
+	unit := periodUnit(d.Freq)
+	adj := m.Adjust
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(rel.Y, 0))}}}
+	rows := engine.CoefRows(c, m.Names, m.Coef, dec, false)
+	// The half-life goes right under the adjustment coefficient (term 1:
+	// rows 2 and 3 are its estimate and standard error).
+	var hl []table.Row
+	if adj.HasHalfLife {
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life, " + unit), table.N(adj.HalfLife, dec)}}, {Cells: []table.Cell{table.Empty, table.SECell(adj.HalfLifeSE, dec)}}}
+	} else {
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life"), table.T("none: no error correction")}}}
+	}
+	body := append([]table.Row{}, rows[:4]...)
+	body = append(body, hl...)
+	body = append(body, rows[4:]...)
+	body = append(body,
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(m.Fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(m.Fit.R2(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(m.Fit.R2Adj(), dec)}},
+	)
+	body = append(body, engine.DiagRows(diags, dec)...)
+	t.Body = body
+	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
+	t.Notes = []string{
+		fmt.Sprintf("Dependent variable: %s, the first difference of %s. Least squares; %s in parentheses; t-ratios compared with the standard normal distribution, since every regressor is stationary when the variables cointegrate.", ecm.DiffName(rel.Y, 0), rel.Y, cov.Describe()),
+		fmt.Sprintf("%s is the equilibrium error of %q (%s) lagged one period; d.v(-j) is the j-th lag of the first difference of v. Lags of d.%s: %d; differences of the regressors at lags 0 to %d.", ecm.ECTName, s.From, fromDesc(up.Kind), rel.Y, p, q),
+		halfLifeNote(adj, unit),
+	}
+	if n := engine.DiagNote(diags); n != "" {
+		t.Notes = append(t.Notes, n)
+	}
+	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	if w := engine.CondNote(m.Fit); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+	vals := map[string]any{
+		"coef": engine.CoefValues(m.Names, m.Coef), "alpha": adj.Alpha, "alpha_se": adj.SE,
+		"halflife": nil, "halflife_se": nil, "error_corrects": adj.HasHalfLife,
+		"diagnostics": engine.DiagValues(diags), "nobs": m.Fit.N, "r2": m.Fit.R2(), "r2_adj": m.Fit.R2Adj(),
+		"sigma": math.Sqrt(m.Fit.Sigma2()), "cov": cov.String(), "se_desc": cov.Describe(),
+		"ylags": p, "xlags": q, "from": s.From, "y": ecm.DiffName(rel.Y, 0),
+		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
+	}
+	if adj.HasHalfLife {
+		vals["halflife"], vals["halflife_se"] = adj.HalfLife, adj.HalfLifeSE
+	}
+	// The dependent variable and its fitted values, for actual-vs-fitted figures.
+	actual := make([]float64, m.Fit.N)
+	for i := range actual {
+		actual[i] = m.Fit.Fitted[i] + m.Fit.Resid[i]
+	}
+	vals["actual"] = engine.DatedValues(sd.Dates, actual)
+	vals["fitted"] = engine.DatedValues(sd.Dates, m.Fit.Fitted)
+	return &engine.Result{Table: t, Values: vals}, nil
+}
+
+func periodUnit(f series.Freq) string {
+	switch f {
+	case series.Monthly:
+		return "months"
+	case series.Quarterly:
+		return "quarters"
+	case series.Annual:
+		return "years"
+	}
+	return "periods"
+}
+
+func fromDesc(kind string) string {
+	switch kind {
+	case "engle-granger":
+		return "the residual of the Engle–Granger static regression"
+	case "dols":
+		return "the residual of the DOLS long-run relation"
+	case "fmols":
+		return "the residual of the FMOLS long-run relation"
+	}
+	return kind
+}
+
+func halfLifeNote(a ecm.Adjustment, unit string) string {
+	if !a.HasHalfLife {
+		if a.Alpha >= 0 {
+			return fmt.Sprintf("The adjustment coefficient α = %.3g is not negative: deviations from the long-run relation do not die out, so the model does not error-correct and no half-life is given.", a.Alpha)
+		}
+		return fmt.Sprintf("The adjustment coefficient α = %.3g is −2 or below: deviations overshoot with growing amplitude, so the model does not error-correct and no half-life is given.", a.Alpha)
+	}
+	s := fmt.Sprintf("Half-life of a deviation from the long-run relation, ln 0.5 / ln|1 + α|, in %s, with its delta-method standard error beneath.", unit)
+	if a.Alpha < -1 {
+		s += " With α below −1 the deviation overshoots; the half-life is that of its amplitude."
+	}
+	return s
+}

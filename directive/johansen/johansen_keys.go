@@ -1,0 +1,323 @@
+package johansen
+
+import (
+	"fmt"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+
+	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/engine"
+)
+
+// The YAML types of the johansen, vecm and var-lags keys, and their
+// settings checked and resolved against the data.
+
+// sysLags is the `lags:` key of a VECM: a number of lagged differences
+// (`lags: 1`), a criterion with the default maximum (`lags: bic`), or a
+// criterion with a maximum (`lags: {select: aic, max: 8}`).
+type sysLags struct{ engine.LagChoice }
+
+func (l *sysLags) UnmarshalYAML(n *yaml.Node) error {
+	return l.Decode(n, func(s string) error {
+		if !slices.Contains(sysCriteria, strings.ToLower(s)) {
+			return fmt.Errorf("select must be aic, bic or hq, not %q", s)
+		}
+		return nil
+	}, "lags: write a number of lagged differences, a criterion (aic, bic, hq), or {select: aic, max: 8}")
+}
+
+var sysCriteria = []string{"aic", "bic", "hq"}
+
+// sysHypotheses is the `restrict:` key: a mapping from a test's name to one
+// linear equation on the coefficients of every cointegrating relation, or a
+// list of them tested jointly:
+//
+//	restrict:
+//	  homogeneity: "log(south) = -log(north)"
+//	  no_const: ["const = 0"]
+type sysHypotheses []sysHypothesis
+
+type sysHypothesis struct {
+	Name      string
+	Equations []string
+	Line      int
+}
+
+func (h *sysHypotheses) UnmarshalYAML(n *yaml.Node) error {
+	if n.Kind != yaml.MappingNode {
+		return fmt.Errorf("line %d: restrict: write a mapping from a test name to an equation, e.g. homogeneity: \"log(a) = -log(b)\"", n.Line)
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		if !engine.ValidID(k.Value) {
+			return fmt.Errorf("line %d: restrict: test name %q: use letters, digits, '_' and '-', starting with a letter", k.Line, k.Value)
+		}
+		var eq engine.NameList
+		if err := eq.UnmarshalYAML(v); err != nil {
+			return fmt.Errorf("line %d: restrict: %s: write an equation or a list of equations", v.Line, k.Value)
+		}
+		if len(eq) == 0 {
+			return fmt.Errorf("line %d: restrict: %s has no equation", v.Line, k.Value)
+		}
+		*h = append(*h, sysHypothesis{Name: k.Value, Equations: eq, Line: k.Line})
+	}
+	return nil
+}
+
+// sysSettings are the validated keys.
+type sysSettings struct {
+	Case        johansen.Case
+	Level       float64
+	Names       []string // series expressions as written
+	Coefs       []string // names of the rows of β: the series, then const or trend
+	Rows        [][]sysRestr
+	Exog        [][]int
+	SmallSample bool
+}
+
+// sysRestr is one parsed equation: a row of R' in R'β = 0.
+type sysRestr struct {
+	Text string
+	Row  []float64
+}
+
+func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
+	var st sysSettings
+	if len(k.Series) < 2 {
+		return st, c.Errorf("series", "a cointegrated system needs at least two series; series lists %d", len(k.Series))
+	}
+	st.Names = k.Series
+	for i, a := range k.Series {
+		for _, b := range k.Series[:i] {
+			if normName(a) == normName(b) {
+				return st, c.Errorf("series", "series %q is listed twice; the moment matrices would be singular", a)
+			}
+		}
+	}
+	det := k.Det
+	if det == "" {
+		det = "c"
+	}
+	var err error
+	if st.Case, err = johansen.ParseCase(det); err != nil {
+		return st, c.Errorf("det", "det: %q is not a case; write n, rc, c, rt or ct", k.Det)
+	}
+	if !k.Lags.Set {
+		return st, c.Errorf("", "galley %s: the key \"lags\" is required (a number of lagged differences, or aic, bic or hq)", c.Kind())
+	}
+	st.Level = 0.05
+	if k.Level != nil {
+		st.Level = *k.Level
+		if !slices.Contains(johansen.Levels[:], st.Level) {
+			return st, c.Errorf("level", "level must be 0.10, 0.05 or 0.01 (the levels the critical values are tabulated at), not %g", st.Level)
+		}
+	}
+	K := len(k.Series)
+	if k.Rank != nil && (*k.Rank < 1 || *k.Rank > K-1) {
+		return st, c.Errorf("rank", "rank %d is outside 1..K−1 = 1..%d for %d series", *k.Rank, K-1, K)
+	}
+	if len(k.Normalize) > K-1 {
+		return st, c.Errorf("normalize", "normalize names %d series; there can be at most K−1 = %d relations", len(k.Normalize), K-1)
+	}
+	seen := map[int]bool{}
+	for _, n := range k.Normalize {
+		i, err := seriesIndex(n, k.Series)
+		if err != nil {
+			return st, c.Errorf("normalize", "normalize: %v", err)
+		}
+		if seen[i] {
+			return st, c.Errorf("normalize", "normalize: %q is named twice", n)
+		}
+		seen[i] = true
+	}
+	if k.Rank != nil && len(k.Normalize) > *k.Rank {
+		return st, c.Errorf("normalize", "normalize names %d series for rank %d; name at most one per relation", len(k.Normalize), *k.Rank)
+	}
+	st.Coefs = slices.Clone(k.Series)
+	switch st.Case {
+	case johansen.RC:
+		st.Coefs = append(st.Coefs, "const")
+	case johansen.RT:
+		st.Coefs = append(st.Coefs, "trend")
+	}
+	for _, h := range k.Restrict {
+		var rows []sysRestr
+		for _, e := range h.Equations {
+			row, err := ParseRestriction(e, st.Coefs, st.Case)
+			if err != nil {
+				return st, c.Errorf("restrict", "restrict: %s: %v", h.Name, err)
+			}
+			rows = append(rows, sysRestr{Text: e, Row: row})
+		}
+		st.Rows = append(st.Rows, rows)
+	}
+	for _, ex := range k.Exogenous {
+		var idx []int
+		for _, n := range ex {
+			i, err := seriesIndex(n, k.Series)
+			if err != nil {
+				return st, c.Errorf("exogenous", "exogenous: %v", err)
+			}
+			idx = append(idx, i)
+		}
+		if len(idx) == 0 {
+			return st, c.Errorf("exogenous", "exogenous: an empty list")
+		}
+		st.Exog = append(st.Exog, idx)
+	}
+	names := map[string]bool{}
+	for _, n := range k.testNames() {
+		if names[n] {
+			return st, c.Errorf("restrict", "two restriction tests are both called %q", n)
+		}
+		names[n] = true
+	}
+	st.SmallSample = k.SmallSample
+	// crit: simulate (simcrit.go)
+	if sim, err := k.SimKeys.Settings(c, c.Kind()); err != nil {
+		return st, err
+	} else if sim != nil && k.SmallSample {
+		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")
+	}
+	return st, nil
+}
+
+// testNames are the names of the restriction tests, in table order: the
+// restrict: entries, then one exog(...) per exogenous: entry.
+func (k *SystemKeys) testNames() []string {
+	var out []string
+	for _, h := range k.Restrict {
+		out = append(out, h.Name)
+	}
+	for _, ex := range k.Exogenous {
+		var parts []string
+		for _, n := range ex {
+			parts = append(parts, normName(n))
+		}
+		out = append(out, "exog("+strings.Join(parts, ",")+")")
+	}
+	return out
+}
+
+func normName(s string) string { return strings.Join(strings.Fields(s), "") }
+
+func seriesIndex(name string, series []string) (int, error) {
+	for i, s := range series {
+		if normName(s) == normName(name) {
+			return i, nil
+		}
+	}
+	return 0, fmt.Errorf("%q is not one of the series%s (%s)", name, engine.DidYouMean(name, series), strings.Join(series, ", "))
+}
+
+var coefTermRE = regexp.MustCompile(`^([0-9]*\.?[0-9]+(?:[eE][-+]?[0-9]+)?)?\s*\*?\s*(.*)$`)
+
+// ParseRestriction reads one linear equation on the coefficients of a
+// cointegrating relation, such as "log(north) = -log(fuel)",
+// "log(south) - log(north) = 0" or "const = 0", into the row r of R' in
+// R'β = 0: each side is a sum of terms [±][number[*]]name, a name being one
+// of coefs (whitespace ignored), or the number 0.
+func ParseRestriction(eq string, coefs []string, cs johansen.Case) ([]float64, error) {
+	lhs, rhs, ok := strings.Cut(eq, "=")
+	if !ok || strings.Contains(rhs, "=") {
+		return nil, fmt.Errorf("%q: write one equation with a single '=', e.g. \"log(a) = -log(b)\"", eq)
+	}
+	row := make([]float64, len(coefs))
+	for side, text := range []string{lhs, rhs} {
+		sign := 1.0
+		if side == 1 {
+			sign = -1
+		}
+		terms, err := splitTerms(text)
+		if err != nil {
+			return nil, fmt.Errorf("%q: %v", eq, err)
+		}
+		for _, t := range terms {
+			m := coefTermRE.FindStringSubmatch(t.text)
+			w := 1.0
+			if m[1] != "" {
+				w, _ = strconv.ParseFloat(m[1], 64)
+			}
+			name := normName(m[2])
+			if name == "" {
+				if w != 0 {
+					return nil, fmt.Errorf("%q: restrictions on β are homogeneous; a constant other than 0 cannot appear (write the restricted constant as const)", eq)
+				}
+				continue
+			}
+			i := slices.IndexFunc(coefs, func(c string) bool { return normName(c) == name })
+			if i < 0 {
+				hint := ""
+				if name == "const" || name == "trend" {
+					hint = fmt.Sprintf("; β has a %s row only in case %s (this is case %s)", name, map[string]string{"const": "rc", "trend": "rt"}[name], cs)
+				}
+				return nil, fmt.Errorf("%q: %q is not a coefficient of the relations%s (%s)%s", eq, m[2], engine.DidYouMean(m[2], coefs), strings.Join(coefs, ", "), hint)
+			}
+			row[i] += sign * t.sign * w
+		}
+	}
+	if slices.IndexFunc(row, func(v float64) bool { return v != 0 }) < 0 {
+		return nil, fmt.Errorf("%q restricts nothing (its coefficients cancel)", eq)
+	}
+	return row, nil
+}
+
+type signedTerm struct {
+	sign float64
+	text string
+}
+
+// splitTerms splits a sum at its top-level + and − signs (not inside
+// parentheses, not in a number's exponent).
+func splitTerms(s string) ([]signedTerm, error) {
+	var out []signedTerm
+	depth, start := 0, 0
+	sign := 1.0
+	flush := func(end int) error {
+		t := strings.TrimSpace(s[start:end])
+		if t == "" {
+			return fmt.Errorf("a term is missing")
+		}
+		out = append(out, signedTerm{sign, t})
+		return nil
+	}
+	s = strings.ReplaceAll(s, "−", "-")
+	for i, r := range s {
+		switch r {
+		case '(':
+			depth++
+		case ')':
+			depth--
+		case '+', '-':
+			if depth != 0 || (i > 0 && (s[i-1] == 'e' || s[i-1] == 'E') && i > 1 && s[i-2] >= '0' && s[i-2] <= '9') {
+				continue
+			}
+			if strings.TrimSpace(s[start:i]) == "" && len(out) == 0 {
+				if r == '-' {
+					sign = -sign
+				}
+				start = i + 1
+				continue
+			}
+			if err := flush(i); err != nil {
+				return nil, err
+			}
+			sign = 1
+			if r == '-' {
+				sign = -1
+			}
+			start = i + 1
+		}
+	}
+	if depth != 0 {
+		return nil, fmt.Errorf("unbalanced parentheses")
+	}
+	if err := flush(len(s)); err != nil {
+		return nil, err
+	}
+	return out, nil
+}

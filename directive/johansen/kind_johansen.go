@@ -1,0 +1,152 @@
+package johansen
+
+import (
+	"fmt"
+	"slices"
+	"strconv"
+	"strings"
+
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/engine/table"
+)
+
+// This file holds the system-cointegration directives:
+//
+//	johansen  the trace and maximum-eigenvalue rank tests (one row per rank);
+//	vecm      the estimated relations β, loadings α and restriction tests
+//	          (show: relations), or the short-run coefficients (show: short-run),
+//	          from a johansen result (from: ID) or from the same keys;
+//	var-lags  the lag-order table of the VAR in levels (AIC, BIC, HQ).
+//
+// The pieces: johansen_keys.go (the YAML types and settings),
+// johansen_run.go (running a system and its values), kind_vecm.go (vecm
+// and var-lags); this file registers the kinds and lays out the rank table.
+
+// SystemKeys are the analysis keys shared by johansen and vecm (exported
+// only so that the YAML decoder sees the embedded fields).
+type SystemKeys struct {
+	Data        string            `yaml:"data"`
+	Series      []string          `yaml:"series"`
+	Det         string            `yaml:"det"`
+	Lags        sysLags           `yaml:"lags"`
+	Sample      string            `yaml:"sample"`
+	SmallSample bool              `yaml:"small_sample"`
+	Level       *float64          `yaml:"level"`
+	Rank        *int              `yaml:"rank"`
+	Normalize   engine.NameList   `yaml:"normalize"`
+	Restrict    sysHypotheses     `yaml:"restrict"`
+	Exogenous   []engine.NameList `yaml:"exogenous"`
+	Decimals    *int              `yaml:"decimals"`
+
+	engine.SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
+}
+
+type johansenSpec struct {
+	engine.Common `yaml:",inline"`
+	SystemKeys    `yaml:",inline"`
+
+	state *sysState // set by Run, read by vecm directives that name this one
+}
+
+type vecmSpec struct {
+	engine.Common `yaml:",inline"`
+	SystemKeys    `yaml:",inline"`
+	From          string `yaml:"from"`
+	Show          string `yaml:"show"`
+}
+
+type varLagsSpec struct {
+	engine.Common `yaml:",inline"`
+	Data          string   `yaml:"data"`
+	Series        []string `yaml:"series"`
+	Det           string   `yaml:"det"`
+	Max           *int     `yaml:"max"`
+	Sample        string   `yaml:"sample"`
+	Decimals      *int     `yaml:"decimals"`
+}
+
+var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
+	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
+	"relations", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+
+func init() {
+	engine.Register(engine.Kind{Name: "johansen", Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
+		New: func() engine.Directive { return &johansenSpec{} }, Fields: sysFields})
+	engine.Register(engine.Kind{Name: "vecm", Summary: "vector error-correction model: cointegrating relations, loadings, restriction tests or short-run coefficients",
+		New: func() engine.Directive { return &vecmSpec{} }, Fields: append(slices.Clone(sysFields), "short", "show")})
+	engine.Register(engine.Kind{Name: "var-lags", Summary: "lag-order criteria (AIC, BIC, HQ) of the VAR in levels behind a VECM",
+		New: func() engine.Directive { return &varLagsSpec{} }, Fields: []string{"rows", "aic", "bic", "hq", "nobs", "max", "det", "series", "sample"}})
+}
+
+func (s *johansenSpec) Check(c *engine.Context) error {
+	if err := c.Require("series", len(s.Series) == 0); err != nil {
+		return err
+	}
+	if _, err := s.settings(c); err != nil {
+		return err
+	}
+	return c.CheckData(c.DataAlias(s.Data), s.Series, s.Sample)
+}
+
+func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
+	st, err := s.run(c)
+	if err != nil {
+		return nil, err
+	}
+	s.state = st
+	dec := c.Decimals()
+	if s.Decimals != nil {
+		dec = *s.Decimals
+	}
+	r := st.res
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{
+		{table.Empty, table.Empty, table.Span("Trace", 4), table.Span("Maximum eigenvalue", 4)},
+		{table.T("Rank r"), table.T("Eigenvalue"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")},
+	}}
+	stars := func(stat float64, cv [3]float64) int {
+		n := 0
+		for _, v := range cv {
+			if stat > v {
+				n++
+			}
+		}
+		return n
+	}
+	for i := 0; i < r.K; i++ {
+		row := []table.Cell{table.T(strconv.Itoa(i)), table.N(r.Eigenvalues[i], dec), table.Starred(st.trace[i], 2, stars(st.trace[i], st.crT[i]))}
+		for _, v := range st.crT[i] {
+			row = append(row, table.N(v, 2))
+		}
+		row = append(row, table.Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
+		for _, v := range st.crM[i] {
+			row = append(row, table.N(v, 2))
+		}
+		t.Body = append(t.Body, table.Row{Cells: row})
+	}
+	t.Notes = []string{sysNote(st, s.Lags.Select)}
+	if st.sim != nil { // crit: simulate (simcrit.go)
+		t.Notes = append(t.Notes, st.sim.mcseNote())
+	}
+	if s.SmallSample {
+		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))
+	}
+	t.Notes = append(t.Notes, "*, **, ***: the statistic exceeds its 10%, 5%, 1% critical value. "+st.d.SampleNote())
+	return &engine.Result{Table: t, Values: st.values()}, nil
+}
+
+// sysNote is the main note under the rank-test table.
+func sysNote(st *sysState, sel string) string {
+	r := st.res
+	var b strings.Builder
+	fmt.Fprintf(&b, "VECM in %s with %s (case %s) and %s; T = %d observations (%s–%s). ",
+		strings.Join(st.st.Names, ", "), sysCaseText[r.Case], r.Case, st.lagPhrase(sel), r.T,
+		st.d.Dates[r.Lags+1], st.d.Dates[st.d.N()-1])
+	fmt.Fprintf(&b, "The trace statistic tests rank r against %d, the maximum-eigenvalue statistic r against r + 1; critical values: %s. ", r.K, st.critText()) // critText: simcrit.go
+	fmt.Fprintf(&b, "Testing r = 0, 1, … in turn with the trace statistic at %s gives rank %d", contract.Pct(st.st.Level), st.chosen)
+	if st.rank != st.chosen && st.rank > 0 {
+		fmt.Fprintf(&b, "; the estimates use rank %d as set by the author", st.rank)
+	}
+	b.WriteString(".")
+	return b.String()
+}

@@ -1,0 +1,546 @@
+package longrun
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/longrun"
+	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/engine/table"
+)
+
+// dols and fmols: estimates of a cointegrating relation with valid
+// standard errors, and Wald tests of restrictions on it.
+type dolsSpec struct {
+	engine.Common `yaml:",inline"`
+	Data          string   `yaml:"data"`
+	Y             string   `yaml:"y"`
+	X             []string `yaml:"x"`
+	Det           string   `yaml:"det"`
+	Sample        string   `yaml:"sample"`
+	SE            string   `yaml:"se"`
+	Leads         *int     `yaml:"leads"`
+	Lags          *int     `yaml:"lags"`
+	Select        string   `yaml:"select"`
+	Max           *int     `yaml:"max"`
+	Restrict      []string `yaml:"restrict"`
+	Decimals      *int     `yaml:"decimals"`
+}
+
+type fmolsSpec struct {
+	engine.Common `yaml:",inline"`
+	Data          string   `yaml:"data"`
+	Y             string   `yaml:"y"`
+	X             []string `yaml:"x"`
+	Det           string   `yaml:"det"`
+	Sample        string   `yaml:"sample"`
+	Kernel        string   `yaml:"kernel"`
+	Bandwidth     string   `yaml:"bandwidth"`
+	Restrict      []string `yaml:"restrict"`
+	Decimals      *int     `yaml:"decimals"`
+}
+
+var longrunFields = []string{"coef", "nobs", "wald", "leads", "lags", "bandwidth", "kernel", "r2", "cov", "se_desc",
+	"select", "det", "y", "x", "sample", "resid", "dynamics", "hac_lags"}
+
+func init() {
+	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: longrunFields,
+		New: func() engine.Directive { return &dolsSpec{} }})
+	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: longrunFields,
+		New: func() engine.Directive { return &fmolsSpec{} }})
+}
+
+// Relation says where the long-run relation was estimated.
+func (s *dolsSpec) Relation() contract.LongRun {
+	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
+}
+
+// Relation says where the long-run relation was estimated.
+func (s *fmolsSpec) Relation() contract.LongRun {
+	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
+}
+
+// checkRelation checks the keys both estimators share.
+func checkRelation(c *engine.Context, kind, data, y string, x []string, det, sample string, restrict []string) error {
+	if err := c.Require("y", y == ""); err != nil {
+		return err
+	}
+	if len(x) == 0 {
+		return c.Errorf("", "galley %s: the key \"x\" is required (one or more regressors)", kind)
+	}
+	if _, err := engine.ParseDet(c, det); err != nil {
+		return err
+	}
+	if _, err := parseRestrictions(c, restrict, x); err != nil {
+		return err
+	}
+	return c.CheckData(c.DataAlias(data), append([]string{y}, x...), sample)
+}
+
+// dolsSettings are the lead/lag choice and the covariance of a dols spec;
+// T is the sample size (0 while checking).
+type dolsSettings struct {
+	spec    longrun.DOLSSpec
+	autoHAC bool
+}
+
+func (s *dolsSpec) settings(c *engine.Context, T int) (dolsSettings, error) {
+	var st dolsSettings
+	det, err := engine.ParseDet(c, s.Det)
+	if err != nil {
+		return st, err
+	}
+	st.spec.Det = det
+	fixed := s.Leads != nil || s.Lags != nil
+	switch strings.ToLower(s.Select) {
+	case "":
+		if fixed {
+			st.spec.Select = longrun.Fixed
+		} else {
+			st.spec.Select = longrun.AIC
+		}
+	case "aic":
+		st.spec.Select = longrun.AIC
+	case "bic":
+		st.spec.Select = longrun.BIC
+	default:
+		return st, c.Errorf("select", "select: write aic or bic (or give leads and lags instead)")
+	}
+	if fixed && s.Select != "" {
+		return st, c.Errorf("select", "give either fixed leads and lags or select, not both")
+	}
+	if fixed {
+		switch {
+		case s.Leads == nil:
+			st.spec.Leads, st.spec.Lags = *s.Lags, *s.Lags
+		case s.Lags == nil:
+			st.spec.Leads, st.spec.Lags = *s.Leads, *s.Leads
+		default:
+			st.spec.Leads, st.spec.Lags = *s.Leads, *s.Lags
+		}
+		if st.spec.Leads < 0 || st.spec.Lags < 0 {
+			key := "lags"
+			if s.Leads != nil && *s.Leads < 0 {
+				key = "leads"
+			}
+			return st, c.Errorf(key, "leads and lags must be zero or more")
+		}
+		if s.Max != nil {
+			return st, c.Errorf("max", "max bounds a selection (select: aic or bic); with fixed leads and lags it does not apply")
+		}
+	} else {
+		mx := int(math.Floor(4 * math.Pow(float64(T)/100, 0.25)))
+		if s.Max != nil {
+			if *s.Max < 0 {
+				return st, c.Errorf("max", "max must be zero or more")
+			}
+			mx = *s.Max
+		}
+		st.spec.MaxLeads, st.spec.MaxLags = mx, mx
+	}
+	se := strings.ToLower(strings.ReplaceAll(s.SE, " ", ""))
+	if se == "" || se == "hac" {
+		st.autoHAC = true
+		st.spec.Cov = ols.CovSpec{Kind: ols.HAC, Lags: int(math.Floor(4 * math.Pow(float64(T)/100, 2.0/9)))}
+	} else if st.spec.Cov, err = ols.ParseCov(s.SE); err != nil {
+		return st, c.Errorf("se", "%v (or hac for an automatic lag)", err)
+	}
+	return st, nil
+}
+
+func (s *dolsSpec) Check(c *engine.Context) error {
+	if err := checkRelation(c, "dols", s.Data, s.Y, s.X, s.Det, s.Sample, s.Restrict); err != nil {
+		return err
+	}
+	_, err := s.settings(c, 0)
+	return err
+}
+
+func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
+	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	if err != nil {
+		return nil, err
+	}
+	st, err := s.settings(c, d.N())
+	if err != nil {
+		return nil, err
+	}
+	restr, _ := parseRestrictions(c, s.Restrict, s.X)
+	r, err := longrun.DOLS(d.Cols[0], d.Cols[1:], s.X, st.spec)
+	if err != nil {
+		key := ""
+		if c.Has("leads") || c.Has("lags") || c.Has("max") {
+			key = "lags"
+		}
+		return nil, c.Errorf(key, "DOLS of %s on %s: %v", s.Y, strings.Join(s.X, ", "), err)
+	}
+	nd := st.spec.Det.Deterministics()
+	k := len(s.X)
+	terms := r.Names[:nd+k]
+	coefs := r.Table[:nd+k]
+	walds, err := runWald(c, restr, r.LongRun)
+	if err != nil {
+		return nil, err
+	}
+	dec := engine.DecimalsOr(c, s.Decimals)
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
+	t.Body = longRunRows(c, terms, coefs, nd, dec)
+	t.Body = append(t.Body,
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.Fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("Leads of Δx"), table.I(r.Leads)}},
+		table.Row{Cells: []table.Cell{table.T("Lags of Δx"), table.I(r.Lags)}},
+	)
+	t.Body = append(t.Body, waldRows(walds, dec)...)
+	sd := &engine.Data{Dates: d.Dates[r.First : r.Last+1]}
+	choice := fmt.Sprintf("fixed at %d leads and %d lags", r.Leads, r.Lags)
+	if st.spec.Select != longrun.Fixed {
+		choice = fmt.Sprintf("chosen by %s over 0–%d leads and 0–%d lags on a common sample, then re-estimated on the full sample", map[longrun.Selector]string{longrun.AIC: "AIC", longrun.BIC: "BIC"}[st.spec.Select], st.spec.MaxLeads, st.spec.MaxLags)
+	}
+	seNote := st.spec.Cov.Describe()
+	if st.autoHAC {
+		seNote += fmt.Sprintf(", the lag being the integer part of 4(T/100)^(2/9) with T = %d", d.N())
+	}
+	t.Notes = []string{
+		fmt.Sprintf("Dynamic OLS of %s on %s, with leads and lags of the differenced regressors (not shown), %s. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
+			s.Y, strings.Join(s.X, ", "), choice, contract.DetNames[st.spec.Det], seNote),
+	}
+	if st.spec.Cov.Kind != ols.HAC {
+		t.Notes = append(t.Notes, "Warning: DOLS inference needs a long-run (HAC) variance; these standard errors are valid only if the regression errors are serially uncorrelated.")
+	}
+	if w := waldNote(walds); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	var dyn []map[string]any
+	if len(r.Names) > nd+k {
+		dyn = engine.CoefValues(r.Names[nd+k:], r.Table[nd+k:])
+	}
+	sel := "fixed"
+	if st.spec.Select == longrun.AIC {
+		sel = "aic"
+	} else if st.spec.Select == longrun.BIC {
+		sel = "bic"
+	}
+	vals := map[string]any{
+		"coef": engine.CoefValues(terms, coefs), "nobs": r.Fit.N, "wald": waldValues(walds), "leads": r.Leads, "lags": r.Lags,
+		"r2": r.Fit.R2(), "cov": st.spec.Cov.String(), "se_desc": seNote, "select": sel, "det": st.spec.Det.String(),
+		"y": s.Y, "x": append([]string(nil), s.X...), "dynamics": dyn,
+		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
+		"resid":  engine.ResidValues(d, 0, relationResid(d, st.spec.Det, r.Fit.Coef[:nd+k])),
+	}
+	if st.spec.Cov.Kind == ols.HAC {
+		// b = L + 1 is the Bartlett bandwidth with the weights of L HAC
+		// lags, the same scale as fmols's bandwidth.
+		vals["bandwidth"] = st.spec.Cov.Lags + 1
+		vals["hac_lags"] = st.spec.Cov.Lags
+		vals["kernel"] = "bartlett"
+	}
+	return &engine.Result{Table: t, Values: vals}, nil
+}
+
+func (s *fmolsSpec) settings(c *engine.Context) (longrun.FMOLSSpec, error) {
+	var sp longrun.FMOLSSpec
+	det, err := engine.ParseDet(c, s.Det)
+	if err != nil {
+		return sp, err
+	}
+	sp.Det = det
+	switch strings.ToLower(s.Kernel) {
+	case "", "bartlett":
+		sp.Kernel = longrun.Bartlett
+	case "qs", "quadratic-spectral":
+		sp.Kernel = longrun.QuadraticSpectral
+	default:
+		return sp, c.Errorf("kernel", "kernel: write bartlett or qs (quadratic spectral)")
+	}
+	switch b := strings.ToLower(strings.TrimSpace(s.Bandwidth)); b {
+	case "", "auto":
+	default:
+		v, err := strconv.ParseFloat(b, 64)
+		if err != nil || !(v > 0) || math.IsInf(v, 0) {
+			return sp, c.Errorf("bandwidth", "bandwidth: write auto (Andrews 1991) or a positive number")
+		}
+		sp.Bandwidth = v
+	}
+	return sp, nil
+}
+
+func (s *fmolsSpec) Check(c *engine.Context) error {
+	if err := checkRelation(c, "fmols", s.Data, s.Y, s.X, s.Det, s.Sample, s.Restrict); err != nil {
+		return err
+	}
+	_, err := s.settings(c)
+	return err
+}
+
+func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
+	sp, err := s.settings(c)
+	if err != nil {
+		return nil, err
+	}
+	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	if err != nil {
+		return nil, err
+	}
+	restr, _ := parseRestrictions(c, s.Restrict, s.X)
+	r, err := longrun.FMOLS(d.Cols[0], d.Cols[1:], s.X, sp)
+	if err != nil {
+		return nil, c.Errorf("x", "FMOLS of %s on %s: %v", s.Y, strings.Join(s.X, ", "), err)
+	}
+	nd := sp.Det.Deterministics()
+	walds, err := runWald(c, restr, r.LongRun)
+	if err != nil {
+		return nil, err
+	}
+	dec := engine.DecimalsOr(c, s.Decimals)
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
+	t.Body = longRunRows(c, r.Names, r.Table, nd, dec)
+	t.Body = append(t.Body,
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("Bandwidth"), table.N(r.Bandwidth, 2)}},
+	)
+	t.Body = append(t.Body, waldRows(walds, dec)...)
+	sd := &engine.Data{Dates: d.Dates[r.First:]}
+	bwText := fmt.Sprintf("bandwidth %.2f chosen by Andrews' (1991) AR(1) rule", r.Bandwidth)
+	if sp.Bandwidth > 0 {
+		bwText = fmt.Sprintf("bandwidth %g as given", sp.Bandwidth)
+	}
+	kname := map[longrun.Kernel]string{longrun.Bartlett: "Bartlett", longrun.QuadraticSpectral: "quadratic-spectral"}[sp.Kernel]
+	seDesc := fmt.Sprintf("FMOLS, from the long-run variance of the equilibrium error given the regressors' innovations (%s kernel, %s)", kname, bwText)
+	t.Notes = []string{
+		fmt.Sprintf("Fully modified OLS of %s on %s, correcting for endogeneity and serial correlation. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
+			s.Y, strings.Join(s.X, ", "), contract.DetNames[sp.Det], seDesc),
+	}
+	if w := waldNote(walds); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	vals := map[string]any{
+		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds),
+		"bandwidth": r.Bandwidth, "kernel": strings.ToLower(kname), "cov": "fmols", "se_desc": seDesc, "det": sp.Det.String(),
+		"y": s.Y, "x": append([]string(nil), s.X...),
+		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
+		"resid":  engine.ResidValues(d, 0, relationResid(d, sp.Det, r.Coef)),
+	}
+	return &engine.Result{Table: t, Values: vals}, nil
+}
+
+// longRunRows shows the long-run coefficients first, then the
+// deterministic terms (terms holds the deterministic terms first).
+func longRunRows(c *engine.Context, terms []string, coefs []ols.Coef, nd, dec int) []table.Row {
+	rows := engine.CoefRows(c, terms[nd:], coefs[nd:], dec, false)
+	if nd > 0 {
+		det := engine.CoefRows(c, terms[:nd], coefs[:nd], dec, false)
+		det[0].RuleAbove = true
+		rows = append(rows, det...)
+	}
+	return rows
+}
+
+// relationResid is the equilibrium error y_t − d_t'δ̂ − x_t'β̂ over the
+// whole sample of d, with the trend counted t = 1, 2, … from its first
+// observation (as in package longrun); coef holds δ̂ then β̂.
+func relationResid(d *engine.Data, det critical.Case, coef []float64) []float64 {
+	nd := det.Deterministics()
+	out := make([]float64, d.N())
+	for t := range out {
+		s := float64(t + 1)
+		v := d.Cols[0][t]
+		for j := 0; j < nd; j++ {
+			v -= coef[j] * math.Pow(s, float64(j))
+		}
+		for j := nd; j < len(coef); j++ {
+			v -= coef[j] * d.Cols[1+j-nd][t]
+		}
+		out[t] = v
+	}
+	return out
+}
+
+// A Wald restriction as written: one or more linear equations in the
+// long-run coefficients, joined by ";" for a joint test, e.g.
+// "log(fuel) = 1" or "x1 - x2 = 0; x3 = 0". Each side of "=" is: on the
+// left a sum of terms, each an optional sign, an optional number (with
+// or without "*") and a regressor written exactly as in x (or in
+// backquotes); on the right a number.
+type restriction struct {
+	Text string
+	R    [][]float64
+	r    []float64
+	line int
+}
+
+func parseRestrictions(c *engine.Context, list []string, terms []string) ([]restriction, error) {
+	var out []restriction
+	for i, s := range list {
+		line := c.ItemLine("restrict", i)
+		var rs restriction
+		rs.Text, rs.line = s, line
+		for _, eq := range strings.Split(s, ";") {
+			row, val, err := ParseLinear(eq, terms)
+			if err != nil {
+				return nil, &engine.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
+			}
+			rs.R = append(rs.R, row)
+			rs.r = append(rs.r, val)
+		}
+		out = append(out, rs)
+	}
+	return out, nil
+}
+
+// ParseLinear reads one equation "a·term ± b·term … = r".
+func ParseLinear(eq string, terms []string) ([]float64, float64, error) {
+	lhs, rhs, ok := strings.Cut(eq, "=")
+	if !ok || strings.Contains(rhs, "=") {
+		return nil, 0, fmt.Errorf("write one \"=\" per equation, e.g. %s = 1", terms[0])
+	}
+	val, err := strconv.ParseFloat(strings.TrimSpace(rhs), 64)
+	if err != nil {
+		return nil, 0, fmt.Errorf("the right-hand side %q is not a number", strings.TrimSpace(rhs))
+	}
+	// Longest names first, so that "x10" is not read as "x1".
+	byLen := append([]string(nil), terms...)
+	sort.SliceStable(byLen, func(i, j int) bool { return len(byLen[i]) > len(byLen[j]) })
+	row := make([]float64, len(terms))
+	s := strings.TrimSpace(lhs)
+	if s == "" {
+		return nil, 0, fmt.Errorf("the left-hand side is empty")
+	}
+	first := true
+	for s != "" {
+		sign := 1.0
+		switch {
+		case s[0] == '+':
+			s = strings.TrimSpace(s[1:])
+		case s[0] == '-':
+			sign, s = -1, strings.TrimSpace(s[1:])
+		case !first:
+			return nil, 0, fmt.Errorf("expected + or − before %q", s)
+		}
+		first = false
+		coef := 1.0
+		name, rest, found := matchTerm(s, byLen)
+		if !found {
+			// a number, then an optional "*"
+			j := len(numberRE.FindString(s))
+			if j == 0 {
+				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), engine.DidYouMean(firstWord(s), terms))
+			}
+			v, err := strconv.ParseFloat(s[:j], 64)
+			if err != nil {
+				return nil, 0, fmt.Errorf("%q is not a number", s[:j])
+			}
+			coef = v
+			s = strings.TrimSpace(s[j:])
+			s = strings.TrimSpace(strings.TrimPrefix(s, "*"))
+			if name, rest, found = matchTerm(s, byLen); !found {
+				if s == "" {
+					return nil, 0, fmt.Errorf("a number on the left-hand side needs a regressor after it")
+				}
+				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), engine.DidYouMean(firstWord(s), terms))
+			}
+		}
+		for i, t := range terms {
+			if t == name {
+				row[i] += sign * coef
+			}
+		}
+		s = strings.TrimSpace(rest)
+	}
+	nonzero := false
+	for _, v := range row {
+		nonzero = nonzero || v != 0
+	}
+	if !nonzero {
+		return nil, 0, fmt.Errorf("the coefficients cancel; nothing is restricted")
+	}
+	return row, val, nil
+}
+
+var numberRE = regexp.MustCompile(`^(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?`)
+
+// matchTerm matches a regressor name (or a backquoted one) at the start
+// of s, followed by the end, a sign or a space.
+func matchTerm(s string, byLen []string) (name, rest string, ok bool) {
+	if strings.HasPrefix(s, "`") {
+		if j := strings.IndexByte(s[1:], '`'); j >= 0 {
+			inner := s[1 : 1+j]
+			for _, t := range byLen {
+				if t == inner || t == "`"+inner+"`" {
+					return t, s[j+2:], true
+				}
+			}
+		}
+	}
+	for _, t := range byLen {
+		if strings.HasPrefix(s, t) {
+			r := s[len(t):]
+			if r == "" || r[0] == ' ' || r[0] == '+' || r[0] == '-' {
+				return t, r, true
+			}
+		}
+	}
+	return "", s, false
+}
+
+func firstWord(s string) string {
+	if i := strings.IndexAny(s, " +-"); i > 0 {
+		return s[:i]
+	}
+	return s
+}
+
+// waldResult is one Wald test computed.
+type waldResult struct {
+	Text string
+	W    longrun.WaldTest
+}
+
+func runWald(c *engine.Context, rs []restriction, lr longrun.Coefs) ([]waldResult, error) {
+	var out []waldResult
+	for _, r := range rs {
+		R := mat.NewDense(len(r.R), len(lr.Coef), nil)
+		for i, row := range r.R {
+			R.SetRow(i, row)
+		}
+		w, err := longrun.Wald(lr, R, r.r)
+		if err != nil {
+			return nil, &engine.PosError{File: c.File(), Line: r.line, Msg: fmt.Sprintf("restriction %q: %v", r.Text, err)}
+		}
+		out = append(out, waldResult{Text: r.Text, W: w})
+	}
+	return out, nil
+}
+
+func waldRows(ws []waldResult, dec int) []table.Row {
+	var rows []table.Row
+	for i, w := range ws {
+		rows = append(rows, engine.TestRows(fmt.Sprintf("Wald: %s, χ²(%d)", w.Text, w.W.DF), w.W.Stat, w.W.PValue, dec, i == 0)...)
+	}
+	return rows
+}
+
+func waldValues(ws []waldResult) []map[string]any {
+	out := []map[string]any{}
+	for _, w := range ws {
+		out = append(out, map[string]any{"name": w.Text, "stat": w.W.Stat, "df": w.W.DF, "pvalue": w.W.PValue})
+	}
+	return out
+}
+
+func waldNote(ws []waldResult) string {
+	if len(ws) == 0 {
+		return ""
+	}
+	return "Wald tests of the restrictions shown on the long-run coefficients (statistic, with its p-value beneath), using the covariance of the standard errors above; asymptotically χ² with one degree of freedom per equation."
+}

@@ -1,0 +1,118 @@
+package ols
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/engine/table"
+)
+
+// ols: a least-squares regression with a choice of standard errors.
+type olsSpec struct {
+	engine.Common `yaml:",inline"`
+	Data          string   `yaml:"data"`
+	Y             string   `yaml:"y"`
+	X             []string `yaml:"x"`
+	SE            string   `yaml:"se"`
+	Sample        string   `yaml:"sample"`
+	Const         *bool    `yaml:"const"`
+	Decimals      *int     `yaml:"decimals"`
+}
+
+func init() {
+	engine.Register(engine.Kind{
+		Name:    "ols",
+		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
+		New:     func() engine.Directive { return &olsSpec{} },
+		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample"},
+	})
+}
+
+func (s *olsSpec) Check(c *engine.Context) error {
+	if err := c.Require("y", s.Y == ""); err != nil {
+		return err
+	}
+	if _, err := ols.ParseCov(s.SE); err != nil {
+		return c.Errorf("se", "%v", err)
+	}
+	if len(s.X) == 0 && s.Const != nil && !*s.Const {
+		return c.Errorf("x", "a regression needs at least one regressor: give x, or keep the constant")
+	}
+	return c.CheckData(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+}
+
+func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
+	cov, _ := ols.ParseCov(s.SE)
+	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	if err != nil {
+		return nil, err
+	}
+	withConst := s.Const == nil || *s.Const
+	var terms []string
+	if withConst {
+		terms = append(terms, "const")
+	}
+	terms = append(terms, s.X...)
+	n, k := d.N(), len(terms)
+	if n <= k {
+		return nil, c.Errorf("", "too few observations: %d in the sample %s for %d coefficients", n, d.Range(), k)
+	}
+	x := mat.NewDense(n, k, nil)
+	for i := 0; i < n; i++ {
+		j := 0
+		if withConst {
+			x.Set(i, 0, 1)
+			j = 1
+		}
+		for l := range s.X {
+			x.Set(i, j+l, d.Cols[1+l][i])
+		}
+	}
+	fit, err := ols.Regress(d.Cols[0], x)
+	if err != nil {
+		return nil, engine.CollinearError(c, "x", err, terms)
+	}
+	coefs := fit.Table(cov, false)
+	dec := c.Decimals()
+	if s.Decimals != nil {
+		dec = *s.Decimals
+	}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
+	t.Body = engine.CoefRows(c, terms, coefs, dec, false)
+	t.Body = append(t.Body,
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(fit.R2(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(fit.R2Adj(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Durbin–Watson"), table.N(fit.DW(), dec)}},
+	)
+	t.Notes = []string{
+		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", s.Y, cov.Describe(), fit.DF()),
+		c.StarNote() + " " + d.SampleNote(),
+	}
+	if w := engine.CondNote(fit); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+	vals := map[string]any{
+		"coef":   engine.CoefValues(terms, coefs),
+		"nobs":   fit.N,
+		"r2":     fit.R2(),
+		"r2_adj": fit.R2Adj(),
+		"dw":     fit.DW(),
+		"cov":    cov.String(),
+		"sigma":  math.Sqrt(fit.Sigma2()),
+		"loglik": fit.LogLik(),
+		"sample": engine.SampleValues(d),
+		"resid":  engine.DatedValues(d.Dates, fit.Resid),
+	}
+	return &engine.Result{Table: t, Values: vals}, nil
+}
+
+// RegressionDesign says where the regression was estimated.
+func (s *olsSpec) RegressionDesign() contract.Design {
+	return contract.Design{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing, Const: s.Const == nil || *s.Const}
+}
