@@ -18,6 +18,8 @@ Writes ../fixtures/rules_bandwidth.json with
   pp_resid       residuals of the lag-free Dickey-Fuller regression fitted by
                  numpy least squares and their Newey-West (1994) and
                  Hobijn et al. (1998) truncation lags (numpy);
+  cap            a short series whose Hobijn et al. bandwidth exceeds T - 1:
+                 statsmodels' _kpss_autolag and the lag kpss caps at T - 1;
   power          int(c*(T/100)**p) for T = 1..1500 by Python floats;
   ols_ic         statsmodels OLS aic and bic with nobs, k and ssr;
   var_ic         statsmodels VAR(p) log|Sigma_mle|, free parameters, nobs,
@@ -140,6 +142,10 @@ for name in ["log_realgdp", "tbilrate", "infl", "unemp", "denmark_LRM"]:
         closest = min(closest, frac(bn), frac(bh))
         pp_resid.append({"series": name, "case": case, "nw_lag": int(bn), "hfo_lag": int(bh)})
 
+e = np.array([1, -1, 0.1] * 4, dtype=float)
+cap = {"e": e.tolist(), "hfo_lag": int(_kpss_autolag(e, len(e))),
+       "capped": min(int(_kpss_autolag(e, len(e))), len(e) - 1)}
+
 rules = {"schwert12": (12, 0.25), "schwert4": (4, 0.25), "nw94_bartlett": (4, 2 / 9), "nw94_qs": (4, 2 / 25)}
 power = {k: [int(c * (T / 100) ** p) for T in range(1, 1501)] for k, (c, p) in rules.items()}
 
@@ -165,7 +171,7 @@ for trend in ["c", "n", "ct"]:
 
 out = {"library": "statsmodels " + statsmodels.__version__ + ", numpy " + np.__version__,
        "series": series, "andrews_multi": andrews_multi, "kpss_auto": kpss_auto,
-       "pp_resid": pp_resid, "power": power, "ols_ic": ols_ic, "var_ic": var_ic}
+       "pp_resid": pp_resid, "cap": cap, "power": power, "ols_ic": ols_ic, "var_ic": var_ic}
 with open(os.path.join(here, "..", "fixtures", "rules_bandwidth.json"), "w") as f:
     json.dump(out, f, indent=0)
 print("wrote rules_bandwidth.json with", out["library"], len(series), "series;",
