@@ -58,9 +58,9 @@ func ParseSelector(s string) (Selector, error) {
 //
 // With Select == Fixed, p = Lags. Otherwise p is chosen in 0..Max; a
 // negative Max asks for the default rules.SchwertMax(T) =
-// ⌊12·(T/100)^{1/4}⌋ (Schwert 1989, common practice), T the length of the series, capped at ⌊T/2⌋ − d − 1
-// (d deterministic terms) so that the comparison sample keeps about half
-// the series.
+// ⌊12·(T/100)^{1/4}⌋ (Schwert 1989, common practice), T the length of
+// the series, capped at ⌊T/2⌋ − d − 1 (d deterministic terms) so that the
+// comparison sample keeps about half the series.
 type LagRule struct {
 	Lags   int
 	Select Selector
