@@ -47,7 +47,8 @@ type POResult struct {
 // N = T − 1 stands for the paper's T throughout (asymptotically the
 // same). P̂z does not depend on which variable is called y. Critical
 // values are from POCritical. lags is the Bartlett truncation lag;
-// ⌊4(N/100)^{1/4}⌋ and ⌊12(N/100)^{1/4}⌋ are common choices.
+// ⌊4(N/100)^{1/4}⌋ and ⌊12(N/100)^{1/4}⌋ (rules.Schwert4.Lag(N) and
+// rules.Schwert12.Lag(N)) are common choices.
 func PhillipsOuliaris(y []float64, x [][]float64, det critical.Case, lags int) (*POResult, error) {
 	k := len(x)
 	if k < 1 {

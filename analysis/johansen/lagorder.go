@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/galley-econ/galley/analysis/rules"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -31,7 +32,7 @@ type LagTable struct {
 // a constant and trend in cases RT and CT (common practice: the VAR in
 // levels carries the case's deterministic terms unrestricted). With
 // n = K²p + K·d free mean coefficients, T the common sample and
-// Σ̂ = T⁻¹ Σ û_t û_t' (Lütkepohl 2005, §4.3):
+// Σ̂ = T⁻¹ Σ û_t û_t' (Lütkepohl 2005, §4.3; rules.Criterion.PerObs):
 //
 //	AIC = ln|Σ̂| + 2n/T,  BIC = ln|Σ̂| + n ln T / T,  HQ = ln|Σ̂| + 2n ln ln T / T.
 //
@@ -114,12 +115,12 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 		for j := nx; j < nx+k; j++ {
 			ld += 2 * math.Log(math.Abs(rr.At(j, j)))
 		}
-		n := float64(k*k*p + k*d)
+		n := k*k*p + k*d
 		tab.Rows = append(tab.Rows, LagRow{
-			Lags: p - 1, Params: k*k*p + k*d, LogDet: ld,
-			AIC: ld + 2*n/ft,
-			BIC: ld + n*math.Log(ft)/ft,
-			HQ:  ld + 2*n*math.Log(math.Log(ft))/ft,
+			Lags: p - 1, Params: n, LogDet: ld,
+			AIC: rules.AIC.PerObs(ld, n, t),
+			BIC: rules.BIC.PerObs(ld, n, t),
+			HQ:  rules.HQ.PerObs(ld, n, t),
 		})
 	}
 	best := func(f func(LagRow) float64) int {

@@ -9,6 +9,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/rules"
 )
 
 // Selector chooses how the numbers of leads and lags of a DOLS
@@ -18,9 +19,9 @@ type Selector int
 const (
 	// Fixed uses DOLSSpec.Lags and DOLSSpec.Leads.
 	Fixed Selector = iota
-	// AIC minimises ln(SSR/N) + 2K/N over the grid.
+	// AIC minimises ln(SSR/N) + 2K/N over the grid (rules.AIC.PerObs).
 	AIC
-	// BIC minimises ln(SSR/N) + K·ln(N)/N over the grid.
+	// BIC minimises ln(SSR/N) + K·ln(N)/N over the grid (rules.BIC.PerObs).
 	BIC
 )
 
@@ -97,6 +98,10 @@ func DOLS(y []float64, x [][]float64, names []string, s DOLSSpec) (*DOLSResult, 
 		if s.MaxLags < 0 || s.MaxLeads < 0 {
 			return nil, fmt.Errorf("dols: maximum lags and leads must be non-negative, got %d and %d", s.MaxLags, s.MaxLeads)
 		}
+		crit := rules.AIC
+		if s.Select == BIC {
+			crit = rules.BIC
+		}
 		first, last := s.MaxLags+1, n-1-s.MaxLeads
 		ic = math.Inf(1)
 		for a := 0; a <= s.MaxLags; a++ {
@@ -105,13 +110,7 @@ func DOLS(y []float64, x [][]float64, names []string, s DOLSSpec) (*DOLSResult, 
 				if err != nil {
 					return nil, fmt.Errorf("dols: selection with %d lags and %d leads: %w", a, b, err)
 				}
-				nn, kk := float64(f.N), float64(f.K)
-				v := math.Log(f.SSR / nn)
-				if s.Select == AIC {
-					v += 2 * kk / nn
-				} else {
-					v += kk * math.Log(nn) / nn
-				}
+				v := crit.PerObs(math.Log(f.SSR/float64(f.N)), f.K, f.N)
 				if v < ic {
 					ic, p, q = v, a, b
 				}

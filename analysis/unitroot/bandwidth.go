@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/rules"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -15,12 +16,31 @@ import (
 type BandwidthRule int
 
 const (
-	// Short is L = ⌊4·(n/100)^{1/4}⌋ (common practice after Schwert 1989).
-	Short BandwidthRule = iota
-	// Long is L = ⌊12·(n/100)^{1/4}⌋.
-	Long
+	// Schwert4 is L = ⌊4·(n/100)^{1/4}⌋ (rules.Schwert4; common practice
+	// after Schwert 1989).
+	Schwert4 BandwidthRule = iota
+	// Schwert12 is L = ⌊12·(n/100)^{1/4}⌋ (rules.Schwert12).
+	Schwert12
 	// Given is L = Bandwidth.Lags.
 	Given
+	// AutoNeweyWest is L = ⌊b⌋ with b the automatic Bartlett bandwidth of
+	// Newey and West (1994) of the residuals e, preliminary lag
+	// ⌊4·(n/100)^{2/9}⌋: rules.NeweyWestBandwidth(e, rules.Bartlett,
+	// rules.NeweyWest94Bartlett.Lag(n)), at most n − 1.
+	AutoNeweyWest
+	// AutoHobijn is L = ⌊b⌋ with b the Bartlett bandwidth of Hobijn,
+	// Franses and Ooms (1998), preliminary lag ⌊n^{2/9}⌋:
+	// rules.HobijnBandwidth(e), at most n − 1 (the lag of statsmodels'
+	// kpss(nlags="auto")).
+	AutoHobijn
+)
+
+// The first names of Schwert4 and Schwert12, kept while callers move.
+const (
+	// Deprecated: Short is Schwert4.
+	Short = Schwert4
+	// Deprecated: Long is Schwert12.
+	Long = Schwert12
 )
 
 // Bandwidth is the truncation lag of the Newey–West (Bartlett) long-run
@@ -30,43 +50,69 @@ type Bandwidth struct {
 	Lags int // L when Rule == Given
 }
 
-// ParseBandwidth reads "short", "long" or a non-negative whole number.
+// ParseBandwidth reads, case-insensitive,
+//
+//	"rule4"      Schwert4,  ⌊4·(n/100)^{1/4}⌋  (also the older "short"),
+//	"rule12"     Schwert12, ⌊12·(n/100)^{1/4}⌋ (also the older "long"),
+//	"auto"       AutoNeweyWest, Newey and West (1994),
+//	"auto-hfo"   AutoHobijn, Hobijn, Franses and Ooms (1998),
+//
+// or a non-negative whole number (Given).
 func ParseBandwidth(s string) (Bandwidth, error) {
 	t := strings.ToLower(strings.TrimSpace(s))
 	switch t {
-	case "short":
-		return Bandwidth{Rule: Short}, nil
-	case "long":
-		return Bandwidth{Rule: Long}, nil
+	case "rule4", "short":
+		return Bandwidth{Rule: Schwert4}, nil
+	case "rule12", "long":
+		return Bandwidth{Rule: Schwert12}, nil
+	case "auto":
+		return Bandwidth{Rule: AutoNeweyWest}, nil
+	case "auto-hfo":
+		return Bandwidth{Rule: AutoHobijn}, nil
 	}
 	l, err := strconv.Atoi(t)
 	if err != nil || l < 0 {
-		return Bandwidth{}, fmt.Errorf("unknown bandwidth %q (want short, long or a non-negative whole number)", s)
+		return Bandwidth{}, fmt.Errorf("unknown bandwidth %q (want rule4, rule12, auto, auto-hfo, the older short, long, or a non-negative whole number)", s)
 	}
 	return Bandwidth{Rule: Given, Lags: l}, nil
 }
 
-// String returns "short", "long" or the number.
+// String returns "rule4", "rule12", "auto", "auto-hfo" or the number, the
+// spellings ParseBandwidth reads.
 func (b Bandwidth) String() string {
 	switch b.Rule {
-	case Short:
-		return "short"
-	case Long:
-		return "long"
+	case Schwert4:
+		return "rule4"
+	case Schwert12:
+		return "rule12"
+	case AutoNeweyWest:
+		return "auto"
+	case AutoHobijn:
+		return "auto-hfo"
 	}
 	return strconv.Itoa(b.Lags)
 }
 
-// Resolve returns L for a long-run variance computed from n observations.
+// Auto reports whether the lag depends on the residuals (AutoNeweyWest,
+// AutoHobijn) rather than on their number alone.
+func (b Bandwidth) Auto() bool {
+	return b.Rule == AutoNeweyWest || b.Rule == AutoHobijn
+}
+
+// Resolve returns L for a long-run variance computed from n observations;
+// for the automatic rules, which need the residuals, it returns an error
+// (use ResolveFor).
 func (b Bandwidth) Resolve(n int) (int, error) {
 	var l int
 	switch b.Rule {
-	case Short:
-		l = int(math.Floor(4 * math.Pow(float64(n)/100, 0.25)))
-	case Long:
-		l = int(math.Floor(12 * math.Pow(float64(n)/100, 0.25)))
+	case Schwert4:
+		l = rules.Schwert4.Lag(n)
+	case Schwert12:
+		l = rules.Schwert12.Lag(n)
 	case Given:
 		l = b.Lags
+	case AutoNeweyWest, AutoHobijn:
+		return 0, fmt.Errorf("unitroot: bandwidth %s is chosen from the residuals, not from the number of observations alone", b)
 	default:
 		return 0, fmt.Errorf("unitroot: unknown bandwidth rule %d", int(b.Rule))
 	}
@@ -75,6 +121,33 @@ func (b Bandwidth) Resolve(n int) (int, error) {
 	}
 	if l >= n {
 		return 0, fmt.Errorf("unitroot: bandwidth %d needs more than %d observations", l, n)
+	}
+	return l, nil
+}
+
+// ResolveFor returns L for the long-run variance of the residuals e: for
+// the automatic rules ⌊b⌋ with b from rules.NeweyWestBandwidth or
+// rules.HobijnBandwidth (see the constants), capped at n − 1 as
+// statsmodels' kpss caps its automatic lag; for the other rules
+// Resolve(len(e)).
+func (b Bandwidth) ResolveFor(e []float64) (int, error) {
+	n := len(e)
+	var bw float64
+	var err error
+	switch b.Rule {
+	case AutoNeweyWest:
+		bw, err = rules.NeweyWestBandwidth(e, rules.Bartlett, rules.NeweyWest94Bartlett.Lag(n))
+	case AutoHobijn:
+		bw, err = rules.HobijnBandwidth(e)
+	default:
+		return b.Resolve(n)
+	}
+	if err != nil {
+		return 0, fmt.Errorf("unitroot: automatic bandwidth: %w", err)
+	}
+	l := n - 1
+	if bw < float64(l) {
+		l = int(math.Floor(bw))
 	}
 	return l, nil
 }

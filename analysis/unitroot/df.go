@@ -6,6 +6,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/rules"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -77,7 +78,7 @@ func dfFit(y []float64, det detFunc, d int, r LagRule) (*DF, error) {
 	case AIC, BIC, TStat:
 		max := r.Max
 		if max < 0 {
-			max = SchwertMax(tt)
+			max = rules.SchwertMax(tt)
 			if cap := tt/2 - d - 1; max > cap {
 				max = cap
 			}
@@ -141,13 +142,12 @@ func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, i
 		return nil, 0, fmt.Errorf("unitroot: y_{t−1} is collinear with the deterministic terms on the comparison sample")
 	}
 	ic := make([]float64, max+1)
-	nf := float64(n)
 	best := 0
 	switch sel {
 	case AIC, BIC:
-		pen := 2.0
+		crit := rules.AIC
 		if sel == BIC {
-			pen = math.Log(nf)
+			crit = rules.BIC
 		}
 		for p := 0; p <= max; p++ {
 			j := d + 1 + p
@@ -155,7 +155,7 @@ func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, i
 				ic[p] = math.Inf(1)
 				continue
 			}
-			ic[p] = nf*math.Log(ns.ssr[j-1]/nf) + pen*float64(j)
+			ic[p] = crit.Total(ns.ssr[j-1], j, n)
 			if ic[p] < ic[best] {
 				best = p
 			}

@@ -31,8 +31,9 @@ type KPSSResult struct {
 //	η = T⁻² Σ_{t=1..T} S_t² / λ²,   S_t = Σ_{s≤t} e_s,
 //
 // e the residuals of y on a constant (and the trend t = 1..T), λ² their
-// Newey–West Bartlett long-run variance with truncation lag from bw,
-// resolved at n = T.
+// Newey–West Bartlett long-run variance with truncation lag from bw
+// (Bandwidth.ResolveFor on e: the rule at n = T, or the automatic lag of
+// e; AutoHobijn is the lag of statsmodels' kpss(nlags="auto")).
 func KPSS(y []float64, c critical.Case, bw Bandwidth) (*KPSSResult, error) {
 	if c != critical.Const && c != critical.ConstTrend {
 		return nil, fmt.Errorf("unitroot: KPSS supports the level (c) and trend (ct) cases, not %v", c)
@@ -41,9 +42,11 @@ func KPSS(y []float64, c critical.Case, bw Bandwidth) (*KPSSResult, error) {
 		return nil, err
 	}
 	n := len(y)
-	l, err := bw.Resolve(n)
-	if err != nil {
-		return nil, err
+	if !bw.Auto() {
+		// Check a fixed lag before any fitting.
+		if _, err := bw.Resolve(n); err != nil {
+			return nil, err
+		}
 	}
 	d := c.Deterministics()
 	x := mat.NewDense(n, d, nil)
@@ -56,6 +59,10 @@ func KPSS(y []float64, c critical.Case, bw Bandwidth) (*KPSSResult, error) {
 	fit, err := ols.Regress(y, x)
 	if err != nil {
 		return nil, fmt.Errorf("unitroot: KPSS detrending: %w", err)
+	}
+	l, err := bw.ResolveFor(fit.Resid)
+	if err != nil {
+		return nil, err
 	}
 	lrv, _ := longRunVar(fit.Resid, l)
 	if !(lrv > 0) {

@@ -2,8 +2,9 @@ package unitroot
 
 import (
 	"fmt"
-	"math"
 	"strings"
+
+	"github.com/galley-econ/galley/analysis/rules"
 )
 
 // Selector says how the number of lagged differences is chosen.
@@ -12,9 +13,11 @@ type Selector int
 const (
 	// Fixed uses LagRule.Lags lagged differences.
 	Fixed Selector = iota
-	// AIC minimises Akaike's criterion n·ln(SSR/n) + 2K over 0..Max lags.
+	// AIC minimises Akaike's criterion n·ln(SSR/n) + 2K over 0..Max lags
+	// (rules.AIC.Total).
 	AIC
-	// BIC minimises Schwarz's criterion n·ln(SSR/n) + K·ln n over 0..Max lags.
+	// BIC minimises Schwarz's criterion n·ln(SSR/n) + K·ln n over 0..Max
+	// lags (rules.BIC.Total).
 	BIC
 	// TStat is general-to-specific: start from Max and drop the last lag
 	// while its |t| < 1.645 (the 10% two-sided normal value).
@@ -54,19 +57,20 @@ func ParseSelector(s string) (Selector, error) {
 // LagRule fixes or selects the number of lagged differences p.
 //
 // With Select == Fixed, p = Lags. Otherwise p is chosen in 0..Max; a
-// negative Max asks for the default ⌊12·(T/100)^{1/4}⌋ (Schwert 1989,
-// common practice), T the length of the series, capped at ⌊T/2⌋ − d − 1
-// (d deterministic terms) so that the comparison sample keeps about half
-// the series.
+// negative Max asks for the default rules.SchwertMax(T) =
+// ⌊12·(T/100)^{1/4}⌋ (Schwert 1989, common practice), T the length of
+// the series, capped at ⌊T/2⌋ − d − 1 (d deterministic terms) so that the
+// comparison sample keeps about half the series.
 type LagRule struct {
 	Lags   int
 	Select Selector
 	Max    int
 }
 
-// SchwertMax is ⌊12·(T/100)^{1/4}⌋ (Schwert 1989).
+// SchwertMax is ⌊12·(T/100)^{1/4}⌋ (Schwert 1989); it is
+// rules.SchwertMax, kept here for callers of this package.
 func SchwertMax(t int) int {
-	return int(math.Floor(12 * math.Pow(float64(t)/100, 0.25)))
+	return rules.SchwertMax(t)
 }
 
 // tStatStop is the standard normal 95% quantile, the two-sided 10% value.

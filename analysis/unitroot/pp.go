@@ -35,7 +35,8 @@ type PPResult struct {
 //	Z(t) = (γ0/λ²)^{1/2} t − ½ (λ² − γ0) λ⁻¹ (T σ̂/s),
 //
 // γ0 = SSR/T and λ² the Newey–West Bartlett long-run variance of the
-// residuals with truncation lag from bw (resolved at n = T). Cases n, c
+// residuals with truncation lag from bw (Bandwidth.ResolveFor on those
+// residuals: the rule at n = T, or the automatic lag of the residuals). Cases n, c
 // and ct. Z(t) has the Dickey–Fuller τ distribution: critical values
 // MacKinnon (2010) at T, p-value MacKinnon (1994). Z(α) has that of
 // T(ρ̂−1): asymptotic critical values from Fuller (1976, Table 8.5.1).
@@ -48,7 +49,7 @@ func PP(y []float64, c critical.Case, bw Bandwidth) (*PPResult, error) {
 		return nil, err
 	}
 	n := reg.NObs
-	l, err := bw.Resolve(n)
+	l, err := bw.ResolveFor(reg.Fit.Resid)
 	if err != nil {
 		return nil, err
 	}
