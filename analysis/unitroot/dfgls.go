@@ -32,7 +32,8 @@ type DFGLSResult struct {
 //	(y_1, y_2 − ᾱy_1, …, y_T − ᾱy_{T−1}) on (z_1, z_2 − ᾱz_1, …),
 //
 // ỹ_t = y_t − z_t'β̃, and the statistic is the τ of the Dickey–Fuller
-// regression of ỹ without deterministic terms, with lags from r.
+// regression of ỹ without deterministic terms, with lags from r (any
+// selector, including the MAIC of Ng and Perron 2001).
 //
 // Critical values: constant case, the Dickey–Fuller no-constant
 // distribution, MacKinnonTau(1, NoConst, NObs); trend case, ERS (1996)
