@@ -196,3 +196,41 @@ func TestParseSelectorMAIC(t *testing.T) {
 		t.Errorf("ParseSelector(mbic) error %v, want one listing maic", err)
 	}
 }
+
+// Size under the null, a coarse check of the statistics and the table
+// together: 250 seeded Gaussian random walks of length 200, MAIC lags up
+// to the Schwert maximum. Each statistic's rejection rate at the 5%
+// critical value of Ng and Perron (2001) Table 1 must lie in [0.01, 0.10]
+// (with 250 replications the standard error at 5% is 0.014; Ng and
+// Perron 2001 report sizes near the nominal level for iid errors).
+func TestNgPerronSize(t *testing.T) {
+	const reps, n = 250, 200
+	for _, c := range []critical.Case{critical.Const, critical.ConstTrend} {
+		var rej [4]int
+		for i := 0; i < reps; i++ {
+			y := make([]float64, n)
+			w := randomWalk(n+1, uint64(1000+i))
+			for t := range y { // pure random walk: undo the AR(1) increments
+				y[t] = w[t+1] - 0.3*w[t]
+			}
+			res, err := NgPerron(y, c, LagRule{Select: MAIC, Max: -1})
+			if err != nil {
+				t.Fatal(err)
+			}
+			for j, v := range []struct {
+				stat float64
+				crit []critical.Value
+			}{{res.MZa, res.CritMZa}, {res.MZt, res.CritMZt}, {res.MSB, res.CritMSB}, {res.MPT, res.CritMPT}} {
+				if v.stat < v.crit[1].Value {
+					rej[j]++
+				}
+			}
+		}
+		for j, r := range rej {
+			if p := float64(r) / reps; p < 0.01 || p > 0.10 {
+				t.Errorf("%s %v: rejection rate %.3f at the nominal 5%%", c, critical.NgPerronStat(j), p)
+			}
+		}
+		t.Logf("%s: rejections at 5%% of MZα, MZt, MSB, MPT: %v of %d", c, rej, reps)
+	}
+}
