@@ -26,8 +26,9 @@ type DF struct {
 	Select Selector
 	// IC[p] is, for p = 0..MaxLag on the common sample that drops the
 	// first MaxLag+1 observations, the criterion value n·ln(SSR/n) + K·c
-	// (c = 2 or ln n) for AIC and BIC, or |t| of the last lag for TStat
-	// (NaN for p = 0 and for rank-deficient designs). Nil when fixed.
+	// (c = 2 or ln n) for AIC and BIC, |t| of the last lag for TStat
+	// (NaN for p = 0 and for rank-deficient designs), or the modified AIC
+	// of Ng and Perron (2001) for MAIC (see selectMAIC). Nil when fixed.
 	IC []float64
 	// Fit is the final regression on all T − 1 − p usable observations.
 	// Its columns are [deterministics | y_{t−1} | Δy_{t−1} … Δy_{t−p}],
@@ -46,7 +47,8 @@ type DF struct {
 // (verified in the tests). The criteria for all p come from one QR
 // factorisation of the largest design (see nested), not one regression
 // per lag. TStat is general-to-specific from Max, dropping the last lag
-// while |t| < 1.645.
+// while |t| < 1.645. MAIC (Ng and Perron 2001, see selectMAIC) applies to
+// case n only, the regression of a detrended series.
 func DickeyFuller(y []float64, c critical.Case, r LagRule) (*DF, error) {
 	if c < critical.NoConst || c > critical.ConstTrendSq {
 		return nil, fmt.Errorf("unitroot: unsupported deterministic case %d", int(c))
@@ -75,7 +77,7 @@ func dfFit(y []float64, det detFunc, d int, r LagRule) (*DF, error) {
 		}
 		p = r.Lags
 		out.MaxLag = p
-	case AIC, BIC, TStat:
+	case AIC, BIC, TStat, MAIC:
 		max := r.Max
 		if max < 0 {
 			max = rules.SchwertMax(tt)
@@ -90,7 +92,14 @@ func dfFit(y []float64, det detFunc, d int, r LagRule) (*DF, error) {
 		if err := enoughObs(tt, d, max); err != nil {
 			return nil, err
 		}
-		ic, best, err := selectLag(y, det, d, max, r.Select)
+		var ic []float64
+		var best int
+		var err error
+		if r.Select == MAIC {
+			ic, best, err = selectMAIC(y, d, max)
+		} else {
+			ic, best, err = selectLag(y, det, d, max, r.Select)
+		}
 		if err != nil {
 			return nil, err
 		}

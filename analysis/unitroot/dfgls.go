@@ -5,8 +5,6 @@ import (
 	"math"
 
 	"github.com/galley-econ/galley/analysis/critical"
-	"github.com/galley-econ/galley/analysis/ols"
-	"gonum.org/v1/gonum/mat"
 )
 
 // DFGLSResult is the DF-GLS test of Elliott, Rothenberg and Stock (1996).
@@ -34,63 +32,25 @@ type DFGLSResult struct {
 //	(y_1, y_2 − ᾱy_1, …, y_T − ᾱy_{T−1}) on (z_1, z_2 − ᾱz_1, …),
 //
 // ỹ_t = y_t − z_t'β̃, and the statistic is the τ of the Dickey–Fuller
-// regression of ỹ without deterministic terms, with lags from r.
+// regression of ỹ without deterministic terms, with lags from r (any
+// selector, including the MAIC of Ng and Perron 2001).
 //
 // Critical values: constant case, the Dickey–Fuller no-constant
 // distribution, MacKinnonTau(1, NoConst, NObs); trend case, ERS (1996)
 // Table 1 at T = len(y), interpolated in 1/T.
 func DFGLS(y []float64, c critical.Case, r LagRule) (*DFGLSResult, error) {
-	var cbar float64
-	switch c {
-	case critical.Const:
-		cbar = -7
-	case critical.ConstTrend:
-		cbar = -13.5
-	default:
-		return nil, fmt.Errorf("unitroot: DF-GLS supports the constant (c) and trend (ct) cases, not %v", c)
-	}
-	if err := checkSeries(y, 4); err != nil {
+	g, err := glsDetrend(y, c, "DF-GLS")
+	if err != nil {
 		return nil, err
 	}
-	n := len(y)
-	d := c.Deterministics()
-	a := 1 + cbar/float64(n)
-	ya := make([]float64, n)
-	za := mat.NewDense(n, d, nil)
-	z := func(t, j int) float64 { // z_t, t zero-based
-		if j == 0 {
-			return 1
-		}
-		return float64(t + 1)
-	}
-	ya[0] = y[0]
-	for j := 0; j < d; j++ {
-		za.Set(0, j, z(0, j))
-	}
-	for t := 1; t < n; t++ {
-		ya[t] = y[t] - a*y[t-1]
-		for j := 0; j < d; j++ {
-			za.Set(t, j, z(t, j)-a*z(t-1, j))
-		}
-	}
-	gls, err := ols.Regress(ya, za)
-	if err != nil {
-		return nil, fmt.Errorf("unitroot: DF-GLS detrending: %w", err)
-	}
-	yd := make([]float64, n)
-	for t := range y {
-		yd[t] = y[t]
-		for j := 0; j < d; j++ {
-			yd[t] -= z(t, j) * gls.Coef[j]
-		}
-	}
+	n, cbar, yd := len(y), g.cbar, g.y
 	reg, err := DickeyFuller(yd, critical.NoConst, r)
 	if err != nil {
 		return nil, err
 	}
 	out := &DFGLSResult{
 		Stat: reg.Stat, Lags: reg.Lags, NObs: reg.NObs, CBar: cbar,
-		Beta: gls.Coef, Detrended: yd, Reg: reg, PValue: math.NaN(),
+		Beta: g.beta, Detrended: yd, Reg: reg, PValue: math.NaN(),
 	}
 	if c == critical.Const {
 		out.Crit, err = critical.MacKinnonTauAll(1, critical.NoConst, reg.NObs)

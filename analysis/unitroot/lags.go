@@ -22,9 +22,13 @@ const (
 	// TStat is general-to-specific: start from Max and drop the last lag
 	// while its |t| < 1.645 (the 10% two-sided normal value).
 	TStat
+	// MAIC minimises the modified AIC of Ng and Perron (2001) over 0..Max
+	// lags (see selectMAIC); it needs a regression without deterministic
+	// terms, as on a GLS-detrended series (DFGLS, NgPerron).
+	MAIC
 )
 
-// String returns "fixed", "aic", "bic" or "tstat".
+// String returns "fixed", "aic", "bic", "tstat" or "maic".
 func (s Selector) String() string {
 	switch s {
 	case Fixed:
@@ -35,11 +39,14 @@ func (s Selector) String() string {
 		return "bic"
 	case TStat:
 		return "tstat"
+	case MAIC:
+		return "maic"
 	}
 	return fmt.Sprintf("Selector(%d)", int(s))
 }
 
-// ParseSelector reads "fixed", "aic", "bic" or "tstat" (case-insensitive).
+// ParseSelector reads "fixed", "aic", "bic", "tstat" or "maic"
+// (case-insensitive).
 func ParseSelector(s string) (Selector, error) {
 	switch strings.ToLower(strings.TrimSpace(s)) {
 	case "fixed":
@@ -50,8 +57,10 @@ func ParseSelector(s string) (Selector, error) {
 		return BIC, nil
 	case "tstat", "t":
 		return TStat, nil
+	case "maic":
+		return MAIC, nil
 	}
-	return 0, fmt.Errorf("unknown lag selector %q (want fixed, aic, bic or tstat)", s)
+	return 0, fmt.Errorf("unknown lag selector %q (want fixed, aic, bic, tstat or maic)", s)
 }
 
 // LagRule fixes or selects the number of lagged differences p.
