@@ -2,7 +2,6 @@ package johansen
 
 import (
 	"fmt"
-	"math"
 	"regexp"
 	"slices"
 	"strconv"
@@ -11,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/rules"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 )
@@ -80,7 +80,7 @@ func nameSeries(err error, names []string) error {
 // lag length of a unit-root regression), lowered until the VAR in levels
 // with that many lags still has more observations than regressors.
 func defaultMaxLags(n, k int, cs johansen.Case) int {
-	m := int(math.Floor(12 * math.Pow(float64(n)/100, 0.25)))
+	m := rules.Schwert12.Lag(n)
 	d := map[johansen.Case]int{johansen.N: 0, johansen.RC: 1, johansen.C: 1, johansen.RT: 2, johansen.CT: 2}[cs]
 	for m >= 0 && n-(m+1) <= d+k*(m+1)+k {
 		m--

@@ -13,6 +13,7 @@ import (
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/longrun"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/rules"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
@@ -138,7 +139,7 @@ func (s *dolsSpec) settings(c *engine.Context, T int) (dolsSettings, error) {
 			return st, c.Errorf("max", "max bounds a selection (select: aic or bic); with fixed leads and lags it does not apply")
 		}
 	} else {
-		mx := int(math.Floor(4 * math.Pow(float64(T)/100, 0.25)))
+		mx := rules.Schwert4.Lag(T)
 		if s.Max != nil {
 			if *s.Max < 0 {
 				return st, c.Errorf("max", "max must be zero or more")
@@ -150,7 +151,7 @@ func (s *dolsSpec) settings(c *engine.Context, T int) (dolsSettings, error) {
 	se := strings.ToLower(strings.ReplaceAll(s.SE, " ", ""))
 	if se == "" || se == "hac" {
 		st.autoHAC = true
-		st.spec.Cov = ols.CovSpec{Kind: ols.HAC, Lags: int(math.Floor(4 * math.Pow(float64(T)/100, 2.0/9)))}
+		st.spec.Cov = ols.CovSpec{Kind: ols.HAC, Lags: rules.NeweyWest94Bartlett.Lag(T)}
 	} else if st.spec.Cov, err = ols.ParseCov(s.SE); err != nil {
 		return st, c.Errorf("se", "%v (or hac for an automatic lag)", err)
 	}
