@@ -66,7 +66,7 @@ type LagSpec struct{ LagChoice }
 
 func (l *LagSpec) UnmarshalYAML(n *yaml.Node) error {
 	return l.Decode(n, func(s string) error { _, err := unitroot.ParseSelector(s); return err },
-		"lags: write a number, a selector (aic, bic, tstat), or {select: aic, max: 12}")
+		"lags: write a number, a selector (aic, bic, tstat, maic), or {select: aic, max: 12}")
 }
 
 // Rule converts the spec into a lag rule; def is used when lags is absent.
@@ -90,7 +90,7 @@ func DescribeLags(r unitroot.LagRule, maxUsed int) string {
 	if r.Select == unitroot.Fixed {
 		return fmt.Sprintf("fixed at %d", r.Lags)
 	}
-	name := map[unitroot.Selector]string{unitroot.AIC: "AIC", unitroot.BIC: "BIC", unitroot.TStat: "general-to-specific t-test (10%)"}[r.Select]
+	name := map[unitroot.Selector]string{unitroot.AIC: "AIC", unitroot.BIC: "BIC", unitroot.TStat: "general-to-specific t-test (10%)", unitroot.MAIC: "the modified AIC of Ng and Perron (2001)"}[r.Select]
 	if maxUsed < 0 {
 		if r.Max >= 0 {
 			maxUsed = r.Max

@@ -36,3 +36,32 @@ func TestMissingDrop(t *testing.T) {
 		t.Errorf("missing: skip: %v", err)
 	}
 }
+
+// TestMissingDropDownstream: a directive that builds on another's
+// relation or regression reads the data with that directive's
+// missing-value rule, so that an ecm on an engle-granger, or a figure of
+// an ols, with missing: drop sees the observations it was estimated on
+// (it used to re-read them with its own rule and fail at the gap).
+func TestMissingDropDownstream(t *testing.T) {
+	csv := syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))
+	lines := strings.Split(csv, "\n")
+	lines[30] = strings.Split(lines[30], ",")[0] + ",," + strings.Split(lines[30], ",")[2] // y missing in 2003-06
+	csv = strings.Join(lines, "\n")
+	body := fence("engle-granger", "id: eg\ndata: grid\ny: y\nx: [x]\nlags: 1\nmissing: drop\n") + "\n" +
+		fence("ecm", "id: e\nfrom: eg\n") + "\n" +
+		fence("ols", "id: m\ndata: grid\ny: y\nx: [x]\nmissing: drop\n") + "\n" +
+		fence("figure", "id: f\nplot: actual-fitted\nof: m\n")
+	p := writeProject(t, front+"\n"+body, map[string]string{"data.csv": csv})
+	doc, err := engine.Parse(p, engine.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := doc.Run(); err != nil {
+		t.Fatalf("downstream of missing: drop: %v", err)
+	}
+	for _, r := range doc.Results() {
+		if r.ID == "e" && !strings.Contains(strings.Join(r.Table.Notes, " "), "2003-06") {
+			t.Errorf("the ecm's notes do not name the dropped date: %q", r.Table.Notes)
+		}
+	}
+}

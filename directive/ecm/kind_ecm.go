@@ -192,6 +192,11 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	body = append(body, engine.DiagRows(diags, dec)...)
 	t.Body = body
 	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
+	for _, dt := range d.Dropped { // left out for missing values inside the estimation span
+		if sd.Dates[0].Before(dt) && dt.Before(sd.Dates[len(sd.Dates)-1]) {
+			sd.Dropped = append(sd.Dropped, dt)
+		}
+	}
 	t.Notes = []string{
 		fmt.Sprintf("Dependent variable: %s, the first difference of %s. Least squares; %s in parentheses; t-ratios compared with the standard normal distribution, since every regressor is stationary when the variables cointegrate.", ecm.DiffName(rel.Y, 0), rel.Y, cov.Describe()),
 		fmt.Sprintf("%s is the equilibrium error of %q (%s) lagged one period; d.v(-j) is the j-th lag of the first difference of v. Lags of d.%s: %d; differences of the regressors at lags 0 to %d.", ecm.ECTName, s.From, fromDesc(up.Kind), rel.Y, p, q),

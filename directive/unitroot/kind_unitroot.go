@@ -3,6 +3,7 @@ package unitroot
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/critical"
@@ -34,20 +35,6 @@ type urSpec struct {
 var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "trim",
 	"crit_mcse", "sim_key", "sim"} // the last three with crit: simulate (simcrit.go)
 
-func init() {
-	for _, k := range []struct{ name, summary string }{
-		{"adf", "augmented Dickey–Fuller unit-root test"},
-		{"pp", "Phillips–Perron unit-root test"},
-		{"kpss", "KPSS test of level or trend stationarity"},
-		{"dfgls", "DF-GLS unit-root test of Elliott, Rothenberg and Stock"},
-		{"za", "Zivot–Andrews unit-root test with one break at an unknown date"},
-	} {
-		name := k.name
-		engine.Register(engine.Kind{Name: name, Summary: k.summary, Fields: urFields,
-			New: func() engine.Directive { return &urSpec{test: name} }})
-	}
-}
-
 // settings validates the spec's test options.
 func (s *urSpec) settings(c *engine.Context) (urTest, error) {
 	return parseURTest(c, s.test, s.Det, s.Lags, s.Bandwidth, s.Break, s.Trim)
@@ -59,15 +46,27 @@ func parseURTest(c *engine.Context, test, det string, lags engine.LagSpec, bw, b
 	if det == "" {
 		det = "c"
 	}
-	if test != "za" {
+	def := lookupTest(test)
+	if def == nil {
+		return u, c.Errorf("", "unknown test %q", test)
+	}
+	if def.Lags != nil {
+		u.Lags = lags.Rule(*def.Lags)
+	}
+	if !def.Break {
 		if u.Det, err = critical.ParseCase(det); err != nil {
 			return u, c.Errorf("det", "%v", err)
 		}
+		if def.Dets != nil && !slices.Contains(def.Dets, u.Det) {
+			if strings.Contains(def.DetHelp, "%s") {
+				return u, c.Errorf("det", def.DetHelp, det)
+			}
+			return u, c.Errorf("det", "%s", def.DetHelp)
+		}
 	}
-	switch test {
-	case "pp", "kpss":
+	if def.Bandwidth {
 		if lags.Set {
-			return u, c.Errorf("lags", "%s uses a long-run variance: set bandwidth (short, long or a number), not lags", urTitles[test])
+			return u, c.Errorf("lags", "%s uses a long-run variance: set bandwidth (short, long or a number), not lags", def.Title)
 		}
 		if bw == "" {
 			bw = "short"
@@ -75,17 +74,10 @@ func parseURTest(c *engine.Context, test, det string, lags engine.LagSpec, bw, b
 		if u.Bandwidth, err = unitroot.ParseBandwidth(bw); err != nil {
 			return u, c.Errorf("bandwidth", "%v", err)
 		}
-		if test == "kpss" && u.Det != critical.Const && u.Det != critical.ConstTrend {
-			return u, c.Errorf("det", "KPSS tests level (c) or trend (ct) stationarity; det: %s is not one of them", det)
-		}
-		if test == "pp" && u.Det == critical.ConstTrendSq {
-			return u, c.Errorf("det", "Phillips–Perron supports det n, c or ct")
-		}
-	case "dfgls":
-		if u.Det != critical.Const && u.Det != critical.ConstTrend {
-			return u, c.Errorf("det", "DF-GLS has a constant (c) or a constant and trend (ct) case; det: %s is not one of them", det)
-		}
-	case "za":
+	} else if bw != "" {
+		return u, c.Errorf("bandwidth", "%s selects lags (lags:), it has no bandwidth", def.Title)
+	}
+	if def.Break {
 		if det != "c" {
 			return u, c.Errorf("det", "Zivot–Andrews always has a constant and trend; choose the break with break: intercept | trend | both")
 		}
@@ -99,12 +91,8 @@ func parseURTest(c *engine.Context, test, det string, lags engine.LagSpec, bw, b
 			return u, c.Errorf("trim", "trim must be between 0 and 0.5 (default 0.15)")
 		}
 		u.Trim = trim
-	}
-	if test != "za" && brk != "" {
+	} else if brk != "" {
 		return u, c.Errorf("break", "break applies only to the Zivot–Andrews test (za)")
-	}
-	if (test == "adf" || test == "dfgls" || test == "za") && bw != "" {
-		return u, c.Errorf("bandwidth", "%s selects lags (lags:), it has no bandwidth", urTitles[test])
 	}
 	return u, nil
 }
@@ -133,7 +121,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	o, err := u.run(d.Cols[0])
 	if err != nil {
-		return nil, c.Errorf("series", "%s of %s: %v", urTitles[u.Name], s.Series, err)
+		return nil, c.Errorf("series", "%s of %s: %v", title(u.Name), s.Series, err)
 	}
 	// crit: simulate (simcrit.go): simulated critical values and p-value.
 	if sim, err := s.SimKeys.Settings(c, s.test); err != nil {
@@ -149,6 +137,12 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Series)}}}
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(o.Test + " statistic, " + o.StatName), table.Starred(o.Stat, dec, o.Stars(c.Stars()))}})
+	for _, er := range lookupTest(u.Name).Rows { // further statistics, each judged by its own critical values
+		v, _ := o.Extra[er.Key].(float64)
+		cm, _ := o.Extra[er.CritKey].(map[string]any)
+		more := contract.Outcome{Stat: v, PValue: math.NaN(), Crit: critFromMap(cm)}
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(er.Label), table.Starred(v, dec, more.Stars(c.Stars()))}})
+	}
 	if !math.IsNaN(o.PValue) {
 		p := table.N(o.PValue, dec)
 		if o.PClipped {
@@ -165,7 +159,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 		lagLabel = "Bandwidth (Bartlett lags)"
 	}
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(lagLabel), table.I(o.Lags)}}, table.Row{Cells: []table.Cell{table.T("Observations"), table.I(o.NObs)}})
-	if u.Name == "za" {
+	if lookupTest(u.Name).Break {
 		bi := o.Extra["break_index"].(int)
 		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("Break (first date of the new regime)"), table.T(d.Dates[bi].String())}})
 		o.Extra["break"] = d.Dates[bi].String()
@@ -178,7 +172,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals := o.Values()
 	vals["series"] = s.Series
 	vals["sample"] = engine.SampleValues(d)
-	if u.Name == "za" {
+	if lookupTest(u.Name).Break {
 		vals["break_model"] = u.Break.String()
 	} else {
 		vals["det"] = u.Det.String()
@@ -191,7 +185,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 func urNote(u urTest, o *contract.Outcome, series string) string {
 	var b strings.Builder
 	fmt.Fprintf(&b, "H0: %s %s.", series, o.Null)
-	if u.Name == "za" {
+	if lookupTest(u.Name).Break {
 		fmt.Fprintf(&b, " Constant and trend, with a break in %s at the date that minimises the t-ratio (trimming %s at each end).", map[critical.BreakModel]string{critical.BreakIntercept: "the intercept", critical.BreakTrend: "the trend", critical.BreakBoth: "both the intercept and the trend"}[u.Break], contract.Pct(trimOr(u.Trim)))
 	} else {
 		fmt.Fprintf(&b, " Deterministic terms: %s.", contract.DetNames[u.Det])
@@ -220,4 +214,16 @@ func trimOr(t float64) float64 {
 		return 0.15
 	}
 	return t
+}
+
+// critFromMap reads critical values keyed by level ({"5%": …}) back, in
+// the order of the levels.
+func critFromMap(m map[string]any) []critical.Value {
+	var out []critical.Value
+	for _, l := range critical.MacKinnonLevels {
+		if v, ok := m[contract.Pct(l)].(float64); ok {
+			out = append(out, critical.Value{Level: l, Value: v})
+		}
+	}
+	return out
 }

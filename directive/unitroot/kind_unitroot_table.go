@@ -38,8 +38,6 @@ func init() {
 	})
 }
 
-var urTestNames = []string{"adf", "pp", "kpss", "dfgls", "za"}
-
 func (s *urTableSpec) tests() []string {
 	if len(s.Tests) == 0 {
 		return []string{"adf", "kpss"}
@@ -60,8 +58,8 @@ func (s *urTableSpec) diffs() bool { return s.Differences == nil || *s.Differenc
 func (s *urTableSpec) settings(c *engine.Context) (lev, dif []urTest, err error) {
 	seen := map[string]bool{}
 	for _, name := range s.tests() {
-		if !slices.Contains(urTestNames, name) {
-			return nil, nil, c.Errorf("tests", "unknown test %q%s; tests: %s", name, engine.DidYouMean(name, urTestNames), strings.Join(urTestNames, ", "))
+		if lookupTest(name) == nil {
+			return nil, nil, c.Errorf("tests", "unknown test %q%s; tests: %s", name, engine.DidYouMean(name, testNames()), strings.Join(testNames(), ", "))
 		}
 		if seen[name] {
 			return nil, nil, c.Errorf("tests", "test %q is listed twice", name)
@@ -75,13 +73,14 @@ func (s *urTableSpec) settings(c *engine.Context) (lev, dif []urTest, err error)
 			detDiff = "c"
 		}
 		lags, bw := s.Lags, s.Bandwidth
-		if name == "pp" || name == "kpss" {
+		def := lookupTest(name)
+		if def.Bandwidth {
 			lags = engine.LagSpec{}
 		} else {
 			bw = ""
 		}
 		brk := ""
-		if name == "za" {
+		if def.Break {
 			det, detDiff, brk = "c", "c", s.Break
 		}
 		l, err := parseURTest(c, name, det, lags, bw, brk, 0)
@@ -94,7 +93,7 @@ func (s *urTableSpec) settings(c *engine.Context) (lev, dif []urTest, err error)
 		}
 		lev, dif = append(lev, l), append(dif, d)
 	}
-	if s.Break != "" && !seen["za"] {
+	if s.Break != "" && !slices.ContainsFunc(s.tests(), func(n string) bool { return lookupTest(n).Break }) {
 		return nil, nil, c.Errorf("break", "break applies only to the Zivot–Andrews test; add za to tests")
 	}
 	if lv := s.level(); lv != 0.01 && lv != 0.05 && lv != 0.10 {
@@ -163,12 +162,12 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 	head1 := []table.Cell{table.T(""), table.Span("Levels", nt)}
 	head2 := []table.Cell{table.T("Series")}
 	for _, u := range levT {
-		head2 = append(head2, table.T(urTitles[u.Name]))
+		head2 = append(head2, table.T(title(u.Name)))
 	}
 	if s.diffs() {
 		head1 = append(head1, table.Span("First differences", nt))
 		for _, u := range difT {
-			head2 = append(head2, table.T(urTitles[u.Name]))
+			head2 = append(head2, table.T(title(u.Name)))
 		}
 	}
 	head1 = append(head1, table.T(""))
@@ -206,7 +205,7 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 			for i, u := range exprs {
 				o, err := u.run(d.Cols[0])
 				if err != nil {
-					return nil, c.Errorf("series", "%s of %s: %v", urTitles[u.Name], expr, err)
+					return nil, c.Errorf("series", "%s of %s: %v", title(u.Name), expr, err)
 				}
 				outs = append(outs, o)
 				cell := table.Starred(o.Stat, dec, o.Stars(c.Stars()))
@@ -214,7 +213,7 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 				row = append(row, cell)
 				v := o.Values()
 				v["sample"] = engine.SampleValues(d)
-				if u.Name == "za" {
+				if lookupTest(u.Name).Break {
 					v["break"] = d.Dates[o.Extra["break_index"].(int)].String()
 				} else {
 					v["det"] = u.Det.String()
@@ -239,7 +238,7 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 	// Notes: what the cells are, the verdict rule, 5% critical values and sources.
 	var tests []string
 	for _, u := range levT {
-		tests = append(tests, urTitles[u.Name])
+		tests = append(tests, title(u.Name))
 	}
 	t.Notes = append(t.Notes, fmt.Sprintf(
 		"Each cell is the test statistic, with the lagged differences (ADF, DF-GLS, ZA) or the Bartlett bandwidth (PP, KPSS) in brackets. KPSS tests the null of stationarity; the other tests the null of a unit root. Stars mark rejection of each test's own null: %s",
@@ -259,16 +258,16 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 				continue
 			}
 			det := contract.DetNames[u.Det]
-			if u.Name == "za" {
+			if lookupTest(u.Name).Break {
 				det = "break in " + u.Break.String()
 			}
-			cv = append(cv, fmt.Sprintf("%s %s (%s) %s", urTitles[u.Name], label, det, rangeText(cs.vals, cs.ts, dec)))
+			cv = append(cv, fmt.Sprintf("%s %s (%s) %s", title(u.Name), label, det, rangeText(cs.vals, cs.ts, dec)))
 			for _, src := range cs.sources {
-				if !slices.Contains(sources[src], urTitles[u.Name]) {
+				if !slices.Contains(sources[src], title(u.Name)) {
 					if len(sources[src]) == 0 {
 						srcOrder = append(srcOrder, src)
 					}
-					sources[src] = append(sources[src], urTitles[u.Name])
+					sources[src] = append(sources[src], title(u.Name))
 				}
 			}
 		}
