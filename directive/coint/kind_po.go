@@ -50,6 +50,9 @@ func (s *poSpec) settings(c *engine.Context) (critical.Case, unitroot.Bandwidth,
 	if err != nil {
 		return det, b, c.Errorf("bandwidth", "%v", err)
 	}
+	if b.Rule == unitroot.AutoNeweyWest || b.Rule == unitroot.AutoHobijn {
+		return det, b, c.Errorf("bandwidth", "po takes a fixed bandwidth rule or a number of Bartlett lags; the automatic bandwidths (%s) are for pp and kpss", bw)
+	}
 	return det, b, nil
 }
 
