@@ -45,7 +45,7 @@ var kinds = map[string]*Kind{}
 // Register adds a directive kind; each kind's file calls it from init.
 func Register(k Kind) {
 	if _, dup := kinds[k.Name]; dup {
-		panic("render: directive kind registered twice: " + k.Name)
+		panic("engine: directive kind registered twice: " + k.Name)
 	}
 	kk := k
 	kinds[k.Name] = &kk
