@@ -9,6 +9,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // Context is what a directive sees while it is checked or run: its own
@@ -32,7 +33,7 @@ func (c *Context) Errorf(key, format string, args ...any) error {
 	if key != "" {
 		line = c.doc.keyLine(c.b, key)
 	}
-	return &PosError{File: c.doc.File, Line: line, Msg: fmt.Sprintf(format, args...)}
+	return &manuscript.PosError{File: c.doc.File, Line: line, Msg: fmt.Sprintf(format, args...)}
 }
 
 // Wrap attaches the line of key to err (unless err already has a position).
@@ -40,11 +41,11 @@ func (c *Context) Wrap(key string, err error) error {
 	if err == nil {
 		return nil
 	}
-	var pe *PosError
+	var pe *manuscript.PosError
 	if errors.As(err, &pe) {
 		return err
 	}
-	return &PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Err: err}
+	return &manuscript.PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Err: err}
 }
 
 // Has reports whether the directive's YAML sets key.
@@ -117,7 +118,7 @@ func (c *Context) Result(key, id string, kinds ...string) (*Result, error) {
 	c.b.deps.up(id)
 	res, err := c.doc.run(b)
 	if err != nil {
-		return nil, &PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Msg: fmt.Sprintf("%q could not be computed (see the error on line %d)", id, b.line), Err: errUpstream}
+		return nil, &manuscript.PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Msg: fmt.Sprintf("%q could not be computed (see the error on line %d)", id, b.line), Err: errUpstream}
 	}
 	return res, nil
 }
@@ -153,7 +154,7 @@ func (c *Context) refBlock(key, id string, kinds ...string) (*block, error) {
 	}
 	b, ok := c.doc.byID[id]
 	if !ok {
-		return nil, c.Errorf(key, "no directive has id %q%s", id, DidYouMean(id, c.doc.ids()))
+		return nil, c.Errorf(key, "no directive has id %q%s", id, manuscript.DidYouMean(id, c.doc.ids()))
 	}
 	if b == c.b {
 		return nil, c.Errorf(key, "a directive cannot refer to itself")
@@ -197,7 +198,7 @@ func (v *Variant) Raw() map[string]any { return v.b.raw }
 // The error is a YAML or key error without a position.
 func (c *Context) NewVariant(k *Kind, id string, n *yaml.Node) (*Variant, error) {
 	dir := k.New()
-	if err := checkKeys(n, dir); err != nil {
+	if err := manuscript.CheckKeys(n, dir); err != nil {
 		return nil, err
 	}
 	if err := n.Decode(dir); err != nil {
@@ -257,7 +258,7 @@ func (c *Context) ItemLine(key string, i int) int {
 
 // ItemErrorf is an error at entry i of the list under key.
 func (c *Context) ItemErrorf(key string, i int, format string, args ...any) error {
-	return &PosError{File: c.doc.File, Line: c.ItemLine(key, i), Msg: fmt.Sprintf(format, args...)}
+	return &manuscript.PosError{File: c.doc.File, Line: c.ItemLine(key, i), Msg: fmt.Sprintf(format, args...)}
 }
 
 // Kind is the directive's kind name.

@@ -12,6 +12,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/dataio"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // dataStore loads each data alias once per build and remembers the
@@ -47,13 +48,13 @@ func (s *dataStore) aliases() []string {
 }
 
 // path resolves an alias to a file path, honouring the vintage option.
-func (s *dataStore) path(alias string) (DataRef, string, error) {
+func (s *dataStore) path(alias string) (manuscript.DataRef, string, error) {
 	ref, ok := s.doc.Meta.Data[alias]
 	if !ok {
 		if len(s.doc.Meta.Data) == 0 {
 			return ref, "", fmt.Errorf("unknown data alias %q: the front matter has no data: section", alias)
 		}
-		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, DidYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
+		return ref, "", fmt.Errorf("unknown data alias %q%s; the front matter defines: %s", alias, manuscript.DidYouMean(alias, s.aliases()), strings.Join(s.aliases(), ", "))
 	}
 	p := ref.Path
 	if v := s.doc.opts.Vintage; v != "" && v != "default" && len(ref.Vintage) > 0 {

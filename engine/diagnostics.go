@@ -13,6 +13,7 @@ import (
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // A residual diagnostic as written in a `diagnostics:` list: a name and,
@@ -61,7 +62,7 @@ func ParseDiagnostics(c *Context, key string, list []string, set bool) ([]DiagIt
 			}
 		}
 		if !known {
-			return nil, c.Errorf(key, "unknown diagnostic %q%s; write one of %s, with an order where it takes one, e.g. bg(4)", s, DidYouMean(name, names), strings.Join(names, ", "))
+			return nil, c.Errorf(key, "unknown diagnostic %q%s; write one of %s, with an order where it takes one, e.g. bg(4)", s, manuscript.DidYouMean(name, names), strings.Join(names, ", "))
 		}
 		if hasArg {
 			if !ordered {

@@ -13,6 +13,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/diag"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // Options control how a manuscript is read.
@@ -37,7 +38,7 @@ type Options struct {
 type Document struct {
 	File     string // the manuscript path as given
 	Dir      string // its folder, the root for data paths
-	Meta     *Meta
+	Meta     *manuscript.Meta
 	Body     []byte // the Markdown after the front matter
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
@@ -47,7 +48,7 @@ type Document struct {
 	hashes map[[2]string]string    // data column hashes, by (alias, column)
 	blocks []*block
 	byID   map[string]*block
-	refs   []*RefNode
+	refs   []*manuscript.RefNode
 	atNode map[ast.Node]*block
 	opts   Options
 	data   *dataStore
@@ -87,12 +88,12 @@ func Parse(path string, opts Options) (*Document, error) {
 
 // ParseBytes is Parse on manuscript bytes already read from path.
 func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
-	if !utf8Valid(src) {
-		return nil, errAt(path, firstBadUTF8Line(src), "manuscript is not valid UTF-8")
+	if !manuscript.Utf8Valid(src) {
+		return nil, manuscript.ErrAt(path, manuscript.FirstBadUTF8Line(src), "manuscript is not valid UTF-8")
 	}
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
-	front, body, bodyLine, _ := splitFrontMatter(src)
-	meta, err := parseMeta(path, front)
+	front, body, bodyLine, _ := manuscript.SplitFrontMatter(src)
+	meta, err := manuscript.ParseMeta(path, front)
 	if err != nil {
 		return nil, err
 	}
@@ -102,7 +103,7 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		Body: body, BodyLine: bodyLine, byID: map[string]*block{}, atNode: map[ast.Node]*block{}, opts: opts,
 	}
 	d.data = newDataStore(d)
-	d.Root = newMarkdown().Parser().Parse(text.NewReader(body))
+	d.Root = manuscript.NewMarkdown().Parser().Parse(text.NewReader(body))
 	var errs []error
 	ordinal := map[string]int{}
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -118,14 +119,14 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 				d.blocks = append(d.blocks, b)
 				d.atNode[n] = b
 			}
-		case *RefNode:
+		case *manuscript.RefNode:
 			d.refs = append(d.refs, n)
 		}
 		return ast.WalkContinue, nil
 	})
 	for _, b := range d.blocks {
 		if prev, dup := d.byID[b.id]; dup {
-			errs = append(errs, errAt(path, b.line, "duplicate id %q (first used on line %d)", b.id, prev.line))
+			errs = append(errs, manuscript.ErrAt(path, b.line, "duplicate id %q (first used on line %d)", b.id, prev.line))
 			continue
 		}
 		d.byID[b.id] = b
@@ -156,11 +157,11 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	lineStart := bytes.LastIndexByte(d.Body[:infoOff], '\n') + 1
 	line := d.LineOf(infoOff)
 	if len(info) < 2 {
-		return nil, errAt(d.File, line, "a galley block needs a directive kind after \"galley\"; kinds: %s", strings.Join(kindNames(), ", "))
+		return nil, manuscript.ErrAt(d.File, line, "a galley block needs a directive kind after \"galley\"; kinds: %s", strings.Join(kindNames(), ", "))
 	}
 	k, err := LookupKind(info[1])
 	if err != nil {
-		return nil, wrapAt(d.File, line, err)
+		return nil, manuscript.WrapAt(d.File, line, err)
 	}
 	var body bytes.Buffer
 	lines := n.Lines()
@@ -175,33 +176,33 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	dir := k.New()
 	var root yaml.Node
 	if err := yaml.Unmarshal(body.Bytes(), &root); err != nil {
-		return nil, YamlError(d.File, bodyLine, err)
+		return nil, manuscript.YamlError(d.File, bodyLine, err)
 	}
 	if len(root.Content) > 0 {
 		doc := root.Content[0]
 		if doc.Kind != yaml.MappingNode {
-			return nil, errAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
+			return nil, manuscript.ErrAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
 		}
-		if err := checkKeys(doc, dir); err != nil {
-			return nil, YamlError(d.File, bodyLine, err)
+		if err := manuscript.CheckKeys(doc, dir); err != nil {
+			return nil, manuscript.YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(dir); err != nil {
-			return nil, YamlError(d.File, bodyLine, err)
+			return nil, manuscript.YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(&b.raw); err != nil {
-			return nil, YamlError(d.File, bodyLine, err)
+			return nil, manuscript.YamlError(d.File, bodyLine, err)
 		}
 		b.node = doc
 	}
 	b.dir = dir
 	if m := dir.Base().Missing; m != "" && m != "error" && m != "drop" {
-		return nil, errAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
+		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
 	}
 	b.id = dir.Base().ID
 	if b.id == "" {
 		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])
 	} else if !ValidID(b.id) {
-		return nil, errAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter", b.id)
+		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter", b.id)
 	}
 	return b, nil
 }
@@ -259,7 +260,7 @@ func (d *Document) Check() error {
 	for _, b := range d.blocks {
 		c := &Context{doc: d, b: b}
 		if err := b.dir.Check(c); err != nil {
-			errs = append(errs, wrapAt(d.File, b.line, err))
+			errs = append(errs, manuscript.WrapAt(d.File, b.line, err))
 		}
 	}
 	for _, r := range d.refs {
@@ -313,7 +314,7 @@ func (d *Document) run(b *block) (*Result, error) {
 		return b.result, b.err
 	}
 	if b.running {
-		return nil, errAt(d.File, b.line, "directive %q depends on itself", b.id)
+		return nil, manuscript.ErrAt(d.File, b.line, "directive %q depends on itself", b.id)
 	}
 	b.running = true
 	defer func() { b.running = false }()
@@ -333,7 +334,7 @@ func (d *Document) run(b *block) (*Result, error) {
 	c := &Context{doc: d, b: b}
 	res, err := safeRun(b.dir, c)
 	if err != nil {
-		b.err = wrapAt(d.File, b.line, err)
+		b.err = manuscript.WrapAt(d.File, b.line, err)
 		return nil, b.err
 	}
 	res.ID, res.Kind, res.Line, res.Spec = b.id, b.kind.Name, b.line, b.raw
@@ -357,7 +358,7 @@ func (d *Document) run(b *block) (*Result, error) {
 	if res.Figure != nil && d.opts.PNG > 0 {
 		png, err := res.Figure.RenderPNG(d.opts.PNG)
 		if err != nil {
-			b.err = wrapAt(d.File, b.line, err)
+			b.err = manuscript.WrapAt(d.File, b.line, err)
 			return nil, b.err
 		}
 		res.Figure.PNG, res.Figure.PNGDPI = png, d.opts.PNG

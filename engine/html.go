@@ -13,6 +13,7 @@ import (
 	"github.com/yuin/goldmark/util"
 
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/templates"
 )
 
@@ -29,7 +30,7 @@ type HTMLOptions struct {
 // HTML renders the document as one self-contained HTML file: the style
 // sheet is inlined, figures are inline SVG, math is typeset with HTML.
 func (d *Document) HTML(o HTMLOptions) ([]byte, error) {
-	md := newMarkdown()
+	md := manuscript.NewMarkdown()
 	md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&htmlNodes{doc: d}, 100)))
 	var body bytes.Buffer
 	if err := md.Renderer().Render(&body, d.Body, d.Root); err != nil {
@@ -60,8 +61,8 @@ type htmlNodes struct{ doc *Document }
 
 func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, h.fenced)
-	reg.Register(KindRef, h.ref)
-	reg.Register(KindMath, h.math)
+	reg.Register(manuscript.KindRef, h.ref)
+	reg.Register(manuscript.KindMath, h.math)
 }
 
 func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -97,7 +98,7 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 	if !entering {
 		return ast.WalkContinue, nil
 	}
-	t, err := h.doc.formatRef(node.(*RefNode), plainFormat)
+	t, err := h.doc.formatRef(node.(*manuscript.RefNode), plainFormat)
 	if err != nil {
 		return ast.WalkStop, err
 	}
@@ -114,7 +115,7 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 
 func (h *htmlNodes) math(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
 	if entering {
-		n := node.(*MathNode)
+		n := node.(*manuscript.MathNode)
 		cls := "math"
 		if n.Display {
 			cls = "math-display"

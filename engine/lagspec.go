@@ -7,6 +7,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // LagChoice is the grammar every `lags:` key shares: a fixed number
@@ -42,7 +43,7 @@ func (l *LagChoice) Decode(n *yaml.Node, valid func(string) error, help string) 
 			Select string `yaml:"select"`
 			Max    *int   `yaml:"max"`
 		}
-		if err := checkKeys(n, &m); err != nil {
+		if err := manuscript.CheckKeys(n, &m); err != nil {
 			return err
 		}
 		if err := n.Decode(&m); err != nil {

@@ -10,6 +10,7 @@ import (
 	east "github.com/yuin/goldmark/extension/ast"
 
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/templates"
 )
 
@@ -245,13 +246,13 @@ func (w *texWriter) inline(n ast.Node) error {
 		// left out
 	case *east.Strikethrough:
 		return w.inlines(n)
-	case *MathNode:
+	case *manuscript.MathNode:
 		if n.Display {
 			o.WriteString("\\[" + n.TeX + "\\]")
 		} else {
 			o.WriteString("$" + n.TeX + "$")
 		}
-	case *RefNode:
+	case *manuscript.RefNode:
 		t, err := w.doc.formatRef(n, plainFormat)
 		if err != nil {
 			return err

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // An inline reference is {{id.path [verb]}}: id names a directive, path
@@ -43,19 +44,19 @@ func parseRef(s string) (ref, error) {
 // Fields every result has, whatever its kind.
 var commonFields = []string{"label", "number", "id", "kind"}
 
-func (d *Document) checkRef(n *RefNode) (ref, error) {
+func (d *Document) checkRef(n *manuscript.RefNode) (ref, error) {
 	line := d.LineOf(n.Offset)
 	r, err := parseRef(n.Ref)
 	if err != nil {
-		return r, errAt(d.File, line, "%v", err)
+		return r, manuscript.ErrAt(d.File, line, "%v", err)
 	}
 	b, ok := d.byID[r.id]
 	if !ok {
-		return r, errAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, DidYouMean(r.id, d.ids()))
+		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, manuscript.DidYouMean(r.id, d.ids()))
 	}
 	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(commonFields, r.path[0]) {
 		all := append(slices.Clone(f), commonFields...)
-		return r, errAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], DidYouMean(r.path[0], all), strings.Join(all, ", "))
+		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], manuscript.DidYouMean(r.path[0], all), strings.Join(all, ", "))
 	}
 	return r, nil
 }
@@ -72,7 +73,7 @@ type refFormat int
 
 const plainFormat refFormat = 0
 
-func (d *Document) formatRef(n *RefNode, _ refFormat) (refText, error) {
+func (d *Document) formatRef(n *manuscript.RefNode, _ refFormat) (refText, error) {
 	line := d.LineOf(n.Offset)
 	r, err := d.checkRef(n)
 	if err != nil {
@@ -80,7 +81,7 @@ func (d *Document) formatRef(n *RefNode, _ refFormat) (refText, error) {
 	}
 	res := d.byID[r.id].result
 	if res == nil {
-		return refText{}, errAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
+		return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
 	}
 	var v any
 	switch r.path[0] {
@@ -95,12 +96,12 @@ func (d *Document) formatRef(n *RefNode, _ refFormat) (refText, error) {
 	default:
 		v, err = Lookup(res.Values, r.path)
 		if err != nil {
-			return refText{}, errAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+			return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
 		}
 	}
 	s, num, err := formatValue(v, r.verb, d.defaultDecimals())
 	if err != nil {
-		return refText{}, errAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+		return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
 	}
 	return refText{text: s, numeric: num}, nil
 }
@@ -119,7 +120,7 @@ func Lookup(v any, path []string) (any, error) {
 		case map[string]any:
 			next, ok := x[p]
 			if !ok {
-				return nil, fmt.Errorf("no field %q%s; there are: %s", strings.Join(path[:i+1], "."), DidYouMean(p, Keys(x)), strings.Join(Keys(x), ", "))
+				return nil, fmt.Errorf("no field %q%s; there are: %s", strings.Join(path[:i+1], "."), manuscript.DidYouMean(p, Keys(x)), strings.Join(Keys(x), ", "))
 			}
 			v = next
 		case []map[string]any:
@@ -148,7 +149,7 @@ func Lookup(v any, path []string) (any, error) {
 						names = append(names, name)
 					}
 				}
-				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), DidYouMean(p, names))
+				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), manuscript.DidYouMean(p, names))
 			}
 		case []float64:
 			k, err := strconv.Atoi(p)

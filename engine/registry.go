@@ -3,6 +3,8 @@ package engine
 import (
 	"fmt"
 	"sort"
+
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // Directive is one decoded analysis block. Each kind is a struct whose
@@ -72,7 +74,7 @@ func kindNames() []string {
 func LookupKind(name string) (*Kind, error) {
 	k, ok := kinds[name]
 	if !ok {
-		return nil, fmt.Errorf("unknown directive kind %q%s", name, DidYouMean(name, kindNames()))
+		return nil, fmt.Errorf("unknown directive kind %q%s", name, manuscript.DidYouMean(name, kindNames()))
 	}
 	return k, nil
 }

@@ -15,6 +15,7 @@ import (
 	"github.com/galley-econ/galley/analysis/stability"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/figures"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // figure: a chart in the house style of package figures. What it draws
@@ -99,7 +100,7 @@ func (s *figureSpec) exprs() []string {
 func (s *figureSpec) Check(c *engine.Context) error {
 	p := s.plotKind()
 	if !slices.Contains(plotKinds, p) {
-		return c.Errorf("plot", "unknown plot %q%s; plots: %s", p, engine.DidYouMean(p, plotKinds), strings.Join(plotKinds, ", "))
+		return c.Errorf("plot", "unknown plot %q%s; plots: %s", p, manuscript.DidYouMean(p, plotKinds), strings.Join(plotKinds, ", "))
 	}
 	if s.Legend != "" {
 		if _, ok := legendPlaces[s.Legend]; !ok {
@@ -657,7 +658,7 @@ func (s *figureSpec) runRegression(c *engine.Context, p string, o *figures.Optio
 		}
 		j := slices.Index(ds.terms, term)
 		if j < 0 {
-			return nil, dr, c.Errorf("coef", "the regression has no coefficient %q%s; it has: %s", term, engine.DidYouMean(term, ds.terms), strings.Join(ds.terms, ", "))
+			return nil, dr, c.Errorf("coef", "the regression has no coefficient %q%s; it has: %s", term, manuscript.DidYouMean(term, ds.terms), strings.Join(ds.terms, ", "))
 		}
 		est, lo, hi, err := rec.CoefBand(j)
 		if err != nil {

@@ -15,6 +15,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // grid: one directive of another kind repeated over every combination of
@@ -120,7 +121,7 @@ func (g *gridDirective) Check(c *engine.Context) error {
 
 // at is an error at a YAML node of the grid's block.
 func (s *gridSpec) at(c *engine.Context, n *yaml.Node, format string, args ...any) error {
-	return &engine.PosError{File: c.File(), Line: c.Line() + n.Line, Msg: fmt.Sprintf(format, args...)}
+	return &manuscript.PosError{File: c.File(), Line: c.Line() + n.Line, Msg: fmt.Sprintf(format, args...)}
 }
 
 // value is the value node of a top-level key, or nil.
@@ -161,7 +162,7 @@ func (s *gridSpec) prepare(c *engine.Context) error {
 		}
 		all := append(slices.Clone(gridKeys), keys...)
 		slices.Sort(all)
-		return s.at(c, key, "unknown key %q in a grid of %s%s; valid keys: %s", key.Value, k.Name, engine.DidYouMean(key.Value, all), strings.Join(all, ", "))
+		return s.at(c, key, "unknown key %q in a grid of %s%s; valid keys: %s", key.Value, k.Name, manuscript.DidYouMean(key.Value, all), strings.Join(all, ", "))
 	}
 	if err := s.readOver(c, keys); err != nil {
 		return err
@@ -188,7 +189,7 @@ func (s *gridSpec) prepare(c *engine.Context) error {
 	if s.Show != "" {
 		head := strings.SplitN(s.Show, ".", 2)[0]
 		if f := k.Fields; f != nil && !slices.Contains(f, head) {
-			return c.Errorf("show", "a %s result has no value %q%s; values: %s", k.Name, head, engine.DidYouMean(head, f), strings.Join(f, ", "))
+			return c.Errorf("show", "a %s result has no value %q%s; values: %s", k.Name, head, manuscript.DidYouMean(head, f), strings.Join(f, ", "))
 		}
 	} else if f := k.Fields; f != nil && !slices.Contains(f, "stat") && !slices.Contains(f, "coef") {
 		return c.Errorf("", "a grid of %s needs show: to say which value to tabulate; values: %s", k.Name, strings.Join(f, ", "))
@@ -216,7 +217,7 @@ func kindKeys(k *engine.Kind) []string {
 		return nil
 	}
 	var out []string
-	for name := range engine.YamlFields(t) {
+	for name := range manuscript.YamlFields(t) {
 		if name != "id" && name != "caption" && name != "note" {
 			out = append(out, name)
 		}
@@ -239,7 +240,7 @@ func (s *gridSpec) readOver(c *engine.Context, keys []string) error {
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		if keys != nil && !slices.Contains(keys, k.Value) {
-			return s.at(c, k, "over: a %s directive has no key %q%s; its keys: %s", s.kind.Name, k.Value, engine.DidYouMean(k.Value, keys), strings.Join(keys, ", "))
+			return s.at(c, k, "over: a %s directive has no key %q%s; its keys: %s", s.kind.Name, k.Value, manuscript.DidYouMean(k.Value, keys), strings.Join(keys, ", "))
 		}
 		if slices.Contains(gridKeys, k.Value) {
 			return s.at(c, k, "over: %q is a key of the grid itself and cannot vary", k.Value)
@@ -305,7 +306,7 @@ func (s *gridSpec) newCell(c *engine.Context, i int, idx []int) (*gridCell, erro
 		n.Content = append(n.Content, &key, ax.values[idx[a]])
 		var v any
 		if err := ax.values[idx[a]].Decode(&v); err != nil {
-			return nil, engine.YamlError(c.File(), c.Line()+1, err)
+			return nil, manuscript.YamlError(c.File(), c.Line()+1, err)
 		}
 		cell.over[ax.key.Value] = v
 		parts = append(parts, ax.key.Value+": "+ax.labels[idx[a]])
@@ -313,7 +314,7 @@ func (s *gridSpec) newCell(c *engine.Context, i int, idx []int) (*gridCell, erro
 	cell.label = strings.Join(parts, ", ")
 	v, err := c.NewVariant(s.kind, cell.id, n)
 	if err != nil {
-		return nil, cellError(c, cell, engine.YamlError(c.File(), c.Line()+1, err))
+		return nil, cellError(c, cell, manuscript.YamlError(c.File(), c.Line()+1, err))
 	}
 	cell.v = v
 	return cell, nil
@@ -322,15 +323,15 @@ func (s *gridSpec) newCell(c *engine.Context, i int, idx []int) (*gridCell, erro
 // cellError names the cell in an error, keeping its manuscript line.
 func cellError(c *engine.Context, cell *gridCell, err error) error {
 	prefix := fmt.Sprintf("grid cell %s (%s)", cell.id, cell.label)
-	var pe *engine.PosError
+	var pe *manuscript.PosError
 	if errors.As(err, &pe) {
 		msg := prefix
 		if pe.Msg != "" {
 			msg += ": " + pe.Msg
 		}
-		return &engine.PosError{File: pe.File, Line: pe.Line, Msg: msg, Err: pe.Err}
+		return &manuscript.PosError{File: pe.File, Line: pe.Line, Msg: msg, Err: pe.Err}
 	}
-	return &engine.PosError{File: c.File(), Line: c.Line(), Msg: prefix, Err: err}
+	return &manuscript.PosError{File: c.File(), Line: c.Line(), Msg: prefix, Err: err}
 }
 
 // nodeText is a YAML value as a short label: scalars as written, lists
@@ -478,7 +479,7 @@ func (s *gridSpec) resolveShow(c *engine.Context, results []*engine.Result) (gri
 			if s.Show == "" {
 				key = ""
 			}
-			return sh, c.Errorf(key, "show: no cell has the term %q%s; terms: %s", sh.term, engine.DidYouMean(sh.term, terms), strings.Join(terms, ", "))
+			return sh, c.Errorf(key, "show: no cell has the term %q%s; terms: %s", sh.term, manuscript.DidYouMean(sh.term, terms), strings.Join(terms, ", "))
 		}
 		return sh, nil
 	}

@@ -11,6 +11,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // The YAML types of the johansen, vecm and var-lags keys, and their
@@ -56,7 +57,7 @@ func (h *sysHypotheses) UnmarshalYAML(n *yaml.Node) error {
 		if !engine.ValidID(k.Value) {
 			return fmt.Errorf("line %d: restrict: test name %q: use letters, digits, '_' and '-', starting with a letter", k.Line, k.Value)
 		}
-		var eq engine.NameList
+		var eq manuscript.NameList
 		if err := eq.UnmarshalYAML(v); err != nil {
 			return fmt.Errorf("line %d: restrict: %s: write an equation or a list of equations", v.Line, k.Value)
 		}
@@ -211,7 +212,7 @@ func seriesIndex(name string, series []string) (int, error) {
 			return i, nil
 		}
 	}
-	return 0, fmt.Errorf("%q is not one of the series%s (%s)", name, engine.DidYouMean(name, series), strings.Join(series, ", "))
+	return 0, fmt.Errorf("%q is not one of the series%s (%s)", name, manuscript.DidYouMean(name, series), strings.Join(series, ", "))
 }
 
 var coefTermRE = regexp.MustCompile(`^([0-9]*\.?[0-9]+(?:[eE][-+]?[0-9]+)?)?\s*\*?\s*(.*)$`)
@@ -255,7 +256,7 @@ func ParseRestriction(eq string, coefs []string, cs johansen.Case) ([]float64, e
 				if name == "const" || name == "trend" {
 					hint = fmt.Sprintf("; β has a %s row only in case %s (this is case %s)", name, map[string]string{"const": "rc", "trend": "rt"}[name], cs)
 				}
-				return nil, fmt.Errorf("%q: %q is not a coefficient of the relations%s (%s)%s", eq, m[2], engine.DidYouMean(m[2], coefs), strings.Join(coefs, ", "), hint)
+				return nil, fmt.Errorf("%q: %q is not a coefficient of the relations%s (%s)%s", eq, m[2], manuscript.DidYouMean(m[2], coefs), strings.Join(coefs, ", "), hint)
 			}
 			row[i] += sign * t.sign * w
 		}

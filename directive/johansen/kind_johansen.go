@@ -9,6 +9,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // This file holds the system-cointegration directives:
@@ -26,18 +27,18 @@ import (
 // SystemKeys are the analysis keys shared by johansen and vecm (exported
 // only so that the YAML decoder sees the embedded fields).
 type SystemKeys struct {
-	Data        string            `yaml:"data"`
-	Series      []string          `yaml:"series"`
-	Det         string            `yaml:"det"`
-	Lags        sysLags           `yaml:"lags"`
-	Sample      string            `yaml:"sample"`
-	SmallSample bool              `yaml:"small_sample"`
-	Level       *float64          `yaml:"level"`
-	Rank        *int              `yaml:"rank"`
-	Normalize   engine.NameList   `yaml:"normalize"`
-	Restrict    sysHypotheses     `yaml:"restrict"`
-	Exogenous   []engine.NameList `yaml:"exogenous"`
-	Decimals    *int              `yaml:"decimals"`
+	Data        string                `yaml:"data"`
+	Series      []string              `yaml:"series"`
+	Det         string                `yaml:"det"`
+	Lags        sysLags               `yaml:"lags"`
+	Sample      string                `yaml:"sample"`
+	SmallSample bool                  `yaml:"small_sample"`
+	Level       *float64              `yaml:"level"`
+	Rank        *int                  `yaml:"rank"`
+	Normalize   manuscript.NameList   `yaml:"normalize"`
+	Restrict    sysHypotheses         `yaml:"restrict"`
+	Exogenous   []manuscript.NameList `yaml:"exogenous"`
+	Decimals    *int                  `yaml:"decimals"`
 
 	engine.SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
 }

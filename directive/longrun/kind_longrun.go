@@ -17,6 +17,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // dols and fmols: estimates of a cointegrating relation with valid
@@ -389,7 +390,7 @@ func parseRestrictions(c *engine.Context, list []string, terms []string) ([]rest
 		for _, eq := range strings.Split(s, ";") {
 			row, val, err := ParseLinear(eq, terms)
 			if err != nil {
-				return nil, &engine.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
+				return nil, &manuscript.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
 			}
 			rs.R = append(rs.R, row)
 			rs.r = append(rs.r, val)
@@ -435,7 +436,7 @@ func ParseLinear(eq string, terms []string) ([]float64, float64, error) {
 			// a number, then an optional "*"
 			j := len(numberRE.FindString(s))
 			if j == 0 {
-				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), engine.DidYouMean(firstWord(s), terms))
+				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), manuscript.DidYouMean(firstWord(s), terms))
 			}
 			v, err := strconv.ParseFloat(s[:j], 64)
 			if err != nil {
@@ -448,7 +449,7 @@ func ParseLinear(eq string, terms []string) ([]float64, float64, error) {
 				if s == "" {
 					return nil, 0, fmt.Errorf("a number on the left-hand side needs a regressor after it")
 				}
-				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), engine.DidYouMean(firstWord(s), terms))
+				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), manuscript.DidYouMean(firstWord(s), terms))
 			}
 		}
 		for i, t := range terms {
@@ -516,7 +517,7 @@ func runWald(c *engine.Context, rs []restriction, lr longrun.Coefs) ([]waldResul
 		}
 		w, err := longrun.Wald(lr, R, r.r)
 		if err != nil {
-			return nil, &engine.PosError{File: c.File(), Line: r.line, Msg: fmt.Sprintf("restriction %q: %v", r.Text, err)}
+			return nil, &manuscript.PosError{File: c.File(), Line: r.line, Msg: fmt.Sprintf("restriction %q: %v", r.Text, err)}
 		}
 		out = append(out, waldResult{Text: r.Text, W: w})
 	}

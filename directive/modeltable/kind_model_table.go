@@ -9,6 +9,7 @@ import (
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // model-table: several estimated models side by side, one column each.
@@ -79,7 +80,7 @@ func (s *modelTableSpec) Check(c *engine.Context) error {
 	keys = append(keys, modelDiagnostics...)
 	for _, st := range s.stats() {
 		if !slices.Contains(keys, st) {
-			return c.Errorf("stats", "unknown statistic %q%s; valid: %s", st, engine.DidYouMean(st, keys), strings.Join(keys, ", "))
+			return c.Errorf("stats", "unknown statistic %q%s; valid: %s", st, manuscript.DidYouMean(st, keys), strings.Join(keys, ", "))
 		}
 	}
 	return nil
@@ -128,7 +129,7 @@ func (s *modelTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if len(s.Terms) > 0 {
 		for _, t := range s.Terms {
 			if !slices.Contains(union, t) {
-				return nil, c.Errorf("terms", "no model in the table has the term %q%s; terms: %s", t, engine.DidYouMean(t, union), strings.Join(union, ", "))
+				return nil, c.Errorf("terms", "no model in the table has the term %q%s; terms: %s", t, manuscript.DidYouMean(t, union), strings.Join(union, ", "))
 			}
 		}
 		terms = s.Terms

@@ -11,6 +11,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/revision"
 )
 
@@ -47,7 +48,7 @@ func (s *revisionSpec) Check(c *engine.Context) error {
 	}
 	for _, sh := range s.Show {
 		if !slices.Contains(revisionShows, sh) {
-			return c.Errorf("show", "unknown part %q%s; parts: %s", sh, engine.DidYouMean(sh, revisionShows), strings.Join(revisionShows, ", "))
+			return c.Errorf("show", "unknown part %q%s; parts: %s", sh, manuscript.DidYouMean(sh, revisionShows), strings.Join(revisionShows, ", "))
 		}
 	}
 	if s.Max < 0 || s.Tol < 0 {

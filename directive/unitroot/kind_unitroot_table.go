@@ -9,6 +9,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // unitroot-table: several series × several tests, in levels and first
@@ -59,7 +60,7 @@ func (s *urTableSpec) settings(c *engine.Context) (lev, dif []urTest, err error)
 	seen := map[string]bool{}
 	for _, name := range s.tests() {
 		if lookupTest(name) == nil {
-			return nil, nil, c.Errorf("tests", "unknown test %q%s; tests: %s", name, engine.DidYouMean(name, testNames()), strings.Join(testNames(), ", "))
+			return nil, nil, c.Errorf("tests", "unknown test %q%s; tests: %s", name, manuscript.DidYouMean(name, testNames()), strings.Join(testNames(), ", "))
 		}
 		if seen[name] {
 			return nil, nil, c.Errorf("tests", "test %q is listed twice", name)

@@ -1,12 +1,12 @@
-package engine
+package manuscript
 
 import (
 	"unicode/utf8"
 )
 
-func utf8Valid(b []byte) bool { return utf8.Valid(b) }
+func Utf8Valid(b []byte) bool { return utf8.Valid(b) }
 
-func firstBadUTF8Line(b []byte) int {
+func FirstBadUTF8Line(b []byte) int {
 	line := 1
 	for len(b) > 0 {
 		r, size := utf8.DecodeRune(b)

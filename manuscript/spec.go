@@ -1,4 +1,4 @@
-package engine
+package manuscript
 
 import (
 	"errors"
@@ -12,11 +12,11 @@ import (
 	"gopkg.in/yaml.v3"
 )
 
-// checkKeys reports the first mapping key in n that has no field in the
+// CheckKeys reports the first mapping key in n that has no field in the
 // struct pointed to by out, with the closest valid key suggested. It
 // descends into nested struct fields; types with their own UnmarshalYAML
 // check themselves. Errors carry "line N:" relative to the YAML text.
-func checkKeys(n *yaml.Node, out any) error {
+func CheckKeys(n *yaml.Node, out any) error {
 	return checkKeysType(n, reflect.TypeOf(out))
 }
 

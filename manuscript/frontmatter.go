@@ -1,4 +1,4 @@
-package engine
+package manuscript
 
 import (
 	"bytes"
@@ -43,7 +43,7 @@ func (d *DataRef) UnmarshalYAML(n *yaml.Node) error {
 	}
 	type plain DataRef
 	var p plain
-	if err := checkKeys(n, &p); err != nil {
+	if err := CheckKeys(n, &p); err != nil {
 		return err
 	}
 	if err := n.Decode(&p); err != nil {
@@ -57,10 +57,10 @@ func (d *DataRef) UnmarshalYAML(n *yaml.Node) error {
 	return nil
 }
 
-// splitFrontMatter separates a leading YAML block delimited by lines of
+// SplitFrontMatter separates a leading YAML block delimited by lines of
 // "---" from the body. bodyLine is the 1-based line of the body's first
 // line in the file.
-func splitFrontMatter(src []byte) (front []byte, body []byte, bodyLine int, ok bool) {
+func SplitFrontMatter(src []byte) (front []byte, body []byte, bodyLine int, ok bool) {
 	s := src
 	s = bytes.TrimPrefix(s, []byte("\xef\xbb\xbf"))
 	if !bytes.HasPrefix(s, []byte("---\n")) && !bytes.HasPrefix(s, []byte("---\r\n")) {
@@ -78,9 +78,9 @@ func splitFrontMatter(src []byte) (front []byte, body []byte, bodyLine int, ok b
 	return nil, s, 1, false
 }
 
-// parseMeta decodes front matter strictly. Line numbers in errors are
+// ParseMeta decodes front matter strictly. Line numbers in errors are
 // file lines (the front matter starts on line 2).
-func parseMeta(file string, front []byte) (*Meta, error) {
+func ParseMeta(file string, front []byte) (*Meta, error) {
 	m := &Meta{}
 	if len(bytes.TrimSpace(front)) == 0 {
 		return m, nil
@@ -94,9 +94,9 @@ func parseMeta(file string, front []byte) (*Meta, error) {
 	}
 	doc := root.Content[0]
 	if doc.Kind != yaml.MappingNode {
-		return nil, errAt(file, 2, "front matter must be a mapping of keys to values")
+		return nil, ErrAt(file, 2, "front matter must be a mapping of keys to values")
 	}
-	if err := checkKeys(doc, m); err != nil {
+	if err := CheckKeys(doc, m); err != nil {
 		return nil, YamlError(file, 1, err)
 	}
 	if err := doc.Decode(m); err != nil {
@@ -104,11 +104,11 @@ func parseMeta(file string, front []byte) (*Meta, error) {
 	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {
-			return nil, errAt(file, 2, "stars: each threshold must be a probability between 0 and 1, got %g", p)
+			return nil, ErrAt(file, 2, "stars: each threshold must be a probability between 0 and 1, got %g", p)
 		}
 	}
 	if m.Decimals != nil && (*m.Decimals < 0 || *m.Decimals > 10) {
-		return nil, errAt(file, 2, "decimals must be between 0 and 10")
+		return nil, ErrAt(file, 2, "decimals must be between 0 and 10")
 	}
 	return m, nil
 }

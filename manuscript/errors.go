@@ -1,4 +1,4 @@
-package engine
+package manuscript
 
 import (
 	"errors"
@@ -29,12 +29,12 @@ func (e *PosError) Error() string {
 
 func (e *PosError) Unwrap() error { return e.Err }
 
-func errAt(file string, line int, format string, args ...any) error {
+func ErrAt(file string, line int, format string, args ...any) error {
 	return &PosError{File: file, Line: line, Msg: fmt.Sprintf(format, args...)}
 }
 
-// wrapAt attaches a position to err unless it already carries one.
-func wrapAt(file string, line int, err error) error {
+// WrapAt attaches a position to err unless it already carries one.
+func WrapAt(file string, line int, err error) error {
 	var pe *PosError
 	if errors.As(err, &pe) {
 		return err

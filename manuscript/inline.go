@@ -1,4 +1,4 @@
-package engine
+package manuscript
 
 import (
 	"bytes"
@@ -105,9 +105,9 @@ func (mathParser) Parse(parent ast.Node, block text.Reader, pc parser.Context) a
 	return nil
 }
 
-// newMarkdown is the goldmark instance every writer parses with:
+// NewMarkdown is the goldmark instance every writer parses with:
 // CommonMark plus pipe tables, strikethrough, and galley's inline nodes.
-func newMarkdown() goldmark.Markdown {
+func NewMarkdown() goldmark.Markdown {
 	return goldmark.New(
 		goldmark.WithExtensions(extension.Table, extension.Strikethrough),
 		goldmark.WithParserOptions(
