@@ -31,6 +31,7 @@ import (
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
 	_ "github.com/galley-econ/galley/kinds"
+	"github.com/galley-econ/galley/write/html"
 )
 
 // Sizes of the workloads.
@@ -264,7 +265,7 @@ func Build(manuscript string, cache bool) (*engine.Document, Phases, error) {
 	if files[base+".results.json"], err = doc.ResultsJSON(version.Version); err != nil {
 		return nil, ph, err
 	}
-	if files[base+".html"], err = doc.HTML(engine.HTMLOptions{Version: version.Version}); err != nil {
+	if files[base+".html"], err = html.Write(doc, html.Options{Version: version.Version}); err != nil {
 		return nil, ph, err
 	}
 	for _, r := range doc.Results() {

@@ -299,7 +299,7 @@ func (d *Document) Run() error {
 		}
 	}
 	for _, r := range d.refs {
-		if _, err := d.formatRef(r, plainFormat); err != nil {
+		if _, err := d.Inline(r); err != nil {
 			errs = append(errs, err)
 		}
 	}
@@ -426,3 +426,40 @@ type Input struct {
 
 // Directives is the number of directive blocks.
 func (d *Document) Directives() int { return len(d.blocks) }
+
+// ResultAt is the result of the directive written as the fenced block n,
+// or ok false when n is an ordinary code block. The error says a
+// directive has not run.
+func (d *Document) ResultAt(n ast.Node) (res *Result, ok bool, err error) {
+	b, ok := d.atNode[n]
+	if !ok {
+		return nil, false, nil
+	}
+	if b.result == nil {
+		return nil, true, fmt.Errorf("directive %q has not run", b.id)
+	}
+	return b.result, true, nil
+}
+
+// Span is where a directive stands in the body: the offsets of its
+// opening fence line and just past its closing fence, and its result.
+type Span struct {
+	Start, End int
+	Result     *Result
+}
+
+// Spans lists the directives in document order, for a writer that keeps
+// the author's text and replaces each block.
+func (d *Document) Spans() ([]Span, error) {
+	out := make([]Span, 0, len(d.blocks))
+	for _, b := range d.blocks {
+		if b.result == nil {
+			return nil, fmt.Errorf("directive %q has not run", b.id)
+		}
+		out = append(out, Span{b.startOff, b.endOff, b.result})
+	}
+	return out, nil
+}
+
+// InlineNodes lists the inline values of the body in document order.
+func (d *Document) InlineNodes() []*manuscript.RefNode { return d.refs }

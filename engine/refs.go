@@ -61,32 +61,30 @@ func (d *Document) checkRef(n *manuscript.RefNode) (ref, error) {
 	return r, nil
 }
 
-// refText is an inline value as text, with numeric true when it is a
-// number (so that writers can typeset its sign).
-type refText struct {
-	text    string
-	numeric bool
-	target  *Result // set for label references
+// InlineValue is an inline value as text, with Numeric true when it is a
+// number (so that writers can typeset its sign), and Target set for a
+// cross-reference ({{id.label}}) to the result it names.
+type InlineValue struct {
+	Text    string
+	Numeric bool
+	Target  *Result
 }
 
-type refFormat int
-
-const plainFormat refFormat = 0
-
-func (d *Document) formatRef(n *manuscript.RefNode, _ refFormat) (refText, error) {
+// Inline is the text of the inline value n.
+func (d *Document) Inline(n *manuscript.RefNode) (InlineValue, error) {
 	line := d.LineOf(n.Offset)
 	r, err := d.checkRef(n)
 	if err != nil {
-		return refText{}, err
+		return InlineValue{}, err
 	}
 	res := d.byID[r.id].result
 	if res == nil {
-		return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
+		return InlineValue{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
 	}
 	var v any
 	switch r.path[0] {
 	case "label":
-		return refText{text: res.Label(), target: res}, nil
+		return InlineValue{Text: res.Label(), Target: res}, nil
 	case "number":
 		v = res.Number
 	case "id":
@@ -96,14 +94,14 @@ func (d *Document) formatRef(n *manuscript.RefNode, _ refFormat) (refText, error
 	default:
 		v, err = Lookup(res.Values, r.path)
 		if err != nil {
-			return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+			return InlineValue{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
 		}
 	}
 	s, num, err := formatValue(v, r.verb, d.defaultDecimals())
 	if err != nil {
-		return refText{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
+		return InlineValue{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %v", n.Ref, err)
 	}
-	return refText{text: s, numeric: num}, nil
+	return InlineValue{Text: s, Numeric: num}, nil
 }
 
 func (d *Document) defaultDecimals() int {

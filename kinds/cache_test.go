@@ -13,6 +13,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/revision"
+	"github.com/galley-econ/galley/write/html"
 )
 
 // copyDemo copies the demo paper and its data into a temporary folder.
@@ -71,8 +72,8 @@ func TestCacheReuse(t *testing.T) {
 	if !bytes.Equal(r1, r2) {
 		t.Fatal("results from the cache differ from the fresh results")
 	}
-	h1, _ := d1.HTML(engine.HTMLOptions{})
-	h2, _ := d2.HTML(engine.HTMLOptions{})
+	h1, _ := html.Write(d1, html.Options{})
+	h2, _ := html.Write(d2, html.Options{})
 	if !bytes.Equal(h1, h2) {
 		t.Fatal("HTML from cached results differs")
 	}

@@ -7,6 +7,9 @@ import (
 	"testing"
 
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/write/html"
+	"github.com/galley-econ/galley/write/latex"
+	"github.com/galley-econ/galley/write/markdown"
 )
 
 // FuzzManuscript: any manuscript text, with a small data file beside it,
@@ -32,13 +35,13 @@ func FuzzManuscript(f *testing.F) {
 		if err == nil {
 			err = doc.Run()
 			if err == nil {
-				if _, err := doc.HTML(engine.HTMLOptions{}); err != nil {
+				if _, err := html.Write(doc, html.Options{}); err != nil {
 					t.Fatalf("HTML after a good run: %v", err)
 				}
-				if _, err := doc.LaTeX(engine.LaTeXOptions{}); err != nil {
+				if _, err := latex.Write(doc, latex.Options{}); err != nil {
 					t.Fatalf("LaTeX after a good run: %v", err)
 				}
-				if _, err := doc.Markdown(engine.MarkdownOptions{}); err != nil {
+				if _, err := markdown.Write(doc, markdown.Options{}); err != nil {
 					t.Fatalf("Markdown after a good run: %v", err)
 				}
 				return

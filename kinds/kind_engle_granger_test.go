@@ -13,6 +13,9 @@ import (
 	"github.com/galley-econ/galley/analysis/unitroot"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
+	"github.com/galley-econ/galley/write/html"
+	"github.com/galley-econ/galley/write/latex"
+	"github.com/galley-econ/galley/write/markdown"
 )
 
 // The wiring tests run testdata/render/coint/gridlink.md (the demo's
@@ -278,21 +281,21 @@ func TestEngleGrangerOddNames(t *testing.T) {
 	if err := d.Run(); err != nil {
 		t.Fatal(err)
 	}
-	html, err := d.HTML(engine.HTMLOptions{})
+	html, err := html.Write(d, html.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	if !strings.Contains(string(html), "cost #1 &lt;x&gt;") || strings.Contains(string(html), "<x>") {
 		t.Errorf("HTML does not escape the odd name")
 	}
-	tex, err := d.LaTeX(engine.LaTeXOptions{})
+	tex, err := latex.Write(d, latex.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
 	if !strings.Contains(string(tex), `price\_a\&b`) || !strings.Contains(string(tex), `cost \#1 \textless{}x\textgreater{}`) {
 		t.Errorf("LaTeX does not escape the odd names")
 	}
-	md, err := d.Markdown(engine.MarkdownOptions{})
+	md, err := markdown.Write(d, markdown.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}

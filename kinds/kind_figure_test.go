@@ -15,6 +15,9 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/figures"
+	"github.com/galley-econ/galley/write/html"
+	"github.com/galley-econ/galley/write/latex"
+	"github.com/galley-econ/galley/write/markdown"
 )
 
 // figCSV is 72 months (2004-01..2009-12) of a seeded random walk pair
@@ -168,7 +171,7 @@ func TestFigureLinesPanels(t *testing.T) {
 		t.Errorf("files %v", f)
 	}
 	// writers: inline SVG with a numbered caption, a PDF include, an SVG link
-	h, err := doc.HTML(engine.HTMLOptions{})
+	h, err := html.Write(doc, html.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -180,7 +183,7 @@ func TestFigureLinesPanels(t *testing.T) {
 	if bytes.Contains(h, []byte("http://")) || bytes.Contains(h, []byte("<?xml")) {
 		t.Errorf("inline SVG keeps its XML declaration or namespace addresses")
 	}
-	tex, err := doc.LaTeX(engine.LaTeXOptions{FigureDir: engine.FigureFolder})
+	tex, err := latex.Write(doc, latex.Options{FigureDir: engine.FigureFolder})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -189,7 +192,7 @@ func TestFigureLinesPanels(t *testing.T) {
 			t.Errorf("LaTeX lacks %q", want)
 		}
 	}
-	md, err := doc.Markdown(engine.MarkdownOptions{FigureDir: engine.FigureFolder})
+	md, err := markdown.Write(doc, markdown.Options{FigureDir: engine.FigureFolder})
 	if err != nil {
 		t.Fatal(err)
 	}

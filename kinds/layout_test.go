@@ -23,7 +23,9 @@ func TestDirectivePackagesStandAlone(t *testing.T) {
 		banned []string
 	}{
 		{"directive", []string{"directive/", "kinds", "cmd/"}},
-		{"engine", []string{"directive/", "kinds", "cmd/"}},
+		{"engine", []string{"directive/", "kinds", "cmd/", "write/"}},
+		{"write", []string{"directive/", "kinds", "cmd/"}},
+		{"manuscript", []string{"engine", "directive/", "kinds", "cmd/", "write/", "analysis/"}},
 		{"analysis", []string{"engine", "directive/", "kinds", "cmd/", "figures", "dataio", "revision"}},
 	}
 	for _, r := range rules {

@@ -11,6 +11,9 @@ import (
 	"github.com/galley-econ/galley/internal/version"
 	_ "github.com/galley-econ/galley/kinds"
 	"github.com/galley-econ/galley/revision"
+	"github.com/galley-econ/galley/write/html"
+	"github.com/galley-econ/galley/write/latex"
+	"github.com/galley-econ/galley/write/markdown"
 )
 
 type buildCmd struct {
@@ -91,24 +94,24 @@ func outputs(doc *engine.Document, formats []string, pngDPI int) (map[string][]b
 	for _, f := range formats {
 		switch f {
 		case "html":
-			b, err := doc.HTML(engine.HTMLOptions{Version: version.Version})
+			b, err := html.Write(doc, html.Options{Version: version.Version})
 			if err != nil {
 				return nil, err
 			}
 			files[base+".html"] = b
 		case "latex", "tex":
-			b, err := doc.LaTeX(engine.LaTeXOptions{Version: version.Version, FigureDir: engine.FigureFolder})
+			b, err := latex.Write(doc, latex.Options{Version: version.Version, FigureDir: engine.FigureFolder})
 			if err != nil {
 				return nil, err
 			}
 			files[base+".tex"] = b
 			for _, r := range doc.Results() {
 				if r.Table != nil {
-					files[filepath.Join("tables", r.ID+".tex")] = engine.LaTeXTable(r)
+					files[filepath.Join("tables", r.ID+".tex")] = latex.Fragment(r)
 				}
 			}
 		case "markdown", "md":
-			b, err := doc.Markdown(engine.MarkdownOptions{FigureDir: engine.FigureFolder})
+			b, err := markdown.Write(doc, markdown.Options{FigureDir: engine.FigureFolder})
 			if err != nil {
 				return nil, err
 			}

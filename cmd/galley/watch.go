@@ -22,6 +22,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
+	htmlout "github.com/galley-econ/galley/write/html"
 )
 
 type watchCmd struct {
@@ -248,7 +249,7 @@ func (w *watcher) build() {
 	w.mu.Unlock()
 	var page []byte
 	if err == nil {
-		page, err = doc.HTML(engine.HTMLOptions{Version: version.Version, Script: reloadScript(next)})
+		page, err = htmlout.Write(doc, htmlout.Options{Version: version.Version, Script: reloadScript(next)})
 	}
 	if err == nil && w.out != "" {
 		err = w.write(doc)
@@ -263,7 +264,7 @@ func (w *watcher) build() {
 		good := w.good
 		w.mu.Unlock()
 		if good != nil {
-			if page, err = good.HTML(engine.HTMLOptions{Version: version.Version, Script: reloadScript(next), Error: msg}); err != nil {
+			if page, err = htmlout.Write(good, htmlout.Options{Version: version.Version, Script: reloadScript(next), Error: msg}); err != nil {
 				w.logf("%v", err)
 				page = nil
 			}

@@ -1,4 +1,4 @@
-package engine
+package html
 
 import (
 	"bytes"
@@ -12,13 +12,14 @@ import (
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/templates"
 )
 
-// HTMLOptions tune the HTML writer.
-type HTMLOptions struct {
+// Options tune the HTML writer.
+type Options struct {
 	Version string
 	// Script is extra HTML placed before </body> (the live preview's
 	// reload hook); empty for files.
@@ -27,9 +28,9 @@ type HTMLOptions struct {
 	Error string
 }
 
-// HTML renders the document as one self-contained HTML file: the style
+// Write renders the document as one self-contained HTML file: the style
 // sheet is inlined, figures are inline SVG, math is typeset with HTML.
-func (d *Document) HTML(o HTMLOptions) ([]byte, error) {
+func Write(d *engine.Document, o Options) ([]byte, error) {
 	md := manuscript.NewMarkdown()
 	md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&htmlNodes{doc: d}, 100)))
 	var body bytes.Buffer
@@ -57,7 +58,7 @@ func (d *Document) HTML(o HTMLOptions) ([]byte, error) {
 	return out.Bytes(), err
 }
 
-type htmlNodes struct{ doc *Document }
+type htmlNodes struct{ doc *engine.Document }
 
 func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, h.fenced)
@@ -67,7 +68,7 @@ func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 
 func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
 	n := node.(*ast.FencedCodeBlock)
-	b, ok := h.doc.atNode[n]
+	res, ok, err := h.doc.ResultAt(n)
 	if !ok { // an ordinary code block
 		if entering {
 			w.WriteString("<pre><code")
@@ -87,10 +88,10 @@ func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering
 	if !entering {
 		return ast.WalkContinue, nil
 	}
-	if b.result == nil {
-		return ast.WalkSkipChildren, fmt.Errorf("directive %q has not run", b.id)
+	if err != nil {
+		return ast.WalkSkipChildren, err
 	}
-	writeHTMLResult(w, b.result)
+	writeHTMLResult(w, res)
 	return ast.WalkSkipChildren, nil
 }
 
@@ -98,17 +99,17 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 	if !entering {
 		return ast.WalkContinue, nil
 	}
-	t, err := h.doc.formatRef(node.(*manuscript.RefNode), plainFormat)
+	t, err := h.doc.Inline(node.(*manuscript.RefNode))
 	if err != nil {
 		return ast.WalkStop, err
 	}
 	switch {
-	case t.target != nil:
-		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(anchor(t.target)), html.EscapeString(t.text))
-	case t.numeric:
-		w.WriteString(html.EscapeString(htmlMinus(t.text)))
+	case t.Target != nil:
+		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(anchor(t.Target)), html.EscapeString(t.Text))
+	case t.Numeric:
+		w.WriteString(html.EscapeString(htmlMinus(t.Text)))
 	default:
-		w.WriteString(html.EscapeString(t.text))
+		w.WriteString(html.EscapeString(t.Text))
 	}
 	return ast.WalkContinue, nil
 }
@@ -133,14 +134,14 @@ func htmlMinus(s string) string {
 	return s
 }
 
-func anchor(r *Result) string {
+func anchor(r *engine.Result) string {
 	if r.Figure != nil {
 		return "fig-" + r.ID
 	}
 	return "tab-" + r.ID
 }
 
-func writeHTMLResult(w util.BufWriter, r *Result) {
+func writeHTMLResult(w util.BufWriter, r *engine.Result) {
 	switch {
 	case r.Table != nil:
 		fmt.Fprintf(w, `<div class="result table" id="%s">`+"\n", html.EscapeString(anchor(r)))

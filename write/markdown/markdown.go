@@ -1,4 +1,4 @@
-package engine
+package markdown
 
 import (
 	"bytes"
@@ -6,18 +6,19 @@ import (
 	"sort"
 	"strings"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
 )
 
-// MarkdownOptions tune the Markdown writer.
-type MarkdownOptions struct {
+// Options tune the Markdown writer.
+type Options struct {
 	FigureDir string // folder of the SVG figures, relative to the .md file
 }
 
-// Markdown renders the document as CommonMark with pipe tables: the
+// Write renders the document as CommonMark with pipe tables: the
 // author's text is kept byte for byte, each directive block is replaced
 // by its table or figure, and each inline value by its text.
-func (d *Document) Markdown(o MarkdownOptions) ([]byte, error) {
+func Write(d *engine.Document, o Options) ([]byte, error) {
 	if o.FigureDir == "" {
 		o.FigureDir = "figures"
 	}
@@ -26,20 +27,21 @@ func (d *Document) Markdown(o MarkdownOptions) ([]byte, error) {
 		text       string
 	}
 	var rs []repl
-	for _, b := range d.blocks {
-		if b.result == nil {
-			return nil, fmt.Errorf("directive %q has not run", b.id)
-		}
-		rs = append(rs, repl{b.startOff, b.endOff, mdResult(b.result, o.FigureDir)})
+	spans, err := d.Spans()
+	if err != nil {
+		return nil, err
 	}
-	for _, n := range d.refs {
-		t, err := d.formatRef(n, plainFormat)
+	for _, sp := range spans {
+		rs = append(rs, repl{sp.Start, sp.End, mdResult(sp.Result, o.FigureDir)})
+	}
+	for _, n := range d.InlineNodes() {
+		t, err := d.Inline(n)
 		if err != nil {
 			return nil, err
 		}
-		s := mdEscape(t.text)
-		if t.target != nil {
-			s = t.text
+		s := mdEscape(t.Text)
+		if t.Target != nil {
+			s = t.Text
 		}
 		rs = append(rs, repl{n.Offset, n.End, s})
 	}
@@ -70,7 +72,7 @@ func (d *Document) Markdown(o MarkdownOptions) ([]byte, error) {
 	return out.Bytes(), nil
 }
 
-func mdResult(r *Result, figDir string) string {
+func mdResult(r *engine.Result, figDir string) string {
 	var b strings.Builder
 	switch {
 	case r.Table != nil:

@@ -1,4 +1,4 @@
-package engine
+package latex
 
 import (
 	"bytes"
@@ -9,22 +9,23 @@ import (
 	"github.com/yuin/goldmark/ast"
 	east "github.com/yuin/goldmark/extension/ast"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/templates"
 )
 
-// LaTeXOptions tune the LaTeX writer.
-type LaTeXOptions struct {
+// Options tune the LaTeX writer.
+type Options struct {
 	Version string
 	// FigureDir is the folder (relative to the .tex file) holding figures.
 	FigureDir string
 }
 
-// LaTeX renders the document as a complete article that compiles with
+// Write renders the document as a complete article that compiles with
 // pdflatex using standard packages (booktabs, dcolumn, amsmath,
 // graphicx, hyperref). Figures are included as PDF from FigureDir.
-func (d *Document) LaTeX(o LaTeXOptions) ([]byte, error) {
+func Write(d *engine.Document, o Options) ([]byte, error) {
 	if o.FigureDir == "" {
 		o.FigureDir = "figures"
 	}
@@ -51,10 +52,10 @@ func (d *Document) LaTeX(o LaTeXOptions) ([]byte, error) {
 	return out.Bytes(), nil
 }
 
-// LaTeXTable renders one table result as a standalone fragment that an
+// Fragment renders one table result as a standalone fragment that an
 // existing paper can \input (it needs booktabs and dcolumn, and the
 // column type d defined as D{.}{.}{-1}).
-func LaTeXTable(r *Result) []byte {
+func Fragment(r *engine.Result) []byte {
 	var b bytes.Buffer
 	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} and\n")
 	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
@@ -63,7 +64,7 @@ func LaTeXTable(r *Result) []byte {
 }
 
 type texWriter struct {
-	doc    *Document
+	doc    *engine.Document
 	out    *bytes.Buffer
 	figDir string
 	top    int // the highest heading level used, typeset as \section
@@ -142,11 +143,11 @@ func (w *texWriter) block(n ast.Node) error {
 		}
 		o.WriteString("\\end{" + env + "}\n")
 	case *ast.FencedCodeBlock:
-		if b, ok := w.doc.atNode[n]; ok {
-			if b.result == nil {
-				return fmt.Errorf("directive %q has not run", b.id)
+		if res, ok, err := w.doc.ResultAt(n); ok {
+			if err != nil {
+				return err
 			}
-			w.result(b.result)
+			w.result(res)
 			return nil
 		}
 		w.verbatim(n, src)
@@ -253,21 +254,21 @@ func (w *texWriter) inline(n ast.Node) error {
 			o.WriteString("$" + n.TeX + "$")
 		}
 	case *manuscript.RefNode:
-		t, err := w.doc.formatRef(n, plainFormat)
+		t, err := w.doc.Inline(n)
 		if err != nil {
 			return err
 		}
 		switch {
-		case t.target != nil:
+		case t.Target != nil:
 			kind := "Table"
-			if t.target.Figure != nil {
+			if t.Target.Figure != nil {
 				kind = "Figure"
 			}
-			o.WriteString(kind + "~\\ref{" + texLabel(t.target) + "}")
-		case t.numeric:
-			o.WriteString(texNumber(t.text))
+			o.WriteString(kind + "~\\ref{" + texLabel(t.Target) + "}")
+		case t.Numeric:
+			o.WriteString(texNumber(t.Text))
 		default:
-			o.WriteString(texEscape(t.text))
+			o.WriteString(texEscape(t.Text))
 		}
 	default:
 		return w.inlines(n)
@@ -275,7 +276,7 @@ func (w *texWriter) inline(n ast.Node) error {
 	return nil
 }
 
-func texLabel(r *Result) string {
+func texLabel(r *engine.Result) string {
 	if r.Figure != nil {
 		return "fig:" + r.ID
 	}
@@ -291,7 +292,7 @@ func texNumber(s string) string {
 	return texEscape(s)
 }
 
-func (w *texWriter) result(r *Result) {
+func (w *texWriter) result(r *engine.Result) {
 	switch {
 	case r.Table != nil:
 		w.out.WriteString("\n")
@@ -306,7 +307,7 @@ func (w *texWriter) result(r *Result) {
 	}
 }
 
-func writeTeXTable(b *bytes.Buffer, r *Result) {
+func writeTeXTable(b *bytes.Buffer, r *engine.Result) {
 	t := r.Table
 	cols := t.Cols()
 	spec := strings.Repeat("l", t.Stub) + strings.Repeat("d", max(cols-t.Stub, 0))
