@@ -37,7 +37,7 @@ func init() {
 		Summary: "error-correction model around an estimated long-run relation, with residual diagnostics",
 		New:     func() engine.Directive { return &ecmSpec{} },
 		Fields: []string{"coef", "alpha", "alpha_se", "halflife", "halflife_se", "error_corrects", "diagnostics", "nobs", "r2", "r2_adj",
-			"sigma", "cov", "se_desc", "ylags", "xlags", "from", "y", "sample"},
+			"sigma", "cov", "se_desc", "ylags", "xlags", "from", "y", "sample", "actual", "fitted"},
 	})
 }
 

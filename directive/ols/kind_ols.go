@@ -29,7 +29,7 @@ func init() {
 		Name:    "ols",
 		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
 		New:     func() engine.Directive { return &olsSpec{} },
-		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample"},
+		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample", "resid"},
 	})
 }
 

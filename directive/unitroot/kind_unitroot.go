@@ -32,7 +32,7 @@ type urSpec struct {
 	test string
 }
 
-var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "trim",
+var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "break_model", "trim",
 	"crit_mcse", "sim_key", "sim"} // the last three with crit: simulate (simcrit.go)
 
 // settings validates the spec's test options.

@@ -1,0 +1,64 @@
+package kinds
+
+import (
+	"slices"
+	"sort"
+	"testing"
+
+	"github.com/galley-econ/galley/engine"
+)
+
+// TestProducedValuesAreAccepted: every top-level value a directive
+// produces can be quoted in prose, that is, its kind's Fields list (which
+// `galley check` uses before anything runs) names it. Run on the demo
+// paper and on a manuscript with the kinds the demo lacks.
+func TestProducedValuesAreAccepted(t *testing.T) {
+	kinds := map[string]*engine.Kind{}
+	for _, k := range engine.Kinds() {
+		kinds[k.Name] = k
+	}
+	seen := map[string]bool{}
+	check := func(results []*engine.Result) {
+		for _, r := range results {
+			k := kinds[r.Kind]
+			seen[r.Kind] = true
+			if k == nil || k.Fields == nil {
+				continue
+			}
+			var missing []string
+			for key := range r.Values {
+				if !slices.Contains(k.Fields, key) {
+					missing = append(missing, key)
+				}
+			}
+			sort.Strings(missing)
+			if len(missing) > 0 {
+				t.Errorf("%s (%s) produces %v, which its kind's Fields refuse", r.ID, r.Kind, missing)
+			}
+		}
+	}
+	doc, err := engine.Parse("../examples/gridlink/paper.md", engine.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := doc.Run(); err != nil {
+		t.Fatal(err)
+	}
+	check(doc.Results())
+	body := fence("adf", "id: a\nseries: log(realgdp)\n") + fence("pp", "id: p\nseries: log(realgdp)\n") +
+		fence("kpss", "id: k\nseries: infl\n") + fence("dfgls", "id: g\nseries: log(realgdp)\n") +
+		fence("za", "id: z\nseries: log(realgdp)\nlags: 1\n") + fence("ngperron", "id: n\nseries: log(realgdp)\n") +
+		fence("po", "id: po\ny: log(realcons)\nx: [log(realdpi)]\n") +
+		fence("var-lags", "id: vl\nseries: [log(realcons), log(realdpi)]\nmax: 4\n")
+	res := runDoc(t, macroProject(t, body))
+	var rs []*engine.Result
+	for _, r := range res {
+		rs = append(rs, r)
+	}
+	check(rs)
+	for name := range kinds {
+		if !seen[name] {
+			t.Errorf("kind %s is not exercised by this test", name)
+		}
+	}
+}
