@@ -20,8 +20,15 @@ type Result struct {
 	// Test is the hypothesis test the result reports, in the form every
 	// consumer reads (stars, rejection, critical values); nil for
 	// results that are not one test.
-	Test   *contract.Outcome
-	Number int // table or figure number in the document (1-based)
+	Test *contract.Outcome
+	// Series are the dated series the result carries for other
+	// directives and figures, by name: "resid" (a regression's or a
+	// long-run relation's residuals), "actual" and "fitted"; Relations
+	// are estimated cointegrating relations, in order. Each is also in
+	// Values in its results-file form (SetSeries keeps the two together).
+	Series    map[string]contract.Dated
+	Relations []contract.Dated
+	Number    int // table or figure number in the document (1-based)
 }
 
 // Label is "Table N" or "Figure N", or "" when there is nothing to refer to.
@@ -68,3 +75,16 @@ var errNoPNG = errors.New("this figure has no PNG renderer")
 // FigureFolder is the folder, relative to the output folder, that
 // cmd/galley writes figures into as ID.svg, ID.pdf (and ID.png).
 const FigureFolder = "figures"
+
+// SetSeries stores a dated series under name, typed in Series and in its
+// results-file form in Values.
+func (r *Result) SetSeries(name string, s contract.Dated) {
+	if r.Series == nil {
+		r.Series = map[string]contract.Dated{}
+	}
+	if r.Values == nil {
+		r.Values = map[string]any{}
+	}
+	r.Series[name] = s
+	r.Values[name] = s.ResultsForm()
+}

@@ -193,7 +193,9 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if all {
 		vals["each"] = each
 	}
-	return &engine.Result{Table: t, Values: vals, Test: first}, nil
+	res := &engine.Result{Table: t, Values: vals, Test: first}
+	res.SetSeries("resid", contract.NewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
+	return res, nil
 }
 
 // egError turns an analysis error into a manuscript error.
@@ -243,7 +245,7 @@ func egValues(r *coint.EGResult, o *contract.Outcome, static map[string]any, d *
 	v := map[string]any{
 		"stat": r.Stat, "pvalue": r.PValue, "lags": r.Lags, "nobs": r.NObs,
 		"crit": contract.CritMap(r.Crit), "crit_source": r.CritSource, "static": static,
-		"reject_5": o.Rejects(0.05), "resid": engine.ResidValues(d, 0, r.Resid),
+		"reject_5": o.Rejects(0.05), "resid": contract.NewDated(d.Dates[:len(r.Resid)], r.Resid).ResultsForm(),
 	}
 	if !math.IsNaN(r.PValue) {
 		v["pvalue_source"] = "MacKinnon (1994)"

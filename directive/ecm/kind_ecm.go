@@ -123,10 +123,11 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	_, ectVals, err := engine.ResidSeries(up)
-	if err != nil {
-		return nil, c.Errorf("from", "%q: %v", s.From, err)
+	resid, ok := up.Series["resid"]
+	if !ok {
+		return nil, c.Errorf("from", "%q: the %s result has no residual series", s.From, up.Kind)
 	}
+	ectVals := resid.At()
 	sample := rel.Sample
 	if s.Sample != "" {
 		sample = s.Sample
@@ -225,9 +226,10 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	for i := range actual {
 		actual[i] = m.Fit.Fitted[i] + m.Fit.Resid[i]
 	}
-	vals["actual"] = engine.DatedValues(sd.Dates, actual)
-	vals["fitted"] = engine.DatedValues(sd.Dates, m.Fit.Fitted)
-	return &engine.Result{Table: t, Values: vals}, nil
+	res := &engine.Result{Table: t, Values: vals}
+	res.SetSeries("actual", contract.NewDated(sd.Dates, actual))
+	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
+	return res, nil
 }
 
 func periodUnit(f series.Freq) string {

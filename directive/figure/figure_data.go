@@ -2,8 +2,6 @@ package figure
 
 import (
 	"fmt"
-	"strconv"
-	"strings"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -17,57 +15,29 @@ import (
 // design (for the fit and stability plots) from y/x keys or from an ols
 // directive named by "of".
 
-// residualSeries reads the residual series of another result. The result
-// must carry Values["resid"] = {"dates": [...], "values": [...]}, dates
-// as text in the canonical form of series.Date.String (ols and
-// engle-granger results do).
+// residualSeries is the residual series of another result (ols,
+// engle-granger, dols, fmols carry one in Result.Series["resid"]).
 func residualSeries(c *engine.Context, key string, r *engine.Result) (series.Series, error) {
 	s, err := datedField(c, key, r, "resid", "residual")
 	s.Name = "residual"
 	return s, err
 }
 
-// relationSeries reads cointegrating relation n (1-based) of a johansen
-// or vecm result: Values["relations"][n−1] = {"dates", "values"}, β_n'ỹ_t
-// as kind_johansen.go stores it. The errors are at the line of key (for a
-// result without relations) or of relKey (for n out of range).
+// relationSeries is cointegrating relation n (1-based) of a johansen or
+// vecm result, β_n'ỹ_t (Result.Relations). The errors are at the line of
+// key (for a result without relations) or of relKey (for n out of range).
 func relationSeries(c *engine.Context, key, relKey string, r *engine.Result, n int) (series.Series, error) {
-	raw, ok := r.Values["relations"]
-	if !ok && numberValue(r.Values["rank"]) >= 1 {
-		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) carries no relation series; it was probably cached by an earlier galley: build with --no-cache", r.ID, r.Kind, r.Line)
-	}
-	if !ok {
+	k := len(r.Relations)
+	if k == 0 {
 		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) estimates no cointegrating relation: its rank is %v (the sequential trace tests chose %v), so there is no relation to plot; set rank: (1 … K−1) on it",
 			r.ID, r.Kind, r.Line, r.Values["rank"], r.Values["rank_chosen"])
 	}
-	var list []any
-	switch x := raw.(type) {
-	case []map[string]any:
-		for _, e := range x {
-			list = append(list, e)
-		}
-	case []any:
-		list = x
-	default:
-		return series.Series{}, c.Errorf(key, "%q: its relations are not a list of dated series (got %T)", r.ID, raw)
-	}
-	if n < 1 || n > len(list) {
+	if n < 1 || n > k {
 		return series.Series{}, c.Errorf(relKey, "relation %d: %q (a %s result, line %d) has %d cointegrating relation%s (rank %d); give relation: 1%s",
-			n, r.ID, r.Kind, r.Line, len(list), plural(len(list)), len(list), map[bool]string{true: "", false: fmt.Sprintf(" … %d", len(list))}[len(list) == 1])
+			n, r.ID, r.Kind, r.Line, k, plural(k), k, map[bool]string{true: "", false: fmt.Sprintf(" … %d", k)}[k == 1])
 	}
-	return datedValue(c, key, r, list[n-1], fmt.Sprintf("relation %d", n))
-}
-
-// numberValue reads a count from values (an int in memory, a float64
-// after the results file or the cache); −1 if it is not a number.
-func numberValue(v any) float64 {
-	switch x := v.(type) {
-	case int:
-		return float64(x)
-	case float64:
-		return x
-	}
-	return -1
+	z := r.Relations[n-1]
+	return series.Series{Name: fmt.Sprintf("relation %d", n), Dates: z.Dates, Values: z.Values}, nil
 }
 
 func plural(n int) string {
@@ -77,96 +47,14 @@ func plural(n int) string {
 	return "s"
 }
 
-// datedField reads a dated series {"dates": [...], "values": [...]} that
-// a result stores under field (what names it in messages).
+// datedField is the dated series a result carries under field (what
+// names it in messages).
 func datedField(c *engine.Context, key string, r *engine.Result, field, what string) (series.Series, error) {
-	raw, ok := r.Values[field]
+	z, ok := r.Series[field]
 	if !ok {
 		return series.Series{}, c.Errorf(key, "%q (a %s result, line %d) has no %s series to plot", r.ID, r.Kind, r.Line, what)
 	}
-	return datedValue(c, key, r, raw, what)
-}
-
-// datedValue reads raw, a dated series {"dates": [...], "values": [...]}
-// taken from r's values.
-func datedValue(c *engine.Context, key string, r *engine.Result, raw any, what string) (series.Series, error) {
-	m, ok := raw.(map[string]any)
-	if !ok {
-		return series.Series{}, c.Errorf(key, "%q: its %s values are not a dated series (got %T)", r.ID, what, raw)
-	}
-	texts, err := stringList(m["dates"])
-	if err != nil {
-		return series.Series{}, c.Errorf(key, "%q: %s dates: %v", r.ID, what, err)
-	}
-	vals, err := floatList(m["values"])
-	if err != nil {
-		return series.Series{}, c.Errorf(key, "%q: %s values: %v", r.ID, what, err)
-	}
-	if len(texts) != len(vals) {
-		return series.Series{}, c.Errorf(key, "%q: %d %s dates for %d values", r.ID, len(texts), what, len(vals))
-	}
-	s := series.Series{Name: what, Dates: make([]series.Date, len(texts)), Values: vals}
-	for i, t := range texts {
-		d, err := dateFromText(t)
-		if err != nil {
-			return series.Series{}, c.Errorf(key, "%q: %s date %d: %v", r.ID, what, i+1, err)
-		}
-		s.Dates[i] = d
-	}
-	return s, nil
-}
-
-// dateFromText parses a canonical date, or an observation number for
-// undated data.
-func dateFromText(s string) (series.Date, error) {
-	if d, err := series.ParseDate(s); err == nil {
-		return d, nil
-	}
-	if n, err := strconv.Atoi(strings.TrimSpace(s)); err == nil && n >= 1 {
-		return series.Date{Freq: series.Undated, Sub: n}, nil
-	}
-	return series.ParseDate(s)
-}
-
-func stringList(v any) ([]string, error) {
-	switch x := v.(type) {
-	case []string:
-		return x, nil
-	case []any:
-		out := make([]string, len(x))
-		for i, e := range x {
-			s, ok := e.(string)
-			if !ok {
-				return nil, fmt.Errorf("entry %d is %T, not text", i+1, e)
-			}
-			out[i] = s
-		}
-		return out, nil
-	}
-	return nil, fmt.Errorf("expected a list of dates, got %T", v)
-}
-
-func floatList(v any) ([]float64, error) {
-	switch x := v.(type) {
-	case []float64:
-		return x, nil
-	case []any:
-		out := make([]float64, len(x))
-		for i, e := range x {
-			switch f := e.(type) {
-			case float64:
-				out[i] = f
-			case int:
-				out[i] = float64(f)
-			case nil:
-				out[i] = nan()
-			default:
-				return nil, fmt.Errorf("entry %d is %T, not a number", i+1, e)
-			}
-		}
-		return out, nil
-	}
-	return nil, fmt.Errorf("expected a list of numbers, got %T", v)
+	return series.Series{Name: what, Dates: z.Dates, Values: z.Values}, nil
 }
 
 // restrict applies a sample window (already checked to parse) to s.

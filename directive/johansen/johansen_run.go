@@ -295,7 +295,11 @@ func (s *sysState) values() map[string]any {
 		}
 	}
 	v["beta"], v["beta_se"], v["alpha"], v["alpha_se"] = beta, betaSE, alpha, alphaSE
-	v["relations"] = s.relations()
+	rel := make([]map[string]any, 0, s.rank)
+	for _, z := range s.relations() {
+		rel = append(rel, z.ResultsForm())
+	}
+	v["relations"] = rel
 	tests := []map[string]any{}
 	for _, t := range s.tests {
 		tests = append(tests, map[string]any{"name": t.Name, "hypothesis": t.Hyp, "stat": t.LR.Stat, "df": t.LR.DF, "p": t.LR.P})
@@ -308,15 +312,11 @@ func (s *sysState) values() map[string]any {
 // relations β_j'ỹ_t over the directive's sample, one dated series per
 // relation (johansen.VECM.Relations gives the formula and the meaning of
 // their levels in each case).
-func (s *sysState) relations() []map[string]any {
-	dates := make([]string, s.d.N())
-	for i, dt := range s.d.Dates {
-		dates[i] = dt.String()
-	}
+func (s *sysState) relations() []contract.Dated {
 	zs := s.vecm.Relations(s.res.Case, levelsMatrix(s.d))
-	out := make([]map[string]any, len(zs))
+	out := make([]contract.Dated, len(zs))
 	for j, z := range zs {
-		out[j] = map[string]any{"dates": dates, "values": z}
+		out[j] = contract.NewDated(s.d.Dates, z)
 	}
 	return out
 }

@@ -133,7 +133,11 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))
 	}
 	t.Notes = append(t.Notes, "*, **, ***: the statistic exceeds its 10%, 5%, 1% critical value. "+st.d.SampleNote())
-	return &engine.Result{Table: t, Values: st.values()}, nil
+	res := &engine.Result{Table: t, Values: st.values()}
+	if st.vecm != nil {
+		res.Relations = st.relations()
+	}
+	return res, nil
 }
 
 // sysNote is the main note under the rank-test table.

@@ -96,7 +96,7 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (case %s) and %s; T = %d.",
 		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], st.res.Case, st.lagPhrase(sel), st.res.T))
-	return &engine.Result{Table: t, Values: vals}, nil
+	return &engine.Result{Table: t, Values: vals, Relations: st.relations()}, nil
 }
 
 // relationsTable shows β and α side by side for each relation, then the

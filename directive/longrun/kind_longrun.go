@@ -10,7 +10,6 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
-	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/longrun"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/rules"
@@ -236,8 +235,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"coef": engine.CoefValues(terms, coefs), "nobs": r.Fit.N, "wald": waldValues(walds), "leads": r.Leads, "lags": r.Lags,
 		"r2": r.Fit.R2(), "cov": st.spec.Cov.String(), "se_desc": seNote, "select": sel, "det": st.spec.Det.String(),
 		"y": s.Y, "x": append([]string(nil), s.X...), "dynamics": dyn,
-		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
-		"resid":  engine.ResidValues(d, 0, relationResid(d, st.spec.Det, r.Fit.Coef[:nd+k])),
+		"sample": engine.SampleValues(sd),
 	}
 	if st.spec.Cov.Kind == ols.HAC {
 		// b = L + 1 is the Bartlett bandwidth with the weights of L HAC
@@ -246,7 +244,9 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals["hac_lags"] = st.spec.Cov.Lags
 		vals["kernel"] = "bartlett"
 	}
-	return &engine.Result{Table: t, Values: vals}, nil
+	res := &engine.Result{Table: t, Values: vals}
+	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
+	return res, nil
 }
 
 func (s *fmolsSpec) settings(c *engine.Context) (longrun.FMOLSSpec, error) {
@@ -330,10 +330,11 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds),
 		"bandwidth": r.Bandwidth, "kernel": strings.ToLower(kname), "cov": "fmols", "se_desc": seDesc, "det": sp.Det.String(),
 		"y": s.Y, "x": append([]string(nil), s.X...),
-		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
-		"resid":  engine.ResidValues(d, 0, relationResid(d, sp.Det, r.Coef)),
+		"sample": engine.SampleValues(sd),
 	}
-	return &engine.Result{Table: t, Values: vals}, nil
+	res := &engine.Result{Table: t, Values: vals}
+	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], sp.Det, r.Coef)))
+	return res, nil
 }
 
 // longRunRows shows the long-run coefficients first, then the
@@ -346,26 +347,6 @@ func longRunRows(c *engine.Context, terms []string, coefs []ols.Coef, nd, dec in
 		rows = append(rows, det...)
 	}
 	return rows
-}
-
-// relationResid is the equilibrium error y_t − d_t'δ̂ − x_t'β̂ over the
-// whole sample of d, with the trend counted t = 1, 2, … from its first
-// observation (as in package longrun); coef holds δ̂ then β̂.
-func relationResid(d *engine.Data, det critical.Case, coef []float64) []float64 {
-	nd := det.Deterministics()
-	out := make([]float64, d.N())
-	for t := range out {
-		s := float64(t + 1)
-		v := d.Cols[0][t]
-		for j := 0; j < nd; j++ {
-			v -= coef[j] * math.Pow(s, float64(j))
-		}
-		for j := nd; j < len(coef); j++ {
-			v -= coef[j] * d.Cols[1+j-nd][t]
-		}
-		out[t] = v
-	}
-	return out
 }
 
 // A Wald restriction as written: one or more linear equations in the

@@ -107,9 +107,10 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"sigma":  math.Sqrt(fit.Sigma2()),
 		"loglik": fit.LogLik(),
 		"sample": engine.SampleValues(d),
-		"resid":  engine.DatedValues(d.Dates, fit.Resid),
 	}
-	return &engine.Result{Table: t, Values: vals}, nil
+	res := &engine.Result{Table: t, Values: vals}
+	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))
+	return res, nil
 }
 
 // RegressionDesign says where the regression was estimated.
