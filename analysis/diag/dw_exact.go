@@ -12,6 +12,7 @@ import (
 	"gonum.org/v1/gonum/lapack/lapack64"
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/galley-econ/galley/analysis/householder"
 	"github.com/galley-econ/galley/analysis/ols"
 )
 
@@ -49,9 +50,9 @@ type DWNull struct {
 // (N rows, K < N columns of full rank).
 //
 // Z is the last N − K columns of Q in the Householder factorisation
-// X = QR (LAPACK dgeqrf). Q'AQ is formed by applying the K reflectors to A
-// from both sides (dormqr, O(KN²) flops), its trailing (N − K)×(N − K)
-// block is Z'AZ, and its eigenvalues come from the symmetric QR algorithm
+// X = QR (package householder; Golub and Van Loan 2013, §5.2). Q'AQ is
+// formed by applying the K reflectors to A from both sides (O(KN²)
+// flops), its trailing (N − K)×(N − K) block is Z'AZ, and its eigenvalues come from the symmetric QR algorithm
 // (dsyev, about (4/3)(N − K)³ flops). Memory is one dense N×N matrix.
 // See MaxExactDWObs for measured times.
 func NewDWNull(x mat.Matrix) (*DWNull, error) {
@@ -65,13 +66,12 @@ func NewDWNull(x mat.Matrix) (*DWNull, error) {
 	if n > MaxExactDWObs {
 		return nil, fmt.Errorf("%w, have %d", ErrDWTooLarge, n)
 	}
-	// Column-scaled copy of X, so the rank check is scale invariant; the
-	// span, and so Z, is unchanged by the scaling.
-	xa := blas64.General{Rows: n, Cols: k, Stride: k, Data: make([]float64, n*k)}
-	for j := 0; j < k; j++ {
+	// Column-scaled copy of X (column-major), so that the data are of unit
+	// size; the span, and so Z, is unchanged by the scaling.
+	xc := householder.Columns(x, 0)
+	for j, c := range xc {
 		var s float64
-		for i := 0; i < n; i++ {
-			v := x.At(i, j)
+		for i, v := range c {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return nil, fmt.Errorf("diag: exact Durbin–Watson: X[%d,%d] is not finite", i, j)
 			}
@@ -81,22 +81,20 @@ func NewDWNull(x mat.Matrix) (*DWNull, error) {
 			return nil, fmt.Errorf("diag: exact Durbin–Watson: regressor %d is zero", j)
 		}
 		s = math.Sqrt(s)
-		for i := 0; i < n; i++ {
-			xa.Data[i*k+j] = x.At(i, j) / s
+		for i := range c {
+			c[i] /= s
 		}
 	}
-	tau := make([]float64, k)
-	work := make([]float64, 1)
-	lapack64.Geqrf(xa, tau, work, -1)
-	work = make([]float64, int(work[0]))
-	lapack64.Geqrf(xa, tau, work, len(work))
-	for j := 0; j < k; j++ {
-		if math.Abs(xa.Data[j*k+j]) < 1e-10 {
-			return nil, fmt.Errorf("diag: exact Durbin–Watson: regressor %d is collinear with the regressors before it", j)
-		}
+	var qr householder.QR
+	if err := qr.Factor(xc, k); err != nil {
+		return nil, fmt.Errorf("diag: exact Durbin–Watson: %w", err)
+	}
+	if j := qr.Indep(); j < k {
+		return nil, fmt.Errorf("diag: exact Durbin–Watson: regressor %d is collinear with the regressors before it", j)
 	}
 
-	// A: 1, 2, …, 2, 1 on the diagonal and −1 beside it.
+	// A: 1, 2, …, 2, 1 on the diagonal and −1 beside it, one column at a
+	// time (A is symmetric, so column i is row i).
 	c := blas64.General{Rows: n, Cols: n, Stride: n, Data: make([]float64, n*n)}
 	for i := 0; i < n; i++ {
 		c.Data[i*n+i] = 2
@@ -107,15 +105,23 @@ func NewDWNull(x mat.Matrix) (*DWNull, error) {
 	}
 	c.Data[0] = 1
 	c.Data[n*n-1] = 1
-
-	work = make([]float64, 1)
-	lapack64.Ormqr(blas.Left, blas.Trans, xa, tau, c, work, -1)
-	lw := int(work[0])
-	lapack64.Ormqr(blas.Right, blas.NoTrans, xa, tau, c, work, -1)
-	lw = max(lw, int(work[0]))
-	work = make([]float64, lw)
-	lapack64.Ormqr(blas.Left, blas.Trans, xa, tau, c, work, lw)    // Q'A
-	lapack64.Ormqr(blas.Right, blas.NoTrans, xa, tau, c, work, lw) // Q'AQ
+	// Q'AQ: Qᵀ applied to every column of A (stored as the rows of c, A
+	// being symmetric) gives the rows of (Q'A)' = AQ; Qᵀ applied to those
+	// again gives the rows of Q'AQ (symmetric).
+	for pass := 0; pass < 2; pass++ {
+		for i := 0; i < n; i++ {
+			if err := qr.QTVec(c.Data[i*n : (i+1)*n]); err != nil {
+				return nil, fmt.Errorf("diag: exact Durbin–Watson: %w", err)
+			}
+		}
+		if pass == 0 {
+			for i := 0; i < n; i++ { // transpose in place
+				for j := i + 1; j < n; j++ {
+					c.Data[i*n+j], c.Data[j*n+i] = c.Data[j*n+i], c.Data[i*n+j]
+				}
+			}
+		}
+	}
 
 	m := n - k
 	b := blas64.Symmetric{N: m, Stride: m, Uplo: blas.Upper, Data: make([]float64, m*m)}
@@ -126,7 +132,7 @@ func NewDWNull(x mat.Matrix) (*DWNull, error) {
 	}
 	c.Data = nil
 	lam := make([]float64, m)
-	work = make([]float64, 1)
+	work := make([]float64, 1)
 	lapack64.Syev(lapack.EVNone, b, lam, work, -1)
 	work = make([]float64, int(work[0]))
 	if !lapack64.Syev(lapack.EVNone, b, lam, work, len(work)) {

@@ -7,6 +7,8 @@ import (
 
 	"github.com/galley-econ/galley/analysis/rules"
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/householder"
 )
 
 // LagRow holds the information criteria of one VAR order in levels.
@@ -101,19 +103,17 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 				x.Set(i, nx+j, y.At(s, j))
 			}
 		}
-		var qr mat.QR
-		qr.Factorize(x)
-		var rr mat.Dense
-		qr.RTo(&rr)
-		for j := 0; j < nx+k; j++ {
-			if math.Abs(rr.At(j, j)) <= singularTol*mat.Norm(x.ColView(j), 2) {
-				return nil, fmt.Errorf("johansen: VAR(%d) in levels has collinear regressors (column %d); a constant, duplicated or collinear series?", p, j)
-			}
+		var qr householder.QR
+		if err := qr.Factor(householder.Columns(x, 0), nx+k); err != nil {
+			return nil, fmt.Errorf("johansen: VAR(%d) in levels: %w", p, err)
+		}
+		if j := qr.Indep(); j < nx+k {
+			return nil, fmt.Errorf("johansen: VAR(%d) in levels has collinear regressors (column %d); a constant, duplicated or collinear series?", p, j)
 		}
 		// |Σ̂| = Π R_jj² / T^K over the block of the dependent variables.
 		ld := -float64(k) * math.Log(ft)
 		for j := nx; j < nx+k; j++ {
-			ld += 2 * math.Log(math.Abs(rr.At(j, j)))
+			ld += 2 * math.Log(math.Abs(qr.RAt(j, j)))
 		}
 		n := k*k*p + k*d
 		tab.Rows = append(tab.Rows, LagRow{

@@ -7,6 +7,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"github.com/galley-econ/galley/analysis/householder"
 )
 
 // LR is a likelihood-ratio test of restrictions on a rank-r VECM.
@@ -41,6 +43,14 @@ func (r *Result) lr(rank int, lam []float64, beta *mat.Dense, df int) *LR {
 //
 //	LR = T Σ_{i=1}^{r} ln((1−λ*_i)/(1−λ_i)) ~ χ²(r(P1 − s)).
 //
+// They are computed without forming H'S11H: with T·S11 = R11'R11 and
+// T·S01 = R10'R11 from the QR of the design (see Test), and the thin QR
+// R11·H = Q₁R̃, H'S11H = T⁻¹R̃'R̃ and the λ*_i are the eigenvalues w of
+// Q₁'AQ₁, A = T⁻¹R10 S00⁻¹ R10' the matrix whose eigenvalues are the λ_i;
+// φ = √T R̃⁻¹w. The restricted problem is then as well conditioned as the
+// unrestricted one (the LR is a small difference of logarithms, so an
+// error in λ*_i is magnified by 1/LR in its relative error).
+//
 // Homogeneity of the first two series, for example, is H with columns
 // (1, −1, 0, ...)' and the remaining unit vectors.
 func (r *Result) TestBeta(rank int, h *mat.Dense) (*LR, error) {
@@ -65,11 +75,7 @@ func (r *Result) TestBeta(rank int, h *mat.Dense) (*LR, error) {
 	if err != nil {
 		return nil, fmt.Errorf("johansen: H does not have full column rank (column %d)", err.col)
 	}
-	var s11q, qs11q, s01q mat.Dense
-	s11q.Mul(r.s11, q)
-	qs11q.Mul(q.T(), &s11q)
-	s01q.Mul(r.s01, q)
-	lam, vecs, rerr := reducedRank(r.s00, &s01q, symOf(&qs11q))
+	lam, vecs, rerr := r.restrictedBeta(q)
 	if rerr != nil {
 		return nil, fmt.Errorf("johansen: β = Hφ: %v (does H have full column rank?)", rerr)
 	}
@@ -79,28 +85,89 @@ func (r *Result) TestBeta(rank int, h *mat.Dense) (*LR, error) {
 	return r.lr(rank, lam, beta, rank*(p1-s)), nil
 }
 
+// restrictedBeta returns the eigenvalues λ*, descending, and the vectors
+// φ (s×s, φ'Q'S̃11Qφ = I) of |λQ'S̃11Q − Q'S̃10 S̃00⁻¹ S̃01Q| = 0 for the
+// P1×s orthonormal q, from the QR of R11·q (see TestBeta).
+func (r *Result) restrictedBeta(q *mat.Dense) ([]float64, *mat.Dense, error) {
+	_, s := q.Dims()
+	var g mat.Dense
+	g.Mul(r.r11, q)
+	var qr householder.QR
+	if err := qr.Factor(householder.Columns(&g, 0), s); err != nil {
+		return nil, nil, err
+	}
+	if !qr.FullRank() {
+		return nil, nil, fmt.Errorf("the moment matrix of the levels is singular")
+	}
+	q1, err := qr.Q(s)
+	if err != nil {
+		return nil, nil, err
+	}
+	var aq, b mat.Dense
+	aq.Mul(r.a, q1)
+	b.Mul(q1.T(), &aq)
+	var es mat.EigenSym
+	if !es.Factorize(symOf(&b), true) {
+		return nil, nil, fmt.Errorf("the symmetric eigenproblem did not converge")
+	}
+	vals := es.Values(nil)
+	var w mat.Dense
+	es.VectorsTo(&w)
+	order := make([]int, s)
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
+	lam := make([]float64, s)
+	ws := mat.NewDense(s, s, nil)
+	for j, o := range order {
+		lam[j] = math.Max(vals[o], 0)
+		for i := 0; i < s; i++ {
+			ws.Set(i, j, w.At(i, o))
+		}
+	}
+	var phi mat.Dense
+	if err := phi.Solve(qr.R(), ws); err != nil {
+		return nil, nil, err
+	}
+	phi.Scale(math.Sqrt(float64(r.T)), &phi)
+	return lam, &phi, nil
+}
+
 // rankError names the first column of a matrix that depends on the ones
 // before it.
 type rankError struct{ col int }
 
 // orthoBasis returns an orthonormal basis (n×m, the thin Q of a Householder
-// QR) of the column space of the n×m matrix a, or the first column whose
-// QR diagonal element is below singularTol times its norm.
+// QR) of the column space of the n×m matrix a (n ≥ m), or the first column
+// that fails the rank rule householder.CollinearTol.
 func orthoBasis(a *mat.Dense) (*mat.Dense, *rankError) {
-	n, m := a.Dims()
-	var qr mat.QR
-	qr.Factorize(a)
-	var rr mat.Dense
-	qr.RTo(&rr)
-	for j := 0; j < m; j++ {
-		norm := mat.Norm(a.ColView(j), 2)
-		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
-			return nil, &rankError{col: j}
-		}
+	_, m := a.Dims()
+	q, j := qBasis(a, m)
+	if q == nil {
+		return nil, &rankError{col: j}
 	}
-	var q mat.Dense
-	qr.QTo(&q)
-	return mat.DenseCopyOf(q.Slice(0, n, 0, m)), nil
+	return q, nil
+}
+
+// qBasis returns the first w columns of Q in the Householder QR of the n×m
+// matrix a (n ≥ m, m ≤ w ≤ n): the first m span the columns of a, the rest
+// their orthogonal complement. When a fails the rank rule
+// householder.CollinearTol it returns nil and the first dependent column.
+func qBasis(a *mat.Dense, w int) (*mat.Dense, int) {
+	_, m := a.Dims()
+	var qr householder.QR
+	if err := qr.Factor(householder.Columns(a, 0), m); err != nil {
+		return nil, 0
+	}
+	if j := qr.Indep(); j < m {
+		return nil, j
+	}
+	q, err := qr.Q(w)
+	if err != nil {
+		return nil, 0
+	}
+	return q, m
 }
 
 // TestAlpha tests α = Aψ for the rank-r loadings (Johansen 1995, §8.2,
@@ -132,18 +199,10 @@ func (r *Result) TestAlpha(rank int, a *mat.Dense) (*LR, error) {
 	// only on the column space of D⁻¹A, so A is replaced by an orthonormal
 	// basis of it (the first m columns of Q) and B = A⊥ by the rest of Q.
 	as := mulRows(a, r.scale, true)
-	var qr mat.QR
-	qr.Factorize(as)
-	var rr mat.Dense
-	qr.RTo(&rr)
-	for j := 0; j < m; j++ {
-		norm := mat.Norm(as.ColView(j), 2)
-		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
-			return nil, fmt.Errorf("johansen: A does not have full column rank (column %d)", j)
-		}
+	q, j := qBasis(as, k)
+	if q == nil {
+		return nil, fmt.Errorf("johansen: A does not have full column rank (column %d)", j)
 	}
-	var q mat.Dense
-	qr.QTo(&q)
 	b := q.Slice(0, k, m, k)
 	a = mat.DenseCopyOf(q.Slice(0, k, 0, m))
 

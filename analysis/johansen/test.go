@@ -7,6 +7,8 @@ import (
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/householder"
 )
 
 // Result holds the reduced-rank regression behind Johansen's rank tests.
@@ -41,6 +43,11 @@ type Result struct {
 	s00, s11   *mat.SymDense
 	s01, vs    *mat.Dense
 	z0, z1, zs *mat.Dense
+	// r11 is the R1 block of the QR in reduce (T·s11 = r11'r11) and a the
+	// symmetric T⁻¹ R10 S00⁻¹ R10' whose eigenvalues are the λ_i; TestBeta
+	// solves the restricted problem from them.
+	r11 *mat.TriDense
+	a   *mat.SymDense
 }
 
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
@@ -102,6 +109,7 @@ func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
 
 // unscale sets S00 = D S̃00 D, S11 = D₁ S̃11 D₁, S01 = D S̃01 D₁ and the
 // eigenvectors v = D₁⁻¹ ṽ in the units of y (so that v'S11v = ṽ'S̃11ṽ = I).
+
 func (r *Result) unscale() {
 	s1 := r.rowScale()
 	r.S00 = outerSym(r.scale, r.s00)
@@ -194,12 +202,11 @@ func checkSeries(y *mat.Dense) error {
 	return nil
 }
 
-// singularTol is the relative size of a QR diagonal element below which a
-// column counts as a linear combination of the columns before it.
-const singularTol = 1e-10
-
 // reduce factorises the (scaled) design and solves the eigenproblem, setting
-// the scaled moment matrices and eigenvectors.
+// the scaled moment matrices and eigenvectors. The QR is package
+// householder's unblocked one with its rank rule (|R_jj| ≤ 1e-10·‖d_j‖
+// names column j as singular): the design has T rows but only ns+P1+K
+// columns, few enough that a blocked factorisation gains nothing.
 func (r *Result) reduce(d *mat.Dense) error {
 	t, k := r.z0.Dims()
 	_, p1 := r.z1.Dims()
@@ -208,17 +215,14 @@ func (r *Result) reduce(d *mat.Dense) error {
 		_, ns = r.zs.Dims()
 	}
 	n := ns + p1 + k
-	norms := colNorms(d)
-	var qr mat.QR
-	qr.Factorize(d)
-	var rr mat.Dense
-	qr.RTo(&rr)
-	for j := 0; j < n; j++ {
-		norm := norms[j]
-		if math.Abs(rr.At(j, j)) <= singularTol*norm || norm == 0 {
-			return r.singular(j, ns, p1)
-		}
+	var qr householder.QR
+	if err := qr.Factor(householder.Columns(d, 0), n); err != nil {
+		return fmt.Errorf("johansen: %w", err)
 	}
+	if j := qr.Indep(); j < n {
+		return r.singular(j, ns, p1)
+	}
+	rr := qr.R()
 	ft := float64(t)
 	r11 := mat.NewDense(p1, p1, nil)
 	r10 := mat.NewDense(p1, k, nil)
@@ -304,24 +308,9 @@ func (r *Result) reduce(d *mat.Dense) error {
 		}
 	}
 	r.vs = &v
+	r.r11, r.a = u, a
 	r.Trace, r.MaxEig = statistics(r.Eigenvalues, ft)
 	return nil
-}
-
-// colNorms returns the Euclidean norm of each column, in one pass over rows.
-func colNorms(d *mat.Dense) []float64 {
-	raw := d.RawMatrix()
-	out := make([]float64, raw.Cols)
-	for i := 0; i < raw.Rows; i++ {
-		row := raw.Data[i*raw.Stride : i*raw.Stride+raw.Cols]
-		for j, v := range row {
-			out[j] += v * v
-		}
-	}
-	for j := range out {
-		out[j] = math.Sqrt(out[j])
-	}
-	return out
 }
 
 // statistics returns the trace and maximum-eigenvalue statistics.

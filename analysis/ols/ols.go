@@ -12,6 +12,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/householder"
 )
 
 // ErrTooFewObs is returned when a regression has no residual degrees of freedom.
@@ -41,12 +43,11 @@ type Fit struct {
 	rinv *mat.TriDense // R⁻¹ from X = QR, so (X'X)⁻¹ = R⁻¹R⁻ᵀ
 }
 
-// collinearTol is the threshold on |R_jj| relative to the norm of column j
-// of X below which column j is declared collinear with earlier columns.
-const collinearTol = 1e-10
-
-// Regress fits y = Xβ + e by least squares using the QR factorisation of X.
-// X must have N rows (len(y)) and K ≤ N columns; rows are observations.
+// Regress fits y = Xβ + e by least squares using the Householder QR
+// factorisation of the column-scaled X (package householder):
+// β̂ = R⁻¹(Qᵀy)_{1..K} (Golub and Van Loan 2013, §5.3.3). Column j is
+// collinear when |R_jj| ≤ householder.CollinearTol·‖x_j‖.
+// X must have N rows (len(y)) and K < N columns; rows are observations.
 func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 	n, k := x.Dims()
 	if n != len(y) {
@@ -64,13 +65,14 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 		}
 	}
 	// Scale the columns to unit norm before factorising; this makes the
-	// collinearity test and the condition estimate scale invariant.
+	// condition estimate scale invariant. The response rides along as
+	// column k, so that it comes back as Qᵀy.
 	scale := make([]float64, k)
-	xs := mat.NewDense(n, k, nil)
+	cols := householder.Columns(x, 1)
 	for j := 0; j < k; j++ {
+		c := cols[j]
 		var s float64
-		for i := 0; i < n; i++ {
-			v := x.At(i, j)
+		for i, v := range c {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return nil, fmt.Errorf("ols: X[%d,%d] is not finite", i, j)
 			}
@@ -81,34 +83,28 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 			return nil, &CollinearError{Col: j}
 		}
 		scale[j] = s
-		for i := 0; i < n; i++ {
-			xs.Set(i, j, x.At(i, j)/s)
+		for i := range c {
+			c[i] /= s
 		}
 	}
-	var qr mat.QR
-	qr.Factorize(xs)
-	var rd mat.Dense
-	qr.RTo(&rd)
-	r := mat.NewTriDense(k, mat.Upper, nil)
-	for i := 0; i < k; i++ {
-		for j := i; j < k; j++ {
-			r.SetTri(i, j, rd.At(i, j))
-		}
+	copy(cols[k], y)
+	var qr householder.QR
+	if err := qr.Factor(cols, k); err != nil {
+		return nil, fmt.Errorf("ols: %w", err)
 	}
-	for j := 0; j < k; j++ {
-		if math.Abs(r.At(j, j)) < collinearTol {
-			return nil, &CollinearError{Col: j}
-		}
+	if j := qr.Indep(); j < k {
+		return nil, &CollinearError{Col: j}
 	}
-	var bs mat.VecDense
-	if err := qr.SolveVecTo(&bs, false, mat.NewVecDense(n, append([]float64(nil), y...))); err != nil {
+	bs := append([]float64(nil), cols[k][:k]...) // (Qᵀy)_{0..k−1}
+	if err := qr.Solve(bs); err != nil {
 		return nil, fmt.Errorf("ols: %w", err)
 	}
 	f := &Fit{N: n, K: k, Coef: make([]float64, k), x: x}
 	for j := 0; j < k; j++ {
-		f.Coef[j] = bs.AtVec(j) / scale[j]
+		f.Coef[j] = bs[j] / scale[j]
 	}
 	// R⁻¹ of the unscaled problem: X = Xs·D, Xs = QRs, so X = Q(Rs·D), R = Rs·D, R⁻¹ = D⁻¹Rs⁻¹.
+	r := qr.R()
 	var rsinv mat.TriDense
 	if err := rsinv.InverseTri(r); err != nil {
 		return nil, fmt.Errorf("ols: %w", err)
@@ -120,7 +116,7 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 		}
 	}
 	f.rinv = rinv
-	f.Cond = condFromR(r)
+	f.Cond = qr.Cond()
 
 	f.Fitted = make([]float64, n)
 	f.Resid = make([]float64, n)
@@ -142,20 +138,6 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 		f.TSS += d * d
 	}
 	return f, nil
-}
-
-// condFromR estimates the 2-norm condition number of the column-scaled
-// design from the singular values of R.
-func condFromR(r *mat.TriDense) float64 {
-	var svd mat.SVD
-	if !svd.Factorize(r, mat.SVDNone) {
-		return math.Inf(1)
-	}
-	s := svd.Values(nil)
-	if s[len(s)-1] == 0 {
-		return math.Inf(1)
-	}
-	return s[0] / s[len(s)-1]
 }
 
 // DF is the residual degrees of freedom N − K.

@@ -3,6 +3,8 @@ package simulate
 import (
 	"math"
 	"math/rand/v2"
+
+	"github.com/galley-econ/galley/analysis/householder"
 )
 
 // tauKernel computes Dickey–Fuller τ statistics for one worker, reusing
@@ -13,8 +15,7 @@ type tauKernel struct {
 	y       []float64
 	cols    [][]float64 // DF design [det | Δy lags | y_{t−1}] and Δy_t
 	detTpl  [][]float64 // deterministic columns of the DF regression
-	diag    []float64
-	tau     []float64
+	qr      householder.QR
 
 	// Engle–Granger only: N−1 regressors, static design [det | x] and y.
 	nv    int
@@ -22,8 +23,7 @@ type tauKernel struct {
 	scols [][]float64
 	sdet  [][]float64 // deterministic columns of the static regression
 	sd    int
-	sdiag []float64
-	stau  []float64
+	sqr   householder.QR
 	resid []float64
 }
 
@@ -61,8 +61,6 @@ func newADFKernel(t, p, d int) *tauKernel {
 		y:      make([]float64, t),
 		cols:   columns(m+1, n),
 		detTpl: polyColumns(d, n),
-		diag:   make([]float64, m),
-		tau:    make([]float64, m),
 	}
 }
 
@@ -75,8 +73,6 @@ func newEGKernel(t, p, sd, nv int) *tauKernel {
 	k.xs = columns(nv-1, t)
 	k.scols = columns(sd+nv, t)
 	k.sdet = polyColumns(sd, t)
-	k.sdiag = make([]float64, sd+nv-1)
-	k.stau = make([]float64, sd+nv-1)
 	k.resid = make([]float64, t)
 	return k
 }
@@ -118,14 +114,14 @@ func (k *tauKernel) egTau(y []float64, xs [][]float64) float64 {
 		copy(k.scols[k.sd+j], x)
 	}
 	copy(k.scols[m], y)
-	if !householder(k.scols[:m+1], m, k.sdiag, k.stau) {
+	if err := k.sqr.Factor(k.scols[:m+1], m); err != nil || !k.sqr.FullRank() {
 		return math.NaN()
 	}
 	copy(k.resid, k.scols[m])
 	for i := 0; i < m; i++ {
 		k.resid[i] = 0
 	}
-	applyQ(k.scols, m, k.stau, k.resid) // û = Q [0; Q₂ᵀy]
+	_ = k.sqr.QVec(k.resid) // û = Q [0; Q₂ᵀy]; lengths match by construction
 	return k.dfTau(k.resid, nil)
 }
 
@@ -154,10 +150,10 @@ func (k *tauKernel) dfTau(y []float64, det [][]float64) float64 {
 		t := start + i
 		resp[i] = y[t] - y[t-1]
 	}
-	if !householder(cols, m, k.diag, k.tau) {
+	if err := k.qr.Factor(cols, m); err != nil || !k.qr.FullRank() {
 		return math.NaN()
 	}
 	ssr := dot(resp[m:], resp[m:])
 	s := math.Sqrt(ssr / float64(n-m))
-	return math.Copysign(1, k.diag[m-1]) * resp[m-1] / s
+	return math.Copysign(1, k.qr.RAt(m-1, m-1)) * resp[m-1] / s
 }

@@ -3,57 +3,8 @@ package simulate
 import "math"
 
 // Small dense kernels on caller-owned buffers, so that a replication
-// allocates nothing. Matrices are column-major slices of columns (QR) or
-// row-major n×n arrays (Cholesky, Jacobi).
-
-// householder reduces the columns cols[0..m−1] (each of length n, the
-// design) to upper-triangular form in place by Householder reflections
-// H_k = I − τ_k v_k v_kᵀ, applying each also to the further columns
-// cols[m..] (responses). On return cols[k][k:] holds v_k, diag[k] the
-// diagonal element R_kk and tau[k] τ_k; the first m entries of a response
-// column are Qᵀy restricted to the column space and the rest its
-// orthogonal complement. ok is false when some |R_kk| falls below
-// collinearTol·‖x_k‖ (numerically collinear design).
-//
-// With v = x − βe₁, β = −sign(x₀)‖x‖: vᵀv = −2βv₀, so τ = −1/(βv₀)
-// (Golub and Van Loan 2013, §5.1).
-func householder(cols [][]float64, m int, diag, tau []float64) (ok bool) {
-	ok = true
-	for k := 0; k < m; k++ {
-		x := cols[k][k:]
-		var nrm2 float64
-		for _, v := range cols[k] {
-			nrm2 += v * v
-		}
-		alpha := math.Sqrt(dot(x, x))
-		if alpha <= collinearTol*math.Sqrt(nrm2) || alpha == 0 {
-			diag[k], tau[k] = 0, 0
-			ok = false
-			continue
-		}
-		beta := -math.Copysign(alpha, x[0])
-		x[0] -= beta
-		t := -1 / (beta * x[0])
-		for j := k + 1; j < len(cols); j++ {
-			c := cols[j][k:]
-			s := t * dot(x, c)
-			axpy(-s, x, c)
-		}
-		diag[k], tau[k] = beta, t
-	}
-	return ok
-}
-
-// applyQ overwrites z (length n) with Q z, Q = H_0 H_1 ⋯ H_{m−1}, from the
-// reflectors that householder left in cols[0..m−1].
-func applyQ(cols [][]float64, m int, tau []float64, z []float64) {
-	for k := m - 1; k >= 0; k-- {
-		v := cols[k][k:]
-		c := z[k:]
-		s := tau[k] * dot(v, c)
-		axpy(-s, v, c)
-	}
-}
+// allocates nothing. Matrices are row-major n×n arrays. The QR of the τ
+// kernels is package householder's, on column-major slices of columns.
 
 // cholesky factorises the symmetric positive-definite n×n row-major a
 // (upper triangle read) as LLᵀ in place, L in the lower triangle. ok is
@@ -142,7 +93,3 @@ func axpy(a float64, x, y []float64) {
 		y[i] += a * v
 	}
 }
-
-// collinearTol is the relative size of a QR diagonal element below which
-// a design column counts as collinear (as in packages ols and unitroot).
-const collinearTol = 1e-10
