@@ -3,8 +3,6 @@ package longrun
 import (
 	"fmt"
 	"math"
-	"regexp"
-	"sort"
 	"strconv"
 	"strings"
 
@@ -12,6 +10,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/longrun"
 	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/restrict"
 	"github.com/galley-econ/galley/analysis/rules"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
@@ -351,10 +350,8 @@ func longRunRows(c *engine.Context, terms []string, coefs []ols.Coef, nd, dec in
 
 // A Wald restriction as written: one or more linear equations in the
 // long-run coefficients, joined by ";" for a joint test, e.g.
-// "log(fuel) = 1" or "x1 - x2 = 0; x3 = 0". Each side of "=" is: on the
-// left a sum of terms, each an optional sign, an optional number (with
-// or without "*") and a regressor written exactly as in x (or in
-// backquotes); on the right a number.
+// "log(fuel) = 1" or "x1 - x2 = 0; x3 = 0", in the grammar of
+// analysis/restrict.
 type restriction struct {
 	Text string
 	R    [][]float64
@@ -366,121 +363,13 @@ func parseRestrictions(c *engine.Context, list []string, terms []string) ([]rest
 	var out []restriction
 	for i, s := range list {
 		line := c.ItemLine("restrict", i)
-		var rs restriction
-		rs.Text, rs.line = s, line
-		for _, eq := range strings.Split(s, ";") {
-			row, val, err := ParseLinear(eq, terms)
-			if err != nil {
-				return nil, &manuscript.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
-			}
-			rs.R = append(rs.R, row)
-			rs.r = append(rs.r, val)
+		lin, err := restrict.Parse(s, terms, restrict.Options{})
+		if err != nil {
+			return nil, &manuscript.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
 		}
-		out = append(out, rs)
+		out = append(out, restriction{Text: s, R: lin.R, r: lin.Rhs, line: line})
 	}
 	return out, nil
-}
-
-// ParseLinear reads one equation "a·term ± b·term … = r".
-func ParseLinear(eq string, terms []string) ([]float64, float64, error) {
-	lhs, rhs, ok := strings.Cut(eq, "=")
-	if !ok || strings.Contains(rhs, "=") {
-		return nil, 0, fmt.Errorf("write one \"=\" per equation, e.g. %s = 1", terms[0])
-	}
-	val, err := strconv.ParseFloat(strings.TrimSpace(rhs), 64)
-	if err != nil {
-		return nil, 0, fmt.Errorf("the right-hand side %q is not a number", strings.TrimSpace(rhs))
-	}
-	// Longest names first, so that "x10" is not read as "x1".
-	byLen := append([]string(nil), terms...)
-	sort.SliceStable(byLen, func(i, j int) bool { return len(byLen[i]) > len(byLen[j]) })
-	row := make([]float64, len(terms))
-	s := strings.TrimSpace(lhs)
-	if s == "" {
-		return nil, 0, fmt.Errorf("the left-hand side is empty")
-	}
-	first := true
-	for s != "" {
-		sign := 1.0
-		switch {
-		case s[0] == '+':
-			s = strings.TrimSpace(s[1:])
-		case s[0] == '-':
-			sign, s = -1, strings.TrimSpace(s[1:])
-		case !first:
-			return nil, 0, fmt.Errorf("expected + or − before %q", s)
-		}
-		first = false
-		coef := 1.0
-		name, rest, found := matchTerm(s, byLen)
-		if !found {
-			// a number, then an optional "*"
-			j := len(numberRE.FindString(s))
-			if j == 0 {
-				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), manuscript.DidYouMean(firstWord(s), terms))
-			}
-			v, err := strconv.ParseFloat(s[:j], 64)
-			if err != nil {
-				return nil, 0, fmt.Errorf("%q is not a number", s[:j])
-			}
-			coef = v
-			s = strings.TrimSpace(s[j:])
-			s = strings.TrimSpace(strings.TrimPrefix(s, "*"))
-			if name, rest, found = matchTerm(s, byLen); !found {
-				if s == "" {
-					return nil, 0, fmt.Errorf("a number on the left-hand side needs a regressor after it")
-				}
-				return nil, 0, fmt.Errorf("%q is not a regressor of this relation (%s)%s", firstWord(s), strings.Join(terms, ", "), manuscript.DidYouMean(firstWord(s), terms))
-			}
-		}
-		for i, t := range terms {
-			if t == name {
-				row[i] += sign * coef
-			}
-		}
-		s = strings.TrimSpace(rest)
-	}
-	nonzero := false
-	for _, v := range row {
-		nonzero = nonzero || v != 0
-	}
-	if !nonzero {
-		return nil, 0, fmt.Errorf("the coefficients cancel; nothing is restricted")
-	}
-	return row, val, nil
-}
-
-var numberRE = regexp.MustCompile(`^(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?`)
-
-// matchTerm matches a regressor name (or a backquoted one) at the start
-// of s, followed by the end, a sign or a space.
-func matchTerm(s string, byLen []string) (name, rest string, ok bool) {
-	if strings.HasPrefix(s, "`") {
-		if j := strings.IndexByte(s[1:], '`'); j >= 0 {
-			inner := s[1 : 1+j]
-			for _, t := range byLen {
-				if t == inner || t == "`"+inner+"`" {
-					return t, s[j+2:], true
-				}
-			}
-		}
-	}
-	for _, t := range byLen {
-		if strings.HasPrefix(s, t) {
-			r := s[len(t):]
-			if r == "" || r[0] == ' ' || r[0] == '+' || r[0] == '-' {
-				return t, r, true
-			}
-		}
-	}
-	return "", s, false
-}
-
-func firstWord(s string) string {
-	if i := strings.IndexAny(s, " +-"); i > 0 {
-		return s[:i]
-	}
-	return s
 }
 
 // waldResult is one Wald test computed.
