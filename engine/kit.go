@@ -4,7 +4,12 @@ package engine
 // the results-file form of dates, samples and residuals.
 
 import (
+	"errors"
+	"fmt"
+
 	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/restrict"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // ParseDet reads a det: key (default c).
@@ -29,4 +34,16 @@ func DecimalsOr(c *Context, d *int) int {
 		return *d
 	}
 	return c.Decimals()
+}
+
+// ParseRestriction reads a linear restriction in galley's one grammar
+// (analysis/restrict) on the named coefficients; an unknown term is
+// answered with the closest name.
+func ParseRestriction(text string, names []string, opt restrict.Options) (*restrict.Linear, error) {
+	lin, err := restrict.Parse(text, names, opt)
+	var re *restrict.Error
+	if errors.As(err, &re) && errors.Is(err, restrict.ErrUnknownTerm) {
+		return nil, fmt.Errorf("%w%s", err, manuscript.DidYouMean(re.Term, names))
+	}
+	return lin, err
 }

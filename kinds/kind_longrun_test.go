@@ -149,6 +149,7 @@ func TestLongRunBadInput(t *testing.T) {
 	fm := func(body string) string { return front + "\n" + fence("fmols", body) }
 	t.Run("restriction on its own line", func(t *testing.T) {
 		runBad(t, dols("id: d\ny: y\nx: [x]\nrestrict:\n  - x = 2\n  - z = 1\n"), files, "paper.md:13:", `restriction "z = 1"`, `"z" is not one of the terms (x)`)
+		runBad(t, dols("id: d\ny: y\nx: [x]\nrestrict:\n  - z1 = 2\n"), files, "paper.md:12:", `restriction "z1 = 2"`, `"z1" is not one of the terms (x) (did you mean x?)`)
 	})
 	t.Run("restriction in a flow list", func(t *testing.T) {
 		runBad(t, fm("id: d\ny: y\nx: [x]\nrestrict: [\"x == 1\"]\n"), files, "paper.md:11:", `one "="`)

@@ -70,16 +70,11 @@ type Error struct {
 	Equation string // the equation as written (trimmed), or the whole text
 	Index    int    // zero-based position of the equation in the text
 	Term     string // the offending term or fragment, if any
-	Suggest  string // for ErrUnknownTerm: the closest name, or ""
 	Msg      string // the explanation
 }
 
 func (e *Error) Error() string {
-	s := fmt.Sprintf("%q: %s", e.Equation, e.Msg)
-	if e.Suggest != "" {
-		s += fmt.Sprintf(" (did you mean %s?)", e.Suggest)
-	}
-	return s
+	return fmt.Sprintf("%q: %s", e.Equation, e.Msg)
 }
 
 // Unwrap returns the kind, for errors.Is.
@@ -467,13 +462,14 @@ func numberLen(s string) int {
 }
 
 // unknown describes the fragment at s[i:] that is no term: the text up to
-// the next sign or space outside parentheses, with the closest name.
+// the next sign or space outside parentheses. (The caller, which knows
+// how the program phrases suggestions, may offer the closest name.)
 func (p *parser) unknown(s string, i int) *Error {
 	if s[i] == '`' {
 		j := strings.IndexByte(s[i+1:], '`')
 		if j >= 0 {
 			inner := s[i+1 : i+1+j]
-			return &Error{Kind: ErrUnknownTerm, Term: inner, Suggest: closest(inner, p.names),
+			return &Error{Kind: ErrUnknownTerm, Term: inner,
 				Msg: fmt.Sprintf("%q is not one of the terms (%s)", inner, strings.Join(p.names, ", "))}
 		}
 		return &Error{Kind: ErrSyntax, Msg: "a backquote is not closed"}
@@ -498,44 +494,6 @@ func (p *parser) unknown(s string, i int) *Error {
 	if !strings.ContainsFunc(word, func(r rune) bool { return unicode.IsLetter(r) || r == '_' }) {
 		return &Error{Kind: ErrSyntax, Term: word, Msg: fmt.Sprintf("unexpected %q", word)}
 	}
-	return &Error{Kind: ErrUnknownTerm, Term: word, Suggest: closest(word, p.names),
+	return &Error{Kind: ErrUnknownTerm, Term: word,
 		Msg: fmt.Sprintf("%q is not one of the terms (%s)", word, strings.Join(p.names, ", "))}
-}
-
-// closest returns the name nearest to s by edit distance (case and spaces
-// ignored), or "" when none is within ⌊len(s)/2⌋+1 edits.
-func closest(s string, names []string) string {
-	best, bestD := "", math.MaxInt
-	ls := strings.ToLower(stripSpace(s))
-	for _, n := range names {
-		if d := editDistance(ls, strings.ToLower(stripSpace(n))); d < bestD {
-			best, bestD = n, d
-		}
-	}
-	if bestD > utf8.RuneCountInString(ls)/2+1 {
-		return ""
-	}
-	return best
-}
-
-// editDistance is the Levenshtein distance between a and b in runes.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
 }

@@ -363,7 +363,7 @@ func parseRestrictions(c *engine.Context, list []string, terms []string) ([]rest
 	var out []restriction
 	for i, s := range list {
 		line := c.ItemLine("restrict", i)
-		lin, err := restrict.Parse(s, terms, restrict.Options{})
+		lin, err := engine.ParseRestriction(s, terms, restrict.Options{})
 		if err != nil {
 			return nil, &manuscript.PosError{File: c.File(), Line: line, Msg: fmt.Sprintf("restriction %q: %v", s, err)}
 		}
