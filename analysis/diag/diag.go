@@ -119,3 +119,16 @@ func checkFinite(what string, e []float64) error {
 	}
 	return nil
 }
+
+// finiteMean is the mean ē = N⁻¹ Σ e_t of a series that must be finite
+// (what names it in the error).
+func finiteMean(what string, e []float64) (float64, error) {
+	if err := checkFinite(what, e); err != nil {
+		return 0, err
+	}
+	var mean float64
+	for _, v := range e {
+		mean += v
+	}
+	return mean / float64(len(e)), nil
+}

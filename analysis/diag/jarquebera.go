@@ -16,14 +16,10 @@ func JarqueBera(e []float64) (Test, error) {
 	if n < 3 {
 		return Test{}, fmt.Errorf("diag: Jarque–Bera needs at least 3 observations, have %d", n)
 	}
-	if err := checkFinite("residual", e); err != nil {
+	mean, err := finiteMean("residual", e)
+	if err != nil {
 		return Test{}, err
 	}
-	var mean float64
-	for _, v := range e {
-		mean += v
-	}
-	mean /= float64(n)
 	var m2, m3, m4 float64
 	for _, v := range e {
 		d := v - mean

@@ -18,14 +18,10 @@ func LjungBox(e []float64, r, modelDF int) (Test, error) {
 	if modelDF < 0 || modelDF >= r {
 		return Test{}, fmt.Errorf("diag: Ljung–Box model degrees of freedom %d must be in 0..%d", modelDF, r-1)
 	}
-	if err := checkFinite("residual", e); err != nil {
+	mean, err := finiteMean("residual", e)
+	if err != nil {
 		return Test{}, err
 	}
-	var mean float64
-	for _, v := range e {
-		mean += v
-	}
-	mean /= float64(n)
 	var c0 float64
 	for _, v := range e {
 		c0 += (v - mean) * (v - mean)

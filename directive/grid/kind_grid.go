@@ -1,6 +1,7 @@
 package grid
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
@@ -614,18 +615,8 @@ func critFromValues(v any) []critical.Value {
 		}
 		out = append(out, critical.Value{Level: lev / 100, Value: f})
 	}
-	slices.SortFunc(out, func(a, b critical.Value) int { return cmpFloat(a.Level, b.Level) })
+	slices.SortFunc(out, func(a, b critical.Value) int { return cmp.Compare(a.Level, b.Level) })
 	return out
-}
-
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // toFloat reads a number from a results value.

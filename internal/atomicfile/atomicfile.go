@@ -24,40 +24,44 @@ func WriteUnsynced(path string, data []byte, perm os.FileMode) error {
 }
 
 func write(path string, data []byte, perm os.FileMode, sync bool) error {
-	dir := filepath.Dir(path)
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return err
-	}
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	name, err := stage(path, data, perm, sync)
 	if err != nil {
 		return err
-	}
-	name := tmp.Name()
-	fail := func(err error) error {
-		tmp.Close()
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, err)
-	}
-	if _, err := tmp.Write(data); err != nil {
-		return fail(err)
-	}
-	if sync {
-		if err := tmp.Sync(); err != nil {
-			return fail(err)
-		}
-	}
-	if err := tmp.Chmod(perm); err != nil {
-		return fail(err)
-	}
-	if err := tmp.Close(); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, err)
 	}
 	if err := os.Rename(name, path); err != nil {
 		os.Remove(name)
 		return fmt.Errorf("writing %s: %w", path, err)
 	}
 	return nil
+}
+
+// stage writes data with mode perm to a new temporary file beside path
+// (synced when sync is set) and returns its name; on error nothing is
+// left behind.
+func stage(path string, data []byte, perm os.FileMode, sync bool) (string, error) {
+	dir := filepath.Dir(path)
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return "", err
+	}
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	if err != nil {
+		return "", err
+	}
+	_, err = tmp.Write(data)
+	if err == nil && sync {
+		err = tmp.Sync()
+	}
+	if err == nil {
+		err = tmp.Chmod(perm)
+	}
+	if cerr := tmp.Close(); err == nil {
+		err = cerr
+	}
+	if err != nil {
+		os.Remove(tmp.Name())
+		return "", fmt.Errorf("writing %s: %w", path, err)
+	}
+	return tmp.Name(), nil
 }
 
 // Set is a group of files written together: all are staged as temporary
@@ -76,27 +80,11 @@ func (s *Set) Stage(path string, data []byte) error {
 	if old, err := os.ReadFile(path); err == nil && bytes.Equal(old, data) {
 		return nil
 	}
-	dir := filepath.Dir(path)
-	if err := os.MkdirAll(dir, 0o755); err != nil {
-		return err
-	}
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+	name, err := stage(path, data, 0o644, false)
 	if err != nil {
 		return err
 	}
-	_, werr := tmp.Write(data)
-	if werr == nil {
-		werr = tmp.Chmod(0o644)
-	}
-	cerr := tmp.Close()
-	if werr == nil {
-		werr = cerr
-	}
-	if werr != nil {
-		os.Remove(tmp.Name())
-		return fmt.Errorf("writing %s: %w", path, werr)
-	}
-	s.files = append(s.files, staged{path, tmp.Name()})
+	s.files = append(s.files, staged{path, name})
 	return nil
 }
 

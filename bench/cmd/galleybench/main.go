@@ -47,15 +47,11 @@ func main() {
 // profileFirstBuild builds a copy of the demo once with an empty cache
 // under the CPU profiler.
 func profileFirstBuild(demo, out string) error {
-	tmp, err := os.MkdirTemp("", "galleybench-")
+	tmp, p, err := demoCopy(demo)
 	if err != nil {
 		return err
 	}
 	defer os.RemoveAll(tmp)
-	p, err := bench.CopyDemo(demo, tmp)
-	if err != nil {
-		return err
-	}
 	f, err := os.Create(out)
 	if err != nil {
 		return err
@@ -69,6 +65,19 @@ func profileFirstBuild(demo, out string) error {
 	pprof.StopCPUProfile()
 	fmt.Printf("first build %v: parse %v, run %v, render %v, write %v\n", time.Since(t0), ph.Parse, ph.Run, ph.Render, ph.Write)
 	return err
+}
+
+// demoCopy copies the demo into a new temporary folder and returns the
+// folder (for the caller to remove) and the copied manuscript.
+func demoCopy(demo string) (tmp, manuscript string, err error) {
+	if tmp, err = os.MkdirTemp("", "galleybench-"); err != nil {
+		return "", "", err
+	}
+	if manuscript, err = bench.CopyDemo(demo, tmp); err != nil {
+		os.RemoveAll(tmp)
+		return "", "", err
+	}
+	return tmp, manuscript, nil
 }
 
 // timeIt runs f n times and returns the best and the median time.
@@ -129,15 +138,11 @@ func run(dataDir string, runs int, demo, galley string) error {
 			return err
 		}
 	}
-	tmp, err := os.MkdirTemp("", "galleybench-")
+	tmp, p, err := demoCopy(demo)
 	if err != nil {
 		return err
 	}
 	defer os.RemoveAll(tmp)
-	p, err := bench.CopyDemo(demo, tmp)
-	if err != nil {
-		return err
-	}
 	cache := filepath.Join(tmp, ".galley-cache")
 	var last bench.Phases
 	if err := report("demo_cold", runs, func() error {
