@@ -13,6 +13,7 @@ import (
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/dataio"
 	"github.com/galley-econ/galley/manuscript"
+	"github.com/galley-econ/galley/resultsfile"
 )
 
 // dataStore loads each data alias once per build and remembers the
@@ -28,10 +29,10 @@ func newDataStore(d *Document) *dataStore {
 	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{}}
 }
 
-func (s *dataStore) inputs() []Input {
-	var out []Input
+func (s *dataStore) inputs() []resultsfile.Input {
+	var out []resultsfile.Input
 	for p, h := range s.read {
-		out = append(out, Input{Path: p, SHA256: h})
+		out = append(out, resultsfile.Input{Path: p, SHA256: h})
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].Path < out[j].Path })
 	return out

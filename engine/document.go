@@ -14,6 +14,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/diag"
 	"github.com/galley-econ/galley/manuscript"
+	"github.com/galley-econ/galley/resultsfile"
 )
 
 // Options control how a manuscript is read.
@@ -416,13 +417,7 @@ func (d *Document) Results() []*Result {
 }
 
 // Inputs lists the data files read, with their SHA-256.
-func (d *Document) Inputs() []Input { return d.data.inputs() }
-
-// Input is one data file read by a build.
-type Input struct {
-	Path   string `json:"path"`
-	SHA256 string `json:"sha256"`
-}
+func (d *Document) Inputs() []resultsfile.Input { return d.data.inputs() }
 
 // Directives is the number of directive blocks.
 func (d *Document) Directives() int { return len(d.blocks) }

@@ -4,44 +4,37 @@ import (
 	"encoding/json"
 	"math"
 	"path/filepath"
+
+	"github.com/galley-econ/galley/resultsfile"
 )
 
-// ResultsFile is the machine-readable record of a build: every result's
-// values at full precision, with the inputs' hashes, so that two builds
-// can be compared number by number.
-type ResultsFile struct {
-	Galley     string          `json:"galley"`
-	Manuscript string          `json:"manuscript"`
-	Vintage    string          `json:"vintage,omitempty"`
-	Inputs     []Input         `json:"inputs"`
-	Results    []ResultsRecord `json:"results"`
-}
-
-// ResultsRecord is one result in the results file.
-type ResultsRecord struct {
-	ID     string         `json:"id"`
-	Kind   string         `json:"kind"`
-	Line   int            `json:"line"`
-	Number int            `json:"number,omitempty"`
-	Spec   map[string]any `json:"spec"`
-	Values map[string]any `json:"values"`
+// ResultsFile is the results file of this build as a reader sees it
+// once read back (numbers as float64, lists as []any): the one form
+// comparisons take, whether the file comes from disk or from a build in
+// memory. label becomes its Path.
+func (d *Document) ResultsFile(version, label string) (*resultsfile.File, error) {
+	b, err := d.ResultsJSON(version)
+	if err != nil {
+		return nil, err
+	}
+	return resultsfile.Parse(b, label)
 }
 
 // ResultsJSON renders the results file.
 func (d *Document) ResultsJSON(version string) ([]byte, error) {
-	rf := ResultsFile{Galley: version, Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage, Inputs: d.Inputs()}
+	rf := resultsfile.File{Galley: version, Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage, Inputs: d.Inputs()}
 	if rf.Inputs == nil {
-		rf.Inputs = []Input{}
+		rf.Inputs = []resultsfile.Input{}
 	}
 	for _, r := range d.Results() {
 		spec := r.Spec
 		if spec == nil {
 			spec = map[string]any{}
 		}
-		rf.Results = append(rf.Results, ResultsRecord{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number, Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
+		rf.Results = append(rf.Results, resultsfile.Record{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number, Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
 	}
 	if rf.Results == nil {
-		rf.Results = []ResultsRecord{}
+		rf.Results = []resultsfile.Record{}
 	}
 	b, err := json.MarshalIndent(rf, "", " ")
 	if err != nil {

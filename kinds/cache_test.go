@@ -12,6 +12,7 @@ import (
 	"testing"
 
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/resultsfile"
 	"github.com/galley-econ/galley/revision"
 	"github.com/galley-econ/galley/write/html"
 )
@@ -218,11 +219,11 @@ func dependents(d *engine.Document, word string) []string {
 	return out
 }
 
-func loadResults(t *testing.T, b []byte, name string) *revision.File {
+func loadResults(t *testing.T, b []byte, name string) *resultsfile.File {
 	t.Helper()
 	p := filepath.Join(t.TempDir(), name+".results.json")
 	os.WriteFile(p, b, 0o644)
-	f, err := revision.Load(p)
+	f, err := resultsfile.Load(p)
 	if err != nil {
 		t.Fatal(err)
 	}

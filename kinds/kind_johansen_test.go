@@ -16,6 +16,7 @@ import (
 	"github.com/galley-econ/galley/analysis/series"
 	djohansen "github.com/galley-econ/galley/directive/johansen"
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/resultsfile"
 )
 
 // sysRead returns a repository file's text.
@@ -43,7 +44,7 @@ func sysBuild(t *testing.T, doc string, files map[string]string) map[string]map[
 	if err != nil {
 		t.Fatal(err)
 	}
-	var rf engine.ResultsFile
+	var rf resultsfile.File
 	if err := json.Unmarshal(raw, &rf); err != nil {
 		t.Fatal(err)
 	}

@@ -6,55 +6,14 @@
 package revision
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
-	"os"
 	"sort"
 	"strconv"
 	"strings"
+
+	"github.com/galley-econ/galley/resultsfile"
 )
-
-// File is a parsed results file.
-type File struct {
-	Path       string   `json:"-"`
-	Galley     string   `json:"galley"`
-	Manuscript string   `json:"manuscript"`
-	Vintage    string   `json:"vintage"`
-	Inputs     []Input  `json:"inputs"`
-	Results    []Record `json:"results"`
-}
-
-// Input is a data file and its hash.
-type Input struct {
-	Path   string `json:"path"`
-	SHA256 string `json:"sha256"`
-}
-
-// Record is one result.
-type Record struct {
-	ID     string         `json:"id"`
-	Kind   string         `json:"kind"`
-	Line   int            `json:"line"`
-	Values map[string]any `json:"values"`
-}
-
-// Load reads a results file.
-func Load(path string) (*File, error) {
-	b, err := os.ReadFile(path)
-	if err != nil {
-		return nil, err
-	}
-	var f File
-	if err := json.Unmarshal(b, &f); err != nil {
-		return nil, fmt.Errorf("%s: not a galley results file: %v", path, err)
-	}
-	if f.Galley == "" || f.Results == nil {
-		return nil, fmt.Errorf("%s: not a galley results file (no \"galley\" version or \"results\")", path)
-	}
-	f.Path = path
-	return &f, nil
-}
 
 // Options tune a comparison.
 type Options struct {
@@ -68,7 +27,7 @@ type Options struct {
 
 // Report is the outcome of a comparison.
 type Report struct {
-	Old, New         *File
+	Old, New         *resultsfile.File
 	SameManuscript   bool
 	InputsChanged    []InputChange
 	OnlyOld, OnlyNew []string
@@ -114,7 +73,7 @@ func (r *Report) Flips() int {
 }
 
 // Compare compares two results files.
-func Compare(old, new *File, o Options) *Report {
+func Compare(old, new *resultsfile.File, o Options) *Report {
 	if o.Tol == 0 {
 		o.Tol = 1e-9
 	}
@@ -140,7 +99,7 @@ func Compare(old, new *File, o Options) *Report {
 			r.InputsChanged = append(r.InputsChanged, InputChange{in.Path, in.SHA256, ""})
 		}
 	}
-	om := map[string]Record{}
+	om := map[string]resultsfile.Record{}
 	for _, rec := range old.Results {
 		om[rec.ID] = rec
 	}
@@ -167,7 +126,7 @@ func Compare(old, new *File, o Options) *Report {
 	return r
 }
 
-func compareRecord(old, new Record, o Options) Item {
+func compareRecord(old, new resultsfile.Record, o Options) Item {
 	it := Item{ID: new.ID, Kind: new.Kind}
 	of, nf := map[string]any{}, map[string]any{}
 	flatten("", old.Values, of)

@@ -4,36 +4,38 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/galley-econ/galley/resultsfile"
 )
 
-func file(manuscript string, recs ...Record) *File {
-	return &File{Path: manuscript + ".results.json", Galley: "t", Manuscript: manuscript, Results: recs}
+func file(manuscript string, recs ...resultsfile.Record) *resultsfile.File {
+	return &resultsfile.File{Path: manuscript + ".results.json", Galley: "t", Manuscript: manuscript, Results: recs}
 }
 
 func TestCompareFlips(t *testing.T) {
 	old := file("paper.md",
-		Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": -3.5, "reject_5": true, "nobs": 250.0}},
-		Record{ID: "m", Kind: "ols", Values: map[string]any{"coef": []any{
+		resultsfile.Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": -3.5, "reject_5": true, "nobs": 250.0}},
+		resultsfile.Record{ID: "m", Kind: "ols", Values: map[string]any{"coef": []any{
 			map[string]any{"term": "x", "est": 0.5, "se": 0.2, "p": 0.012},
 			map[string]any{"term": "const", "est": 1.0, "se": 0.1, "p": 0.001},
 		}, "r2": 0.4}},
-		Record{ID: "e", Kind: "ecm", Values: map[string]any{"alpha": -0.2, "error_corrects": true}},
-		Record{ID: "j", Kind: "johansen", Values: map[string]any{"rank": 2.0}},
-		Record{ID: "u", Kind: "unitroot-table", Values: map[string]any{"series": []any{map[string]any{"name": "y", "order": "I(1)"}}}},
-		Record{ID: "same", Kind: "ols", Values: map[string]any{"r2": 0.5}},
-		Record{ID: "gone", Kind: "ols", Values: map[string]any{}},
+		resultsfile.Record{ID: "e", Kind: "ecm", Values: map[string]any{"alpha": -0.2, "error_corrects": true}},
+		resultsfile.Record{ID: "j", Kind: "johansen", Values: map[string]any{"rank": 2.0}},
+		resultsfile.Record{ID: "u", Kind: "unitroot-table", Values: map[string]any{"series": []any{map[string]any{"name": "y", "order": "I(1)"}}}},
+		resultsfile.Record{ID: "same", Kind: "ols", Values: map[string]any{"r2": 0.5}},
+		resultsfile.Record{ID: "gone", Kind: "ols", Values: map[string]any{}},
 	)
 	new := file("paper.md",
-		Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": -2.5, "reject_5": false, "nobs": 251.0}},
-		Record{ID: "m", Kind: "ols", Values: map[string]any{"coef": []any{
+		resultsfile.Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": -2.5, "reject_5": false, "nobs": 251.0}},
+		resultsfile.Record{ID: "m", Kind: "ols", Values: map[string]any{"coef": []any{
 			map[string]any{"term": "x", "est": 0.5, "se": 0.2, "p": 0.07},
 			map[string]any{"term": "const", "est": 1.0 + 1e-12, "se": 0.1, "p": 0.001},
 		}, "r2": 0.4}},
-		Record{ID: "e", Kind: "ecm", Values: map[string]any{"alpha": 0.05, "error_corrects": false}},
-		Record{ID: "j", Kind: "johansen", Values: map[string]any{"rank": 1.0}},
-		Record{ID: "u", Kind: "unitroot-table", Values: map[string]any{"series": []any{map[string]any{"name": "y", "order": "I(0)"}}}},
-		Record{ID: "same", Kind: "ols", Values: map[string]any{"r2": 0.5}},
-		Record{ID: "added", Kind: "ols", Values: map[string]any{}},
+		resultsfile.Record{ID: "e", Kind: "ecm", Values: map[string]any{"alpha": 0.05, "error_corrects": false}},
+		resultsfile.Record{ID: "j", Kind: "johansen", Values: map[string]any{"rank": 1.0}},
+		resultsfile.Record{ID: "u", Kind: "unitroot-table", Values: map[string]any{"series": []any{map[string]any{"name": "y", "order": "I(0)"}}}},
+		resultsfile.Record{ID: "same", Kind: "ols", Values: map[string]any{"r2": 0.5}},
+		resultsfile.Record{ID: "added", Kind: "ols", Values: map[string]any{}},
 	)
 	r := Compare(old, new, Options{})
 	var got []string
@@ -81,7 +83,7 @@ func TestCompareFlips(t *testing.T) {
 }
 
 func TestDifferentManuscripts(t *testing.T) {
-	r := Compare(file("a.md", Record{ID: "x", Values: map[string]any{"stat": 1.0}}), file("b.md", Record{ID: "x", Values: map[string]any{"stat": 2.0}}), Options{})
+	r := Compare(file("a.md", resultsfile.Record{ID: "x", Values: map[string]any{"stat": 1.0}}), file("b.md", resultsfile.Record{ID: "x", Values: map[string]any{"stat": 2.0}}), Options{})
 	if r.SameManuscript || !strings.Contains(r.Summary(), "different manuscripts") {
 		t.Error("different manuscripts not reported")
 	}

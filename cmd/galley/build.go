@@ -10,6 +10,7 @@ import (
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
 	_ "github.com/galley-econ/galley/kinds"
+	"github.com/galley-econ/galley/resultsfile"
 	"github.com/galley-econ/galley/revision"
 	"github.com/galley-econ/galley/write/html"
 	"github.com/galley-econ/galley/write/latex"
@@ -62,12 +63,12 @@ func (b *buildCmd) Run() error {
 		return err
 	}
 	if b.Against != "" {
-		old, err := revision.Load(b.Against)
+		old, err := resultsfile.Load(b.Against)
 		if err != nil {
 			return err
 		}
 		base := strings.TrimSuffix(filepath.Base(b.Manuscript), filepath.Ext(b.Manuscript))
-		now, err := revision.Load(filepath.Join(out, base+".results.json"))
+		now, err := resultsfile.Load(filepath.Join(out, base+".results.json"))
 		if err != nil {
 			return err
 		}

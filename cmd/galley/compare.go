@@ -9,6 +9,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
+	"github.com/galley-econ/galley/resultsfile"
 	"github.com/galley-econ/galley/revision"
 )
 
@@ -21,7 +22,7 @@ type compareCmd struct {
 }
 
 func (c *compareCmd) Run() error {
-	var old, new *revision.File
+	var old, new *resultsfile.File
 	var err error
 	switch {
 	case len(c.Vintages) > 0:
@@ -37,10 +38,10 @@ func (c *compareCmd) Run() error {
 	case c.New == "":
 		return &exitError{code: 2, err: fmt.Errorf("compare OLD.results.json NEW.results.json (or compare MANUSCRIPT.md --vintages OLD,NEW)")}
 	default:
-		if old, err = revision.Load(c.Old); err != nil {
+		if old, err = resultsfile.Load(c.Old); err != nil {
 			return err
 		}
-		if new, err = revision.Load(c.New); err != nil {
+		if new, err = resultsfile.Load(c.New); err != nil {
 			return err
 		}
 	}
@@ -75,7 +76,7 @@ func writeReport(rep *revision.Report, path string) error {
 
 // buildVintage runs the manuscript on one data vintage (using the cache)
 // and returns its results as a results file.
-func buildVintage(manuscript, vintage string) (*revision.File, error) {
+func buildVintage(manuscript, vintage string) (*resultsfile.File, error) {
 	doc, err := engine.Parse(manuscript, engine.Options{Vintage: vintage, Cache: cacheFor(manuscript, false)})
 	if err != nil {
 		return nil, err
@@ -86,24 +87,8 @@ func buildVintage(manuscript, vintage string) (*revision.File, error) {
 	return resultsOf(doc, fmt.Sprintf("%s [vintage %s]", manuscript, vintage))
 }
 
-func resultsOf(doc *engine.Document, label string) (*revision.File, error) {
-	b, err := doc.ResultsJSON(version.Version)
-	if err != nil {
-		return nil, err
-	}
-	tmp, err := os.CreateTemp("", "galley-results-*.json")
-	if err != nil {
-		return nil, err
-	}
-	defer os.Remove(tmp.Name())
-	tmp.Write(b)
-	tmp.Close()
-	f, err := revision.Load(tmp.Name())
-	if err != nil {
-		return nil, err
-	}
-	f.Path = label
-	return f, nil
+func resultsOf(doc *engine.Document, label string) (*resultsfile.File, error) {
+	return doc.ResultsFile(version.Version, label)
 }
 
 // cacheFor is the result cache beside a manuscript.

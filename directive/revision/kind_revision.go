@@ -1,10 +1,8 @@
 package revision
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
-	"path/filepath"
 	"slices"
 	"sort"
 	"strings"
@@ -80,7 +78,7 @@ func (s *revisionSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err := other.Run(); err != nil {
 		return nil, c.Errorf("against", "building vintage %q failed: %v", s.Against, err)
 	}
-	oldF, err := AsRevisionFile(other, "vintage "+s.Against)
+	oldF, err := other.ResultsFile("build", "vintage "+s.Against)
 	if err != nil {
 		return nil, err
 	}
@@ -88,81 +86,12 @@ func (s *revisionSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if d.Vintage() != "" {
 		cur = "vintage " + d.Vintage()
 	}
-	newF, err := AsRevisionFile(d, cur)
+	newF, err := d.ResultsFile("build", cur)
 	if err != nil {
 		return nil, err
 	}
 	rep := revision.Compare(oldF, newF, revision.Options{Tol: s.Tol, Stars: c.Stars()})
 	return s.table(c, rep), nil
-}
-
-// AsRevisionFile converts a built document's results into the form the
-// comparison reads: the values as a results file holds them once read
-// back (numbers as float64, lists as []any), without the round trip.
-func AsRevisionFile(d *engine.Document, label string) (*revision.File, error) {
-	f := &revision.File{Path: label, Galley: "build", Manuscript: filepath.Base(d.File), Vintage: d.Vintage()}
-	for _, in := range d.Inputs() {
-		f.Inputs = append(f.Inputs, revision.Input{Path: in.Path, SHA256: in.SHA256})
-	}
-	for _, r := range d.Results() {
-		v, _ := jsonShape(engine.JsonSafe(r.Values)).(map[string]any)
-		f.Results = append(f.Results, revision.Record{ID: r.ID, Kind: r.Kind, Line: r.Line, Values: v})
-	}
-	return f, nil
-}
-
-// jsonShape gives values the types encoding/json decodes into.
-func jsonShape(v any) any {
-	switch x := v.(type) {
-	case map[string]any:
-		out := make(map[string]any, len(x))
-		for k, e := range x {
-			out[k] = jsonShape(e)
-		}
-		return out
-	case []any:
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = jsonShape(e)
-		}
-		return out
-	case []map[string]any:
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = jsonShape(e)
-		}
-		return out
-	case []float64:
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = e
-		}
-		return out
-	case []string:
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = e
-		}
-		return out
-	case []int:
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = float64(e)
-		}
-		return out
-	case int:
-		return float64(x)
-	case float64, string, bool, nil:
-		return x
-	}
-	// Anything else goes through JSON, as the results file would hold it.
-	b, err := json.Marshal(v)
-	if err != nil {
-		return nil
-	}
-	var out any
-	json.Unmarshal(b, &out)
-	return out
 }
 
 func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Result {
