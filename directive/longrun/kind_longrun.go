@@ -49,13 +49,18 @@ type fmolsSpec struct {
 	Decimals      *int     `yaml:"decimals"`
 }
 
-var longrunFields = []string{"coef", "nobs", "wald", "leads", "lags", "bandwidth", "kernel", "r2", "cov", "se_desc",
-	"select", "det", "y", "x", "sample", "resid", "dynamics", "hac_lags"}
+// longrunFields are the values both estimators report; dolsFields and
+// fmolsFields add their own.
+var (
+	longrunFields = []string{"coef", "nobs", "wald", "cov", "se_desc", "det", "y", "x", "sample", "resid"}
+	dolsFields    = append([]string{"leads", "lags", "r2", "select", "dynamics", "bandwidth", "hac_lags", "kernel"}, longrunFields...)
+	fmolsFields   = append([]string{"bandwidth", "kernel"}, longrunFields...)
+)
 
 func init() {
-	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: longrunFields,
+	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields,
 		New: func() engine.Directive { return &dolsSpec{} }})
-	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: longrunFields,
+	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields,
 		New: func() engine.Directive { return &fmolsSpec{} }})
 }
 

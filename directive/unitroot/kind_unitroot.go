@@ -32,8 +32,12 @@ type urSpec struct {
 	test string
 }
 
-var urFields = []string{"test", "stat", "pvalue", "pvalue_source", "pvalue_clipped", "lags", "bandwidth", "nobs", "crit", "crit_source", "reject_5", "det", "series", "sample", "stat_alpha", "crit_alpha", "crit_alpha_source", "break", "break_index", "break_model", "trim",
-	"crit_mcse", "sim_key", "sim"} // the last three with crit: simulate (simcrit.go)
+// urFields are the values every single test reports; each test adds its
+// own (testDef.Fields).
+var urFields = []string{"test", "stat", "pvalue", "nobs", "crit", "crit_source", "reject_5", "series", "sample"}
+
+// simFields are the values crit: simulate adds (engine/simcrit.go).
+var simFields = []string{"crit_mcse", "sim_key", "sim"}
 
 // settings validates the spec's test options.
 func (s *urSpec) settings(c *engine.Context) (urTest, error) {

@@ -90,6 +90,7 @@ var levelOrTrend = []critical.Case{critical.Const, critical.ConstTrend}
 
 func init() {
 	registerTest(&testDef{Name: "adf", Title: "ADF", Summary: "augmented Dickey–Fuller unit-root test",
+		Fields: append([]string{"pvalue_source", "lags", "det"}, simFields...),
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.ADF(y, u.Det, u.Lags)
 			if err != nil {
@@ -99,6 +100,7 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "MacKinnon (1994)", Null: "has a unit root"}, nil
 		}})
 	registerTest(&testDef{Name: "pp", Title: "PP", Summary: "Phillips–Perron unit-root test", Bandwidth: true,
+		Fields: []string{"pvalue_source", "bandwidth", "det", "stat_alpha", "crit_alpha", "crit_alpha_source"},
 		Dets: []critical.Case{critical.NoConst, critical.Const, critical.ConstTrend}, DetHelp: "Phillips–Perron supports det n, c or ct",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.PP(y, u.Det, u.Bandwidth)
@@ -110,6 +112,7 @@ func init() {
 				Extra: map[string]any{"stat_alpha": r.StatAlpha, "crit_alpha": contract.CritMap(r.CritAlpha), "crit_alpha_source": r.CritAlphaSource}}, nil
 		}})
 	registerTest(&testDef{Name: "kpss", Title: "KPSS", Summary: "KPSS test of level or trend stationarity", Bandwidth: true,
+		Fields: []string{"pvalue_source", "pvalue_clipped", "bandwidth", "det"},
 		Dets: levelOrTrend, DetHelp: "KPSS tests level (c) or trend (ct) stationarity; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.KPSS(y, u.Det, u.Bandwidth)
@@ -120,6 +123,7 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "interpolated in KPSS (1992) Table 1", Upper: true, Null: kpssNull(u.Det)}, nil
 		}})
 	registerTest(&testDef{Name: "dfgls", Title: "DF-GLS", Summary: "DF-GLS unit-root test of Elliott, Rothenberg and Stock",
+		Fields: []string{"pvalue_source", "lags", "det"},
 		Dets: levelOrTrend, DetHelp: "DF-GLS has a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.DFGLS(y, u.Det, u.Lags)
@@ -134,6 +138,7 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: ps, Null: "has a unit root"}, nil
 		}})
 	registerTest(&testDef{Name: "za", Title: "ZA", Summary: "Zivot–Andrews unit-root test with one break at an unknown date", Break: true,
+		Fields: []string{"lags", "break", "break_index", "break_model", "trim"},
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.ZA(y, u.Break, u.Trim, u.Lags)
 			if err != nil {
@@ -146,7 +151,7 @@ func init() {
 	registerTest(&testDef{Name: "ngperron", Title: "Ng–Perron", Summary: "Ng–Perron M tests (MZα, MZt, MSB, MPT) on GLS-detrended data, lags by the modified AIC",
 		Dets: levelOrTrend, DetHelp: "the Ng–Perron tests have a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
 		Lags: &unitroot.LagRule{Select: unitroot.MAIC, Max: -1}, Run: ngPerron,
-		Fields: []string{"mza", "mzt", "msb", "mpt", "crit_mza", "crit_msb", "crit_mpt", "s2ar"},
+		Fields: []string{"lags", "det", "mza", "mzt", "msb", "mpt", "crit_mza", "crit_msb", "crit_mpt", "s2ar"},
 		Rows:   []extraRow{{"MZα", "mza", "crit_mza"}, {"MSB", "msb", "crit_msb"}, {"MPT", "mpt", "crit_mpt"}}})
 }
 
