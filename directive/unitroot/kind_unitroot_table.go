@@ -155,97 +155,114 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	dec := c.Decimals()
-	if s.Decimals != nil {
-		dec = *s.Decimals
-	}
-	nt := len(levT)
-	head1 := []table.Cell{table.T(""), table.Span("Levels", nt)}
-	head2 := []table.Cell{table.T("Series")}
-	for _, u := range levT {
-		head2 = append(head2, table.T(title(u.Name)))
-	}
-	if s.diffs() {
-		head1 = append(head1, table.Span("First differences", nt))
-		for _, u := range difT {
-			head2 = append(head2, table.T(title(u.Name)))
-		}
-	}
-	head1 = append(head1, table.T(""))
-	head2 = append(head2, table.T("Order"))
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{head1, head2}}
-
-	// crit5[block][test] collects 5% critical values and T for the note.
-	type critSeen struct {
-		vals    []float64
-		ts      []int
-		sources []string
-	}
-	crit5 := [2][]critSeen{make([]critSeen, nt), make([]critSeen, nt)}
+	dec := engine.DecimalsOr(c, s.Decimals)
+	t := &table.Table{Stub: 1, Head: s.head(levT)}
+	seen := [2][]critSeen{make([]critSeen, len(levT)), make([]critSeen, len(levT))}
 	var vals []map[string]any
 	for _, name := range s.Series {
-		row := []table.Cell{table.T(name)}
-		entry := map[string]any{"name": name}
-		var verdicts [2]int
-		for block, exprs := range [][]urTest{levT, difT} {
-			if block == 1 && !s.diffs() {
-				break
-			}
-			expr := name
-			key := "levels"
-			if block == 1 {
-				expr = "diff(" + name + ")"
-				key = "diff"
-			}
-			d, err := c.Data(c.DataAlias(s.Data), []string{expr}, s.Sample)
-			if err != nil {
-				return nil, err
-			}
-			var outs []*contract.Outcome
-			bv := map[string]any{}
-			for i, u := range exprs {
-				o, err := u.run(d.Cols[0])
-				if err != nil {
-					return nil, c.Errorf("series", "%s of %s: %v", title(u.Name), expr, err)
-				}
-				outs = append(outs, o)
-				cell := table.Starred(o.Stat, dec, o.Stars(c.Stars()))
-				cell.Suffix = fmt.Sprintf(" [%d]", o.Lags)
-				row = append(row, cell)
-				v := o.Values()
-				v["sample"] = engine.SampleValues(d)
-				if lookupTest(u.Name).Break {
-					v["break"] = d.Dates[o.Extra["break_index"].(int)].String()
-				} else {
-					v["det"] = u.Det.String()
-				}
-				bv[u.Name] = v
-				if cv, ok := contract.CritAt(o.Crit, 0.05); ok {
-					cs := &crit5[block][i]
-					cs.vals, cs.ts = append(cs.vals, cv), append(cs.ts, o.NObs)
-					cs.sources = append(cs.sources, tSuffix.ReplaceAllString(o.CritSource, ""))
-				}
-			}
-			entry[key] = bv
-			verdicts[block] = Verdict(outs, s.level())
+		row, entry, err := s.seriesRow(c, name, [2][]urTest{levT, difT}, dec, &seen)
+		if err != nil {
+			return nil, err
 		}
-		ord := Order(verdicts[0], verdicts[1], s.diffs())
-		entry["order"] = ord
-		row = append(row, table.T(ord))
 		t.Body = append(t.Body, table.Row{Cells: row})
 		vals = append(vals, entry)
 	}
+	t.Notes = s.notes(c, levT, difT, seen, dec)
+	return &engine.Result{Table: t, Values: map[string]any{"series": vals, "tests": s.tests(), "level": s.level()}}, nil
+}
 
-	// Notes: what the cells are, the verdict rule, 5% critical values and sources.
-	var tests []string
-	for _, u := range levT {
-		tests = append(tests, title(u.Name))
+// head is the two header rows: Levels and First differences over the
+// tests, then the verdict.
+func (s *urTableSpec) head(tests []urTest) [][]table.Cell {
+	nt := len(tests)
+	head1 := []table.Cell{table.T(""), table.Span("Levels", nt)}
+	head2 := []table.Cell{table.T("Series")}
+	blocks := 1
+	if s.diffs() {
+		head1 = append(head1, table.Span("First differences", nt))
+		blocks = 2
 	}
-	t.Notes = append(t.Notes, fmt.Sprintf(
-		"Each cell is the test statistic, with the lagged differences (ADF, DF-GLS, ZA) or the Bartlett bandwidth (PP, KPSS) in brackets. KPSS tests the null of stationarity; the other tests the null of a unit root. Stars mark rejection of each test's own null: %s",
-		c.StarNote()))
-	t.Notes = append(t.Notes, fmt.Sprintf(
-		"Order: I(0) when every test points to stationarity in levels at the %s level; I(1) when every test points to a unit root in levels and to stationarity in first differences; I(2) when every test points to a unit root in both; unclear when the tests disagree.", contract.Pct(s.level())))
+	for range blocks {
+		for _, u := range tests {
+			head2 = append(head2, table.T(title(u.Name)))
+		}
+	}
+	return [][]table.Cell{append(head1, table.T("")), append(head2, table.T("Order"))}
+}
+
+// critSeen collects one test's 5% critical values, their T and sources
+// over the rows, for the note.
+type critSeen struct {
+	vals    []float64
+	ts      []int
+	sources []string
+}
+
+// seriesRow runs every test on one series, in levels and (unless turned
+// off) in first differences: the row's cells, its values and the
+// critical values seen.
+func (s *urTableSpec) seriesRow(c *engine.Context, name string, blocks [2][]urTest, dec int, seen *[2][]critSeen) ([]table.Cell, map[string]any, error) {
+	row := []table.Cell{table.T(name)}
+	entry := map[string]any{"name": name}
+	var verdicts [2]int
+	for block, tests := range blocks {
+		if block == 1 && !s.diffs() {
+			break
+		}
+		expr, key := name, "levels"
+		if block == 1 {
+			expr, key = "diff("+name+")", "diff"
+		}
+		d, err := c.Data(c.DataAlias(s.Data), []string{expr}, s.Sample)
+		if err != nil {
+			return nil, nil, err
+		}
+		var outs []*contract.Outcome
+		bv := map[string]any{}
+		for i, u := range tests {
+			o, err := u.run(d.Cols[0])
+			if err != nil {
+				return nil, nil, c.Errorf("series", "%s of %s: %v", title(u.Name), expr, err)
+			}
+			outs = append(outs, o)
+			cell := table.Starred(o.Stat, dec, o.Stars(c.Stars()))
+			cell.Suffix = fmt.Sprintf(" [%d]", o.Lags)
+			row = append(row, cell)
+			bv[u.Name] = testValues(u, o, d)
+			if cv, ok := contract.CritAt(o.Crit, 0.05); ok {
+				cs := &seen[block][i]
+				cs.vals, cs.ts = append(cs.vals, cv), append(cs.ts, o.NObs)
+				cs.sources = append(cs.sources, tSuffix.ReplaceAllString(o.CritSource, ""))
+			}
+		}
+		entry[key] = bv
+		verdicts[block] = Verdict(outs, s.level())
+	}
+	ord := Order(verdicts[0], verdicts[1], s.diffs())
+	entry["order"] = ord
+	return append(row, table.T(ord)), entry, nil
+}
+
+// testValues is one cell's values: the outcome's, the sample, and the
+// deterministic terms or the break date.
+func testValues(u urTest, o *contract.Outcome, d *engine.Data) map[string]any {
+	v := o.Values()
+	v["sample"] = engine.SampleValues(d)
+	if lookupTest(u.Name).Break {
+		v["break"] = d.Dates[o.Extra["break_index"].(int)].String()
+	} else {
+		v["det"] = u.Det.String()
+	}
+	return v
+}
+
+// notes: what the cells are, the verdict rule, the 5% critical values and
+// their sources, the lags and the deterministic terms.
+func (s *urTableSpec) notes(c *engine.Context, levT, difT []urTest, seen [2][]critSeen, dec int) []string {
+	notes := []string{
+		cellNote(levT) + " Stars mark rejection of each test's own null: " + c.StarNote(),
+		fmt.Sprintf("Order: I(0) when every test points to stationarity in levels at the %s level; I(1) when every test points to a unit root in levels and to stationarity in first differences; I(2) when every test points to a unit root in both; unclear when the tests disagree.", contract.Pct(s.level())),
+	}
 	var cv []string
 	sources := map[string][]string{}
 	var srcOrder []string
@@ -254,7 +271,7 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 			break
 		}
 		for i, u := range [][]urTest{levT, difT}[block] {
-			cs := crit5[block][i]
+			cs := seen[block][i]
 			if len(cs.vals) == 0 {
 				continue
 			}
@@ -274,19 +291,81 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 		}
 	}
 	if len(cv) > 0 {
-		t.Notes = append(t.Notes, "5% critical values: "+strings.Join(cv, "; ")+".")
+		notes = append(notes, "5% critical values: "+strings.Join(cv, "; ")+".")
 	}
 	var src []string
 	for _, s := range srcOrder {
 		src = append(src, strings.Join(sources[s], ", ")+": "+s)
 	}
 	if len(src) > 0 {
-		t.Notes = append(t.Notes, "Critical values from "+strings.Join(src, "; ")+", each at its test regression's sample size.")
+		notes = append(notes, "Critical values from "+strings.Join(src, "; ")+", each at its test regression's sample size.")
 	}
-	lr := levT[0].Lags
-	t.Notes = append(t.Notes, fmt.Sprintf("Lags: %s. Levels: deterministic terms %s; first differences: %s.%s",
-		engine.DescribeLags(lr, -1), contract.DetNames[levT[0].Det], contract.DetNames[difT[0].Det], sampleSentence(s.Sample)))
-	return &engine.Result{Table: t, Values: map[string]any{"series": vals, "tests": s.tests(), "level": s.level()}}, nil
+	return append(notes, fmt.Sprintf("Lags: %s. Levels: deterministic terms %s; first differences: %s.%s",
+		lagsText(levT), contract.DetNames[levT[0].Det], contract.DetNames[difT[0].Det], sampleSentence(s.Sample)))
+}
+
+// cellNote says what the brackets hold and which null each test has,
+// from the tests' registrations.
+func cellNote(tests []urTest) string {
+	var lagged, bw, stationary, unitRoot []string
+	for _, u := range tests {
+		d := lookupTest(u.Name)
+		if d.Bandwidth {
+			bw = append(bw, d.Title)
+		} else {
+			lagged = append(lagged, d.Title)
+		}
+		if d.Stationarity {
+			stationary = append(stationary, d.Title)
+		} else {
+			unitRoot = append(unitRoot, d.Title)
+		}
+	}
+	var in []string
+	if len(lagged) > 0 {
+		in = append(in, "the lagged differences ("+strings.Join(lagged, ", ")+")")
+	}
+	if len(bw) > 0 {
+		in = append(in, "the Bartlett bandwidth ("+strings.Join(bw, ", ")+")")
+	}
+	note := "Each cell is the test statistic, with " + strings.Join(in, " or ") + " in brackets."
+	switch {
+	case len(stationary) > 0 && len(unitRoot) > 0:
+		note += fmt.Sprintf(" %s test%s the null of stationarity; %s the null of a unit root.", strings.Join(stationary, ", "), map[bool]string{true: "s", false: ""}[len(stationary) == 1], strings.Join(unitRoot, ", "))
+	case len(stationary) > 0:
+		note += " Every test here has the null of stationarity."
+	default:
+		note += " Every test here has the null of a unit root."
+	}
+	return note
+}
+
+// lagsText describes how each test's lags were set, grouping tests that
+// share a rule (only tests with lags; bandwidths are in the brackets).
+func lagsText(tests []urTest) string {
+	var order []string
+	by := map[string][]string{}
+	for _, u := range tests {
+		if lookupTest(u.Name).Bandwidth {
+			continue
+		}
+		r := engine.DescribeLags(u.Lags, -1)
+		if len(by[r]) == 0 {
+			order = append(order, r)
+		}
+		by[r] = append(by[r], title(u.Name))
+	}
+	if len(order) == 0 {
+		return "none (the tests use a bandwidth)"
+	}
+	if len(order) == 1 {
+		return order[0]
+	}
+	var parts []string
+	for _, r := range order {
+		parts = append(parts, strings.Join(by[r], ", ")+" "+r)
+	}
+	return strings.Join(parts, "; ")
 }
 
 func sampleSentence(sample string) string {

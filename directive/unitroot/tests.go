@@ -22,6 +22,8 @@ type testDef struct {
 	Summary string // for the kind list and the docs
 	// Bandwidth: the test uses a long-run variance (bandwidth:), not lags.
 	Bandwidth bool
+	// Stationarity: the null is stationarity (KPSS), not a unit root.
+	Stationarity bool
 	// Break: a one-break test (break:, trim:) whose terms are fixed by
 	// its break model rather than det:.
 	Break bool
@@ -101,7 +103,7 @@ func init() {
 		}})
 	registerTest(&testDef{Name: "pp", Title: "PP", Summary: "Phillips–Perron unit-root test", Bandwidth: true,
 		Fields: []string{"pvalue_source", "bandwidth", "det", "stat_alpha", "crit_alpha", "crit_alpha_source"},
-		Dets: []critical.Case{critical.NoConst, critical.Const, critical.ConstTrend}, DetHelp: "Phillips–Perron supports det n, c or ct",
+		Dets:   []critical.Case{critical.NoConst, critical.Const, critical.ConstTrend}, DetHelp: "Phillips–Perron supports det n, c or ct",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.PP(y, u.Det, u.Bandwidth)
 			if err != nil {
@@ -111,9 +113,9 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "MacKinnon (1994)", Null: "has a unit root",
 				Extra: map[string]any{"stat_alpha": r.StatAlpha, "crit_alpha": contract.CritMap(r.CritAlpha), "crit_alpha_source": r.CritAlphaSource}}, nil
 		}})
-	registerTest(&testDef{Name: "kpss", Title: "KPSS", Summary: "KPSS test of level or trend stationarity", Bandwidth: true,
+	registerTest(&testDef{Name: "kpss", Title: "KPSS", Summary: "KPSS test of level or trend stationarity", Bandwidth: true, Stationarity: true,
 		Fields: []string{"pvalue_source", "pvalue_clipped", "bandwidth", "det"},
-		Dets: levelOrTrend, DetHelp: "KPSS tests level (c) or trend (ct) stationarity; det: %s is not one of them",
+		Dets:   levelOrTrend, DetHelp: "KPSS tests level (c) or trend (ct) stationarity; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.KPSS(y, u.Det, u.Bandwidth)
 			if err != nil {
@@ -124,7 +126,7 @@ func init() {
 		}})
 	registerTest(&testDef{Name: "dfgls", Title: "DF-GLS", Summary: "DF-GLS unit-root test of Elliott, Rothenberg and Stock",
 		Fields: []string{"pvalue_source", "lags", "det"},
-		Dets: levelOrTrend, DetHelp: "DF-GLS has a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
+		Dets:   levelOrTrend, DetHelp: "DF-GLS has a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.DFGLS(y, u.Det, u.Lags)
 			if err != nil {
