@@ -95,46 +95,86 @@ func (s *revisionSpec) Run(c *engine.Context) (*engine.Result, error) {
 }
 
 func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Result {
+	t := &table.Table{Stub: 2, Head: [][]table.Cell{{table.T("Result"), table.T("What"), table.T("Before"), table.T("After")}}}
+	var flipped, samples []map[string]any
+	if s.shows("conclusions") {
+		flipped = s.conclusions(t, rep)
+	}
+	if s.shows("samples") {
+		samples = s.samples(t, rep)
+	}
+	moved := s.moved(t, rep)
+	var inputs []string
+	for _, in := range rep.InputsChanged {
+		inputs = append(inputs, in.Path)
+	}
+	note := fmt.Sprintf("Before: the paper built on the data vintage %q; after: %s. %d results are unchanged and %d changed; %d conclusions changed.",
+		s.Against, rep.New.Path, rep.Unchanged, len(rep.Items), rep.Flips())
+	if len(inputs) > 0 {
+		note += " Data files that differ: " + strings.Join(inputs, ", ") + "."
+	}
+	t.Notes = []string{note, "A conclusion is a test's rejection at 5%, a coefficient's star count, an order-of-integration verdict, a cointegrating rank, or the sign of an adjustment coefficient. Numbers are compared at full precision; the largest relative changes are listed."}
+	vals := map[string]any{
+		"against": s.Against, "flips": rep.Flips(), "flipped": flipped, "moved": moved,
+		"samples": samples, "inputs": inputs, "unchanged": rep.Unchanged,
+	}
+	return &engine.Result{Table: t, Values: vals}
+}
+
+// block starts a titled block of the report table.
+func block(t *table.Table, title string) {
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span(title, 4)}, RuleAbove: len(t.Body) > 0})
+}
+
+// none marks an empty block.
+func none(t *table.Table) {
+	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
+}
+
+// conclusions lists the conclusions that changed.
+func (s *revisionSpec) conclusions(t *table.Table, rep *revision.Report) []map[string]any {
+	block(t, "Conclusions that changed")
+	var flipped []map[string]any
+	for _, it := range rep.Items {
+		for _, f := range it.Flips {
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T(f.What), table.T(f.Old), table.T(f.New)}})
+			flipped = append(flipped, map[string]any{"id": it.ID, "what": f.What, "old": f.Old, "new": f.New})
+		}
+	}
+	if len(flipped) == 0 {
+		none(t)
+	}
+	return flipped
+}
+
+// samples lists the results whose samples changed.
+func (s *revisionSpec) samples(t *table.Table, rep *revision.Report) []map[string]any {
+	block(t, "Samples that changed")
+	var samples []map[string]any
+	n := 0
+	for _, it := range rep.Items {
+		if len(it.Samples) == 0 {
+			continue
+		}
+		before, after := sampleText(it.Samples)
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T("sample"), table.T(before), table.T(after)}})
+		for _, ch := range it.Samples {
+			samples = append(samples, map[string]any{"id": it.ID, "what": ch.What, "old": ch.Old, "new": ch.New})
+		}
+		n++
+	}
+	if n == 0 {
+		none(t)
+	}
+	return samples
+}
+
+// moved lists the numbers that moved most (when shown) and returns how
+// many moved.
+func (s *revisionSpec) moved(t *table.Table, rep *revision.Report) int {
 	max := s.Max
 	if max == 0 {
 		max = 12
-	}
-	t := &table.Table{Stub: 2, Head: [][]table.Cell{{table.T("Result"), table.T("What"), table.T("Before"), table.T("After")}}}
-	var flipped, samples []map[string]any
-	block := func(title string) {
-		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span(title, 4)}, RuleAbove: len(t.Body) > 0})
-	}
-	if s.shows("conclusions") {
-		block("Conclusions that changed")
-		n := 0
-		for _, it := range rep.Items {
-			for _, f := range it.Flips {
-				t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T(f.What), table.T(f.Old), table.T(f.New)}})
-				flipped = append(flipped, map[string]any{"id": it.ID, "what": f.What, "old": f.Old, "new": f.New})
-				n++
-			}
-		}
-		if n == 0 {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
-		}
-	}
-	if s.shows("samples") {
-		block("Samples that changed")
-		n := 0
-		for _, it := range rep.Items {
-			if len(it.Samples) == 0 {
-				continue
-			}
-			before, after := sampleText(it.Samples)
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T("sample"), table.T(before), table.T(after)}})
-			for _, ch := range it.Samples {
-				samples = append(samples, map[string]any{"id": it.ID, "what": ch.What, "old": ch.Old, "new": ch.New})
-			}
-			n++
-		}
-		if n == 0 {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
-		}
 	}
 	type mv struct {
 		id string
@@ -153,29 +193,15 @@ func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Re
 	}
 	sort.SliceStable(ranked, func(i, j int) bool { return math.Abs(ranked[i].ch.Rel) > math.Abs(ranked[j].ch.Rel) })
 	if s.shows("numbers") {
-		block(fmt.Sprintf("Numbers that moved most (%d of %d that moved; p-values aside)", min(max, len(ranked)), len(moved)))
+		block(t, fmt.Sprintf("Numbers that moved most (%d of %d that moved; p-values aside)", min(max, len(ranked)), len(moved)))
 		for _, m := range ranked[:min(max, len(ranked))] {
 			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(m.id), table.T(fmt.Sprintf("%s (%+.1f%%)", m.ch.What, 100*m.ch.Rel)), table.T(m.ch.Old), table.T(m.ch.New)}})
 		}
 		if len(moved) == 0 {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
+			none(t)
 		}
 	}
-	var inputs []string
-	for _, in := range rep.InputsChanged {
-		inputs = append(inputs, in.Path)
-	}
-	note := fmt.Sprintf("Before: the paper built on the data vintage %q; after: %s. %d results are unchanged and %d changed; %d conclusions changed.",
-		s.Against, rep.New.Path, rep.Unchanged, len(rep.Items), rep.Flips())
-	if len(inputs) > 0 {
-		note += " Data files that differ: " + strings.Join(inputs, ", ") + "."
-	}
-	t.Notes = []string{note, "A conclusion is a test's rejection at 5%, a coefficient's star count, an order-of-integration verdict, a cointegrating rank, or the sign of an adjustment coefficient. Numbers are compared at full precision; the largest relative changes are listed."}
-	vals := map[string]any{
-		"against": s.Against, "flips": rep.Flips(), "flipped": flipped, "moved": len(moved),
-		"samples": samples, "inputs": inputs, "unchanged": rep.Unchanged,
-	}
-	return &engine.Result{Table: t, Values: vals}
+	return len(moved)
 }
 
 // sampleText summarises a result's sample changes as "FROM–TO, N = n"
