@@ -26,6 +26,9 @@ type Result struct {
 	// long-run relation's residuals), "actual" and "fitted"; Relations
 	// are estimated cointegrating relations, in order. Each is also in
 	// Values in its results-file form (SetSeries keeps the two together).
+	// Model is the estimated equation, for results that are one
+	// (model tables and estimated equations read it).
+	Model     *contract.Model
 	Series    map[string]contract.Dated
 	Relations []contract.Dated
 	Number    int // table or figure number in the document (1-based)
