@@ -38,6 +38,7 @@ func init() {
 		New:     func() engine.Directive { return &ecmSpec{} },
 		Fields: []string{"coef", "alpha", "alpha_se", "halflife", "halflife_se", "error_corrects", "diagnostics", "nobs", "r2", "r2_adj",
 			"sigma", "cov", "se_desc", "ylags", "xlags", "from", "y", "sample", "actual", "fitted"},
+		Model: true,
 	})
 }
 
@@ -216,7 +217,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"diagnostics": engine.DiagValues(diags), "nobs": m.Fit.N, "r2": m.Fit.R2(), "r2_adj": m.Fit.R2Adj(),
 		"sigma": math.Sqrt(m.Fit.Sigma2()), "cov": cov.String(), "se_desc": cov.Describe(),
 		"ylags": p, "xlags": q, "from": s.From, "y": ecm.DiffName(rel.Y, 0),
-		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
+		"sample": engine.SampleValues(sd),
 	}
 	if adj.HasHalfLife {
 		vals["halflife"], vals["halflife_se"] = adj.HalfLife, adj.HalfLifeSE
@@ -229,6 +230,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("actual", contract.NewDated(sd.Dates, actual))
 	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
+	res.Model = engine.ModelOf("ECM", ecm.DiffName(rel.Y, 0), m.Names, m.Coef, vals, true, "")
 	return res, nil
 }
 

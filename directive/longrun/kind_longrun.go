@@ -58,9 +58,9 @@ var (
 )
 
 func init() {
-	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields,
+	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields, Model: true,
 		New: func() engine.Directive { return &dolsSpec{} }})
-	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields,
+	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields, Model: true,
 		New: func() engine.Directive { return &fmolsSpec{} }})
 }
 
@@ -250,6 +250,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
+	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
 	return res, nil
 }
 
@@ -338,6 +339,7 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], sp.Det, r.Coef)))
+	res.Model = engine.ModelOf("FMOLS", s.Y, r.Names, r.Table, vals, true, "")
 	return res, nil
 }
 

@@ -30,6 +30,7 @@ func init() {
 		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
 		New:     func() engine.Directive { return &olsSpec{} },
 		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample", "resid"},
+		Model:   true,
 	})
 }
 
@@ -110,6 +111,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))
+	res.Model = engine.ModelOf("OLS", s.Y, terms, coefs, vals, false, "")
 	return res, nil
 }
 
