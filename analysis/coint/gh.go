@@ -93,6 +93,7 @@ type GHResult struct {
 	// First and Last bound the candidate break indices (inclusive).
 	First, Last int
 	CritSource  string
+	MaxLag      int // largest lag order the ADF lag choice considered
 	// Path holds, for each candidate break index First+i, the statistics
 	// ADF(τ), Zt(τ) and Zα(τ) and the lags and bandwidth used there.
 	PathADF, PathZt, PathZa []float64
@@ -288,7 +289,7 @@ func GregoryHansen(y []float64, x [][]float64, m GHModel, trim float64, lr unitr
 	}
 	ncols := len(GHTerms(m, make([]string, k)))
 	if n < ncols+8 {
-		return nil, fmt.Errorf("coint: %d observations are too few for the Gregory–Hansen model %s with %d regressors (need at least %d)", n, m, k, ncols+8)
+		return nil, fmt.Errorf("coint: %d observations are too few for model %s with %d regressors (need at least %d)", n, m, k, ncols+8)
 	}
 	first, last, err := GHBreakRange(n, trim, GHMinRegime(m, k))
 	if err != nil {
@@ -320,6 +321,7 @@ func GregoryHansen(y []float64, x [][]float64, m GHModel, trim float64, lr unitr
 			return nil, fmt.Errorf("coint: Gregory–Hansen with the shift at observation %d: %w", b+1, err)
 		}
 		za, zt := GHZ(e, L)
+		res.MaxLag = df.MaxLag
 		res.PathADF = append(res.PathADF, df.Stat)
 		res.PathZt = append(res.PathZt, zt)
 		res.PathZa = append(res.PathZa, za)
