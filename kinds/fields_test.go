@@ -49,6 +49,7 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 		fence("kpss", "id: k\nseries: infl\n") + fence("dfgls", "id: g\nseries: log(realgdp)\n") +
 		fence("za", "id: z\nseries: log(realgdp)\nlags: 1\n") + fence("ngperron", "id: n\nseries: log(realgdp)\n") +
 		fence("po", "id: po\ny: log(realcons)\nx: [log(realdpi)]\n") +
+		fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\n") +
 		fence("var-lags", "id: vl\nseries: [log(realcons), log(realdpi)]\nmax: 4\n")
 	res := runDoc(t, macroProject(t, body))
 	var rs []*engine.Result

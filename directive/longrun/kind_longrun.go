@@ -54,7 +54,7 @@ type fmolsSpec struct {
 var (
 	longrunFields = []string{"coef", "nobs", "wald", "cov", "se_desc", "det", "y", "x", "sample", "resid"}
 	dolsFields    = append([]string{"leads", "lags", "r2", "select", "dynamics", "bandwidth", "hac_lags", "kernel"}, longrunFields...)
-	fmolsFields   = append([]string{"bandwidth", "kernel"}, longrunFields...)
+	fmolsFields   = append([]string{"bandwidth", "kernel", "lc"}, longrunFields...)
 )
 
 func init() {
@@ -316,6 +316,11 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		table.Row{Cells: []table.Cell{table.T("Bandwidth"), table.N(r.Bandwidth, 2)}},
 	)
 	t.Body = append(t.Body, waldRows(walds, dec)...)
+	lcRows, lcNote, lcVals, err := lcBlock(c, d.Cols[0], d.Cols[1:], sp.Det, r, dec) // lc_rows.go
+	if err != nil {
+		return nil, err
+	}
+	t.Body = append(t.Body, lcRows...)
 	sd := &engine.Data{Dates: d.Dates[r.First:]}
 	bwText := fmt.Sprintf("bandwidth %.2f chosen by Andrews' (1991) AR(1) rule", r.Bandwidth)
 	if sp.Bandwidth > 0 {
@@ -330,9 +335,9 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if w := waldNote(walds); w != "" {
 		t.Notes = append(t.Notes, w)
 	}
-	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	t.Notes = append(t.Notes, lcNote, c.StarNote()+" "+sd.SampleNote())
 	vals := map[string]any{
-		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds),
+		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds), "lc": lcVals,
 		"bandwidth": r.Bandwidth, "kernel": strings.ToLower(kname), "cov": "fmols", "se_desc": seDesc, "det": sp.Det.String(),
 		"y": s.Y, "x": append([]string(nil), s.X...),
 		"sample": engine.SampleValues(sd),
