@@ -12,21 +12,22 @@ import (
 type TermKind int
 
 const (
-	Constant TermKind = iota // unrestricted constant
-	Trend                    // unrestricted trend (case CT)
-	LagDiff                  // lagged difference Δy_{Series, t−Lag}
+	Constant  TermKind = iota // unrestricted constant
+	Trend                     // unrestricted trend (case CT)
+	LagDiff                   // lagged difference Δy_{Series, t−Lag}
+	ExtraTerm                 // unrestricted extra regressor number Series (Extra)
 )
 
 // Term describes one short-run regressor.
 type Term struct {
 	Kind   TermKind
 	Lag    int // for LagDiff: 1..Lags
-	Series int // for LagDiff: column of y
+	Series int // for LagDiff: column of y; for ExtraTerm: column of Extra.Unrestricted
 }
 
 // Terms lists the short-run regressors in their column order: the
 // unrestricted deterministic terms, then Δy_{t−1} (all series), ...,
-// Δy_{t−Lags}.
+// Δy_{t−Lags}, then the unrestricted extra regressors.
 func (r *Result) Terms() []Term {
 	var out []Term
 	if d := r.Case.unrestricted(); d >= 1 {
@@ -39,6 +40,9 @@ func (r *Result) Terms() []Term {
 		for j := 0; j < r.K; j++ {
 			out = append(out, Term{Kind: LagDiff, Lag: l, Series: j})
 		}
+	}
+	for j := 0; j < r.NU; j++ {
+		out = append(out, Term{Kind: ExtraTerm, Series: j})
 	}
 	return out
 }
@@ -317,6 +321,9 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 //
 //	z_jt = β_j'ỹ_t,  ỹ_t = y_t (cases N, C, CT), (y_t', 1)' (RC), (y_t', t+1)' (RT),
 //
+// followed, when the model has restricted extra regressors, by their
+// values x_t (xr, one row per row of y; nil otherwise).
+//
 // one slice per relation. The restricted trend takes the value t+1 at row
 // t, as in the VECM, where β'ỹ_{t−1} pairs y_{t−1} with the trend value of
 // the row of Δy_t (see Test). In cases N and RC z_jt is the equilibrium
@@ -324,8 +331,13 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 // constant absorbs any shift of the relation, so its level is arbitrary
 // (and in CT it may carry a linear trend, absorbed by the unrestricted
 // trend).
-func (m *VECM) Relations(c Case, y *mat.Dense) [][]float64 {
+func (m *VECM) Relations(c Case, y, xr *mat.Dense) [][]float64 {
 	rows, k := y.Dims()
+	nr := 0
+	if xr != nil {
+		_, nr = xr.Dims()
+	}
+	m0 := c.restricted()
 	out := make([][]float64, m.Rank)
 	for j := range out {
 		z := make([]float64, rows)
@@ -339,6 +351,9 @@ func (m *VECM) Relations(c Case, y *mat.Dense) [][]float64 {
 				v += m.Beta.At(k, j)
 			case RT:
 				v += m.Beta.At(k, j) * float64(t+1)
+			}
+			for h := 0; h < nr && k+m0+h < m.Beta.RawMatrix().Rows; h++ {
+				v += m.Beta.At(k+m0+h, j) * xr.At(t, h)
 			}
 			z[t] = v
 		}
