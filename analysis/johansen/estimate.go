@@ -72,6 +72,11 @@ type VECM struct {
 	// dfResid = T − rank − len(Terms).
 	eqCov   []*mat.SymDense
 	dfResid int
+
+	// Resid holds the residuals ε̂_t of the short-run equations given β
+	// (T×K, in the units of y); row t belongs to row t + Lags + 1 of the
+	// levels.
+	Resid *mat.Dense
 }
 
 // EquationCov returns the classical least-squares covariance matrix
@@ -375,6 +380,7 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	yi := make([]float64, t)
 	v.eqCov = make([]*mat.SymDense, k)
 	v.dfResid = t - rank - ns
+	v.Resid = mat.NewDense(t, k, nil)
 	for i := 0; i < k; i++ {
 		mat.Col(yi, i, r.z0)
 		f, err := ols.Regress(yi, x)
@@ -383,6 +389,9 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		}
 		cov := f.Cov(ols.CovSpec{Kind: ols.Classical})
 		v.eqCov[i] = cov
+		for j, e := range f.Resid {
+			v.Resid.Set(j, i, e*r.scale[i])
+		}
 		se := ols.SE(cov)
 		for j := 0; j < rank; j++ {
 			v.Alpha.Set(i, j, f.Coef[j])
