@@ -63,6 +63,8 @@ type vecmSpec struct {
 	SystemKeys    `yaml:",inline"`
 	From          string `yaml:"from"`
 	Show          string `yaml:"show"`
+
+	state *sysState // its own system (without from:), set by Run
 }
 
 type varLagsSpec struct {

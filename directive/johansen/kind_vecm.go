@@ -77,6 +77,7 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if st, err = s.run(c); err != nil {
 			return nil, err
 		}
+		s.state = st
 	}
 	if st.vecm == nil {
 		return nil, c.Errorf("", "the sequential trace tests at %s choose rank %d, so there is no error-correction model to show; set rank: (1..%d)", contract.Pct(st.st.Level), st.chosen, st.res.K-1)
