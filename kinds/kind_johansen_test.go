@@ -117,7 +117,7 @@ const sysDKFront = "---\ntitle: T\ndata:\n  dk: data.csv\n---\n"
 // lagged difference (urca K = 2), with the restriction tests that
 // testdata/scripts/johansen_urca.R runs.
 const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\nnormalize: LRM\n" +
-	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogenous: [LRY, [LRY, IBO]]\n```\n\n" +
+	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogeneity_tests: [LRY, [LRY, IBO]]\n```\n\n" +
 	"```galley vecm\nid: dkv\nfrom: dk\nshow: short-run\n```\n"
 
 // TestJohansenDenmarkUrca checks the values a manuscript reports against
@@ -315,7 +315,7 @@ func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
 // examples/gridlink/gen/main.go) the sequential trace tests at 5% in the
 // demo's specification (case c, lags by BIC up to 12) choose rank 2.
 func TestJohansenDemoRank(t *testing.T) {
-	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogenous: [log(fuel)]\n```\n"
+	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogeneity_tests: [log(fuel)]\n```\n"
 	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../examples/gridlink/data/gridlink.csv")})["sys"]
 	if r := sysAt(t, vals, "rank_chosen"); r != 2 {
 		t.Fatalf("sequential rank = %v, want 2 (trace %v, 5%% critical values %v)", r, vals["trace"], vals["crit_trace"])
@@ -417,9 +417,9 @@ func TestJohansenBadInput(t *testing.T) {
 			[]string{"paper.md:12:", "single '='"}},
 		{"restrict dependent equations", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: [\"LRM = -LRY\", \"2 LRM + 2*LRY = 0\"]\n"), dk,
 			[]string{"paper.md:12:", "not independent"}},
-		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogenous: [[LRM, LRY]]\n"), dk,
-			[]string{"paper.md:12:", "exogenous at rank 2"}},
-		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogenous: [LRY]\n"), dk,
+		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogeneity_tests: [[LRM, LRY]]\n"), dk,
+			[]string{"paper.md:12:", "exogeneity_tests at rank 2"}},
+		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogeneity_tests: [LRY]\n"), dk,
 			[]string{"paper.md:7:", "choose rank", "set rank:"}},
 		{"vecm with neither", sysDKFront + "\n" + fence("vecm", "id: v\n"), dk,
 			[]string{"paper.md:7:", "give from:"}},

@@ -65,7 +65,7 @@ func init() {
 		Name:    "figure",
 		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient",
 		New:     func() engine.Directive { return &figureSpec{} },
-		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "number"},
+		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation"},
 	})
 }
 

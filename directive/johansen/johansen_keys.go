@@ -145,6 +145,9 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	case johansen.RT:
 		st.Coefs = append(st.Coefs, "trend")
 	}
+	if err := k.checkDummies(c, &st); err != nil {
+		return st, err
+	}
 	for _, h := range k.Restrict {
 		var rows []sysRestr
 		for _, e := range h.Equations {
@@ -156,17 +159,20 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		}
 		st.Rows = append(st.Rows, rows)
 	}
-	for _, ex := range k.Exogenous {
+	if k.Exogenous != nil {
+		return st, c.Errorf("exogenous", "exogenous: the weak-exogeneity tests are now written exogeneity_tests: (the same list); stationary regressors that condition the model go in extra:")
+	}
+	for _, ex := range k.ExogTests {
 		var idx []int
 		for _, n := range ex {
 			i, err := seriesIndex(n, k.Series)
 			if err != nil {
-				return st, c.Errorf("exogenous", "exogenous: %v", err)
+				return st, c.Errorf("exogeneity_tests", "exogeneity_tests: %v", err)
 			}
 			idx = append(idx, i)
 		}
 		if len(idx) == 0 {
-			return st, c.Errorf("exogenous", "exogenous: an empty list")
+			return st, c.Errorf("exogeneity_tests", "exogeneity_tests: an empty list")
 		}
 		st.Exog = append(st.Exog, idx)
 	}
@@ -183,6 +189,8 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		return st, err
 	} else if sim != nil && k.SmallSample {
 		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")
+	} else if sim != nil && k.hasExtra() {
+		return st, c.Errorf("crit", "crit: simulate draws systems without dummies or extra regressors, so its critical values would not be those of this model; use the tables (the note says how the dummies affect them)")
 	}
 	return st, nil
 }
@@ -194,7 +202,7 @@ func (k *SystemKeys) testNames() []string {
 	for _, h := range k.Restrict {
 		out = append(out, h.Name)
 	}
-	for _, ex := range k.Exogenous {
+	for _, ex := range k.ExogTests {
 		var parts []string
 		for _, n := range ex {
 			parts = append(parts, normName(n))
