@@ -14,7 +14,6 @@ import (
 	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
-	djohansen "github.com/galley-econ/galley/directive/johansen"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/resultsfile"
 )
@@ -410,11 +409,11 @@ func TestJohansenBadInput(t *testing.T) {
 		{"normalize not a series", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nnormalize: LRX\n"), dk,
 			[]string{"paper.md:12:", `"LRX" is not one of the series`, "did you mean LRM?"}},
 		{"restrict unknown coefficient", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM = -LRZ\"\n"), dk,
-			[]string{"paper.md:12:", `"LRZ" is not a coefficient`}},
+			[]string{"paper.md:12:", `"LRZ" is not one of the terms (LRM, LRY, IBO) (did you mean LRM?)`}},
 		{"restrict const outside rc", jo("series: [LRM, LRY, IBO]\ndet: c\nlags: 1\nrank: 1\nrestrict:\n  h: \"const = 0\"\n"), dk,
 			[]string{"paper.md:13:", "const row only in case rc"}},
 		{"restrict without equals", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM + LRY\"\n"), dk,
-			[]string{"paper.md:12:", "single '='"}},
+			[]string{"paper.md:12:", `write one "=" per equation`}},
 		{"restrict dependent equations", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: [\"LRM = -LRY\", \"2 LRM + 2*LRY = 0\"]\n"), dk,
 			[]string{"paper.md:12:", "not independent"}},
 		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogeneity_tests: [[LRM, LRY]]\n"), dk,
@@ -458,38 +457,6 @@ func TestJohansenBadInput(t *testing.T) {
 			}
 			inOrder(t, err.Error(), tc.want)
 		})
-	}
-}
-
-// TestParseRestriction: the equation syntax gives the rows of R'.
-func TestParseRestriction(t *testing.T) {
-	coefs := []string{"log(north)", "log(south)", "log(fuel)", "const"}
-	for _, c := range []struct {
-		eq   string
-		want []float64
-	}{
-		{"log(north) = -log(fuel)", []float64{1, 0, 1, 0}},
-		{"log(south) - log(north) = 0", []float64{-1, 1, 0, 0}},
-		{"-log(north) + 0.8*log(fuel) = const", []float64{-1, 0, 0.8, -1}},
-		{"2 log( fuel ) = 0", []float64{0, 0, 2, 0}},
-		{"1e-1*log(south) = log(south) - log(north)", []float64{1, 0.1 - 1, 0, 0}},
-	} {
-		got, err := djohansen.ParseRestriction(c.eq, coefs, johansen.RC)
-		if err != nil {
-			t.Errorf("%q: %v", c.eq, err)
-			continue
-		}
-		for i := range got {
-			if math.Abs(got[i]-c.want[i]) > 1e-15 {
-				t.Errorf("%q: row %v, want %v", c.eq, got, c.want)
-				break
-			}
-		}
-	}
-	for _, bad := range []string{"log(north) = 1", "log(north) = log(north)", "log(north) +", "log(north = 0", "a = b = c"} {
-		if _, err := djohansen.ParseRestriction(bad, coefs, johansen.RC); err == nil {
-			t.Errorf("%q: no error", bad)
-		}
 	}
 }
 
