@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
@@ -105,7 +106,7 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	if err != nil {
 		return nil, fmt.Errorf("data alias %q: %w", alias, err)
 	}
-	raw, err := os.ReadFile(full)
+	raw, err := dataio.ReadFile(full, dataio.MaxDataBytes)
 	if err != nil {
 		return nil, fmt.Errorf("data alias %q: %w", alias, err)
 	}
@@ -115,12 +116,12 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	var f *series.Frame
 	switch strings.ToLower(filepath.Ext(full)) {
 	case ".xlsx":
-		f, err = dataio.ReadXLSX(strings.NewReader(string(raw)), display, ref.Sheet)
+		f, err = dataio.ReadXLSX(bytes.NewReader(raw), display, ref.Sheet)
 	default:
 		if ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
 		}
-		f, err = series.ReadCSV(strings.NewReader(string(raw)), display)
+		f, err = series.ReadCSV(bytes.NewReader(raw), display)
 	}
 	if err != nil {
 		return nil, err
