@@ -27,7 +27,14 @@ import (
 // memory; r is read up to MaxDataBytes, and a workbook that expands
 // beyond maxExpanded bytes or whose sheets span more than maxCells
 // cells is refused before the library reads it.
-func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
+func ReadXLSX(r io.Reader, source, sheet string) (*series.Frame, error) {
+	return ReadXLSXAs(r, source, sheet, series.Undated)
+}
+
+// ReadXLSXAs is ReadXLSX with the frequency declared by the caller
+// instead of inferred from the dates (see series.FromCellsAs); Undated
+// infers it.
+func ReadXLSXAs(r io.Reader, source, sheet string, freq series.Freq) (fr *series.Frame, err error) {
 	bad := func(format string, args ...any) error {
 		return &series.DataError{Source: source, Msg: fmt.Sprintf(format, args...)}
 	}
@@ -78,5 +85,5 @@ func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
 	if err != nil {
 		return nil, bad("sheet %q: %v", name, err)
 	}
-	return series.FromCells(source, name, rows)
+	return series.FromCellsAs(source, name, rows, freq)
 }

@@ -116,12 +116,12 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	var f *series.Frame
 	switch strings.ToLower(filepath.Ext(full)) {
 	case ".xlsx":
-		f, err = dataio.ReadXLSX(bytes.NewReader(raw), display, ref.Sheet)
+		f, err = dataio.ReadXLSXAs(bytes.NewReader(raw), display, ref.Sheet, ref.Freq())
 	default:
 		if ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
 		}
-		f, err = series.ReadCSV(bytes.NewReader(raw), display)
+		f, err = series.ReadCSVAs(bytes.NewReader(raw), display, ref.Freq())
 	}
 	if err != nil {
 		return nil, err

@@ -32,7 +32,7 @@ func (c *inspectCmd) Run() error {
 	if err != nil {
 		return err
 	}
-	fmt.Printf("%s\n  frequency: %s\n  rows: %d\n", c.File, fr.Freq, fr.Len())
+	fmt.Printf("%s\n  frequency: %s (%s)\n  rows: %d\n", c.File, fr.Freq, fr.FreqBasis, fr.Len())
 	if fr.Len() > 0 {
 		fmt.Printf("  dates: %s to %s\n", fr.Dates[0], fr.Dates[fr.Len()-1])
 	}
