@@ -162,3 +162,91 @@ func TestCalendarDatedQuarters(t *testing.T) {
 		t.Errorf("declared daily with a quarterly window: %v", err)
 	}
 }
+
+// vintageProject: the current data run 2004-01 to 2025-12; the earlier
+// vintage "old" ends in 2013-12.
+func vintageProject(t *testing.T, body string) string {
+	t.Helper()
+	raw, err := os.ReadFile(filepath.Join("..", "examples", "gridlink", "data", "gridlink.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.SplitAfter(string(raw), "\n")
+	old := strings.Join(lines[:121], "")
+	return writeProject(t, "---\ndata:\n  grid:\n    path: new.csv\n    vintage:\n      old: old.csv\n---\n\n"+body,
+		map[string]string{"new.csv": string(raw), "old.csv": old})
+}
+
+func buildErr(t *testing.T, p string, opts engine.Options) (*engine.Document, error) {
+	t.Helper()
+	d, err := engine.Parse(p, opts)
+	if err == nil {
+		err = d.Run()
+	}
+	return d, err
+}
+
+// TestVintageWindows: windows written for the current data that run
+// past the end of an earlier, shorter vintage are cut to its data, with
+// a note naming the vintage, in every kind of vintage build (a revision
+// directive's, and --vintage); a window with nothing left is an error
+// naming the vintage (issue 14, item 4).
+func TestVintageWindows(t *testing.T) {
+	body := fence("figure", "id: f\nplot: lines\nseries: [log(north)]\nshade:\n  - {from: 2008-09, to: 2009-06}\n  - {from: 2013-06, to: 2014-06}\n  - {from: 2020-03, to: 2020-12}\n") +
+		fence("grid", "id: g\nof: adf\nseries: log(north)\nlags: 1\nover: {sample: [2004-01..2012-12, 2010-01..2019-12]}\n") +
+		fence("ols", "id: m\ny: log(north)\nx: [log(fuel)]\nsample: 2005-01..2016-12\n")
+	p := vintageProject(t, body+fence("revision", "id: r\nagainst: old\n"))
+	if _, err := buildErr(t, p, engine.Options{}); err != nil {
+		t.Fatalf("the build with a revision against the shorter vintage failed: %v", err)
+	}
+	d, err := buildErr(t, vintageProject(t, body), engine.Options{Vintage: "old"})
+	if err != nil {
+		t.Fatalf("--vintage old: %v", err)
+	}
+	notes := map[string]string{}
+	for _, r := range d.Results() {
+		switch {
+		case r.Table != nil:
+			notes[r.ID] = strings.Join(r.Table.Notes, " ")
+		case r.Figure != nil:
+			notes[r.ID] = strings.Join(r.Figure.Notes, " ")
+		}
+		if r.ID == "m" {
+			if s := r.Values["sample"].(map[string]any); s["from"] != "2005-01" || s["to"] != "2013-12" {
+				t.Errorf("ols sample on vintage old: %v", s)
+			}
+		}
+	}
+	for id, want := range map[string][]string{
+		"f": {`2013-06 to 2014-06 runs past the data of vintage "old" (2004-01 to 2013-12); it is shaded from 2013-06 to 2013-12`,
+			`2020-03 to 2020-12 lies outside the data of vintage "old"`},
+		"g": {`Cell g[1] (sample: 2010-01..2019-12): Warning: the sample 2010-01..2019-12 reaches past the data of vintage "old" (2004-01 to 2013-12) and was cut to 2010-01..2013-12.`},
+		"m": {`the sample 2005-01..2016-12 reaches past the data of vintage "old"`},
+	} {
+		for _, w := range want {
+			if !strings.Contains(notes[id], w) {
+				t.Errorf("%s: notes lack %q:\n%s", id, w, notes[id])
+			}
+		}
+	}
+	// Nothing of the window left in the vintage: an error naming it.
+	_, err = buildErr(t, vintageProject(t, fence("adf", "id: a\nseries: log(north)\nlags: 1\nsample: 2015-01..2019-12\n")), engine.Options{Vintage: "old"})
+	if err == nil || !strings.Contains(err.Error(), "paper.md:13:") || !strings.Contains(err.Error(), `in the build on vintage "old" of data alias "grid"`) {
+		t.Errorf("a window past the vintage's end: %v", err)
+	}
+	// On the current data, a shaded window wholly outside is still an
+	// error (a mistyped year), and one that runs past the end is cut.
+	_, err = buildErr(t, vintageProject(t, fence("figure", "id: f\nplot: lines\nseries: [log(north)]\nshade:\n  - {from: 2030-01, to: 2030-06}\n")), engine.Options{})
+	if err == nil || !strings.Contains(err.Error(), "paper.md:14:") || !strings.Contains(err.Error(), "lies outside the plotted data") {
+		t.Errorf("shade outside the current data: %v", err)
+	}
+	d, err = buildErr(t, vintageProject(t, fence("figure", "id: f\nplot: lines\nseries: [log(north)]\nshade:\n  - {from: 2025-06, to: 2026-06}\n")), engine.Options{})
+	if err != nil || !strings.Contains(strings.Join(d.Results()[0].Figure.Notes, " "), "runs past the plotted data (2004-01 to 2025-12); it is shaded from 2025-06 to 2025-12") {
+		t.Errorf("shade past the end of the current data: %v", err)
+	}
+	// ... but a sample past the end of the current data stays an error.
+	_, err = buildErr(t, vintageProject(t, fence("adf", "id: a\nseries: log(north)\nlags: 1\nsample: 2020-01..2026-12\n")), engine.Options{})
+	if err == nil || !strings.Contains(err.Error(), "ends after the data") {
+		t.Errorf("a sample past the current data: %v", err)
+	}
+}

@@ -136,6 +136,9 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := c.RefuseConstant(d, "from", "its differences are all zero, so there is nothing to error-correct", 0); err != nil {
+		return nil, err
+	}
 	extra, err := readExtras(c, rel, s.Extra, sample, d)
 	if err != nil {
 		return nil, err
