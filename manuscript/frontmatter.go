@@ -114,7 +114,7 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(front, &root); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	if len(root.Content) == 0 {
 		return m, nil
@@ -124,10 +124,10 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 		return nil, ErrAt(file, 2, "front matter must be a mapping of keys to values")
 	}
 	if err := CheckKeys(doc, m); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	if err := doc.Decode(m); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {

@@ -8,6 +8,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"runtime"
 	"strconv"
 	"strings"
@@ -37,8 +38,10 @@ func captureStderr(t *testing.T, f func()) string {
 // TestBadInputCorpus runs every case under testdata/bad/ (made by
 // testdata/bad/make_corpus.py): the exit code must match the first line
 // of want.txt, and the error (or, for a build that succeeds, the Markdown
-// output) must contain the remaining lines in order. No failing case may
-// leave an output behind.
+// output) must contain the remaining lines in order. A failing case must
+// name a file and line, leave an earlier build's output exactly as it
+// was and add nothing beside it; no case may panic or print fmt's error
+// text (%!verb).
 func TestBadInputCorpus(t *testing.T) {
 	root := filepath.Join("..", "..", "testdata", "bad")
 	dirs, _ := os.ReadDir(root)
@@ -56,7 +59,14 @@ func TestBadInputCorpus(t *testing.T) {
 			}
 			lines := strings.Split(strings.TrimRight(string(want), "\n"), "\n")
 			code, _ := strconv.Atoi(strings.TrimPrefix(lines[0], "exit "))
+			// An earlier build's output, which a failed build must leave
+			// exactly as it was.
 			out := filepath.Join(t.TempDir(), "out")
+			earlier := []byte("EARLIER BUILD\n")
+			if err := os.MkdirAll(out, 0o755); err != nil {
+				t.Fatal(err)
+			}
+			os.WriteFile(filepath.Join(out, "paper.md"), earlier, 0o644)
 			var got int
 			msg := captureStderr(t, func() {
 				got = run([]string{"build", filepath.Join(dir, "paper.md"), "--to", "markdown", "--out", out, "--no-cache"})
@@ -71,8 +81,19 @@ func TestBadInputCorpus(t *testing.T) {
 					t.Fatal(err)
 				}
 				text = string(md)
-			} else if _, err := os.Stat(out); !os.IsNotExist(err) {
-				t.Errorf("a failed build left output behind in %s", out)
+			} else {
+				if md, _ := os.ReadFile(filepath.Join(out, "paper.md")); !bytes.Equal(md, earlier) {
+					t.Errorf("a failed build changed the earlier output")
+				}
+				if ents, _ := os.ReadDir(out); len(ents) != 1 {
+					t.Errorf("a failed build left files behind in %s: %v", out, ents)
+				}
+				if !fileLine.MatchString(msg) {
+					t.Errorf("the error names no file and line:\n%s", msg)
+				}
+			}
+			if strings.Contains(text, "%!") {
+				t.Errorf("fmt's error text reached the output:\n%s", text)
 			}
 			at := 0
 			for _, w := range lines[1:] {
@@ -87,10 +108,13 @@ func TestBadInputCorpus(t *testing.T) {
 			}
 		})
 	}
-	if n < 15 {
+	if n < 80 {
 		t.Fatalf("only %d cases in the corpus", n)
 	}
 }
+
+// fileLine matches a position "FILE:LINE:" in a message.
+var fileLine = regexp.MustCompile(`\.(md|csv|xlsx):[0-9]+:`)
 
 // TestMillionRows: a data file of a million rows is loaded and analysed
 // in bounded memory (the heap grows by well under the size of a
