@@ -53,6 +53,9 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := c.RefuseConstant(d, "", "a regression cannot explain a series that does not vary (its fit would be exact and its t-ratios rounding noise)", 0); err != nil {
+		return nil, err
+	}
 	withConst := s.Const == nil || *s.Const
 	var terms []string
 	if withConst {
