@@ -67,6 +67,9 @@ func (s Spec) newStat(p plan) statFunc {
 		k := newEGKernel(s.T, s.Lags, p.tauCase.Deterministics(), s.N)
 		return k.eg
 	}
+	if isARDL(p.test) {
+		return newARDLKernel(p.test, p.ardlCase, s.N, s.T, s.Lags).stat
+	}
 	k := newJohKernel(s.N, s.Lags, s.T)
 	maxeig := p.test == JohansenMaxEig
 	return func(r *rand.Rand) float64 {
@@ -113,7 +116,7 @@ func Run(ctx context.Context, s Spec, progress func(done, total int)) (*Result, 
 	}
 	slices.Sort(stats)
 	res := &Result{
-		Spec: s, Key: s.Key(), Lower: p.test == ADF || p.test == EG, NObs: p.nobs,
+		Spec: s, Key: s.Key(), Lower: p.test == ADF || p.test == EG || p.test == ARDLT0 || p.test == ARDLT1, NObs: p.nobs,
 		Levels: append([]float64(nil), Levels...), Reps: s.Reps, Seed: s.Seed, Sample: stats,
 	}
 	for _, l := range Levels {
