@@ -38,10 +38,14 @@ func PartialSums(x []float64, tau float64) (pos, neg []float64, nPos, nNeg int, 
 		}
 	}
 	switch {
+	case nPos == 0 && tau == 0:
+		return nil, nil, 0, nNeg, errors.New("ardl: the series never rises: the positive partial sum would be zero throughout")
 	case nPos == 0:
 		return nil, nil, 0, nNeg, fmt.Errorf("ardl: no change is above the threshold %g: the positive partial sum would be zero throughout", tau)
+	case nNeg == 0 && tau == 0:
+		return nil, nil, nPos, 0, errors.New("ardl: the series never falls: the negative partial sum would be zero throughout")
 	case nNeg == 0:
-		return nil, nil, nPos, 0, fmt.Errorf("ardl: no change is at or below the threshold %g (and nonzero): the negative partial sum would be zero throughout", tau)
+		return nil, nil, nPos, 0, fmt.Errorf("ardl: no change is at or below the threshold %g: the negative partial sum would be zero throughout", tau)
 	}
 	return pos, neg, nPos, nNeg, nil
 }
