@@ -471,7 +471,7 @@ func (s *ardlSpec) notes(c *engine.Context, st *settings, m *ardl.Model, b *boun
 		if tau != 0 {
 			thr = fmt.Sprintf("above %g and at or below %g", tau, tau)
 		}
-		ns = append(ns, fmt.Sprintf("Asymmetric ARDL (Shin, Yu and Greenwood-Nimmo 2014): %s enter%s as pos:X and neg:X, the partial sums of the changes %s, sharing one lag order; k counts each partial sum as a regressor. Symmetry: Wald F tests (p-values from F(1, N − K) beneath) of equal long-run coefficients (π⁺ = π⁻, equivalent to θ⁺ = θ⁻) and of equal sums of the short-run coefficients of the differences.", strings.Join(names, ", "), map[bool]string{true: "s", false: ""}[len(names) == 1], thr))
+		ns = append(ns, fmt.Sprintf("Asymmetric ARDL (Shin, Yu and Greenwood-Nimmo 2014): %s enter%s as pos:X and neg:X, the partial sums of the changes %s, sharing one lag order; k counts each partial sum as a regressor. Symmetry: Wald F tests (p-values from F(1, N − K) beneath) of equal long-run coefficients (π of pos:X = π of neg:X, equivalent to equal θ) and of equal sums of the short-run coefficients of the differences.", strings.Join(names, ", "), map[bool]string{true: "s", false: ""}[len(names) == 1], thr))
 	}
 	ns = append(ns, c.StarNote()+" "+sd.SampleNote())
 	return ns
