@@ -3,7 +3,7 @@ package engine
 // crit: simulate — Monte Carlo critical values at the directive's own
 // sample size, number of variables, deterministic case and lags.
 //
-// The adf, engle-granger, johansen and vecm directives accept
+// The adf, engle-granger, johansen, vecm and ardl directives accept
 //
 //	crit: simulate   # or table (the default: published response surfaces/tables)
 //	reps: 20000      # replications, simulate.MinReps..simulate.MaxReps
@@ -72,7 +72,7 @@ type SimSettings struct {
 }
 
 // simKinds are the kinds that accept crit: simulate.
-var simKinds = []string{"adf", "engle-granger", "gregory-hansen", "johansen", "vecm"}
+var simKinds = []string{"adf", "engle-granger", "gregory-hansen", "johansen", "vecm", "ardl"}
 
 // simulated reports whether the keys ask for simulated critical values
 // (only meaningful after settings accepted them).
