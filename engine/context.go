@@ -313,6 +313,7 @@ func (c *Context) UpstreamContext(id string) *Context {
 // this directive depend on all of them (a report that compares the whole
 // build). The error names the line of the first that failed.
 func (c *Context) RunAllExcept(kind string) error {
+	c.b.deps.col(directivesDep, "")
 	for _, b := range c.doc.blocks {
 		if b.kind.Name == kind {
 			continue
