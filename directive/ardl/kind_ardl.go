@@ -97,9 +97,10 @@ const DefaultMaxLag = 4
 
 func init() {
 	engine.Register(engine.Kind{
-		Name:    "ardl",
-		Summary: "ARDL model in error-correction form with the bounds tests of a level relationship; with split, the asymmetric ARDL and its dynamic multipliers",
-		New:     func() engine.Directive { return &ardlSpec{} },
+		Name:     "ardl",
+		Simulate: true,
+		Summary:  "ARDL model in error-correction form with the bounds tests of a level relationship; with split, the asymmetric ARDL and its dynamic multipliers",
+		New:      func() engine.Directive { return &ardlSpec{} },
 		Fields: []string{"coef", "longrun", "alpha", "alpha_se", "halflife", "halflife_se", "error_corrects", "bounds",
 			"lags", "selection", "symmetry", "multipliers", "ecm", "nobs", "r2", "r2_adj", "sigma", "det", "case",
 			"y", "x", "split", "threshold", "sample", "resid", "show"},
@@ -203,7 +204,7 @@ func (s *ardlSpec) settings(c *engine.Context) (*settings, error) {
 	default:
 		return nil, c.Errorf("show", "show: write bounds (the default) or ecm, not %q", s.Show)
 	}
-	if st.sim, err = s.SimKeys.Settings(c, "ardl"); err != nil {
+	if st.sim, err = s.SimKeys.Settings(c); err != nil {
 		return nil, err
 	}
 	if st.sim != nil && c.Has("tables") {
