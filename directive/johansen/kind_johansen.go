@@ -65,7 +65,8 @@ type vecmSpec struct {
 	From          string `yaml:"from"`
 	Show          string `yaml:"show"`
 
-	state *sysState // its own system (without from:), set by Run
+	state *sysState     // its own system (without from:), set by Run
+	from  *johansenSpec // the johansen directive named in from:, set by Run
 }
 
 type varLagsSpec struct {
