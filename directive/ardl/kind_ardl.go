@@ -310,7 +310,7 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 
 	dec := st.dec
 	adj := m.Adjust
-	unit := periodUnit(d.Freq)
+	unit := engine.PeriodUnit(d.Freq)
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(s.Y, 0))}}}
 	var body []table.Row
 	section := func(title string) {
@@ -425,18 +425,6 @@ func defaultHorizon(f series.Freq) int {
 		return 12
 	}
 	return 12
-}
-
-func periodUnit(f series.Freq) string {
-	switch f {
-	case series.Monthly:
-		return "months"
-	case series.Quarterly:
-		return "quarters"
-	case series.Annual:
-		return "years"
-	}
-	return "periods"
 }
 
 // notes are the table notes.
