@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"testing"
 	"time"
+
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 // genCSV writes a daily file of n rows from 1700-01-01 (n = 1e6 reaches
@@ -27,9 +29,7 @@ func genCSV(n int) []byte {
 }
 
 func TestReadCSVMillionRows(t *testing.T) {
-	if testing.Short() {
-		t.Skip("large file; skipped with -short")
-	}
+	longtest.Skip(t, "a million-row file")
 	const n = 1_000_000
 	data := genCSV(n)
 	f, err := ReadCSV(bytes.NewReader(data), "big.csv")

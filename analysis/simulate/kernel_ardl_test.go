@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"github.com/galley-econ/galley/analysis/ardl"
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 // TestARDLBoundsAgainstPSS reproduces the published asymptotic bounds of
@@ -24,7 +25,7 @@ func TestARDLBoundsAgainstPSS(t *testing.T) {
 		reps int
 	}
 	runs := []cfg{{ardl.Const, 2, 500, 4000}}
-	if !testing.Short() {
+	if longtest.Enabled() {
 		runs = nil
 		for c := ardl.NoDet; c <= ardl.ConstTrend; c++ {
 			for _, k := range []int{1, 3} {

@@ -8,6 +8,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/coint"
 	"github.com/galley-econ/galley/analysis/unitroot"
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 // TestGHKernelMatchesCoint: the allocation-free Gregory–Hansen kernel
@@ -78,9 +79,7 @@ func TestGHSpec(t *testing.T) {
 // and Zt*). No lags, no bandwidth (the statistics' asymptotic
 // distributions do not depend on them). About five seconds on two cores.
 func TestGHTable(t *testing.T) {
-	if testing.Short() {
-		t.Skip("Monte Carlo reproduction of Gregory–Hansen Table 1")
-	}
+	longtest.Skip(t, "Monte Carlo reproduction of Gregory–Hansen Table 1")
 	type check struct {
 		test      string
 		m         int

@@ -5,8 +5,10 @@ import (
 	"math"
 	"testing"
 
-	"github.com/galley-econ/galley/analysis/critical"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 // Simulated τ critical values against MacKinnon's (2010) response surfaces
@@ -68,12 +70,10 @@ func TestMacKinnonLight(t *testing.T) {
 }
 
 // TestMacKinnonHeavy: every ADF case and the Engle–Granger test with 2 and
-// 4 variables in cases c and ct, 200,000 replications each. Skipped with
-// -short.
+// 4 variables in cases c and ct, 200,000 replications each; a long check
+// (internal/longtest).
 func TestMacKinnonHeavy(t *testing.T) {
-	if testing.Short() {
-		t.Skip("200,000 replications per configuration")
-	}
+	longtest.Skip(t, "200,000 replications per configuration")
 	checkMacKinnon(t, []tauCheck{
 		{ADF, "n", 1, 101}, {ADF, "c", 1, 51}, {ADF, "ct", 1, 201}, {ADF, "ctt", 1, 101},
 		{EG, "c", 2, 201}, {EG, "ct", 2, 101}, {EG, "c", 4, 201}, {EG, "ct", 4, 101},

@@ -16,6 +16,8 @@ import (
 	"syscall"
 	"testing"
 	"time"
+
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 // captureStderr runs f with os.Stderr redirected and returns what it wrote.
@@ -120,9 +122,7 @@ var fileLine = regexp.MustCompile(`\.(md|csv|xlsx):[0-9]+:`)
 // in bounded memory (the heap grows by well under the size of a
 // row-by-row copy of the text).
 func TestMillionRows(t *testing.T) {
-	if testing.Short() {
-		t.Skip("a million rows")
-	}
+	longtest.Skip(t, "a million rows")
 	dir := t.TempDir()
 	f, _ := os.Create(filepath.Join(dir, "big.csv"))
 	w := bufio.NewWriter(f)
