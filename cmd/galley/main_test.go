@@ -173,3 +173,31 @@ func TestPNGFromCache(t *testing.T) {
 		}
 	}
 }
+
+// TestOutputsAllOrNothing: when one output cannot be put in place (the
+// LaTeX file's name is taken by a folder), the build fails, names it, and
+// the other outputs of the earlier build stay as they were.
+func TestOutputsAllOrNothing(t *testing.T) {
+	dir := demoCopy(t)
+	out := filepath.Join(dir, "out")
+	paper := filepath.Join(dir, "paper.md")
+	if code := run([]string{"build", paper, "--to", "html", "--to", "markdown", "--out", out}); code != 0 {
+		t.Fatalf("first build: exit %d", code)
+	}
+	html, _ := os.ReadFile(filepath.Join(out, "paper.html"))
+	md, _ := os.ReadFile(filepath.Join(out, "paper.md"))
+	os.MkdirAll(filepath.Join(out, "paper.tex", "x"), 0o755)
+	src, _ := os.ReadFile(paper)
+	os.WriteFile(paper, append(src, []byte("\nA new closing sentence.\n")...), 0o644)
+	var code int
+	msg := captureStderr(t, func() { code = run([]string{"build", paper, "--to", "html", "--to", "latex", "--to", "markdown", "--out", out}) })
+	if code != 1 || !strings.Contains(msg, "paper.tex") {
+		t.Fatalf("exit %d, message %q", code, msg)
+	}
+	if now, _ := os.ReadFile(filepath.Join(out, "paper.html")); string(now) != string(html) {
+		t.Error("paper.html was replaced by a build that failed")
+	}
+	if now, _ := os.ReadFile(filepath.Join(out, "paper.md")); string(now) != string(md) {
+		t.Error("paper.md was replaced by a build that failed")
+	}
+}

@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"sync"
 )
 
@@ -43,6 +44,7 @@ func stage(path string, data []byte, perm os.FileMode, sync bool) (string, error
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return "", err
 	}
+	removeStale(path)
 	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
 	if err != nil {
 		return "", err
@@ -89,7 +91,11 @@ func (s *Set) Stage(path string, data []byte) error {
 }
 
 // Commit syncs every staged file (all at once, so that the file system
-// can batch them) and then renames each into place.
+// can batch them) and then puts each into place, all or nothing: every
+// target is checked first (one that is a folder or another non-regular
+// file stops the commit before anything is replaced), each earlier file
+// is kept aside until every new one is in place, and if a rename fails
+// the files already replaced get their earlier contents back.
 func (s *Set) Commit() error {
 	errs := make([]error, len(s.files))
 	var wg sync.WaitGroup
@@ -108,20 +114,78 @@ func (s *Set) Commit() error {
 	wg.Wait()
 	for i, err := range errs {
 		if err != nil {
+			path := s.files[i].path
 			s.Abort()
-			return fmt.Errorf("writing %s: %w", s.files[i].path, err)
+			return fmt.Errorf("writing %s: %w", path, err)
+		}
+	}
+	for _, f := range s.files {
+		if fi, err := os.Lstat(f.path); err == nil && !fi.Mode().IsRegular() {
+			s.Abort()
+			return fmt.Errorf("writing %s: it exists and is not a regular file (%s); nothing was replaced", f.path, kind(fi.Mode()))
+		}
+	}
+	// Keep each earlier file aside (a hard link beside it), then rename.
+	kept := make([]string, len(s.files))
+	for i, f := range s.files {
+		if _, err := os.Lstat(f.path); err != nil {
+			continue
+		}
+		k := filepath.Join(filepath.Dir(f.path), "."+filepath.Base(f.path)+".tmp-keep")
+		os.Remove(k)
+		if err := os.Link(f.path, k); err == nil {
+			kept[i] = k
 		}
 	}
 	for i, f := range s.files {
-		if err := os.Rename(f.tmp, f.path); err != nil {
+		if err := rename(f.tmp, f.path); err != nil {
+			s.restore(kept, i)
 			for _, g := range s.files[i:] {
 				os.Remove(g.tmp)
 			}
-			return fmt.Errorf("writing %s: %w", f.path, err)
+			s.files = nil
+			return fmt.Errorf("writing %s: %w; the earlier outputs were kept", f.path, err)
+		}
+	}
+	for _, k := range kept {
+		if k != "" {
+			os.Remove(k)
 		}
 	}
 	s.files = nil
 	return nil
+}
+
+// rename is os.Rename (a variable so that a test can make one fail).
+var rename = os.Rename
+
+// restore puts back the earlier contents of the first n targets (or
+// removes a target that did not exist before).
+func (s *Set) restore(kept []string, n int) {
+	for j := 0; j < n; j++ {
+		if kept[j] != "" {
+			os.Rename(kept[j], s.files[j].path)
+		} else {
+			os.Remove(s.files[j].path)
+		}
+	}
+	for _, k := range kept[n:] {
+		if k != "" {
+			os.Remove(k)
+		}
+	}
+}
+
+func kind(m os.FileMode) string {
+	switch {
+	case m.IsDir():
+		return "a folder"
+	case m&os.ModeSymlink != 0:
+		return "a symbolic link"
+	case m&os.ModeNamedPipe != 0:
+		return "a named pipe"
+	}
+	return "a special file"
 }
 
 // Abort removes every staged temporary file.
@@ -130,4 +194,21 @@ func (s *Set) Abort() {
 		os.Remove(f.tmp)
 	}
 	s.files = nil
+}
+
+// removeStale deletes temporary files that an earlier write of path left
+// behind when its process was killed (".NAME.tmp-…" beside it).
+func removeStale(path string) {
+	old, _ := filepath.Glob(filepath.Join(filepath.Dir(path), "."+globEscape(filepath.Base(path))+".tmp-*"))
+	for _, f := range old {
+		if fi, err := os.Lstat(f); err == nil && fi.Mode().IsRegular() {
+			os.Remove(f)
+		}
+	}
+}
+
+// globEscape quotes the pattern characters of a file name.
+func globEscape(s string) string {
+	r := strings.NewReplacer(`\`, `\\`, "*", `\*`, "?", `\?`, "[", `\[`)
+	return r.Replace(s)
 }

@@ -3,6 +3,7 @@ package atomicfile
 import (
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 	"time"
 )
@@ -51,6 +52,78 @@ func TestSet(t *testing.T) {
 	entries, _ := os.ReadDir(dir)
 	for _, e := range entries {
 		if filepath.Ext(e.Name()) != ".txt" && e.Name() != "sub" {
+			t.Errorf("left behind: %s", e.Name())
+		}
+	}
+}
+
+// TestCommitAllOrNothing: a target that is a folder stops the commit
+// before any file is replaced; a rename that fails midway puts the
+// earlier files back; temporary files a killed build left are removed by
+// the next write of the same target.
+func TestCommitAllOrNothing(t *testing.T) {
+	dir := t.TempDir()
+	a, b, c := filepath.Join(dir, "a.html"), filepath.Join(dir, "b.tex"), filepath.Join(dir, "c.md")
+	for _, p := range []string{a, c} {
+		os.WriteFile(p, []byte("old"), 0o644)
+	}
+	os.MkdirAll(filepath.Join(b, "inside"), 0o755) // b.tex is a non-empty folder
+	var s Set
+	for _, p := range []string{a, b, c} {
+		if err := s.Stage(p, []byte("new")); err != nil {
+			t.Fatal(err)
+		}
+	}
+	err := s.Commit()
+	if err == nil || !strings.Contains(err.Error(), "b.tex") || !strings.Contains(err.Error(), "not a regular file") {
+		t.Fatalf("Commit over a folder: %v", err)
+	}
+	for _, p := range []string{a, c} {
+		if got, _ := os.ReadFile(p); string(got) != "old" {
+			t.Errorf("%s was replaced: %q", filepath.Base(p), got)
+		}
+	}
+	// A rename that fails after the check (the folder appears late):
+	// the files renamed before it get their old contents back.
+	os.RemoveAll(b)
+	var s2 Set
+	for _, p := range []string{a, b, c} {
+		if err := s2.Stage(p, []byte("newer")); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if len(s2.files) != 3 {
+		t.Fatalf("%d files staged", len(s2.files))
+	}
+	n := 0
+	rename = func(from, to string) error { // the third rename fails
+		if n++; n == 3 {
+			return os.ErrPermission
+		}
+		return os.Rename(from, to)
+	}
+	defer func() { rename = os.Rename }()
+	if err := s2.Commit(); err == nil {
+		t.Fatal("a failed rename was not reported")
+	}
+	if got, _ := os.ReadFile(a); string(got) != "old" {
+		t.Errorf("a.html not restored: %q", got)
+	}
+	if _, err := os.Stat(b); !os.IsNotExist(err) {
+		t.Errorf("b.tex, new in the failed commit, was left: %v", err)
+	}
+	// A killed build's leftovers go with the next write.
+	stale := filepath.Join(dir, ".a.html.tmp-12345")
+	os.WriteFile(stale, []byte("x"), 0o644)
+	if err := Write(a, []byte("fresh"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(stale); !os.IsNotExist(err) {
+		t.Error("a stale temporary file was left")
+	}
+	entries, _ := os.ReadDir(dir)
+	for _, e := range entries {
+		if strings.Contains(e.Name(), ".tmp-") {
 			t.Errorf("left behind: %s", e.Name())
 		}
 	}
