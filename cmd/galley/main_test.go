@@ -190,7 +190,9 @@ func TestOutputsAllOrNothing(t *testing.T) {
 	src, _ := os.ReadFile(paper)
 	os.WriteFile(paper, append(src, []byte("\nA new closing sentence.\n")...), 0o644)
 	var code int
-	msg := captureStderr(t, func() { code = run([]string{"build", paper, "--to", "html", "--to", "latex", "--to", "markdown", "--out", out}) })
+	msg := captureStderr(t, func() {
+		code = run([]string{"build", paper, "--to", "html", "--to", "latex", "--to", "markdown", "--out", out})
+	})
 	if code != 1 || !strings.Contains(msg, "paper.tex") {
 		t.Fatalf("exit %d, message %q", code, msg)
 	}
