@@ -25,6 +25,9 @@ func (l *LagChoice) Decode(n *yaml.Node, valid func(string) error, help string) 
 	l.Set = true
 	switch n.Kind {
 	case yaml.ScalarNode:
+		if n.ShortTag() == "!!float" {
+			return fmt.Errorf("line %d: lags takes a whole number of lags or a selector, not %s", n.Line, n.Value)
+		}
 		var k int
 		if err := n.Decode(&k); err == nil {
 			if k < 0 {

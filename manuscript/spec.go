@@ -17,17 +17,21 @@ import (
 // descends into nested struct fields; types with their own UnmarshalYAML
 // check themselves. Errors carry "line N:" relative to the YAML text.
 func CheckKeys(n *yaml.Node, out any) error {
-	return checkKeysType(n, reflect.TypeOf(out))
+	return checkKeysType(n, reflect.TypeOf(out), "")
 }
 
 var unmarshalerType = reflect.TypeOf((*yaml.Unmarshaler)(nil)).Elem()
 
-func checkKeysType(n *yaml.Node, t reflect.Type) error {
+// checkKeysType checks n against type t; key names the value in messages.
+func checkKeysType(n *yaml.Node, t reflect.Type, key string) error {
 	for t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}
 	if reflect.PointerTo(t).Implements(unmarshalerType) {
 		return nil // such types decode, and check, their own keys
+	}
+	if err := checkScalar(n, t, key); err != nil {
+		return err
 	}
 	switch t.Kind() {
 	case reflect.Struct:
@@ -46,14 +50,14 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 			if !ok {
 				return fmt.Errorf("line %d: unknown key %q%s; valid keys: %s", k.Line, k.Value, DidYouMean(k.Value, names), strings.Join(names, ", "))
 			}
-			if err := checkKeysType(n.Content[i+1], ft); err != nil {
+			if err := checkKeysType(n.Content[i+1], ft, k.Value); err != nil {
 				return err
 			}
 		}
 	case reflect.Slice:
 		if n.Kind == yaml.SequenceNode {
 			for _, c := range n.Content {
-				if err := checkKeysType(c, t.Elem()); err != nil {
+				if err := checkKeysType(c, t.Elem(), key); err != nil {
 					return err
 				}
 			}
@@ -61,10 +65,40 @@ func checkKeysType(n *yaml.Node, t reflect.Type) error {
 	case reflect.Map:
 		if n.Kind == yaml.MappingNode {
 			for i := 1; i < len(n.Content); i += 2 {
-				if err := checkKeysType(n.Content[i], t.Elem()); err != nil {
+				if err := checkKeysType(n.Content[i], t.Elem(), n.Content[i-1].Value); err != nil {
 					return err
 				}
 			}
+		}
+	}
+	return nil
+}
+
+// checkScalar refuses a scalar that the decoder would take wrongly or
+// report in its own words: a fraction for a whole number (which the
+// decoder would truncate), text for a number or a switch.
+func checkScalar(n *yaml.Node, t reflect.Type, key string) error {
+	if n.Kind != yaml.ScalarNode || n.ShortTag() == "!!null" {
+		return nil
+	}
+	what := "this key"
+	if key != "" {
+		what = key
+	}
+	tag := n.ShortTag()
+	switch t.Kind() {
+	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64,
+		reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64:
+		if tag != "!!int" {
+			return fmt.Errorf("line %d: %s takes a whole number, not %q", n.Line, what, n.Value)
+		}
+	case reflect.Float32, reflect.Float64:
+		if tag != "!!int" && tag != "!!float" {
+			return fmt.Errorf("line %d: %s takes a number, not %q", n.Line, what, n.Value)
+		}
+	case reflect.Bool:
+		if tag != "!!bool" {
+			return fmt.Errorf("line %d: %s takes true or false, not %q", n.Line, what, n.Value)
 		}
 	}
 	return nil

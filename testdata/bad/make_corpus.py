@@ -265,3 +265,12 @@ case("sample-past-the-data", fm() + block("ols", "y: y\nx: [x]\nsample: 2001-01.
 case("too-few-for-ols", fm() + block("ols", "y: y\nx: [x]\nsample: 2000-01..2000-02\n"), {"data.csv": csv(good)}, ["paper.md:", "too few observations: 2 in the sample 2000-01–2000-02 for 2 coefficients"])
 case("data-entry-without-path", fm("{sheet: Data}") + ols, {"data.csv": csv(good)}, ["paper.md:", "a data entry needs a path"])
 case("vintage-unknown", VFRONT + "```galley revision\nid: r\nagainst: first\n```\n", vdata, ["paper.md:12:", "first"])
+
+# A value of the wrong type is refused in words of the key, not the YAML
+# decoder's ("cannot unmarshal"), and a fraction is never truncated.
+adf = "```galley adf\nid: a\ndata: d\nseries: y\n"
+case("lags-fraction", FRONT + adf + "lags: 1.5\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "lags takes a whole number", "not 1.5"])
+case("lags-mistyped", FRONT + adf + "lags: fourr\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "lags: write a number, a selector"])
+case("decimals-fraction", FRONT + adf + "decimals: 2.5\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "decimals takes a whole number", '"2.5"'])
+case("decimals-word", FRONT + adf + "decimals: two\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "decimals takes a whole number", '"two"'])
+case("trim-text", FRONT + "```galley za\nid: a\ndata: d\nseries: y\ntrim: abc\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "trim takes a number", '"abc"'])
