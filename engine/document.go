@@ -185,6 +185,7 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 		if doc.Kind != yaml.MappingNode {
 			return nil, manuscript.ErrAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
 		}
+		manuscript.RejoinFlowLists(doc)
 		if err := manuscript.CheckKeys(doc, dir); err != nil {
 			return nil, manuscript.YamlError(d.File, bodyLine, err)
 		}

@@ -274,3 +274,7 @@ case("lags-mistyped", FRONT + adf + "lags: fourr\n```\n", {"data.csv": csv(good)
 case("decimals-fraction", FRONT + adf + "decimals: 2.5\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "decimals takes a whole number", '"2.5"'])
 case("decimals-word", FRONT + adf + "decimals: two\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "decimals takes a whole number", '"two"'])
 case("trim-text", FRONT + "```galley za\nid: a\ndata: d\nseries: y\ntrim: abc\n```\n", {"data.csv": csv(good)}, ["paper.md:11:", "trim takes a number", '"abc"'])
+
+# A comma inside an expression's parentheses does not split a flow list
+# (YAML alone would read "lag(x" and "1)"): this manuscript builds.
+case("flow-list-comma-in-expression", FRONT + "```galley ols\nid: m\ndata: d\ny: y\nx: [x, lag(x, 1)]\n```\n", {"data.csv": csv(good)}, [], exit_code=0)
