@@ -94,7 +94,10 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		return nil, manuscript.ErrAt(path, manuscript.FirstBadUTF8Line(src), "manuscript is not valid UTF-8")
 	}
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
-	front, body, bodyLine, _ := manuscript.SplitFrontMatter(src)
+	front, body, bodyLine, ok := manuscript.SplitFrontMatter(src)
+	if !ok && bytes.HasPrefix(bytes.TrimPrefix(src, []byte("\xef\xbb\xbf")), []byte("---\n")) {
+		return nil, manuscript.ErrAt(path, 1, "the front matter that starts here is never closed: end it with a line of --- (a rule at the very top of the text is written *** instead)")
+	}
 	meta, err := manuscript.ParseMeta(path, front)
 	if err != nil {
 		return nil, err

@@ -278,3 +278,7 @@ case("trim-text", FRONT + "```galley za\nid: a\ndata: d\nseries: y\ntrim: abc\n`
 # A comma inside an expression's parentheses does not split a flow list
 # (YAML alone would read "lag(x" and "1)"): this manuscript builds.
 case("flow-list-comma-in-expression", FRONT + "```galley ols\nid: m\ndata: d\ny: y\nx: [x, lag(x, 1)]\n```\n", {"data.csv": csv(good)}, [], exit_code=0)
+
+# A front matter that is never closed is an error at its first line (it
+# used to build, its YAML printed as the first paragraph).
+case("front-matter-unclosed", "---\ntitle: Bad input\ndata:\n  d: data.csv\n\nSome text.\n", {"data.csv": csv(good)}, ["paper.md:1:", "never closed"])
