@@ -208,7 +208,7 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 	if b.id == "" {
 		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])
 	} else if !ValidID(b.id) {
-		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter", b.id)
+		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter, at most %d characters", shorten(b.id), MaxIDLength)
 	}
 	return b, nil
 }
@@ -247,7 +247,16 @@ func (d *Document) keyLine(b *block, key string) int {
 	return b.line
 }
 
+// MaxIDLength bounds an id: ids name figure and table files, which file
+// systems limit to 255 bytes.
+const MaxIDLength = 64
+
+// ValidID reports whether s can be a directive's id: letters, digits, '_'
+// and '-', starting with a letter, at most MaxIDLength characters.
 func ValidID(s string) bool {
+	if len(s) > MaxIDLength {
+		return false
+	}
 	for i, r := range s {
 		switch {
 		case r >= 'a' && r <= 'z', r >= 'A' && r <= 'Z':
@@ -463,3 +472,11 @@ func (d *Document) Spans() ([]Span, error) {
 
 // InlineNodes lists the inline values of the body in document order.
 func (d *Document) InlineNodes() []*manuscript.RefNode { return d.refs }
+
+// shorten cuts a long text for a message.
+func shorten(s string) string {
+	if r := []rune(s); len(r) > 40 {
+		return string(r[:40]) + "…"
+	}
+	return s
+}

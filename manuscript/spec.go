@@ -139,13 +139,19 @@ func YamlError(file string, base int, err error) error {
 	msg := err.Error()
 	msg = strings.TrimPrefix(msg, "yaml: ")
 	msg = strings.TrimPrefix(msg, "unmarshal errors:\n  ")
-	line := 0
-	if m := yamlLineRE.FindStringSubmatch(msg); m != nil {
-		l, _ := strconv.Atoi(m[1])
+	line := base // an error the decoder gives no line (excessive aliasing) is put at the block's start
+	if m := yamlLineRE.FindStringSubmatchIndex(msg); m != nil {
+		l, _ := strconv.Atoi(msg[m[2]:m[3]])
 		line = base + l - 1
-		msg = strings.TrimSpace(yamlLineRE.ReplaceAllString(msg, ""))
+		msg = strings.TrimSpace(msg[:m[0]] + msg[m[1]:])
 		msg = strings.TrimPrefix(msg, ":")
 		msg = strings.TrimSpace(msg)
+		// Further line numbers in the message ("already defined at line
+		// 3") become file lines too.
+		msg = yamlLineRE.ReplaceAllStringFunc(msg, func(s string) string {
+			l, _ := strconv.Atoi(yamlLineRE.FindStringSubmatch(s)[1])
+			return "line " + strconv.Itoa(base+l-1)
+		})
 	}
 	var te *yaml.TypeError
 	if errors.As(err, &te) && len(te.Errors) > 1 {

@@ -282,3 +282,11 @@ case("flow-list-comma-in-expression", FRONT + "```galley ols\nid: m\ndata: d\ny:
 # A front matter that is never closed is an error at its first line (it
 # used to build, its YAML printed as the first paragraph).
 case("front-matter-unclosed", "---\ntitle: Bad input\ndata:\n  d: data.csv\n\nSome text.\n", {"data.csv": csv(good)}, ["paper.md:1:", "never closed"])
+
+# A key written twice names both lines; an id too long for a file name is
+# refused when the manuscript is read (check included); an alias bomb is
+# refused at the block's first line.
+case("duplicate-key-names-both-lines", FRONT + adf + "lags: 1\nlags: 2\n```\n", {"data.csv": csv(good)}, ["paper.md:12:", 'mapping key "lags" already defined at line 11'])
+case("id-too-long", FRONT + "```galley adf\nid: a" + "0" * 300 + "\ndata: d\nseries: y\n```\n", {"data.csv": csv(good)}, ["paper.md:8:", "at most 64 characters"])
+bomb = "a: &a [x, x, x, x, x, x, x, x, x]\n" + "".join(f"{n}: &{n} [" + ", ".join([f"*{p}"] * 9) + "]\n" for p, n in zip("abcde", "bcdef"))
+case("grid-alias-bomb", FRONT + "```galley grid\nid: g\nof: adf\ndata: d\nseries: y\n" + bomb + "over:\n  lags: *f\n```\n", {"data.csv": csv(good)}, ["paper.md:8:", "excessive aliasing"])
