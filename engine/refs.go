@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -28,8 +29,8 @@ func parseRef(s string) (ref, error) {
 	}
 	if len(f) == 2 {
 		r.verb = f[1]
-		if !strings.HasPrefix(r.verb, "%") || strings.Count(r.verb, "%") != 1 || !strings.ContainsAny(r.verb[len(r.verb)-1:], "fegdsvGE") {
-			return r, fmt.Errorf("inline value {{%s}}: %q is not a printf verb such as %%.3f or %%d", s, r.verb)
+		if !verbRE.MatchString(r.verb) {
+			return r, fmt.Errorf("inline value {{%s}}: %q is not a format such as %%.3f, %%e or %%d (flags + - # 0 and space, a width and a precision of at most two digits)", s, r.verb)
 		}
 	}
 	parts := strings.Split(f[0], ".")
@@ -172,7 +173,19 @@ func Keys(m map[string]any) []string {
 }
 
 // formatValue formats a scalar value for prose.
+// verbRE is the printf verbs an inline value accepts: flags, a width and a
+// precision of at most two digits each, and one of f F e E g G d s v.
+var verbRE = regexp.MustCompile(`^%[-+# 0]*[0-9]{0,2}(\.[0-9]{1,2})?[fFeEgGdsv]$`)
+
+// formatValue writes v with verb (or dec decimals for a number when verb
+// is ""), refusing a verb that does not fit the value: %d for a number
+// with a fraction (which would print it rounded without a word), %s or %v
+// for a number, a number's verb for text.
 func formatValue(v any, verb string, dec int) (string, bool, error) {
+	last := ""
+	if verb != "" {
+		last = verb[len(verb)-1:]
+	}
 	switch x := v.(type) {
 	case float64:
 		if math.IsNaN(x) {
@@ -181,16 +194,25 @@ func formatValue(v any, verb string, dec int) (string, bool, error) {
 		if verb == "" {
 			verb = "%." + strconv.Itoa(dec) + "f"
 		}
-		if strings.HasSuffix(verb, "d") {
-			return fmt.Sprintf(verb, int(math.Round(x))), true, nil
+		switch last {
+		case "d":
+			if x != math.Trunc(x) || math.IsInf(x, 0) {
+				return "", false, fmt.Errorf("%s shows whole numbers, and the value is %g; write %%.3f or %%g", verb, x)
+			}
+			return fmt.Sprintf(verb, int64(x)), true, nil
+		case "s", "v":
+			return "", false, fmt.Errorf("the value is a number (%g); %s is for text: write %%.3f, %%e or %%g", x, verb)
 		}
 		return table.FixNegZero(fmt.Sprintf(verb, x)), true, nil
 	case int:
-		if verb == "" || strings.HasSuffix(verb, "d") {
+		switch last {
+		case "", "d":
 			if verb == "" {
 				verb = "%d"
 			}
 			return fmt.Sprintf(verb, x), true, nil
+		case "s", "v":
+			return "", false, fmt.Errorf("the value is a number (%d); %s is for text: write %%d", x, verb)
 		}
 		return fmt.Sprintf(verb, float64(x)), true, nil
 	case string:

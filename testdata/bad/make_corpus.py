@@ -290,3 +290,12 @@ case("duplicate-key-names-both-lines", FRONT + adf + "lags: 1\nlags: 2\n```\n", 
 case("id-too-long", FRONT + "```galley adf\nid: a" + "0" * 300 + "\ndata: d\nseries: y\n```\n", {"data.csv": csv(good)}, ["paper.md:8:", "at most 64 characters"])
 bomb = "a: &a [x, x, x, x, x, x, x, x, x]\n" + "".join(f"{n}: &{n} [" + ", ".join([f"*{p}"] * 9) + "]\n" for p, n in zip("abcde", "bcdef"))
 case("grid-alias-bomb", FRONT + "```galley grid\nid: g\nof: adf\ndata: d\nseries: y\n" + bomb + "over:\n  lags: *f\n```\n", {"data.csv": csv(good)}, ["paper.md:8:", "excessive aliasing"])
+
+# Inline values take only formats that fit the value: no fmt error text
+# ("%!s(float64=…)") in a paper, no p-value silently printed as 0.
+adfok = FRONT + adf + "lags: 1\n```\n\n"
+case("inline-text-verb-on-number", adfok + "The statistic is {{a.stat %s}}.\n", {"data.csv": csv(good)}, ["paper.md:", "is a number", "%s is for text"])
+case("inline-d-on-fraction", adfok + "The p-value is {{a.pvalue %d}}.\n", {"data.csv": csv(good)}, ["paper.md:", "%d shows whole numbers"])
+case("inline-star-width", adfok + "{{a.stat %*d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
+case("inline-argument-index", adfok + "{{a.stat %[2]d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
+case("inline-huge-width", adfok + "{{a.stat %5000d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
