@@ -53,7 +53,8 @@ func (s Spec) checkGH(p *plan) error {
 // Bartlett lag (coint.GHZ): the statistics of coint.GregoryHansen.
 //
 // The columns that do not move with the date, A = [1, (t), x], are
-// orthonormalised once per replication (U, with U'U = I); for the
+// orthonormalised once per replication (U, with U'U = I, from A's
+// Householder QR); for the
 // columns that do, B_b = [φ_b, (φ_b x)], U'B_b, B_b'B_b and B_b'ỹ are
 // sums over t ≥ b, updated by one row as b falls, so that by
 // Frisch–Waugh (ỹ = M_A y, B̃ = M_A B_b = B_b − U U'B_b)
@@ -69,6 +70,8 @@ type ghKernel struct {
 	first, last int
 	y           []float64
 	xs          [][]float64
+	a0          [][]float64 // A, factorised in place
+	qr          householder.QR
 	u           [][]float64 // a orthonormal columns spanning A
 	yt          []float64   // ỹ = M_A y
 	resid, v    []float64
@@ -94,7 +97,7 @@ func newGHKernel(s Spec, p plan) *ghKernel {
 	first, last, _ := coint.GHBreakRange(s.T, p.trim, coint.GHMinRegime(p.ghModel, m))
 	k := &ghKernel{
 		test: p.test, model: p.ghModel, t: s.T, m: m, a: a, q: q, lags: s.Lags, first: first, last: last,
-		y: make([]float64, s.T), xs: columns(m, s.T), u: columns(a, s.T), yt: make([]float64, s.T),
+		y: make([]float64, s.T), xs: columns(m, s.T), a0: columns(a, s.T), u: columns(a, s.T), yt: make([]float64, s.T),
 		resid: make([]float64, s.T), v: make([]float64, s.T-1),
 		sU: make([]float64, a*q), sBB: make([]float64, q*q), sBy: make([]float64, q), h: make([]float64, q*q),
 		g: make([]float64, q), w: make([]float64, a),
@@ -126,43 +129,37 @@ func (k *ghKernel) bval(xs [][]float64, j, t int) float64 {
 // for the series y on xs (NaN for a singular design).
 func (k *ghKernel) minOver(y []float64, xs [][]float64) float64 {
 	n, a, q := k.t, k.a, k.q
-	// U: modified Gram–Schmidt, twice, on 1, (s = (t+1)/n), x.
+	// A = [1, (s = (t+1)/n), x] in k.a0, then U = the first a columns of Q
+	// in A's Householder QR (the one QR, analysis/householder).
 	c := 0
-	for i := range k.u[0] {
-		k.u[0][i] = 1
+	for i := range k.a0[0] {
+		k.a0[0][i] = 1
 	}
 	c++
 	if k.model == coint.GHLevelTrend {
-		for i := range k.u[c] {
-			k.u[c][i] = float64(i+1) / float64(n)
+		for i := range k.a0[c] {
+			k.a0[c][i] = float64(i+1) / float64(n)
 		}
 		c++
 	}
 	for _, x := range xs {
-		copy(k.u[c], x)
+		copy(k.a0[c], x)
 		c++
 	}
+	if err := k.qr.Factor(k.a0, a); err != nil || !k.qr.FullRank() {
+		return math.NaN()
+	}
 	for j := 0; j < a; j++ {
-		col := k.u[j]
-		nrm0 := math.Sqrt(dot(col, col))
-		for pass := 0; pass < 2; pass++ {
-			for i := 0; i < j; i++ {
-				axpy(-dot(k.u[i], col), k.u[i], col)
-			}
-		}
-		nrm := math.Sqrt(dot(col, col))
-		if !(nrm > householder.CollinearTol*nrm0) {
+		clear(k.u[j])
+		k.u[j][j] = 1
+		if err := k.qr.QVec(k.u[j]); err != nil {
 			return math.NaN()
 		}
-		for i := range col {
-			col[i] /= nrm
-		}
 	}
+	// ỹ = M_A y = y − U U'y.
 	copy(k.yt, y)
-	for pass := 0; pass < 2; pass++ {
-		for i := 0; i < a; i++ {
-			axpy(-dot(k.u[i], k.yt), k.u[i], k.yt)
-		}
+	for i := 0; i < a; i++ {
+		axpy(-dot(k.u[i], k.yt), k.u[i], k.yt)
 	}
 	clear(k.sU)
 	clear(k.sBB)
