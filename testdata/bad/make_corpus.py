@@ -174,7 +174,7 @@ vdata = {"new.csv": csv(good, n=120), "old.csv": csv(good, n=72)}
 case("vintage-shade-past-the-end", VFRONT + "```galley figure\nid: f\ndata: d\nplot: lines\nseries: [y]\nshade:\n  - {from: 2005-06, to: 2006-06}\n  - {from: 2008-01, to: 2008-06}\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
      vdata, ['the paper built on the data vintage "old"'], exit_code=0)
 case("vintage-grid-sample-past-the-end", VFRONT + "```galley grid\nid: g\nof: adf\ndata: d\nseries: y\nlags: 1\nover: {sample: [2000-01..2004-12, 2003-01..2008-12]}\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
-     vdata, ["| g | cells 1 values stat", 'the paper built on the data vintage "old"'], exit_code=0)
+     vdata, ["| g (grid) | cells 1 values stat (+0.65 \\|5% c.v.\\|)", 'the paper built on the data vintage "old"'], exit_code=0)
 case("vintage-sample-nothing-left", VFRONT + "```galley adf\nid: a\ndata: d\nseries: y\nlags: 1\nsample: 2007-01..2009-12\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
      vdata, ["paper.md:20:", 'building vintage "old" failed', "paper.md:15:", "starts after the data", 'in the build on vintage "old" of data alias "d"'])
 case("shade-outside-the-data", fm() + "```galley figure\nid: f\ndata: d\nplot: lines\nseries: [y]\nshade:\n  - {from: 2030-01, to: 2030-06}\n```\n",
