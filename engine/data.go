@@ -24,16 +24,17 @@ type dataStore struct {
 	frames map[string]*series.Frame
 	errs   map[string]error
 	read   map[string]string // relative path → sha256
+	alias  map[string]string // relative path → the alias that named it
 }
 
 func newDataStore(d *Document) *dataStore {
-	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{}}
+	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{}, alias: map[string]string{}}
 }
 
 func (s *dataStore) inputs() []resultsfile.Input {
 	var out []resultsfile.Input
 	for p, h := range s.read {
-		out = append(out, resultsfile.Input{Path: p, SHA256: h})
+		out = append(out, resultsfile.Input{Path: p, SHA256: h, Alias: s.alias[p]})
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].Path < out[j].Path })
 	return out
@@ -127,6 +128,9 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	}
 	sum := sha256.Sum256(raw)
 	s.read[filepath.ToSlash(rel)] = hex.EncodeToString(sum[:])
+	if a, ok := s.alias[filepath.ToSlash(rel)]; !ok || alias < a {
+		s.alias[filepath.ToSlash(rel)] = alias
+	}
 	display := filepath.Join(s.doc.Dir, rel)
 	var f *series.Frame
 	switch strings.ToLower(filepath.Ext(full)) {

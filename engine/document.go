@@ -433,6 +433,9 @@ func (d *Document) Results() []*Result {
 // Inputs lists the data files read, with their SHA-256.
 func (d *Document) Inputs() []resultsfile.Input { return d.data.inputs() }
 
+// IDs lists the directives' ids in document order.
+func (d *Document) IDs() []string { return d.ids() }
+
 // Directives is the number of directive blocks.
 func (d *Document) Directives() int { return len(d.blocks) }
 

@@ -45,14 +45,33 @@ type Kind struct {
 	// Model: its results are one estimated equation (Result.Model is
 	// set), so model tables and estimated equations can show them.
 	Model bool
+	// Formerly lists names the kind had before; a manuscript that uses one
+	// gets an error naming the current name.
+	Formerly []string
 }
 
 var kinds = map[string]*Kind{}
+
+// retired maps a kind's former names to its current one (from
+// Kind.Formerly).
+var retired = map[string]string{}
 
 // Register adds a directive kind; each kind's file calls it from init.
 func Register(k Kind) {
 	if _, dup := kinds[k.Name]; dup {
 		panic("engine: directive kind registered twice: " + k.Name)
+	}
+	for _, old := range k.Formerly {
+		if _, dup := kinds[old]; dup {
+			panic("engine: a former kind name is a current one: " + old)
+		}
+		if _, dup := retired[old]; dup {
+			panic("engine: former kind name registered twice: " + old)
+		}
+		retired[old] = k.Name
+	}
+	if _, was := retired[k.Name]; was {
+		panic("engine: a current kind name is a former one: " + k.Name)
 	}
 	kk := k
 	kinds[k.Name] = &kk
@@ -76,9 +95,14 @@ func kindNames() []string {
 	return names
 }
 
+// LookupKind returns the kind called name; a former name of a kind is an
+// error that names the current one.
 func LookupKind(name string) (*Kind, error) {
 	k, ok := kinds[name]
 	if !ok {
+		if now, was := retired[name]; was {
+			return nil, fmt.Errorf("directive kind %q is now called %q", name, now)
+		}
 		return nil, fmt.Errorf("unknown directive kind %q%s", name, manuscript.DidYouMean(name, kindNames()))
 	}
 	return k, nil

@@ -4,7 +4,10 @@ import "github.com/galley-econ/galley/engine/contract"
 
 import "github.com/galley-econ/galley/engine/table"
 
-import "errors"
+import (
+	"errors"
+	"sort"
+)
 
 // Result is what one directive produced: values for prose and the
 // results file, and at most one table or figure for the document.
@@ -32,6 +35,43 @@ type Result struct {
 	Series    map[string]contract.Dated
 	Relations []contract.Dated
 	Number    int // table or figure number in the document (1-based)
+	// Hidden lists the top-level value keys whose numbers the result's
+	// table does not show (nuisance values, such as the coefficients of
+	// DOLS's leads and lags). Comparisons report changes among them apart
+	// from the conclusions a reader can see. The keys of Series are
+	// hidden without being listed.
+	Hidden []string
+}
+
+// HiddenKeys is Hidden with the keys of Series, sorted, without repeats.
+func (r *Result) HiddenKeys() []string {
+	seen := map[string]bool{}
+	var out []string
+	for _, k := range r.Hidden {
+		if !seen[k] {
+			seen[k] = true
+			out = append(out, k)
+		}
+	}
+	for k := range r.Series {
+		if !seen[k] {
+			seen[k] = true
+			out = append(out, k)
+		}
+	}
+	sort.Strings(out)
+	return out
+}
+
+// Caption is the caption of the result's table or figure ("" if none).
+func (r *Result) Caption() string {
+	switch {
+	case r.Table != nil:
+		return r.Table.Caption
+	case r.Figure != nil:
+		return r.Figure.Caption
+	}
+	return ""
 }
 
 // Label is "Table N" or "Figure N", or "" when there is nothing to refer to.

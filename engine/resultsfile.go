@@ -4,6 +4,9 @@ import (
 	"encoding/json"
 	"math"
 	"path/filepath"
+	"slices"
+	"sort"
+	"strings"
 
 	"github.com/galley-econ/galley/resultsfile"
 )
@@ -26,12 +29,19 @@ func (d *Document) ResultsJSON(version string) ([]byte, error) {
 	if rf.Inputs == nil {
 		rf.Inputs = []resultsfile.Input{}
 	}
+	quoted := d.quotedPaths()
 	for _, r := range d.Results() {
+		label := ""
+		if r.Number > 0 {
+			label = r.Label() // numbered once the whole document has run
+		}
 		spec := r.Spec
 		if spec == nil {
 			spec = map[string]any{}
 		}
-		rf.Results = append(rf.Results, resultsfile.Record{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number, Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
+		rf.Results = append(rf.Results, resultsfile.Record{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number,
+			Label: label, Caption: r.Caption(), Hidden: r.HiddenKeys(), Quoted: quoted[r.ID],
+			Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
 	}
 	if rf.Results == nil {
 		rf.Results = []resultsfile.Record{}
@@ -83,4 +93,25 @@ func JsonSafe(v any) any {
 		return out
 	}
 	return v
+}
+
+// quotedPaths lists, by directive id, the value paths the prose quotes
+// ({{id.path}}, dot-separated), sorted, without the fields every result
+// has (label, number, id, kind).
+func (d *Document) quotedPaths() map[string][]string {
+	out := map[string][]string{}
+	for _, n := range d.refs {
+		r, err := parseRef(n.Ref)
+		if err != nil || slices.Contains(CommonFields, r.path[0]) {
+			continue
+		}
+		p := strings.Join(r.path, ".")
+		if !slices.Contains(out[r.id], p) {
+			out[r.id] = append(out[r.id], p)
+		}
+	}
+	for _, ps := range out {
+		sort.Strings(ps)
+	}
+	return out
 }

@@ -22,7 +22,7 @@ func FuzzManuscript(f *testing.F) {
 	for _, s := range []string{
 		front + "\n" + fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\nse: hac(2)\n") + "\nR² is {{m.r2 %.2f}}; {{m.label}}.\n",
 		front + "\n" + fence("adf", "id: a\nseries: log(north)\nlags: {select: aic, max: 2}\n"),
-		front + "\n" + fence("descriptives", "series: [north, dlog(fuel)]\nsample: 2004-02..\n") + "$\\alpha_1$ and $$x^2$$\n",
+		front + "\n" + fence("summary-stats", "series: [north, dlog(fuel)]\nsample: 2004-02..\n") + "$\\alpha_1$ and $$x^2$$\n",
 		"---\ntitle: [unclosed\n---\n",
 		"```galley\n```\n",
 		"{{}} {{a.}} {{.b}} {{x.y %q}}",

@@ -296,15 +296,15 @@ func TestFigureCUSUMBand(t *testing.T) {
 // TestFigureBadInput: each bad figure gives an error at the right line.
 func TestFigureBadInput(t *testing.T) {
 	ols := fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\n") + "\n" // lines 7–12
-	desc := fence("descriptives", "id: d\ndata: grid\nseries: [north]\n") + "\n"
+	desc := fence("summary-stats", "id: d\ndata: grid\nseries: [north]\n") + "\n"
 	cases := []struct {
 		name, body string
 		want       []string
 	}{
 		{"unknown id", ols + fence("figure", "id: f\nresiduals: mm\n"), []string{"paper.md:16:", `no directive has id "mm"`, "did you mean m?"}},
 		{"unknown of", ols + fence("figure", "id: f\nplot: cusum\nof: q\n"), []string{"paper.md:17:", `no directive has id "q"`}},
-		{"of wrong kind", desc + fence("figure", "id: f\nplot: cusum\nof: d\n"), []string{"paper.md:16:", `"d" is a descriptives result`}},
-		{"no residuals", desc + fence("figure", "id: f\nresiduals: d\n"), []string{"paper.md:15:", `"d" (a descriptives result, line 7) has no residual series`}},
+		{"of wrong kind", desc + fence("figure", "id: f\nplot: cusum\nof: d\n"), []string{"paper.md:16:", `"d" is a summary-stats result`}},
+		{"no residuals", desc + fence("figure", "id: f\nresiduals: d\n"), []string{"paper.md:15:", `"d" (a summary-stats result, line 7) has no residual series`}},
 		{"nothing to draw", ols + fence("figure", "id: f\ncaption: Empty\n"), []string{"paper.md:14:", "nothing to draw"}},
 		{"cusum without regression", ols + fence("figure", "id: f\nplot: cusum\n"), []string{"paper.md:14:", "nothing to draw"}},
 		{"window outside data", ols + fence("figure", "id: f\ndata: grid\nseries: [north]\nshade:\n  - {from: 2005-01, to: 2005-06}\n  - {from: 2001-03, to: 2001-11}\n"), []string{"paper.md:20:", "2001-03 to 2001-11 lies outside the plotted data", "2004-01 to 2009-12"}},

@@ -40,7 +40,7 @@ func TestPOWiring(t *testing.T) {
 	}
 }
 
-// TestPODefaultBandwidth: without bandwidth the short rule ⌊4(N/100)^¼⌋
+// TestPODefaultBandwidth: without bandwidth the rule rule4, ⌊4(N/100)^¼⌋
 // with N = T − 1 is used.
 func TestPODefaultBandwidth(t *testing.T) {
 	csvText := syntheticCSV("y", "x", gridlinkSynthetic(120, -0.5))

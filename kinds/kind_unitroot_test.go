@@ -46,7 +46,7 @@ func macroProject(t *testing.T, body string) string {
 // analysis/unitroot) on the same series, lags and case.
 func TestUnitRootWiring(t *testing.T) {
 	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: ct\nlags: {select: aic, max: 8}\n")+
-		fence("pp", "id: p\nseries: log(realgdp)\ndet: c\nbandwidth: long\n")+
+		fence("pp", "id: p\nseries: log(realgdp)\ndet: c\nbandwidth: rule12\n")+
 		fence("kpss", "id: k\nseries: infl\ndet: c\nbandwidth: 3\n")+
 		fence("dfgls", "id: g\nseries: log(realgdp)\ndet: ct\nlags: 2\n")+
 		fence("za", "id: z\nseries: log(realgdp)\nbreak: both\nlags: 1\n"))
@@ -57,7 +57,7 @@ func TestUnitRootWiring(t *testing.T) {
 		lg[i] = math.Log(x)
 	}
 	adf, _ := unitroot.ADF(lg, critical.ConstTrend, unitroot.LagRule{Select: unitroot.AIC, Max: 8})
-	pp, _ := unitroot.PP(lg, critical.Const, unitroot.Bandwidth{Rule: unitroot.Long})
+	pp, _ := unitroot.PP(lg, critical.Const, unitroot.Bandwidth{Rule: unitroot.Schwert12})
 	kp, _ := unitroot.KPSS(d["infl"], critical.Const, unitroot.Bandwidth{Rule: unitroot.Given, Lags: 3})
 	gls, _ := unitroot.DFGLS(lg, critical.ConstTrend, unitroot.LagRule{Lags: 2})
 	za, _ := unitroot.ZA(lg, critical.BreakBoth, 0, unitroot.LagRule{Lags: 1})

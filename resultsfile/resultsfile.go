@@ -22,21 +22,52 @@ type File struct {
 	Results    []Record `json:"results"`
 }
 
-// Input is a data file a build read, and its hash.
+// Input is a data file a build read, its hash, and the data alias of the
+// front matter that named it (so that a file renamed under the same alias
+// is the same input, changed).
 type Input struct {
 	Path   string `json:"path"`
 	SHA256 string `json:"sha256"`
+	Alias  string `json:"alias,omitempty"`
 }
 
 // Record is one directive's result: its id, kind, manuscript line, table
-// or figure number, spec as written and values.
+// or figure number and label ("Table 3"), caption, spec as written and
+// values.
+//
+// Which values a reader sees: when Label is set the result is a table or
+// figure in the paper, and every value is shown there except those under
+// the top-level keys in Hidden (numbers estimated but not shown, such as
+// the coefficients of DOLS's leads and lags, and the dated series a result
+// carries for others); Quoted lists the value paths (dot-separated, as
+// written in {{id.path}}) the prose quotes, which are seen whatever
+// Hidden says.
 type Record struct {
-	ID     string         `json:"id"`
-	Kind   string         `json:"kind"`
-	Line   int            `json:"line"`
-	Number int            `json:"number,omitempty"`
-	Spec   map[string]any `json:"spec"`
-	Values map[string]any `json:"values"`
+	ID      string         `json:"id"`
+	Kind    string         `json:"kind"`
+	Line    int            `json:"line"`
+	Number  int            `json:"number,omitempty"`
+	Label   string         `json:"label,omitempty"`
+	Caption string         `json:"caption,omitempty"`
+	Hidden  []string       `json:"hidden,omitempty"`
+	Quoted  []string       `json:"quoted,omitempty"`
+	Spec    map[string]any `json:"spec"`
+	Values  map[string]any `json:"values"`
+}
+
+// Name is how a published report names the record: "Table 3: caption",
+// the label or the caption alone, or (for a result the paper does not
+// show) "id (kind)".
+func (r Record) Name() string {
+	switch {
+	case r.Label != "" && r.Caption != "":
+		return r.Label + ": " + r.Caption
+	case r.Label != "":
+		return r.Label
+	case r.Caption != "":
+		return r.Caption
+	}
+	return r.ID + " (" + r.Kind + ")"
 }
 
 // Parse reads a results file from b; name labels it in errors and

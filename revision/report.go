@@ -4,43 +4,61 @@ import (
 	"fmt"
 	"html"
 	"strings"
+
+	"github.com/galley-econ/galley/resultsfile"
 )
 
-// Summary is the terminal summary of a comparison.
+// Summary is the terminal summary of a comparison. Its first lines are
+// the spec changes and the conclusions a reader can see that flipped;
+// then data files, samples, numbers that moved, changes among values the
+// paper does not show, and the totals.
 func (r *Report) Summary() string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "comparing %s (galley %s) with %s (galley %s)\n", r.Old.Path, r.Old.Galley, r.New.Path, r.New.Galley)
-	if !r.SameManuscript {
-		fmt.Fprintf(&b, "note: the files come from different manuscripts (%s and %s); comparing the ids they share\n", r.Old.Manuscript, r.New.Manuscript)
-	}
-	for _, in := range r.InputsChanged {
-		switch {
-		case in.Old == "":
-			fmt.Fprintf(&b, "input %s: new\n", in.Path)
-		case in.New == "":
-			fmt.Fprintf(&b, "input %s: no longer read\n", in.Path)
-		default:
-			fmt.Fprintf(&b, "input %s: changed\n", in.Path)
+	for _, it := range r.Items {
+		for _, s := range it.Specs {
+			fmt.Fprintf(&b, "spec  %s: %s: %s -> %s\n", termName(it), s.What, s.Old, s.New)
 		}
 	}
-	moved := 0
-	for _, it := range r.Items {
-		moved += len(it.Moved)
-	}
-	fmt.Fprintf(&b, "%d results unchanged, %d changed; %d numbers moved; %d conclusions flipped\n", r.Unchanged, len(r.Items), moved, r.Flips())
 	for _, it := range r.Items {
 		for _, f := range it.Flips {
-			fmt.Fprintf(&b, "FLIP  %s: %s: %s -> %s\n", it.ID, f.What, f.Old, f.New)
+			fmt.Fprintf(&b, "FLIP  %s: %s: %s -> %s\n", termName(it), f.What, f.Old, f.New)
 		}
+	}
+	for _, in := range r.InputsChanged {
+		fmt.Fprintf(&b, "input %s: %s\n", in.Name(), in.Detail())
 	}
 	for _, it := range r.Items {
 		for _, s := range it.Samples {
-			fmt.Fprintf(&b, "sample %s: %s: %s -> %s\n", it.ID, s.What, s.Old, s.New)
+			fmt.Fprintf(&b, "sample %s: %s: %s -> %s\n", termName(it), s.What, s.Old, s.New)
 		}
 	}
+	ranked := r.Ranked()
+	for i, m := range ranked {
+		if i == 10 {
+			fmt.Fprintf(&b, "moved (%d more)\n", len(ranked)-10)
+			break
+		}
+		fmt.Fprintf(&b, "moved %s: %s: %s -> %s (%s)\n", termName(*m.Item), m.What, m.Old, m.New, m.MoveText())
+	}
+	hidden, hiddenFlips := 0, 0
+	var where []string
 	for _, it := range r.Items {
-		if len(it.Moved) > 0 {
-			fmt.Fprintf(&b, "moved %s: %d values (largest: %s)\n", it.ID, len(it.Moved), largest(it.Moved))
+		for _, h := range it.Hidden {
+			hidden++
+			if h.Flip {
+				hiddenFlips++
+			}
+		}
+		if len(it.Hidden) > 0 {
+			where = append(where, it.ID)
+		}
+	}
+	if hidden > 0 {
+		fmt.Fprintf(&b, "not shown in the paper: %d changes (%d of them star or test changes) among values no table shows, in %s\n", hidden, hiddenFlips, strings.Join(where, ", "))
+	}
+	for _, it := range r.Items {
+		for _, p := range it.Presence {
+			fmt.Fprintf(&b, "value %s: %s: %s -> %s\n", termName(it), p.What, p.Old, p.New)
 		}
 	}
 	if len(r.OnlyOld) > 0 {
@@ -49,24 +67,32 @@ func (r *Report) Summary() string {
 	if len(r.OnlyNew) > 0 {
 		fmt.Fprintf(&b, "only in the new build: %s\n", strings.Join(r.OnlyNew, ", "))
 	}
+	if !r.SameManuscript {
+		fmt.Fprintf(&b, "note: the files come from different manuscripts (%s and %s); comparing the ids they share\n", r.Old.Manuscript, r.New.Manuscript)
+	}
+	moved := 0
+	for _, it := range r.Items {
+		moved += len(it.Moved)
+	}
+	fmt.Fprintf(&b, "compared %s (galley %s) with %s (galley %s): %d results unchanged, %d changed; %d spec changes; %d numbers moved; %d conclusions flipped\n",
+		r.Old.Path, r.Old.Galley, r.New.Path, r.New.Galley, r.Unchanged, len(r.Items), r.specChanges(), moved, r.Flips())
 	return b.String()
 }
 
-func largest(ch []Change) string {
-	best := ch[0]
-	for _, c := range ch[1:] {
-		if abs(c.Rel) > abs(best.Rel) {
-			best = c
-		}
+func (r *Report) specChanges() int {
+	n := 0
+	for _, it := range r.Items {
+		n += len(it.Specs)
 	}
-	return fmt.Sprintf("%s %s -> %s", best.What, best.Old, best.New)
+	return n
 }
 
-func abs(x float64) float64 {
-	if x < 0 {
-		return -x
+// termName is a result's id with its label, for the terminal.
+func termName(it Item) string {
+	if it.Short != "" && it.Short != it.ID+" ("+it.Kind+")" {
+		return it.ID + " [" + it.Short + "]"
 	}
-	return x
+	return it.ID
 }
 
 // Section is one part of a report: a title, a header and rows of cells.
@@ -77,41 +103,54 @@ type Section struct {
 }
 
 // Sections returns the report's introduction and its non-empty sections:
-// data files that changed, conclusions that changed, samples that
-// changed, and numbers that moved.
+// specification changes, conclusions that changed, data that changed,
+// samples that changed, numbers that moved (largest first, with their
+// unit), and changes among values the paper does not show.
 func (r *Report) Sections() (intro string, ss []Section) { return r.tables() }
 
-func (r *Report) tables() (intro string, ts []Section) {
-	intro = fmt.Sprintf("This report compares the results of two builds: %s (old) and %s (new). %d results are unchanged and %d changed; %d conclusions changed.",
-		r.Old.Path, r.New.Path, r.Unchanged, len(r.Items), r.Flips())
-	if !r.SameManuscript {
-		intro += fmt.Sprintf(" The builds come from different manuscripts (%s, %s); only the ids they share are compared.", r.Old.Manuscript, r.New.Manuscript)
+// buildName names a build for a published report: its manuscript and
+// data vintage, not a file path.
+func buildName(f *resultsfile.File) string {
+	name := f.Manuscript
+	if f.Vintage != "" {
+		name += ", data vintage " + f.Vintage
 	}
+	return name
+}
+
+func (r *Report) tables() (intro string, ts []Section) {
+	intro = fmt.Sprintf("This report compares two builds: the earlier (%s) and the later (%s). %d results are unchanged and %d changed; %d specifications changed; %d conclusions a reader can see changed.",
+		buildName(r.Old), buildName(r.New), r.Unchanged, len(r.Items), r.specChanges(), r.Flips())
+	if !r.SameManuscript {
+		intro += " The builds come from different manuscripts; only the results they share are compared."
+	}
+	specs := Section{Title: "Specification changes", Head: []string{"Result", "Setting", "Old", "New"}}
 	flips := Section{Title: "Conclusions that changed", Head: []string{"Result", "What", "Old", "New"}}
 	samples := Section{Title: "Samples that changed", Head: []string{"Result", "What", "Old", "New"}}
-	moved := Section{Title: "Numbers that moved", Head: []string{"Result", "Value", "Old", "New", "Change"}}
+	moved := Section{Title: "Numbers that moved most", Head: []string{"Result", "Value", "Old", "New", "Move"}}
+	hidden := Section{Title: "Changes among values no table shows", Head: []string{"Result", "Value", "Old", "New", "Move"}}
 	for _, it := range r.Items {
+		for _, s := range it.Specs {
+			specs.Rows = append(specs.Rows, []string{it.Name, s.What, s.Old, s.New})
+		}
 		for _, f := range it.Flips {
-			flips.Rows = append(flips.Rows, []string{it.ID, f.What, f.Old, f.New})
+			flips.Rows = append(flips.Rows, []string{it.Name, f.What, f.Old, f.New})
 		}
 		for _, s := range it.Samples {
-			samples.Rows = append(samples.Rows, []string{it.ID, s.What, s.Old, s.New})
+			samples.Rows = append(samples.Rows, []string{it.Name, s.What, s.Old, s.New})
 		}
-		for _, m := range it.Moved {
-			moved.Rows = append(moved.Rows, []string{it.ID, m.What, m.Old, m.New, fmt.Sprintf("%+.2f%%", 100*m.Rel)})
+		for _, h := range it.Hidden {
+			hidden.Rows = append(hidden.Rows, []string{it.Name, h.What, h.Old, h.New, h.MoveText()})
 		}
 	}
-	inputs := Section{Title: "Data files that changed", Head: []string{"File", "Change"}}
+	for _, m := range r.Ranked() {
+		moved.Rows = append(moved.Rows, []string{m.Item.Name, m.What, m.Old, m.New, m.MoveText()})
+	}
+	inputs := Section{Title: "Data that changed", Head: []string{"Data", "Change"}}
 	for _, in := range r.InputsChanged {
-		what := "content changed"
-		if in.Old == "" {
-			what = "new"
-		} else if in.New == "" {
-			what = "no longer read"
-		}
-		inputs.Rows = append(inputs.Rows, []string{in.Path, what})
+		inputs.Rows = append(inputs.Rows, []string{in.Name(), in.What()})
 	}
-	for _, t := range []Section{inputs, flips, samples, moved} {
+	for _, t := range []Section{specs, flips, inputs, samples, moved, hidden} {
 		if len(t.Rows) > 0 {
 			ts = append(ts, t)
 		}
@@ -119,13 +158,19 @@ func (r *Report) tables() (intro string, ts []Section) {
 	return intro, ts
 }
 
+// MovedNote explains the Move column.
+const MovedNote = "Move: an estimate's change in units of its earlier standard error (s.e.), a test statistic's change relative to its earlier 5% critical value (|5% c.v.|), otherwise the relative change (%); numbers with a scale of their own are ranked first, p-values aside."
+
 // Markdown renders the report as CommonMark.
 func (r *Report) Markdown() []byte {
 	intro, ts := r.tables()
 	esc := strings.NewReplacer("|", `\|`, "*", `\*`, "_", `\_`, "<", `\<`)
 	var b strings.Builder
-	b.WriteString("## Revision report\n\n" + esc.Replace(intro) + "\n")
-	for _, t := range ts {
+	b.WriteString("## Revision report\n")
+	for k, t := range ts {
+		if k == introAfter(ts) {
+			b.WriteString("\n" + esc.Replace(intro) + "\n")
+		}
 		b.WriteString("\n### " + t.Title + "\n\n| " + strings.Join(t.Head, " | ") + " |\n|" + strings.Repeat("---|", len(t.Head)) + "\n")
 		for _, row := range t.Rows {
 			cells := make([]string, len(row))
@@ -134,6 +179,12 @@ func (r *Report) Markdown() []byte {
 			}
 			b.WriteString("| " + strings.Join(cells, " | ") + " |\n")
 		}
+		if t.Title == "Numbers that moved most" {
+			b.WriteString("\n" + esc.Replace(MovedNote) + "\n")
+		}
+	}
+	if introAfter(ts) == len(ts) {
+		b.WriteString("\n" + esc.Replace(intro) + "\n")
 	}
 	return []byte(b.String())
 }
@@ -146,8 +197,11 @@ func (r *Report) HTML() []byte {
 body{font-family:Georgia,"DejaVu Serif",serif;max-width:52rem;margin:2rem auto;padding:0 1rem;color:#1d1d1f}
 table{border-collapse:collapse;margin:.6rem 0 1.4rem;font-size:.9rem}th,td{padding:.2rem .7rem;text-align:left}
 thead th{border-top:1.5px solid #1d1d1f;border-bottom:1px solid #1d1d1f}tbody tr:last-child td{border-bottom:1.5px solid #1d1d1f}
-</style></head><body><h2>Revision report</h2><p>` + html.EscapeString(intro) + "</p>\n")
-	for _, t := range ts {
+</style></head><body><h2>Revision report</h2>` + "\n")
+	for k, t := range ts {
+		if k == introAfter(ts) {
+			b.WriteString("<p>" + html.EscapeString(intro) + "</p>\n")
+		}
 		b.WriteString("<h3>" + html.EscapeString(t.Title) + "</h3><table><thead><tr>")
 		for _, h := range t.Head {
 			b.WriteString("<th>" + html.EscapeString(h) + "</th>")
@@ -161,6 +215,12 @@ thead th{border-top:1.5px solid #1d1d1f;border-bottom:1px solid #1d1d1f}tbody tr
 			b.WriteString("</tr>")
 		}
 		b.WriteString("</tbody></table>\n")
+		if t.Title == "Numbers that moved most" {
+			b.WriteString("<p>" + html.EscapeString(MovedNote) + "</p>\n")
+		}
+	}
+	if introAfter(ts) == len(ts) {
+		b.WriteString("<p>" + html.EscapeString(intro) + "</p>\n")
 	}
 	b.WriteString("</body></html>\n")
 	return []byte(b.String())
@@ -172,8 +232,11 @@ func (r *Report) LaTeX() []byte {
 	esc := strings.NewReplacer(`\`, `\textbackslash{}`, "{", `\{`, "}", `\}`, "$", `\$`, "&", `\&`, "#", `\#`, "^", `\textasciicircum{}`,
 		"_", `\_`, "~", `\textasciitilde{}`, "%", `\%`, "<", `\textless{}`, ">", `\textgreater{}`, "−", `\ensuremath{-}`, "–", "--")
 	var b strings.Builder
-	b.WriteString("% galley revision report: needs \\usepackage{booktabs}\n\\subsection*{Revision report}\n" + esc.Replace(intro) + "\n")
-	for _, t := range ts {
+	b.WriteString("% galley revision report: needs \\usepackage{booktabs}\n\\subsection*{Revision report}\n")
+	for k, t := range ts {
+		if k == introAfter(ts) {
+			b.WriteString("\n" + esc.Replace(intro) + "\n")
+		}
 		b.WriteString("\n\\paragraph{" + esc.Replace(t.Title) + "}\n\\begin{tabular}{" + strings.Repeat("l", len(t.Head)) + "}\n\\toprule\n")
 		hs := make([]string, len(t.Head))
 		for i, h := range t.Head {
@@ -188,6 +251,23 @@ func (r *Report) LaTeX() []byte {
 			b.WriteString(strings.Join(cs, " & ") + " \\\\\n")
 		}
 		b.WriteString("\\bottomrule\n\\end{tabular}\n")
+		if t.Title == "Numbers that moved most" {
+			b.WriteString("\n" + esc.Replace(MovedNote) + "\n")
+		}
+	}
+	if introAfter(ts) == len(ts) {
+		b.WriteString("\n" + esc.Replace(intro) + "\n")
 	}
 	return []byte(b.String())
+}
+
+// introAfter is the index of the first section that follows the
+// introduction: the specification changes and the conclusions that
+// changed come first.
+func introAfter(ts []Section) int {
+	k := 0
+	for k < len(ts) && (ts[k].Title == "Specification changes" || ts[k].Title == "Conclusions that changed") {
+		k++
+	}
+	return k
 }

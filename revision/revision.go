@@ -8,6 +8,7 @@ package revision
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -23,6 +24,9 @@ type Options struct {
 	Tol float64
 	// Stars are the star thresholds (default 0.10, 0.05, 0.01).
 	Stars []float64
+	// Only limits the comparison to the results with these ids (all when
+	// empty).
+	Only []string
 }
 
 // Report is the outcome of a comparison.
@@ -35,15 +39,70 @@ type Report struct {
 	Unchanged        int
 }
 
-// InputChange is a data file whose content changed, appeared or went.
-type InputChange struct{ Path, Old, New string }
+// InputChange is a data file whose content changed, appeared or went, or
+// that an alias reads from another path than before.
+type InputChange struct {
+	Alias         string // the data alias, when the results file names it
+	Path, OldPath string // the file now and before ("" when absent)
+	Old, New      string // SHA-256 before and now ("" when absent)
+}
+
+// What describes the change in words, without file paths (for
+// published reports).
+func (in InputChange) What() string {
+	switch {
+	case in.Old == "":
+		return "new"
+	case in.New == "":
+		return "no longer read"
+	case in.OldPath != in.Path && in.Old == in.New:
+		return "another file, same content"
+	case in.OldPath != in.Path:
+		return "another file, content changed"
+	}
+	return "content changed"
+}
+
+// Detail is What with the file paths, for the terminal.
+func (in InputChange) Detail() string {
+	switch {
+	case in.Old == "":
+		return "new (" + in.Path + ")"
+	case in.New == "":
+		return "no longer read (" + in.OldPath + ")"
+	case in.OldPath != in.Path && in.Old == in.New:
+		return "read from " + in.Path + " instead of " + in.OldPath + "; same content"
+	case in.OldPath != in.Path:
+		return "read from " + in.Path + " instead of " + in.OldPath + "; content changed"
+	}
+	return "content changed (" + in.Path + ")"
+}
+
+// Name is the alias ("data grid") or, without one, the path.
+func (in InputChange) Name() string {
+	if in.Alias != "" {
+		return "data " + in.Alias
+	}
+	if in.Path != "" {
+		return in.Path
+	}
+	return in.OldPath
+}
 
 // Item lists the changes of one result.
 type Item struct {
 	ID, Kind string
-	Flips    []Change // conclusions that changed
+	// Name is how published reports name the result (its label and
+	// caption; resultsfile.Record.Name).
+	Name string
+	// Short is its label alone, or the caption when it has none.
+	Short    string
+	Specs    []Change // keys of its spec that changed (caption and note aside)
+	Flips    []Change // conclusions a reader can see that changed
 	Samples  []Change // sample and N changes
-	Moved    []Change // numbers that moved
+	Moved    []Change // numbers a reader can see that moved
+	Hidden   []Change // changes among values the paper does not show (Flip marks a conclusion)
+	Presence []Change // values present in one build only (not conclusions)
 }
 
 // Change is one value before and after.
@@ -51,25 +110,73 @@ type Change struct {
 	What     string
 	Old, New string
 	Rel      float64 // relative change, for numbers
+	// Move is the change in Unit: for an estimate with a standard error,
+	// (new − old)/old s.e. (Unit "s.e."); for a test statistic with a 5%
+	// critical value, (new − old)/|old 5% critical value| (Unit
+	// "|5% c.v.|"); otherwise Rel with Unit "%" (Move = 100·Rel).
+	Move float64
+	Unit string
+	Flip bool // in Item.Hidden: a conclusion that changed
 }
 
-// HasFlips reports whether any conclusion changed.
-func (r *Report) HasFlips() bool {
-	for _, it := range r.Items {
-		if len(it.Flips) > 0 {
-			return true
-		}
+// Scaled reports whether the move is measured on the value's own scale.
+func (c Change) Scaled() bool { return c.Unit != "" && c.Unit != "%" }
+
+// MoveText is the move with its unit, "+2.31 s.e.", "−0.40 |5% c.v.|" or
+// "+12.5%".
+func (c Change) MoveText() string {
+	switch {
+	case c.Unit == "%":
+		return fmt.Sprintf("%+.1f%%", c.Move)
+	case c.Unit != "":
+		return fmt.Sprintf("%+.2f %s", c.Move, c.Unit)
 	}
-	return false
+	return ""
 }
 
-// Flips counts the conclusions that changed.
+// HasFlips reports whether any conclusion a reader can see changed.
+func (r *Report) HasFlips() bool { return r.Flips() > 0 }
+
+// Flips counts the conclusions a reader can see that changed.
 func (r *Report) Flips() int {
 	n := 0
 	for _, it := range r.Items {
 		n += len(it.Flips)
 	}
 	return n
+}
+
+// Ranked is a moved number of one result.
+type Ranked struct {
+	Item *Item
+	Change
+}
+
+// Ranked lists the numbers a reader can see that moved, p-values aside
+// (their conclusions are the star changes), largest first: the numbers
+// with a scale of their own (estimates in standard errors, test
+// statistics relative to their 5% critical value) by the size of the move
+// on that scale, then the others by relative change.
+func (r *Report) Ranked() []Ranked {
+	var out []Ranked
+	for i := range r.Items {
+		it := &r.Items[i]
+		for _, ch := range it.Moved {
+			leaf := ch.What[strings.LastIndex(ch.What, " ")+1:]
+			if leaf == "p" || leaf == "pvalue" || strings.HasPrefix(leaf, "pvalue_") {
+				continue
+			}
+			out = append(out, Ranked{it, ch})
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool {
+		a, b := out[i], out[j]
+		if a.Scaled() != b.Scaled() {
+			return a.Scaled()
+		}
+		return math.Abs(a.Move) > math.Abs(b.Move)
+	})
+	return out
 }
 
 // Compare compares two results files.
@@ -81,30 +188,17 @@ func Compare(old, new *resultsfile.File, o Options) *Report {
 		o.Stars = []float64{0.10, 0.05, 0.01}
 	}
 	r := &Report{Old: old, New: new, SameManuscript: old.Manuscript == new.Manuscript}
-	oi := map[string]string{}
-	for _, in := range old.Inputs {
-		oi[in.Path] = in.SHA256
-	}
-	seen := map[string]bool{}
-	for _, in := range new.Inputs {
-		seen[in.Path] = true
-		if h, ok := oi[in.Path]; !ok {
-			r.InputsChanged = append(r.InputsChanged, InputChange{in.Path, "", in.SHA256})
-		} else if h != in.SHA256 {
-			r.InputsChanged = append(r.InputsChanged, InputChange{in.Path, h, in.SHA256})
-		}
-	}
-	for _, in := range old.Inputs {
-		if !seen[in.Path] {
-			r.InputsChanged = append(r.InputsChanged, InputChange{in.Path, in.SHA256, ""})
-		}
-	}
+	r.InputsChanged = compareInputs(old.Inputs, new.Inputs)
+	keep := func(id string) bool { return len(o.Only) == 0 || slices.Contains(o.Only, id) }
 	om := map[string]resultsfile.Record{}
 	for _, rec := range old.Results {
 		om[rec.ID] = rec
 	}
 	nm := map[string]bool{}
 	for _, rec := range new.Results {
+		if !keep(rec.ID) {
+			continue
+		}
 		nm[rec.ID] = true
 		prev, ok := om[rec.ID]
 		if !ok {
@@ -112,22 +206,78 @@ func Compare(old, new *resultsfile.File, o Options) *Report {
 			continue
 		}
 		it := compareRecord(prev, rec, o)
-		if len(it.Flips)+len(it.Samples)+len(it.Moved) == 0 {
+		if len(it.Specs)+len(it.Flips)+len(it.Samples)+len(it.Moved)+len(it.Hidden)+len(it.Presence) == 0 {
 			r.Unchanged++
 			continue
 		}
 		r.Items = append(r.Items, it)
 	}
 	for _, rec := range old.Results {
-		if !nm[rec.ID] {
+		if keep(rec.ID) && !nm[rec.ID] {
 			r.OnlyOld = append(r.OnlyOld, rec.ID)
 		}
 	}
 	return r
 }
 
+// compareInputs pairs the data files of two builds: by alias when both
+// results files name one (a file renamed under the same alias is the same
+// input, changed), by path otherwise.
+func compareInputs(old, new []resultsfile.Input) []InputChange {
+	key := func(in resultsfile.Input) string {
+		if in.Alias != "" {
+			return "alias:" + in.Alias
+		}
+		return "path:" + in.Path
+	}
+	byAlias := map[string]bool{}
+	for _, in := range old {
+		if in.Alias != "" {
+			byAlias[in.Alias] = true
+		}
+	}
+	om := map[string]resultsfile.Input{}
+	for _, in := range old {
+		om[key(in)] = in
+	}
+	var out []InputChange
+	seen := map[string]bool{}
+	for _, in := range new {
+		k := key(in)
+		if in.Alias != "" && !byAlias[in.Alias] {
+			k = "path:" + in.Path // the old file names no aliases
+		}
+		prev, ok := om[k]
+		if !ok && in.Alias != "" {
+			prev, ok = om["path:"+in.Path]
+			k = "path:" + in.Path
+		}
+		seen[k] = true
+		switch {
+		case !ok:
+			out = append(out, InputChange{Alias: in.Alias, Path: in.Path, New: in.SHA256})
+		case prev.SHA256 != in.SHA256 || prev.Path != in.Path:
+			out = append(out, InputChange{Alias: in.Alias, Path: in.Path, OldPath: prev.Path, Old: prev.SHA256, New: in.SHA256})
+		}
+	}
+	for _, in := range old {
+		if !seen[key(in)] {
+			out = append(out, InputChange{Alias: in.Alias, OldPath: in.Path, Old: in.SHA256})
+		}
+	}
+	return out
+}
+
+// presentational spec keys: a change in them changes no number.
+var presentational = []string{"id", "caption", "note"}
+
 func compareRecord(old, new resultsfile.Record, o Options) Item {
-	it := Item{ID: new.ID, Kind: new.Kind}
+	it := Item{ID: new.ID, Kind: new.Kind, Name: new.Name(), Short: new.Label}
+	if it.Short == "" {
+		// a build still running has no table numbers yet
+		it.Short = new.Name()
+	}
+	it.Specs = compareSpecs(old.Spec, new.Spec)
 	of, nf := map[string]any{}, map[string]any{}
 	flatten("", old.Values, of)
 	flatten("", new.Values, nf)
@@ -145,15 +295,22 @@ func compareRecord(old, new resultsfile.Record, o Options) Item {
 		a, aok := of[k]
 		b, bok := nf[k]
 		leaf := k[strings.LastIndex(k, sep)+1:]
-		switch {
-		case !aok || !bok:
-			if isInteresting(leaf) {
-				it.Flips = append(it.Flips, Change{What: describe(k), Old: show(a, aok), New: show(b, bok)})
+		seen := visible(new, k) && visible(old, k)
+		if !aok || !bok {
+			// A value present in one build only is not a conclusion
+			// that changed.
+			if isInteresting(leaf) || seen {
+				it.Presence = append(it.Presence, Change{What: describe(k), Old: show(a, aok), New: show(b, bok)})
 			}
 			continue
 		}
 		if flip, ok := conclusion(k, leaf, a, b, o); ok {
-			it.Flips = append(it.Flips, flip)
+			if seen {
+				it.Flips = append(it.Flips, flip)
+			} else {
+				flip.Flip = true
+				it.Hidden = append(it.Hidden, flip)
+			}
 		}
 		if isSample(k, leaf) {
 			if !equal(a, b, 0) {
@@ -163,11 +320,123 @@ func compareRecord(old, new resultsfile.Record, o Options) Item {
 		}
 		if x, ok := a.(float64); ok {
 			if y, ok := b.(float64); ok && moved(x, y, o.Tol) {
-				it.Moved = append(it.Moved, Change{What: describe(k), Old: num(x), New: num(y), Rel: relChange(x, y)})
+				ch := Change{What: describe(k), Old: num(x), New: num(y), Rel: relChange(x, y)}
+				ch.Move, ch.Unit = 100*ch.Rel, "%"
+				if d, unit, ok := scale(of, k, leaf); ok {
+					ch.Move, ch.Unit = (y-x)/d, unit
+				}
+				if seen {
+					it.Moved = append(it.Moved, ch)
+				} else {
+					it.Hidden = append(it.Hidden, ch)
+				}
 			}
 		}
 	}
 	return it
+}
+
+// scale is the yardstick of the number at path k in the old values: an
+// estimate's standard error, or a test statistic's 5% critical value.
+func scale(of map[string]any, k, leaf string) (float64, string, bool) {
+	parent := ""
+	if i := strings.LastIndex(k, sep); i >= 0 {
+		parent = k[:i] + sep
+	}
+	switch leaf {
+	case "est":
+		if se, ok := of[parent+"se"].(float64); ok && se > 0 && !math.IsInf(se, 0) {
+			return se, "s.e.", true
+		}
+	case "stat":
+		if cv, ok := of[parent+"crit"+sep+"5%"].(float64); ok && cv != 0 && !math.IsInf(cv, 0) {
+			return math.Abs(cv), "|5% c.v.|", true
+		}
+	}
+	return 0, "", false
+}
+
+// visible reports whether a reader can see or quote the value at path k
+// of rec: it is quoted in the prose (it, an enclosing value or a sibling),
+// or it is not under a key the result's table does not show, and not the
+// checksum of a long list.
+func visible(rec resultsfile.Record, k string) bool {
+	dk := strings.ReplaceAll(k, sep, ".")
+	parent := ""
+	if i := strings.LastIndex(dk, "."); i >= 0 {
+		parent = dk[:i]
+	}
+	for _, q := range rec.Quoted {
+		if q == dk || strings.HasPrefix(dk, q+".") || (parent != "" && strings.HasPrefix(q, parent+".")) {
+			return true
+		}
+	}
+	if strings.HasSuffix(k, sep+listSum) || strings.HasSuffix(k, sep+listLen) {
+		return false
+	}
+	top, _, _ := strings.Cut(k, sep)
+	return !slices.Contains(rec.Hidden, top)
+}
+
+// compareSpecs lists the spec keys whose values differ (presentational
+// keys aside), in key order.
+func compareSpecs(old, new map[string]any) []Change {
+	keys := map[string]bool{}
+	for k := range old {
+		keys[k] = true
+	}
+	for k := range new {
+		keys[k] = true
+	}
+	var ks []string
+	for k := range keys {
+		if !slices.Contains(presentational, k) {
+			ks = append(ks, k)
+		}
+	}
+	sort.Strings(ks)
+	var out []Change
+	for _, k := range ks {
+		a, aok := old[k]
+		b, bok := new[k]
+		if aok && bok && specText(a) == specText(b) {
+			continue
+		}
+		out = append(out, Change{What: k, Old: specShow(a, aok), New: specShow(b, bok)})
+	}
+	return out
+}
+
+func specShow(v any, ok bool) string {
+	if !ok {
+		return "(not set)"
+	}
+	return specText(v)
+}
+
+// specText writes a spec value as compact YAML flow text: 4, c,
+// [a, b], {max: 12, select: aic}.
+func specText(v any) string {
+	switch x := v.(type) {
+	case []any:
+		parts := make([]string, len(x))
+		for i, e := range x {
+			parts[i] = specText(e)
+		}
+		return "[" + strings.Join(parts, ", ") + "]"
+	case map[string]any:
+		ks := make([]string, 0, len(x))
+		for k := range x {
+			ks = append(ks, k)
+		}
+		sort.Strings(ks)
+		parts := make([]string, len(ks))
+		for i, k := range ks {
+			parts[i] = k + ": " + specText(x[k])
+		}
+		return "{" + strings.Join(parts, ", ") + "}"
+	}
+	return show(v, true)
 }
 
 // flatten turns nested values into dotted paths; lists of named entries
@@ -212,8 +481,8 @@ func flatten(prefix string, v any, out map[string]any) {
 					sum += f
 				}
 			}
-			out[join("n")] = float64(len(x))
-			out[join("sum")] = sum
+			out[join(listLen)] = float64(len(x))
+			out[join(listSum)] = sum
 			return
 		}
 		for i, e := range x {
@@ -316,6 +585,12 @@ func equal(a, b any, tol float64) bool {
 	}
 	return fmt.Sprint(a) == fmt.Sprint(b)
 }
+
+// listLen and listSum key a long list's length and checksum.
+const (
+	listLen = "(length)"
+	listSum = "(sum)"
+)
 
 // sep joins the parts of a value's path; names may hold dots and spaces.
 const sep = "\x1f"

@@ -91,3 +91,59 @@ func TestDifferentManuscripts(t *testing.T) {
 		t.Errorf("matching ids not compared: %+v", r.Items)
 	}
 }
+
+// TestVisibleAndScaled: a star change under a hidden key is reported
+// apart unless the prose quotes it; an estimate moves in standard errors
+// and a statistic relative to its 5% critical value.
+func TestVisibleAndScaled(t *testing.T) {
+	vals := func(p, est, stat float64) map[string]any {
+		return map[string]any{
+			"coef":     []any{map[string]any{"term": "x", "est": est, "se": 0.5, "p": 0.2}},
+			"dynamics": []any{map[string]any{"term": "dx", "est": 0.1, "se": 0.1, "p": p}},
+			"stat":     stat, "crit": map[string]any{"1%": -4.0, "5%": -2.0, "10%": -1.5},
+		}
+	}
+	rec := func(v map[string]any, quoted ...string) resultsfile.Record {
+		return resultsfile.Record{ID: "d", Kind: "dols", Label: "Table 4", Caption: "DOLS", Hidden: []string{"dynamics"}, Quoted: quoted, Values: v}
+	}
+	old, new := file("p.md", rec(vals(0.2, 1.0, -3.0))), file("p.md", rec(vals(0.001, 2.0, -2.0)))
+	r := Compare(old, new, Options{})
+	if r.HasFlips() || len(r.Items[0].Hidden) == 0 || !r.Items[0].Hidden[0].Flip {
+		t.Fatalf("hidden star change: flips %d, hidden %+v", r.Flips(), r.Items[0].Hidden)
+	}
+	got := map[string]string{}
+	for _, m := range r.Ranked() {
+		got[m.What] = m.MoveText()
+	}
+	if got["coef x est"] != "+2.00 s.e." || got["stat"] != "+0.50 |5% c.v.|" {
+		t.Errorf("moves %v", got)
+	}
+	if r.Items[0].Name != "Table 4: DOLS" {
+		t.Errorf("name %q", r.Items[0].Name)
+	}
+	// Quoted in the prose: seen, so its star change is a conclusion.
+	old, new = file("p.md", rec(vals(0.2, 1.0, -3.0), "dynamics.dx.est")), file("p.md", rec(vals(0.001, 1.0, -3.0), "dynamics.dx.est"))
+	if r := Compare(old, new, Options{}); r.Flips() != 1 {
+		t.Errorf("a quoted value's star change: %d flips", r.Flips())
+	}
+}
+
+// TestSpecAndInputChanges: spec keys that changed (caption aside), and a
+// file renamed under one alias as one changed input.
+func TestSpecAndInputChanges(t *testing.T) {
+	old := file("p.md", resultsfile.Record{ID: "a", Kind: "adf", Spec: map[string]any{"lags": 2.0, "det": "c", "caption": "A"}, Values: map[string]any{}})
+	new := file("p.md", resultsfile.Record{ID: "a", Kind: "adf", Spec: map[string]any{"lags": 4.0, "det": "c", "caption": "B", "sample": "2001.."}, Values: map[string]any{}})
+	old.Inputs = []resultsfile.Input{{Path: "a.csv", SHA256: "1", Alias: "g"}}
+	new.Inputs = []resultsfile.Input{{Path: "b.csv", SHA256: "1", Alias: "g"}}
+	r := Compare(old, new, Options{})
+	var specs []string
+	for _, s := range r.Items[0].Specs {
+		specs = append(specs, s.What+": "+s.Old+" -> "+s.New)
+	}
+	if !slices.Equal(specs, []string{"lags: 2 -> 4", "sample: (not set) -> 2001.."}) {
+		t.Errorf("spec changes %q", specs)
+	}
+	if len(r.InputsChanged) != 1 || r.InputsChanged[0].What() != "another file, same content" {
+		t.Errorf("inputs %+v", r.InputsChanged)
+	}
+}

@@ -37,6 +37,7 @@ type Fit struct {
 	Fitted []float64 // Xβ̂
 	SSR    float64   // e'e
 	TSS    float64   // centred total sum of squares Σ(y−ȳ)²
+	YY     float64   // uncentred total sum of squares Σy²
 	Cond   float64   // condition number estimate of X (column-scaled), from R
 
 	x    *mat.Dense
@@ -136,6 +137,7 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 		f.SSR += e * e
 		d := y[i] - ybar
 		f.TSS += d * d
+		f.YY += y[i] * y[i]
 	}
 	return f, nil
 }
@@ -146,9 +148,10 @@ func (f *Fit) DF() int { return f.N - f.K }
 // Sigma2 is the residual variance s² = e'e/(N−K).
 func (f *Fit) Sigma2() float64 { return f.SSR / float64(f.N-f.K) }
 
-// R2 is the coefficient of determination 1 − SSR/TSS (centred). For a
-// regression without a constant the centred definition is still used, as
-// is common practice when the dependent variable is a difference.
+// R2 is the centred coefficient of determination R²_c = 1 − e'e/Σ(y−ȳ)²
+// (Davidson and MacKinnon 2004, §3.5). It lies in [0, 1] when X contains
+// a constant; without one it can be negative (see R2Uncentred). The LM
+// statistics N·R² of the auxiliary regressions in analysis/diag use it.
 func (f *Fit) R2() float64 {
 	if f.TSS == 0 {
 		return math.NaN()
@@ -156,9 +159,30 @@ func (f *Fit) R2() float64 {
 	return 1 - f.SSR/f.TSS
 }
 
-// R2Adj is the adjusted R², 1 − (1−R²)(N−1)/(N−K).
+// R2Adj is the adjusted centred R², 1 − (1−R²_c)(N−1)/(N−K) (Theil's
+// R̄²; Davidson and MacKinnon 2004, §3.8).
 func (f *Fit) R2Adj() float64 {
 	return 1 - (1-f.R2())*float64(f.N-1)/float64(f.N-f.K)
+}
+
+// R2Uncentred is the uncentred coefficient of determination
+// R²_u = 1 − e'e/y'y = ‖P_X y‖²/‖y‖² (Davidson and MacKinnon 2004, §3.5),
+// the measure for a regression without a constant: it lies in [0, 1]
+// for any X. It is the R² statsmodels' OLS reports when the model has no
+// constant (RegressionResults.rsquared, 1 − ssr/uncentered_tss).
+func (f *Fit) R2Uncentred() float64 {
+	if f.YY == 0 {
+		return math.NaN()
+	}
+	return 1 - f.SSR/f.YY
+}
+
+// R2AdjUncentred is the adjusted uncentred R², 1 − (1−R²_u)·N/(N−K): the
+// degrees-of-freedom correction with no constant to discount (the form
+// statsmodels' rsquared_adj takes without a constant, with
+// k_constant = 0).
+func (f *Fit) R2AdjUncentred() float64 {
+	return 1 - (1-f.R2Uncentred())*float64(f.N)/float64(f.N-f.K)
 }
 
 // DW is the Durbin–Watson statistic Σ(e_t − e_{t−1})² / Σe_t².

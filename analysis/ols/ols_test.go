@@ -12,17 +12,22 @@ import (
 )
 
 type olsCase struct {
-	Name   string               `json:"name"`
-	Terms  []string             `json:"terms"`
-	NObs   int                  `json:"nobs"`
-	Coef   []float64            `json:"coef"`
-	SEOLS  []float64            `json:"se_ols"`
-	SEHC1  []float64            `json:"se_hc1"`
-	HAC    map[string][]float64 `json:"hac"`
-	R2     float64              `json:"r2"`
-	R2Adj  float64              `json:"r2_adj"`
-	DW     float64              `json:"dw"`
-	LogLik float64              `json:"loglik"`
+	Name  string               `json:"name"`
+	Terms []string             `json:"terms"`
+	NObs  int                  `json:"nobs"`
+	Coef  []float64            `json:"coef"`
+	SEOLS []float64            `json:"se_ols"`
+	SEHC1 []float64            `json:"se_hc1"`
+	HAC   map[string][]float64 `json:"hac"`
+	R2    float64              `json:"r2"`
+	R2Adj float64              `json:"r2_adj"`
+	// KConst is statsmodels' k_constant (1 with a constant, 0 without);
+	// R2C and R2U are 1 − ssr/centered_tss and 1 − ssr/uncentered_tss.
+	KConst int     `json:"k_constant"`
+	R2C    float64 `json:"r2_centred"`
+	R2U    float64 `json:"r2_uncentred"`
+	DW     float64 `json:"dw"`
+	LogLik float64 `json:"loglik"`
 }
 
 func relClose(t *testing.T, what string, got, want, tol float64) {
@@ -128,11 +133,22 @@ func TestAgainstStatsmodels(t *testing.T) {
 					relClose(t, name+" se "+c.Terms[j], se[j], want[name][j], tol)
 				}
 			}
-			if c.Name != "dlogcons_on_dlogdpi_noconst" {
-				// statsmodels uses the uncentred R² without a constant;
-				// galley always reports the centred one.
+			// statsmodels' rsquared is centred with a constant and
+			// uncentred without one; both forms are in the fixture.
+			relClose(t, "R2 centred", f.R2(), c.R2C, tol)
+			relClose(t, "R2 uncentred", f.R2Uncentred(), c.R2U, tol)
+			switch c.KConst {
+			case 1:
 				relClose(t, "R2", f.R2(), c.R2, tol)
 				relClose(t, "R2adj", f.R2Adj(), c.R2Adj, tol)
+			case 0:
+				relClose(t, "R2 (no constant)", f.R2Uncentred(), c.R2, tol)
+				relClose(t, "R2adj (no constant)", f.R2AdjUncentred(), c.R2Adj, tol)
+				if !(f.R2() < 0) {
+					t.Errorf("the centred R² of this case is negative in statsmodels (%g), here %g", c.R2C, f.R2())
+				}
+			default:
+				t.Fatalf("k_constant %d", c.KConst)
 			}
 			relClose(t, "DW", f.DW(), c.DW, tol)
 			relClose(t, "loglik", f.LogLik(), c.LogLik, tol)

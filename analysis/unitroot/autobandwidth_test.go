@@ -122,8 +122,8 @@ func TestAutoBandwidthCap(t *testing.T) {
 	}
 }
 
-// TestBandwidthSpellings: the new spellings, the older ones, and the
-// errors of the automatic rules.
+// TestBandwidthSpellings: the spellings, the refused former ones (each
+// error names its replacement), and the errors of the automatic rules.
 func TestBandwidthSpellings(t *testing.T) {
 	for _, c := range []struct {
 		in   string
@@ -131,9 +131,7 @@ func TestBandwidthSpellings(t *testing.T) {
 		str  string
 	}{
 		{"rule4", Bandwidth{Rule: Schwert4}, "rule4"},
-		{"short", Bandwidth{Rule: Schwert4}, "rule4"},
 		{"Rule12", Bandwidth{Rule: Schwert12}, "rule12"},
-		{"long", Bandwidth{Rule: Schwert12}, "rule12"},
 		{" AUTO ", Bandwidth{Rule: AutoNeweyWest}, "auto"},
 		{"auto-hfo", Bandwidth{Rule: AutoHobijn}, "auto-hfo"},
 		{"0", Bandwidth{Rule: Given}, "0"},
@@ -141,6 +139,11 @@ func TestBandwidthSpellings(t *testing.T) {
 		b, err := ParseBandwidth(c.in)
 		if err != nil || b != c.want || b.String() != c.str {
 			t.Errorf("ParseBandwidth(%q) = %+v (%s), %v; want %+v (%s)", c.in, b, b, err, c.want, c.str)
+		}
+	}
+	for old, now := range map[string]string{"short": "rule4", "Long": "rule12"} {
+		if _, err := ParseBandwidth(old); err == nil || !strings.Contains(err.Error(), "now written "+now) {
+			t.Errorf("ParseBandwidth(%q): %v; want an error naming %s", old, err, now)
 		}
 	}
 	if _, err := ParseBandwidth("auto-nw"); err == nil || !strings.Contains(err.Error(), "rule4, rule12, auto, auto-hfo") {

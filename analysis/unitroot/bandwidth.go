@@ -35,14 +35,6 @@ const (
 	AutoHobijn
 )
 
-// The first names of Schwert4 and Schwert12, kept while callers move.
-const (
-	// Deprecated: Short is Schwert4.
-	Short = Schwert4
-	// Deprecated: Long is Schwert12.
-	Long = Schwert12
-)
-
 // Bandwidth is the truncation lag of the Newey–West (Bartlett) long-run
 // variance used by PP and KPSS.
 type Bandwidth struct {
@@ -52,18 +44,22 @@ type Bandwidth struct {
 
 // ParseBandwidth reads, case-insensitive,
 //
-//	"rule4"      Schwert4,  ⌊4·(n/100)^{1/4}⌋  (also the older "short"),
-//	"rule12"     Schwert12, ⌊12·(n/100)^{1/4}⌋ (also the older "long"),
+//	"rule4"      Schwert4,  ⌊4·(n/100)^{1/4}⌋,
+//	"rule12"     Schwert12, ⌊12·(n/100)^{1/4}⌋,
 //	"auto"       AutoNeweyWest, Newey and West (1994),
 //	"auto-hfo"   AutoHobijn, Hobijn, Franses and Ooms (1998),
 //
-// or a non-negative whole number (Given).
+// or a non-negative whole number (Given). The former spellings "short"
+// and "long" are refused with an error that names rule4 and rule12.
 func ParseBandwidth(s string) (Bandwidth, error) {
 	t := strings.ToLower(strings.TrimSpace(s))
+	if now, ok := formerBandwidths[t]; ok {
+		return Bandwidth{}, fmt.Errorf("bandwidth %q is now written %s", s, now)
+	}
 	switch t {
-	case "rule4", "short":
+	case "rule4":
 		return Bandwidth{Rule: Schwert4}, nil
-	case "rule12", "long":
+	case "rule12":
 		return Bandwidth{Rule: Schwert12}, nil
 	case "auto":
 		return Bandwidth{Rule: AutoNeweyWest}, nil
@@ -72,9 +68,16 @@ func ParseBandwidth(s string) (Bandwidth, error) {
 	}
 	l, err := strconv.Atoi(t)
 	if err != nil || l < 0 {
-		return Bandwidth{}, fmt.Errorf("unknown bandwidth %q (want rule4, rule12, auto, auto-hfo, the older short, long, or a non-negative whole number)", s)
+		return Bandwidth{}, fmt.Errorf("unknown bandwidth %q (want rule4, rule12, auto, auto-hfo or a non-negative whole number)", s)
 	}
 	return Bandwidth{Rule: Given, Lags: l}, nil
+}
+
+// formerBandwidths are spellings ParseBandwidth no longer reads, with
+// the ones that replace them.
+var formerBandwidths = map[string]string{
+	"short": "rule4 (⌊4(T/100)^¼⌋)",
+	"long":  "rule12 (⌊12(T/100)^¼⌋)",
 }
 
 // String returns "rule4", "rule12", "auto", "auto-hfo" or the number, the

@@ -60,7 +60,7 @@ func TestBandwidth(t *testing.T) {
 		want int
 	}{
 		// ⌊4(n/100)^{1/4}⌋ and ⌊12(n/100)^{1/4}⌋ by hand: (2.02)^{1/4} = 1.1922.
-		{"short", 202, 4}, {"long", 202, 14}, {"SHORT", 100, 4}, {"long", 100, 12}, {"7", 50, 7},
+		{"rule4", 202, 4}, {"rule12", 202, 14}, {"RULE4", 100, 4}, {"rule12", 100, 12}, {"7", 50, 7},
 	} {
 		b, err := ParseBandwidth(tc.in)
 		if err != nil {
@@ -75,7 +75,7 @@ func TestBandwidth(t *testing.T) {
 		}
 	}
 	for _, bad := range []string{"-1", "medium", "2.5"} {
-		if _, err := ParseBandwidth(bad); err == nil || !strings.Contains(err.Error(), "short, long") {
+		if _, err := ParseBandwidth(bad); err == nil || !strings.Contains(err.Error(), "rule4, rule12") {
 			t.Errorf("ParseBandwidth(%q) error = %v", bad, err)
 		}
 	}

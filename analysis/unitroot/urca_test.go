@@ -37,7 +37,12 @@ func loadURCA(t *testing.T) urcaFixture {
 	return f
 }
 
+// bandwidthOf reads the fixture's lag rule, written in urca's own option
+// values ("short", "long"), as galley's rule4 and rule12.
 func bandwidthOf(t *testing.T, s string) Bandwidth {
+	if ours, ok := map[string]string{"short": "rule4", "long": "rule12"}[s]; ok {
+		s = ours
+	}
 	b, err := ParseBandwidth(s)
 	if err != nil {
 		t.Fatal(err)

@@ -29,7 +29,7 @@ func TestEscaping(t *testing.T) {
 	os.WriteFile(filepath.Join(dir, "data.csv"), []byte(csv.String()), 0o644)
 	q := func(s string) string { return "\"`" + strings.ReplaceAll(s, `\`, `\\`) + "`\"" }
 	doc := "---\ntitle: \"Odd <b>names</b> & 100% {braces}\"\ndata:\n  d: data.csv\n---\n\n" +
-		"```galley descriptives\nid: desc\ndata: d\nseries: [" + q(names[0]) + ", " + q(names[1]) + ", " + q(names[2]) + ", " + q(names[3]) + "]\ncaption: \"Caption with <i>tags</i>, $dollars$, _under_ & \\\\input{x}\"\n```\n\n" +
+		"```galley summary-stats\nid: desc\ndata: d\nseries: [" + q(names[0]) + ", " + q(names[1]) + ", " + q(names[2]) + ", " + q(names[3]) + "]\ncaption: \"Caption with <i>tags</i>, $dollars$, _under_ & \\\\input{x}\"\n```\n\n" +
 		"```galley ols\nid: m\ndata: d\ny: " + q(names[0]) + "\nx: [" + q(names[1]) + "]\n```\n\nThe name is {{desc.series.0.name}}.\n"
 	paper := filepath.Join(dir, "paper.md")
 	os.WriteFile(paper, []byte(doc), 0o644)

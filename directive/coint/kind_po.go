@@ -44,7 +44,7 @@ func (s *poSpec) settings(c *engine.Context) (critical.Case, unitroot.Bandwidth,
 	}
 	bw := s.Bandwidth
 	if bw == "" {
-		bw = "short"
+		bw = "rule4"
 	}
 	b, err := unitroot.ParseBandwidth(bw)
 	if err != nil {

@@ -80,14 +80,16 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals["show"] = s.show()
 	vals["short"] = shortValues(st)
 	var t *table.Table
+	var hidden []string
 	if s.show() == "relations" {
 		t = relationsTable(st, dec)
+		hidden = []string{"short"} // the short-run coefficients are not in this table
 	} else {
 		t = shortRunTable(st, dec)
 	}
 	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (case %s) and %s; T = %d.",
 		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], st.res.Case, st.lagPhrase(sel), st.res.T))
-	return &engine.Result{Table: t, Values: vals, Relations: st.relations()}, nil
+	return &engine.Result{Table: t, Values: vals, Relations: st.relations(), Hidden: hidden}, nil
 }
 
 // relationsTable shows β and α side by side for each relation, then the

@@ -248,7 +248,8 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals["hac_lags"] = st.spec.Cov.Lags
 		vals["kernel"] = "bartlett"
 	}
-	res := &engine.Result{Table: t, Values: vals}
+	// The leads and lags are nuisance terms the table does not show.
+	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
 	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
 	return res, nil

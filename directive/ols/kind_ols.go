@@ -29,7 +29,7 @@ func init() {
 		Name:    "ols",
 		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
 		New:     func() engine.Directive { return &olsSpec{} },
-		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample", "resid"},
+		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "r2_centred", "r2_uncentred", "dw", "cov", "sigma", "loglik", "sample", "resid"},
 		Model:   true,
 	})
 }
@@ -86,17 +86,31 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
+	// With a constant R² is centred; without one it is uncentred,
+	// 1 − e'e/Σy² (Davidson and MacKinnon 2004, §3.5), which cannot be
+	// negative; the other form is a value either way.
+	r2, r2Adj := fit.R2(), fit.R2Adj()
+	if !withConst {
+		r2, r2Adj = fit.R2Uncentred(), fit.R2AdjUncentred()
+	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
 	t.Body = engine.CoefRows(c, terms, coefs, dec, false)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(fit.N)}, RuleAbove: true},
-		table.Row{Cells: []table.Cell{table.T("R²"), table.N(fit.R2(), dec)}},
-		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(fit.R2Adj(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(r2, dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(r2Adj, dec)}},
 		table.Row{Cells: []table.Cell{table.T("Durbin–Watson"), table.N(fit.DW(), dec)}},
 	)
 	t.Notes = []string{
 		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", s.Y, cov.Describe(), fit.DF()),
 		c.StarNote() + " " + d.SampleNote(),
+	}
+	if !withConst {
+		c2, neg := table.NumText(table.N(fit.R2(), dec))
+		if neg {
+			c2 = "−" + c2
+		}
+		t.Notes = append(t.Notes, fmt.Sprintf("Without a constant, R² is uncentred, 1 − Σe²/Σy², and adjusted R² is 1 − (1 − R²)N/(N − K); the centred R², 1 − Σe²/Σ(y − ȳ)², is %s.", c2))
 	}
 	if w := engine.CondNote(fit); w != "" {
 		t.Notes = append(t.Notes, w)
@@ -104,13 +118,16 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals := map[string]any{
 		"coef":   engine.CoefValues(terms, coefs),
 		"nobs":   fit.N,
-		"r2":     fit.R2(),
-		"r2_adj": fit.R2Adj(),
-		"dw":     fit.DW(),
-		"cov":    cov.String(),
-		"sigma":  math.Sqrt(fit.Sigma2()),
-		"loglik": fit.LogLik(),
-		"sample": engine.SampleValues(d),
+		"r2":     r2,
+		"r2_adj": r2Adj,
+		// both forms, whichever the table shows
+		"r2_centred":   fit.R2(),
+		"r2_uncentred": fit.R2Uncentred(),
+		"dw":           fit.DW(),
+		"cov":          cov.String(),
+		"sigma":        math.Sqrt(fit.Sigma2()),
+		"loglik":       fit.LogLik(),
+		"sample":       engine.SampleValues(d),
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))

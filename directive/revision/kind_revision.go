@@ -2,9 +2,7 @@ package revision
 
 import (
 	"fmt"
-	"math"
 	"slices"
-	"sort"
 	"strings"
 
 	"github.com/galley-econ/galley/engine"
@@ -22,18 +20,20 @@ type revisionSpec struct {
 	// Against names the vintage to compare with (the earlier data).
 	Against string   `yaml:"against"`
 	Show    []string `yaml:"show"`
-	Max     int      `yaml:"max"`
-	Tol     float64  `yaml:"tol"`
+	// Only limits the report to the results with these ids.
+	Only []string `yaml:"only"`
+	Max  int      `yaml:"max"`
+	Tol  float64  `yaml:"tol"`
 }
 
-var revisionShows = []string{"conclusions", "samples", "numbers"}
+var revisionShows = []string{"specs", "conclusions", "samples", "numbers"}
 
 func init() {
 	engine.Register(engine.Kind{
 		Name:    "revision",
 		Summary: "what changes when the paper is built on another vintage of its data",
 		New:     func() engine.Directive { return &revisionSpec{} },
-		Fields:  []string{"against", "flips", "flipped", "moved", "samples", "inputs", "unchanged"},
+		Fields:  []string{"against", "flips", "flipped", "moved", "samples", "inputs", "unchanged", "specs"},
 	})
 }
 
@@ -49,6 +49,11 @@ func (s *revisionSpec) Check(c *engine.Context) error {
 			return c.Errorf("show", "unknown part %q%s; parts: %s", sh, manuscript.DidYouMean(sh, revisionShows), strings.Join(revisionShows, ", "))
 		}
 	}
+	for i, id := range s.Only {
+		if c.RefKind(id) == "" || id == c.ID() {
+			return c.ItemErrorf("only", i, "no other directive has id %q%s", id, manuscript.DidYouMean(id, otherIDs(c)))
+		}
+	}
 	if s.Max < 0 || s.Tol < 0 {
 		return c.Errorf("max", "max and tol must not be negative")
 	}
@@ -62,7 +67,7 @@ func (s *revisionSpec) shows(part string) bool {
 func (s *revisionSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if c.Nested() {
 		// Inside the build of the other vintage: a placeholder, never shown.
-		return &engine.Result{Values: map[string]any{"against": s.Against, "flips": 0, "flipped": nil, "moved": 0, "samples": nil, "inputs": nil, "unchanged": 0}}, nil
+		return &engine.Result{Values: map[string]any{"against": s.Against, "flips": 0, "flipped": nil, "moved": 0, "samples": nil, "inputs": nil, "unchanged": 0, "specs": nil}, Hidden: reportKeys}, nil
 	}
 	// Everything else in this build first: the report compares it. The
 	// report depends on every other result and on the other vintage's
@@ -90,13 +95,16 @@ func (s *revisionSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	rep := revision.Compare(oldF, newF, revision.Options{Tol: s.Tol, Stars: c.Stars()})
+	rep := revision.Compare(oldF, newF, revision.Options{Tol: s.Tol, Stars: c.Stars(), Only: s.Only})
 	return s.table(c, rep), nil
 }
 
 func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Result {
 	t := &table.Table{Stub: 2, Head: [][]table.Cell{{table.T("Result"), table.T("What"), table.T("Before"), table.T("After")}}}
-	var flipped, samples []map[string]any
+	var specs, flipped, samples []map[string]any
+	if s.shows("specs") {
+		specs = s.specs(t, rep)
+	}
 	if s.shows("conclusions") {
 		flipped = s.conclusions(t, rep)
 	}
@@ -105,20 +113,57 @@ func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Re
 	}
 	moved := s.moved(t, rep)
 	var inputs []string
+	var inputText []string
 	for _, in := range rep.InputsChanged {
-		inputs = append(inputs, in.Path)
+		inputs = append(inputs, in.Name())
+		inputText = append(inputText, in.Name()+" ("+in.What()+")")
 	}
-	note := fmt.Sprintf("Before: the paper built on the data vintage %q; after: %s. %d results are unchanged and %d changed; %d conclusions changed.",
-		s.Against, rep.New.Path, rep.Unchanged, len(rep.Items), rep.Flips())
-	if len(inputs) > 0 {
-		note += " Data files that differ: " + strings.Join(inputs, ", ") + "."
+	scope := ""
+	if len(s.Only) > 0 {
+		scope = fmt.Sprintf(" The report covers %d chosen results.", len(s.Only))
 	}
-	t.Notes = []string{note, "A conclusion is a test's rejection at 5%, a coefficient's star count, an order-of-integration verdict, a cointegrating rank, or the sign of an adjustment coefficient. Numbers are compared at full precision; the largest relative changes are listed."}
+	note := fmt.Sprintf("Before: the paper built on the data vintage %q; after: %s.%s %d results are unchanged and %d changed; %d conclusions changed.",
+		s.Against, afterName(rep), scope, rep.Unchanged, len(rep.Items), rep.Flips())
+	if len(inputText) > 0 {
+		note += " Data that differ: " + strings.Join(inputText, "; ") + "."
+	}
+	hidden := 0
+	for _, it := range rep.Items {
+		hidden += len(it.Hidden)
+	}
+	notes := []string{note, "A conclusion is a test's rejection at 5%, a coefficient's star count, an order-of-integration verdict, a cointegrating rank, or the sign of an adjustment coefficient, among the numbers the paper's tables show or its text quotes. " + revision.MovedNote}
+	if hidden > 0 {
+		notes = append(notes, fmt.Sprintf("%d changes among values no table shows (such as the coefficients of DOLS's leads and lags) are left out.", hidden))
+	}
+	t.Notes = notes
 	vals := map[string]any{
 		"against": s.Against, "flips": rep.Flips(), "flipped": flipped, "moved": moved,
-		"samples": samples, "inputs": inputs, "unchanged": rep.Unchanged,
+		"samples": samples, "inputs": inputs, "unchanged": rep.Unchanged, "specs": specs,
 	}
-	return &engine.Result{Table: t, Values: vals}
+	return &engine.Result{Table: t, Values: vals, Hidden: reportKeys}
+}
+
+// reportKeys are the values of a revision report: a report about other
+// results, which a comparison of two builds does not compare again.
+var reportKeys = []string{"against", "flips", "flipped", "moved", "samples", "inputs", "unchanged", "specs"}
+
+// afterName names the current build.
+func afterName(rep *revision.Report) string {
+	if v := rep.New.Vintage; v != "" {
+		return fmt.Sprintf("the data vintage %q", v)
+	}
+	return "this build"
+}
+
+// otherIDs lists the document's directive ids other than this one.
+func otherIDs(c *engine.Context) []string {
+	var out []string
+	for _, r := range c.Document().IDs() {
+		if r != c.ID() {
+			out = append(out, r)
+		}
+	}
+	return out
 }
 
 // block starts a titled block of the report table.
@@ -131,14 +176,30 @@ func none(t *table.Table) {
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
 }
 
+// specs lists the settings of each result that changed.
+func (s *revisionSpec) specs(t *table.Table, rep *revision.Report) []map[string]any {
+	block(t, "Specifications that changed")
+	var out []map[string]any
+	for _, it := range rep.Items {
+		for _, ch := range it.Specs {
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.Short), table.T(ch.What), table.T(ch.Old), table.T(ch.New)}})
+			out = append(out, map[string]any{"id": it.ID, "label": it.Short, "what": ch.What, "old": ch.Old, "new": ch.New})
+		}
+	}
+	if len(out) == 0 {
+		none(t)
+	}
+	return out
+}
+
 // conclusions lists the conclusions that changed.
 func (s *revisionSpec) conclusions(t *table.Table, rep *revision.Report) []map[string]any {
 	block(t, "Conclusions that changed")
 	var flipped []map[string]any
 	for _, it := range rep.Items {
 		for _, f := range it.Flips {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T(f.What), table.T(f.Old), table.T(f.New)}})
-			flipped = append(flipped, map[string]any{"id": it.ID, "what": f.What, "old": f.Old, "new": f.New})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.Short), table.T(f.What), table.T(f.Old), table.T(f.New)}})
+			flipped = append(flipped, map[string]any{"id": it.ID, "label": it.Short, "what": f.What, "old": f.Old, "new": f.New})
 		}
 	}
 	if len(flipped) == 0 {
@@ -157,9 +218,9 @@ func (s *revisionSpec) samples(t *table.Table, rep *revision.Report) []map[strin
 			continue
 		}
 		before, after := sampleText(it.Samples)
-		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.ID), table.T("sample"), table.T(before), table.T(after)}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.Short), table.T("sample"), table.T(before), table.T(after)}})
 		for _, ch := range it.Samples {
-			samples = append(samples, map[string]any{"id": it.ID, "what": ch.What, "old": ch.Old, "new": ch.New})
+			samples = append(samples, map[string]any{"id": it.ID, "label": it.Short, "what": ch.What, "old": ch.Old, "new": ch.New})
 		}
 		n++
 	}
@@ -169,39 +230,28 @@ func (s *revisionSpec) samples(t *table.Table, rep *revision.Report) []map[strin
 	return samples
 }
 
-// moved lists the numbers that moved most (when shown) and returns how
-// many moved.
+// moved lists the numbers that moved most (when shown), ranked on their
+// own scale (revision.Report.Ranked), and returns how many moved.
 func (s *revisionSpec) moved(t *table.Table, rep *revision.Report) int {
 	max := s.Max
 	if max == 0 {
 		max = 12
 	}
-	type mv struct {
-		id string
-		ch revision.Change
-	}
-	var moved, ranked []mv
+	n := 0
 	for _, it := range rep.Items {
-		for _, ch := range it.Moved {
-			moved = append(moved, mv{it.ID, ch})
-			// p-values are left out of the ranking: their relative changes
-			// near zero say little, and their conclusions are listed above.
-			if !strings.HasSuffix(ch.What, " p") && !strings.HasSuffix(ch.What, "pvalue") {
-				ranked = append(ranked, mv{it.ID, ch})
-			}
-		}
+		n += len(it.Moved)
 	}
-	sort.SliceStable(ranked, func(i, j int) bool { return math.Abs(ranked[i].ch.Rel) > math.Abs(ranked[j].ch.Rel) })
+	ranked := rep.Ranked()
 	if s.shows("numbers") {
-		block(t, fmt.Sprintf("Numbers that moved most (%d of %d that moved; p-values aside)", min(max, len(ranked)), len(moved)))
+		block(t, fmt.Sprintf("Numbers that moved most (%d of %d that moved; p-values aside)", min(max, len(ranked)), n))
 		for _, m := range ranked[:min(max, len(ranked))] {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(m.id), table.T(fmt.Sprintf("%s (%+.1f%%)", m.ch.What, 100*m.ch.Rel)), table.T(m.ch.Old), table.T(m.ch.New)}})
+			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(m.Item.Short), table.T(fmt.Sprintf("%s (%s)", m.What, m.MoveText())), table.T(m.Old), table.T(m.New)}})
 		}
-		if len(moved) == 0 {
+		if n == 0 {
 			none(t)
 		}
 	}
-	return len(moved)
+	return n
 }
 
 // sampleText summarises a result's sample changes as "FROM–TO, N = n"

@@ -73,7 +73,7 @@ func parseURTest(c *engine.Context, test, det string, lags engine.LagSpec, bw, b
 			return u, c.Errorf("lags", "%s uses a long-run variance: set bandwidth (rule4, rule12, auto, auto-hfo or a number), not lags", def.Title)
 		}
 		if bw == "" {
-			bw = "short"
+			bw = "rule4"
 		}
 		if u.Bandwidth, err = unitroot.ParseBandwidth(bw); err != nil {
 			return u, c.Errorf("bandwidth", "%v", err)

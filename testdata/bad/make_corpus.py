@@ -117,7 +117,7 @@ case("iso-quarterly-first-day", fm() + adf_q, {"data.csv": csv(good, dates=quart
      ["Sample 1975Q1–1988Q4"], exit_code=0)
 case("iso-quarterly-last-day", fm() + adf_q, {"data.csv": csv(good, dates=quarterly_iso(60, end=True))},
      ["Sample 1975Q1–1988Q4"], exit_code=0)
-case("iso-monthly-first-day", fm() + block("descriptives", "series: [y]\n"), {"data.csv": csv(good, dates=monthly_iso(30))},
+case("iso-monthly-first-day", fm() + block("summary-stats", "series: [y]\n"), {"data.csv": csv(good, dates=monthly_iso(30))},
      ["| 2000-01 | 2002-06 |"], exit_code=0)
 case("iso-monthly-last-day", fm() + block("adf", "series: y\nlags: 1\nsample: 2001-01..\n"), {"data.csv": csv(good, dates=monthly_iso(40, end=True))},
      ["Sample 2001-01–2003-04"], exit_code=0)
@@ -126,7 +126,7 @@ case("iso-half-life-in-quarters", fm() + "```galley engle-granger\nid: eg\ndata:
 q_gap = quarterly_iso(20)
 case("iso-quarterly-gap", fm() + ols, {"data.csv": csv(good, dates=q_gap[:5] + q_gap[6:])},
      ["data.csv:7", "1975-07-01 (1975Q3) follows 1975-01-01 (1975Q1, line 6): 1975Q2 is missing", "declare the frequency"])
-case("iso-business-days-stay-daily", fm() + block("descriptives", "series: [y]\n"),
+case("iso-business-days-stay-daily", fm() + block("summary-stats", "series: [y]\n"),
      {"data.csv": csv(good, dates=["2020-03-02", "2020-03-03", "2020-03-04", "2020-03-05", "2020-03-06", "2020-03-09", "2020-03-10"])},
      ["| 2020-03-02 | 2020-03-10 |"], exit_code=0)
 case("declared-quarterly-mid-quarter", fm("{path: data.csv, frequency: quarterly}") + adf_q,
@@ -163,7 +163,7 @@ case("constant-y-po", fm() + block("po", "y: k\nx: [x]\n"), {"data.csv": csv(con
 case("constant-x-ols", fm() + block("ols", "y: y\nx: [k]\n"), {"data.csv": csv(const)},
      ["paper.md:11:", 'regressor "k" is collinear with const'])
 case("constant-kpss", fm() + block("kpss", "series: k\n"), {"data.csv": csv(const)}, ["paper.md:10:", "KPSS of k", "constant"])
-case("constant-descriptives", fm() + block("descriptives", "series: [k]\n"), {"data.csv": csv(const)}, ["| k | 60 | 5.000 | 0.000 |"], exit_code=0)
+case("constant-summary-stats", fm() + block("summary-stats", "series: [k]\n"), {"data.csv": csv(const)}, ["| k | 60 | 5.000 | 0.000 |"], exit_code=0)
 case("constant-in-sample-only", fm() + block("ols", "y: k\nx: [x]\nsample: 2001-01..2001-12\n"),
      {"data.csv": csv({"k": lambda i: "5" if 12 <= i < 24 else rw(1.0)(i), "x": rw(0.7)})},
      ["paper.md:10:", "k is constant (5 at all 12 observations, 2001-01–2001-12)"])
@@ -174,7 +174,7 @@ vdata = {"new.csv": csv(good, n=120), "old.csv": csv(good, n=72)}
 case("vintage-shade-past-the-end", VFRONT + "```galley figure\nid: f\ndata: d\nplot: lines\nseries: [y]\nshade:\n  - {from: 2005-06, to: 2006-06}\n  - {from: 2008-01, to: 2008-06}\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
      vdata, ['the paper built on the data vintage "old"'], exit_code=0)
 case("vintage-grid-sample-past-the-end", VFRONT + "```galley grid\nid: g\nof: adf\ndata: d\nseries: y\nlags: 1\nover: {sample: [2000-01..2004-12, 2003-01..2008-12]}\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
-     vdata, ["| g | cells 1 values stat", 'the paper built on the data vintage "old"'], exit_code=0)
+     vdata, ["| g (grid) | cells 1 values stat (+0.65 \\|5% c.v.\\|)", 'the paper built on the data vintage "old"'], exit_code=0)
 case("vintage-sample-nothing-left", VFRONT + "```galley adf\nid: a\ndata: d\nseries: y\nlags: 1\nsample: 2007-01..2009-12\n```\n\n```galley revision\nid: r\nagainst: old\n```\n",
      vdata, ["paper.md:20:", 'building vintage "old" failed', "paper.md:15:", "starts after the data", 'in the build on vintage "old" of data alias "d"'])
 case("shade-outside-the-data", fm() + "```galley figure\nid: f\ndata: d\nplot: lines\nseries: [y]\nshade:\n  - {from: 2030-01, to: 2030-06}\n```\n",

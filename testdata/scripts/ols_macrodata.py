@@ -4,6 +4,10 @@
 Library: statsmodels (Debian python3-statsmodels), OLS with classical,
 HC1 and HAC (Bartlett, maxlags=L, use_correction=True) covariances, on the
 public-domain US macro data that statsmodels ships (testdata/data/macrodata.csv).
+Without a constant statsmodels' rsquared and rsquared_adj are the uncentred
+ones (1 - ssr/uncentered_tss, adjusted with k_constant = 0); the fixture also
+records both forms for every case (r2_centred = 1 - ssr/centered_tss,
+r2_uncentred = 1 - ssr/uncentered_tss).
 Run from the repository root: /usr/bin/python3 testdata/scripts/ols_macrodata.py
 """
 import json
@@ -22,6 +26,8 @@ def case(name, y, X, terms, hac_lags=(1, 4)):
     r = m.fit()
     out = {"name": name, "terms": terms, "nobs": int(r.nobs), "coef": r.params.tolist(),
            "se_ols": r.bse.tolist(), "r2": r.rsquared, "r2_adj": r.rsquared_adj,
+           "k_constant": int(m.k_constant),
+           "r2_centred": 1 - r.ssr / r.centered_tss, "r2_uncentred": 1 - r.ssr / r.uncentered_tss,
            "dw": float(durbin_watson(r.resid)), "loglik": r.llf,
            "se_hc1": m.fit(cov_type="HC1").bse.tolist(), "hac": {}}
     for L in hac_lags:

@@ -9,8 +9,8 @@ import (
 	"github.com/galley-econ/galley/engine/table"
 )
 
-// descriptives: per-series summary statistics.
-type descriptivesSpec struct {
+// summary-stats: per-series summary statistics.
+type summarySpec struct {
 	engine.Common `yaml:",inline"`
 	Data          string   `yaml:"data"`
 	Series        []string `yaml:"series"`
@@ -20,21 +20,22 @@ type descriptivesSpec struct {
 
 func init() {
 	engine.Register(engine.Kind{
-		Name:    "descriptives",
-		Summary: "N, mean, standard deviation, minimum, maximum and date range of each series",
-		New:     func() engine.Directive { return &descriptivesSpec{} },
-		Fields:  []string{"series"},
+		Name:     "summary-stats",
+		Formerly: []string{"descriptives"},
+		Summary:  "N, mean, standard deviation, minimum, maximum and date range of each series",
+		New:      func() engine.Directive { return &summarySpec{} },
+		Fields:   []string{"series"},
 	})
 }
 
-func (s *descriptivesSpec) Check(c *engine.Context) error {
+func (s *summarySpec) Check(c *engine.Context) error {
 	if err := c.Require("series", len(s.Series) == 0); err != nil {
 		return err
 	}
 	return c.CheckData(c.DataAlias(s.Data), s.Series, s.Sample)
 }
 
-func (s *descriptivesSpec) Run(c *engine.Context) (*engine.Result, error) {
+func (s *summarySpec) Run(c *engine.Context) (*engine.Result, error) {
 	dec := c.Decimals()
 	if s.Decimals != nil {
 		dec = *s.Decimals
