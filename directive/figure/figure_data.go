@@ -40,6 +40,7 @@ func relationSeries(c *engine.Context, key, relKey string, r *engine.Result, n i
 	return series.Series{Name: fmt.Sprintf("relation %d", n), Dates: z.Dates, Values: z.Values}, nil
 }
 
+// plural returns "s" unless n is 1.
 func plural(n int) string {
 	if n == 1 {
 		return ""
@@ -128,4 +129,14 @@ func buildDesign(c *engine.Context, r regressionSpec) (*design, error) {
 		return nil, err
 	}
 	return &design{dates: d.Dates, y: d.Cols[0], x: x, terms: terms, yName: r.y, d: d}, nil
+}
+
+// design returns the regression a fit or stability plot examines (of: an
+// ols result, or the figure's own y and x), evaluated on its data.
+func (s *figureSpec) design(c *engine.Context) (*design, error) {
+	rs, err := s.regressionOf(c)
+	if err != nil {
+		return nil, err
+	}
+	return buildDesign(c, rs)
 }
