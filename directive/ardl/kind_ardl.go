@@ -6,16 +6,11 @@ package ardl
 
 import (
 	"fmt"
-	"math"
 	"slices"
 	"strings"
 
-	"gopkg.in/yaml.v3"
-
 	"github.com/galley-econ/galley/analysis/ardl"
 	"github.com/galley-econ/galley/analysis/ecm"
-	"github.com/galley-econ/galley/analysis/ols"
-	"github.com/galley-econ/galley/analysis/rules"
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
@@ -42,59 +37,6 @@ type ardlSpec struct {
 	engine.SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
 }
 
-// lagsKey is the lags: key: a criterion (aic, bic, hq), {select:
-// CRITERION, max: N}, or the fixed orders [p, q1, …, qk].
-type lagsKey struct {
-	Set    bool
-	Fixed  []int
-	Select string
-	Max    *int
-	line   int
-}
-
-func (l *lagsKey) UnmarshalYAML(n *yaml.Node) error {
-	l.Set, l.line = true, n.Line
-	const help = "lags: write a criterion (aic, bic or hq), {select: aic, max: 4}, or the orders [p, q1, …] (p for y, then one q per entry of x)"
-	switch n.Kind {
-	case yaml.ScalarNode:
-		if _, err := rules.ParseCriterion(n.Value); err != nil {
-			return fmt.Errorf("line %d: %s", n.Line, help)
-		}
-		l.Select = strings.ToLower(n.Value)
-		return nil
-	case yaml.SequenceNode:
-		if err := n.Decode(&l.Fixed); err != nil {
-			return fmt.Errorf("line %d: %s", n.Line, help)
-		}
-		return nil
-	case yaml.MappingNode:
-		var m struct {
-			Select string `yaml:"select"`
-			Max    *int   `yaml:"max"`
-		}
-		for i := 0; i+1 < len(n.Content); i += 2 {
-			if k := n.Content[i].Value; k != "select" && k != "max" {
-				return fmt.Errorf("line %d: lags: unknown key %q (select, max)", n.Content[i].Line, k)
-			}
-		}
-		if err := n.Decode(&m); err != nil {
-			return fmt.Errorf("line %d: %s", n.Line, help)
-		}
-		if m.Select == "" {
-			m.Select = "aic"
-		}
-		if _, err := rules.ParseCriterion(m.Select); err != nil {
-			return fmt.Errorf("line %d: lags: %v", n.Line, err)
-		}
-		l.Select, l.Max = strings.ToLower(m.Select), m.Max
-		return nil
-	}
-	return fmt.Errorf("line %d: %s", n.Line, help)
-}
-
-// DefaultMaxLag is the largest lag searched when lags: gives no max.
-const DefaultMaxLag = 4
-
 func init() {
 	engine.Register(engine.Kind{
 		Name:     "ardl",
@@ -112,112 +54,12 @@ func init() {
 // is split (contract.MultiplierSource).
 func (s *ardlSpec) HasMultipliers() bool { return len(s.Split) > 0 }
 
-type settings struct {
-	det     ardl.Case
-	spec    ardl.Spec
-	tables  string
-	horizon int
-	show    string
-	sim     *engine.SimSettings
-	dec     int
-}
-
-func (s *ardlSpec) settings(c *engine.Context) (*settings, error) {
-	st := &settings{}
-	if s.Y == "" {
-		return nil, c.Errorf("", "galley ardl: the key \"y\" is required: the dependent variable")
-	}
-	if len(s.X) == 0 {
-		return nil, c.Errorf("", "galley ardl: the key \"x\" is required: a list of one or more regressors")
-	}
-	for i, sp := range s.Split {
-		if !slices.Contains(s.X, sp) {
-			return nil, c.ItemErrorf("split", i, "split: %q is not one of the regressors in x (%s); write it exactly as in x", sp, strings.Join(s.X, ", "))
-		}
-		if slices.Index(s.Split, sp) != i {
-			return nil, c.ItemErrorf("split", i, "split: %q is listed twice", sp)
-		}
-	}
-	if s.Threshold != nil && len(s.Split) == 0 {
-		return nil, c.Errorf("threshold", "threshold applies to the regressors of split; there are none")
-	}
-	if s.Horizon != nil {
-		if len(s.Split) == 0 {
-			return nil, c.Errorf("horizon", "horizon is the length of the dynamic multipliers of the regressors of split; there are none")
-		}
-		if *s.Horizon < 1 || *s.Horizon > 1000 {
-			return nil, c.Errorf("horizon", "horizon must be 1…1000 periods, not %d", *s.Horizon)
-		}
-		st.horizon = *s.Horizon
-	}
-	det := s.Det
-	if det == "" {
-		det = "c"
-	}
-	d, err := ardl.ParseCase(det)
-	if err != nil {
-		return nil, c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "ardl: "))
-	}
-	st.det = d
-	st.spec = ardl.Spec{Case: d, Crit: rules.AIC, MaxP: DefaultMaxLag, MaxQ: DefaultMaxLag}
-	switch {
-	case len(s.Lags.Fixed) > 0:
-		if len(s.Lags.Fixed) != 1+len(s.X) {
-			return nil, c.Errorf("lags", "lags: %d orders given; write %d: p for %s, then one q per entry of x", len(s.Lags.Fixed), 1+len(s.X), s.Y)
-		}
-		if s.Lags.Fixed[0] < 1 {
-			return nil, c.Errorf("lags", "lags: the order of %s must be at least 1, not %d", s.Y, s.Lags.Fixed[0])
-		}
-		for _, q := range s.Lags.Fixed[1:] {
-			if q < 0 {
-				return nil, c.Errorf("lags", "lags: orders must be zero or more, not %d", q)
-			}
-		}
-		st.spec.Fixed = &ardl.Orders{P: s.Lags.Fixed[0], Q: slices.Clone(s.Lags.Fixed[1:])}
-	case s.Lags.Set && s.Lags.Select == "" && len(s.Lags.Fixed) == 0:
-		return nil, c.Errorf("lags", "lags: give at least the order of %s", s.Y)
-	case s.Lags.Select != "":
-		cr, _ := rules.ParseCriterion(s.Lags.Select)
-		st.spec.Crit = cr
-		if s.Lags.Max != nil {
-			if *s.Lags.Max < 1 {
-				return nil, c.Errorf("lags", "lags: max must be at least 1, not %d", *s.Lags.Max)
-			}
-			st.spec.MaxP, st.spec.MaxQ = *s.Lags.Max, *s.Lags.Max
-		}
-	}
-	switch s.Tables {
-	case "", "auto", "pss", "narayan":
-		st.tables = s.Tables
-		if st.tables == "" {
-			st.tables = "auto"
-		}
-	default:
-		return nil, c.Errorf("tables", "tables: write auto, pss or narayan, not %q", s.Tables)
-	}
-	switch s.Show {
-	case "", "bounds", "ecm":
-		st.show = s.Show
-		if st.show == "" {
-			st.show = "bounds"
-		}
-	default:
-		return nil, c.Errorf("show", "show: write bounds (the default) or ecm, not %q", s.Show)
-	}
-	if st.sim, err = s.SimKeys.Settings(c); err != nil {
-		return nil, err
-	}
-	if st.sim != nil && c.Has("tables") {
-		return nil, c.Errorf("tables", "tables chooses the published bounds; with crit: simulate they are simulated instead: drop tables")
-	}
-	st.dec = engine.DecimalsOr(c, s.Decimals)
-	return st, nil
-}
-
+// exprs returns the expressions to read: y, x, then extra.
 func (s *ardlSpec) exprs() []string {
 	return append(append([]string{s.Y}, s.X...), s.Extra...)
 }
 
+// Check validates the keys and the expressions against the data.
 func (s *ardlSpec) Check(c *engine.Context) error {
 	if _, err := s.settings(c); err != nil {
 		return err
@@ -226,9 +68,14 @@ func (s *ardlSpec) Check(c *engine.Context) error {
 }
 
 // posName and negName name the partial sums of a split regressor.
+// posName and negName return the names of the positive and negative
+// partial sums of x.
 func posName(x string) string { return "pos:" + x }
 func negName(x string) string { return "neg:" + x }
 
+// Run estimates the model and returns its table (long run, adjustment,
+// bounds test, symmetry; or the error-correction form), values, bounds
+// outcome, residuals and model.
 func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 	st, err := s.settings(c)
 	if err != nil {
@@ -238,11 +85,59 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	nx := len(s.X)
 	tau := 0.0
 	if s.Threshold != nil {
 		tau = *s.Threshold
 	}
+	in, pairs, err := s.input(c, d, tau)
+	if err != nil {
+		return nil, err
+	}
+	m, err := ardl.Estimate(in, st.spec)
+	if err != nil {
+		return nil, s.estimateError(c, err, d)
+	}
+	b, err := s.bounds(c, st, m)
+	if err != nil {
+		return nil, err
+	}
+	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
+	// Symmetry tests and multipliers.
+	h := st.horizon
+	if h == 0 {
+		h = defaultHorizon(d.Freq)
+	}
+	asym, err := asymmetry(c, m, in.XNames, pairs, h)
+	if err != nil {
+		return nil, err
+	}
+
+	unit := engine.PeriodUnit(d.Freq)
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(s.Y, 0))}}}
+	t.Body = s.body(c, st, m, b, asym.rows, unit)
+	t.Notes = s.notes(c, st, m, b, pairs, tau, unit, sd)
+	if w := engine.CondNote(m.Fit); w != "" {
+		t.Notes = append(t.Notes, w)
+	}
+
+	vals := s.values(st, m, b, sd)
+	if len(pairs) > 0 {
+		vals["split"] = s.Split
+		vals["threshold"] = tau
+		vals["symmetry"] = asym.values
+		vals["multipliers"] = contract.MultiplierValues(asym.mults)
+	}
+	res := &engine.Result{Table: t, Values: vals, Test: b.outcome()}
+	res.SetSeries("resid", contract.NewDated(d.Dates, m.ECT))
+	res.Model = engine.ModelOf("ARDL", s.Y, m.Names, m.Coef, vals, false, "")
+	return res, nil
+}
+
+// input returns the estimation input from the data (y, the regressors,
+// each split one as its positive and negative partial sums about tau, and
+// the extra regressors) and the split pairs.
+func (s *ardlSpec) input(c *engine.Context, d *engine.Data, tau float64) (ardl.Input, []ardl.Pair, error) {
+	nx := len(s.X)
 	in := ardl.Input{Y: d.Cols[0], YName: s.Y, Extra: d.Cols[1+nx:], ExtraNames: slices.Clone(s.Extra)}
 	var pairs []ardl.Pair
 	for j, x := range s.X {
@@ -250,7 +145,7 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if i := slices.Index(s.Split, x); i >= 0 {
 			pos, neg, _, _, err := ardl.PartialSums(col, tau)
 			if err != nil {
-				return nil, c.ItemErrorf("split", i, "split %s: %s in the sample %s", x, strings.TrimPrefix(err.Error(), "ardl: "), d.Range())
+				return in, nil, c.ItemErrorf("split", i, "split %s: %s in the sample %s", x, strings.TrimPrefix(err.Error(), "ardl: "), d.Range())
 			}
 			pairs = append(pairs, ardl.Pair{Name: x, Pos: len(in.X), Neg: len(in.X) + 1})
 			in.X = append(in.X, pos, neg)
@@ -262,138 +157,56 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 		in.XNames = append(in.XNames, x)
 		in.Group = append(in.Group, j)
 	}
-	m, err := ardl.Estimate(in, st.spec)
-	if err != nil {
-		msg := strings.TrimPrefix(err.Error(), "ardl: ")
-		key := "lags"
-		switch {
-		case strings.Contains(msg, "collinear"):
-			key = firstSet(c, "x", "extra")
-		case strings.Contains(msg, "observations") || strings.Contains(msg, "beyond"):
-			key = firstSet(c, "lags", "sample", "x")
-		}
-		if !c.Has(key) {
-			key = ""
-		}
-		return nil, c.Errorf(key, "ARDL of %s: %s (sample %s, %d observations)", s.Y, msg, d.Range(), d.N())
-	}
-	b, err := s.bounds(c, st, m)
-	if err != nil {
-		return nil, err
-	}
-	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
-	// Symmetry tests and multipliers.
-	var syms []map[string]any
-	var mults []contract.Multiplier
-	h := st.horizon
-	if h == 0 {
-		h = defaultHorizon(d.Freq)
-	}
-	type symRow struct {
-		name        string
-		long, short ardl.FTest
-	}
-	var symRows []symRow
-	for _, p := range pairs {
-		lr, sr, err := m.SymmetryTests(in.XNames, p)
-		if err != nil {
-			return nil, c.Errorf("split", "%v", err)
-		}
-		symRows = append(symRows, symRow{p.Name, lr, sr})
-		syms = append(syms, map[string]any{"name": p.Name, "longrun": fValues(lr), "shortrun": fValues(sr)})
-		mu, err := m.Multipliers(p, h)
-		if err != nil {
-			return nil, c.Errorf("horizon", "%v", err)
-		}
-		mults = append(mults, contract.Multiplier{Name: p.Name, Pos: mu.Pos, Neg: mu.Neg, Asym: mu.Asym, LongPos: mu.LongPos, LongNeg: mu.LongNeg})
-	}
-
-	dec := st.dec
-	adj := m.Adjust
-	unit := engine.PeriodUnit(d.Freq)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(s.Y, 0))}}}
-	var body []table.Row
-	section := func(title string) {
-		body = append(body, table.Row{Cells: []table.Cell{table.T(title), table.Empty}, RuleAbove: len(body) > 0})
-	}
-	hlRows := func() []table.Row {
-		if adj.HasHalfLife {
-			return []table.Row{{Cells: []table.Cell{table.T("    half-life, " + unit), table.N(adj.HalfLife, dec)}}, {Cells: []table.Cell{table.Empty, table.SECell(adj.HalfLifeSE, dec)}}}
-		}
-		return []table.Row{{Cells: []table.Cell{table.T("    half-life"), table.T("none: no error correction")}}}
-	}
-	if st.show == "ecm" {
-		rows := engine.CoefRows(c, m.ECMNames, m.ECMCoef, dec, false)
-		ia := slices.Index(m.ECMNames, ardl.ECTName)
-		body = append(body, rows[:2*ia+2]...)
-		body = append(body, hlRows()...)
-		body = append(body, rows[2*ia+2:]...)
-	} else {
-		section("Long run")
-		var lrNames []string
-		var lrCoef = make([]ols.Coef, 0)
-		for _, lr := range m.LongRun {
-			lrNames = append(lrNames, lr.Name)
-			lrCoef = append(lrCoef, lr.Coef)
-		}
-		body = append(body, engine.CoefRows(c, lrNames, lrCoef, dec, false)...)
-		section("Adjustment")
-		ia := slices.Index(m.ECMNames, ardl.ECTName)
-		body = append(body, engine.CoefRows(c, []string{ardl.ECTName}, []ols.Coef{m.ECMCoef[ia]}, dec, false)...)
-		body = append(body, hlRows()...)
-		section("Bounds test")
-		body = append(body, b.rows(dec)...)
-		if len(symRows) > 0 {
-			section("Symmetry (Wald F)")
-			for _, r := range symRows {
-				body = append(body, engine.TestRows("long run, "+r.name, r.long.Stat, r.long.PValue, dec, false)...)
-				body = append(body, engine.TestRows("short run, "+r.name, r.short.Stat, r.short.PValue, dec, false)...)
-			}
-		}
-	}
-	body = append(body,
-		table.Row{Cells: []table.Cell{table.T("N"), table.I(m.Fit.N)}, RuleAbove: true},
-		table.Row{Cells: []table.Cell{table.T("R²"), table.N(m.Fit.R2(), dec)}},
-		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(m.Fit.R2Adj(), dec)}},
-	)
-	t.Body = body
-	t.Notes = s.notes(c, st, m, b, pairs, tau, unit, sd)
-	if w := engine.CondNote(m.Fit); w != "" {
-		t.Notes = append(t.Notes, w)
-	}
-
-	qv := map[string]any{}
-	for j, x := range s.X {
-		qv[x] = m.Orders.Q[j]
-	}
-	vals := map[string]any{
-		"coef": engine.CoefValues(m.Names, m.Coef), "ecm": engine.CoefValues(m.ECMNames, m.ECMCoef),
-		"longrun": longrunValues(m), "alpha": adj.Alpha, "alpha_se": adj.SE, "halflife": nil, "halflife_se": nil,
-		"error_corrects": adj.HasHalfLife, "bounds": b.values(),
-		"lags": map[string]any{"p": m.Orders.P, "q": qv},
-		"nobs": m.Fit.N, "r2": m.Fit.R2(), "r2_adj": m.Fit.R2Adj(), "sigma": math.Sqrt(m.Fit.Sigma2()),
-		"det": st.det.String(), "case": st.det.Roman(), "y": s.Y, "x": s.X, "show": st.show,
-		"sample": engine.SampleValues(sd),
-	}
-	if adj.HasHalfLife {
-		vals["halflife"], vals["halflife_se"] = adj.HalfLife, adj.HalfLifeSE
-	}
-	if m.Selection != nil {
-		vals["selection"] = map[string]any{"criterion": m.Selection.Crit.String(), "max": m.Selection.MaxP,
-			"nobs": m.Selection.NObs, "models": m.Selection.Models, "value": m.Selection.Value}
-	}
-	if len(pairs) > 0 {
-		vals["split"] = s.Split
-		vals["threshold"] = tau
-		vals["symmetry"] = syms
-		vals["multipliers"] = contract.MultiplierValues(mults)
-	}
-	res := &engine.Result{Table: t, Values: vals, Test: b.outcome()}
-	res.SetSeries("resid", contract.NewDated(d.Dates, m.ECT))
-	res.Model = engine.ModelOf("ARDL", s.Y, m.Names, m.Coef, vals, false, "")
-	return res, nil
+	return in, pairs, nil
 }
 
+// estimateError returns the estimation error err at the key most likely
+// concerned (x or extra for collinearity; lags, sample or x for too few
+// observations; lags otherwise), with the sample.
+func (s *ardlSpec) estimateError(c *engine.Context, err error, d *engine.Data) error {
+	msg := strings.TrimPrefix(err.Error(), "ardl: ")
+	key := "lags"
+	switch {
+	case strings.Contains(msg, "collinear"):
+		key = firstSet(c, "x", "extra")
+	case strings.Contains(msg, "observations") || strings.Contains(msg, "beyond"):
+		key = firstSet(c, "lags", "sample", "x")
+	}
+	if !c.Has(key) {
+		key = ""
+	}
+	return c.Errorf(key, "ARDL of %s: %s (sample %s, %d observations)", s.Y, msg, d.Range(), d.N())
+}
+
+// asymmetric is what the split regressors add: their symmetry tests as
+// table rows and as values, and their cumulative multipliers.
+type asymmetric struct {
+	rows   []symRow
+	values []map[string]any
+	mults  []contract.Multiplier
+}
+
+// asymmetry returns the symmetry tests and the multipliers over h periods
+// of each split pair, or an error at split: or horizon:.
+func asymmetry(c *engine.Context, m *ardl.Model, xNames []string, pairs []ardl.Pair, h int) (asymmetric, error) {
+	var out asymmetric
+	for _, p := range pairs {
+		lr, sr, err := m.SymmetryTests(xNames, p)
+		if err != nil {
+			return out, c.Errorf("split", "%v", err)
+		}
+		out.rows = append(out.rows, symRow{p.Name, lr, sr})
+		out.values = append(out.values, map[string]any{"name": p.Name, "longrun": fValues(lr), "shortrun": fValues(sr)})
+		mu, err := m.Multipliers(p, h)
+		if err != nil {
+			return out, c.Errorf("horizon", "%v", err)
+		}
+		out.mults = append(out.mults, contract.Multiplier{Name: p.Name, Pos: mu.Pos, Neg: mu.Neg, Asym: mu.Asym, LongPos: mu.LongPos, LongNeg: mu.LongNeg})
+	}
+	return out, nil
+}
+
+// firstSet returns the first of keys the directive sets ("" if none).
 func firstSet(c *engine.Context, keys ...string) string {
 	for _, k := range keys {
 		if c.Has(k) {
@@ -403,10 +216,13 @@ func firstSet(c *engine.Context, keys ...string) string {
 	return ""
 }
 
+// fValues returns the values of an F test.
 func fValues(f ardl.FTest) map[string]any {
 	return map[string]any{"stat": f.Stat, "df1": f.DF1, "df2": f.DF2, "pvalue": f.PValue}
 }
 
+// longrunValues returns the long-run coefficients as values, one map a
+// term.
 func longrunValues(m *ardl.Model) []map[string]any {
 	out := make([]map[string]any, len(m.LongRun))
 	for i, t := range m.LongRun {

@@ -81,6 +81,8 @@ func detTerms(d critical.Case) []string {
 	return []string{longrun.ConstName, longrun.TrendName, longrun.TrendSqName}[:d.Deterministics()]
 }
 
+// Run tests each normalisation asked for and returns the table (one row a
+// dependent variable), the first row's values and test, and its residuals.
 func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	det, err := engine.ParseDet(c, s.Det)
 	if err != nil {
@@ -103,19 +105,9 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 			deps = append(deps, i)
 		}
 	}
-	rows := make([]*coint.EGResult, len(deps))
-	for r, i := range deps {
-		var x [][]float64
-		for j := range vars {
-			if j != i {
-				x = append(x, d.Cols[j])
-			}
-		}
-		res, err := coint.EngleGranger(d.Cols[i], x, det, rule)
-		if err != nil {
-			return nil, egError(c, err, vars, i, det)
-		}
-		rows[r] = res
+	rows, err := egRows(c, d, vars, deps, det, rule)
+	if err != nil {
+		return nil, err
 	}
 	// crit: simulate (simcrit.go): simulated critical values and p-values, row by row.
 	sim, err := s.SimKeys.Settings(c)
@@ -134,19 +126,8 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	// Columns of the static block: deterministic terms, then the
-	// variables (the dependent's cell is a dash).
-	terms := detTerms(det)
-	if all {
-		terms = append(terms, vars...)
-	} else {
-		terms = append(terms, s.X...)
-	}
-	t := &table.Table{Stub: 1}
-	t.Head = [][]table.Cell{
-		{table.Empty, table.Empty, table.Empty, table.Empty, table.Empty, table.Span("Critical values", 3), table.Span("Static relation", len(terms))},
-		append([]table.Cell{table.T("Dependent variable"), table.T("ADF τ"), table.T("p-value"), table.T("Lags"), table.T("N"), table.T("1%"), table.T("5%"), table.T("10%")}, textCells(terms)...),
-	}
+	terms := s.staticTerms(det, vars, all)
+	t := &table.Table{Stub: 1, Head: egHead(terms)}
 	each := make([]map[string]any, len(rows))
 	var first *contract.Outcome // the test of the first row: the result's Test
 	for r, res := range rows {
@@ -155,23 +136,8 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if r == 0 {
 			first = o
 		}
-		cells := []table.Cell{table.T(dep), table.Starred(res.Stat, dec, o.Stars(c.Stars())), table.N(res.PValue, dec), table.I(res.Lags), table.I(res.NObs)}
-		for _, l := range critical.MacKinnonLevels {
-			v, ok := contract.CritAt(res.Crit, l)
-			if !ok {
-				v = math.NaN()
-			}
-			cells = append(cells, table.N(v, dec))
-		}
 		static := staticMap(res, det, vars, deps[r])
-		for _, term := range terms {
-			if term == dep {
-				cells = append(cells, table.T("—"))
-				continue
-			}
-			cells = append(cells, table.N(static[term].(float64), dec))
-		}
-		t.Body = append(t.Body, table.Row{Cells: cells})
+		t.Body = append(t.Body, table.Row{Cells: egCells(c, res, o, static, terms, dep, dec)})
 		each[r] = egValues(res, o, static, d, dep)
 		each[r]["name"] = dep
 		if sims[r] != nil { // crit: simulate (simcrit.go)
@@ -183,23 +149,70 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Notes[1] = simEGNote(sims, vars, deps)
 	}
 	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
-	vals := map[string]any{}
-	for k, v := range each[0] {
-		if k != "name" {
-			vals[k] = v
-		}
-	}
-	vals["det"] = det.String()
-	vals["y"] = s.Y
-	vals["x"] = append([]string(nil), s.X...)
-	vals["vars"] = len(vars)
-	vals["sample"] = engine.SampleValues(d)
-	if all {
-		vals["each"] = each
-	}
-	res := &engine.Result{Table: t, Values: vals, Test: first}
+	res := &engine.Result{Table: t, Values: s.values(each, det, len(vars), d, all), Test: first}
 	res.SetSeries("resid", contract.NewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
 	return res, nil
+}
+
+// egRows returns the test with each of deps (indices into vars) as the
+// dependent variable and the other variables as regressors.
+func egRows(c *engine.Context, d *engine.Data, vars []string, deps []int, det critical.Case, rule unitroot.LagRule) ([]*coint.EGResult, error) {
+	rows := make([]*coint.EGResult, len(deps))
+	for r, i := range deps {
+		var x [][]float64
+		for j := range vars {
+			if j != i {
+				x = append(x, d.Cols[j])
+			}
+		}
+		res, err := coint.EngleGranger(d.Cols[i], x, det, rule)
+		if err != nil {
+			return nil, egError(c, err, vars, i, det)
+		}
+		rows[r] = res
+	}
+	return rows, nil
+}
+
+// staticTerms returns the columns of the static block: the deterministic
+// terms, then the variables (all of them with normalize: all, where the
+// dependent's cell is a dash; else x).
+func (s *egSpec) staticTerms(det critical.Case, vars []string, all bool) []string {
+	terms := detTerms(det)
+	if all {
+		return append(terms, vars...)
+	}
+	return append(terms, s.X...)
+}
+
+// egHead returns the table's two heading rows.
+func egHead(terms []string) [][]table.Cell {
+	return [][]table.Cell{
+		{table.Empty, table.Empty, table.Empty, table.Empty, table.Empty, table.Span("Critical values", 3), table.Span("Static relation", len(terms))},
+		append([]table.Cell{table.T("Dependent variable"), table.T("ADF τ"), table.T("p-value"), table.T("Lags"), table.T("N"), table.T("1%"), table.T("5%"), table.T("10%")}, textCells(terms)...),
+	}
+}
+
+// egCells returns one row's cells: the dependent variable, τ with its
+// stars, the p-value, lags, N, the 1%, 5% and 10% critical values, and
+// the static coefficients on terms (a dash for the dependent).
+func egCells(c *engine.Context, res *coint.EGResult, o *contract.Outcome, static map[string]any, terms []string, dep string, dec int) []table.Cell {
+	cells := []table.Cell{table.T(dep), table.Starred(res.Stat, dec, o.Stars(c.Stars())), table.N(res.PValue, dec), table.I(res.Lags), table.I(res.NObs)}
+	for _, l := range critical.MacKinnonLevels {
+		v, ok := contract.CritAt(res.Crit, l)
+		if !ok {
+			v = math.NaN()
+		}
+		cells = append(cells, table.N(v, dec))
+	}
+	for _, term := range terms {
+		if term == dep {
+			cells = append(cells, table.T("—"))
+			continue
+		}
+		cells = append(cells, table.N(static[term].(float64), dec))
+	}
+	return cells
 }
 
 // egError turns an analysis error into a manuscript error.
@@ -306,4 +319,25 @@ func egNotes(c *engine.Context, rows []*coint.EGResult, vars []string, deps []in
 	}
 	notes = append(notes, "The static coefficients are super-consistent, but the static regression's usual standard errors are not valid for inference, so none are shown and the coefficients carry no stars."+dash)
 	return notes
+}
+
+// values returns the result's values: those of the first row (y as the
+// dependent), the settings and sample, and with normalize: all every row
+// under each.
+func (s *egSpec) values(each []map[string]any, det critical.Case, nvars int, d *engine.Data, all bool) map[string]any {
+	vals := map[string]any{}
+	for k, v := range each[0] {
+		if k != "name" {
+			vals[k] = v
+		}
+	}
+	vals["det"] = det.String()
+	vals["y"] = s.Y
+	vals["x"] = append([]string(nil), s.X...)
+	vals["vars"] = nvars
+	vals["sample"] = engine.SampleValues(d)
+	if all {
+		vals["each"] = each
+	}
+	return vals
 }

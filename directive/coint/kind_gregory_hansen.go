@@ -122,6 +122,12 @@ func (s *ghSpec) Check(c *engine.Context) error {
 	return c.CheckData(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
 }
 
+// ghLabels are the three statistics, in the order of the table.
+var ghLabels = []string{"ADF*", "Zt*", "Zα*"}
+
+// Run searches the break date for each statistic and returns the table
+// (one row a statistic, with its date), the values, the ADF* outcome with
+// the breaks, and the residuals at the ADF* date.
 func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 	st, err := s.settings(c)
 	if err != nil {
@@ -136,9 +142,8 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, ghError(c, err, d.N())
 	}
-	labels := []string{"ADF*", "Zt*", "Zα*"}
+	labels := ghLabels
 	stats := []*coint.GHStat{&r.ADF, &r.Zt, &r.Za}
-	outs := make([]*contract.Outcome, 3)
 	var sims [3]*simulate.Result
 	if st.sim != nil { // crit: simulate (simcrit.go)
 		for i, test := range []string{simulate.GHADF, simulate.GHZt, simulate.GHZa} {
@@ -149,6 +154,35 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 			}
 		}
 	}
+	outs := ghOutcomes(st, r, stats, sims)
+	var breaks []contract.Break
+	for i, g := range stats {
+		breaks = append(breaks, contract.Break{Label: labels[i], Date: d.Dates[g.Break].String(), Index: g.Break})
+	}
+	outs[0].Extra[contract.BreaksKey] = breaks
+	outs[0].Extra["break"] = breaks[0].Date
+	outs[0].Extra["break_index"] = breaks[0].Index
+
+	dec := engine.DecimalsOr(c, s.Decimals)
+	t := &table.Table{Stub: 1, Body: ghBody(c, outs, breaks, r.NObs, dec)}
+	t.Head = [][]table.Cell{
+		{table.Empty, table.Empty, table.Empty, table.Empty, table.Span("Critical values", 3)},
+		{table.T("Statistic"), table.T("Value"), table.T("Break"), table.T("Lags"), table.T("1%"), table.T("5%"), table.T("10%")},
+	}
+	t.Notes = ghNotes(c, s, st, r, outs, sims, d)
+	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
+
+	vals := s.values(st, r, outs, breaks, sims, d)
+	res := &engine.Result{Table: t, Values: vals, Test: outs[0]}
+	res.SetSeries("resid", contract.NewDated(d.Dates[:len(r.Resid)], r.Resid))
+	return res, nil
+}
+
+// ghOutcomes returns the outcomes of ADF*, Zt* and Zα*, with the
+// simulated critical values and p-values where crit: simulate gave them.
+func ghOutcomes(st ghSettings, r *coint.GHResult, stats []*coint.GHStat, sims [3]*simulate.Result) []*contract.Outcome {
+	labels := ghLabels
+	outs := make([]*contract.Outcome, 3)
 	for i, g := range stats {
 		o := &contract.Outcome{Test: "Gregory–Hansen " + labels[i], StatName: labels[i], Stat: g.Stat, PValue: math.NaN(),
 			Lags: g.Lags, IsBW: i > 0, NObs: r.NObs, Crit: g.Crit, CritSource: r.CritSource, Null: "no cointegration",
@@ -164,22 +198,15 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 		}
 		outs[i] = o
 	}
-	var breaks []contract.Break
-	for i, g := range stats {
-		breaks = append(breaks, contract.Break{Label: labels[i], Date: d.Dates[g.Break].String(), Index: g.Break})
-	}
-	outs[0].Extra[contract.BreaksKey] = breaks
-	outs[0].Extra["break"] = breaks[0].Date
-	outs[0].Extra["break_index"] = breaks[0].Index
+	return outs
+}
 
-	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1}
-	t.Head = [][]table.Cell{
-		{table.Empty, table.Empty, table.Empty, table.Empty, table.Span("Critical values", 3)},
-		{table.T("Statistic"), table.T("Value"), table.T("Break"), table.T("Lags"), table.T("1%"), table.T("5%"), table.T("10%")},
-	}
+// ghBody returns the table's rows: each statistic with its stars, break
+// date, lags (or bandwidth) and critical values, then N.
+func ghBody(c *engine.Context, outs []*contract.Outcome, breaks []contract.Break, nobs, dec int) []table.Row {
+	var body []table.Row
 	for i, o := range outs {
-		cells := []table.Cell{table.T(labels[i]), table.Starred(o.Stat, dec, o.Stars(c.Stars())), table.T(breaks[i].Date), table.I(o.Lags)}
+		cells := []table.Cell{table.T(ghLabels[i]), table.Starred(o.Stat, dec, o.Stars(c.Stars())), table.T(breaks[i].Date), table.I(o.Lags)}
 		for _, l := range coint.GHLevels {
 			v, ok := contract.CritAt(o.Crit, l)
 			if !ok {
@@ -187,12 +214,15 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 			}
 			cells = append(cells, table.N(v, dec))
 		}
-		t.Body = append(t.Body, table.Row{Cells: cells})
+		body = append(body, table.Row{Cells: cells})
 	}
-	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("N"), table.I(r.NObs)}, RuleAbove: true})
-	t.Notes = ghNotes(c, s, st, r, outs, sims, d)
-	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
+	return append(body, table.Row{Cells: []table.Cell{table.T("N"), table.I(nobs)}, RuleAbove: true})
+}
 
+// values returns the result's values: ADF*'s outcome at the top level,
+// each statistic under adf, zt and za, the static coefficients at the
+// ADF* break, the settings, the candidate dates and the sample.
+func (s *ghSpec) values(st ghSettings, r *coint.GHResult, outs []*contract.Outcome, breaks []contract.Break, sims [3]*simulate.Result, d *engine.Data) map[string]any {
 	vals := outs[0].Values()
 	for i, key := range []string{"adf", "zt", "za"} {
 		v := map[string]any{"stat": outs[i].Stat, "break": breaks[i].Date, "break_index": breaks[i].Index,
@@ -223,11 +253,9 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals["candidates"] = map[string]any{"from": d.Dates[r.First].String(), "to": d.Dates[r.Last].String(), "n": r.Last - r.First + 1}
 	vals["y"] = s.Y
 	vals["x"] = append([]string(nil), s.X...)
-	vals["vars"] = len(vars)
+	vals["vars"] = 1 + len(s.X)
 	vals["sample"] = engine.SampleValues(d)
-	res := &engine.Result{Table: t, Values: vals, Test: outs[0]}
-	res.SetSeries("resid", contract.NewDated(d.Dates[:len(r.Resid)], r.Resid))
-	return res, nil
+	return vals
 }
 
 // ghError turns an analysis error into a manuscript error at the key

@@ -7,6 +7,7 @@ import (
 	"sync"
 	"time"
 
+	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/plot/vg"
 
 	"github.com/galley-econ/galley/analysis/series"
@@ -93,20 +94,16 @@ func (s *responsesSpec) Check(c *engine.Context) error {
 	return nil
 }
 
+// Run computes the responses (and their bootstrap bands) and returns the
+// figure, one panel per pair, with the values.
 func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	m, err := s.fit(c)
 	if err != nil {
 		return nil, err
 	}
-	k := len(m.names)
-	var order []int
-	if len(s.Order) > 0 {
-		if len(s.Order) != k {
-			return nil, c.Errorf("order", "order: name all %d series, first the one whose shock moves the others on impact", k)
-		}
-		if order, err = seriesIndices(c, "order", s.Order, m.names); err != nil {
-			return nil, err
-		}
+	order, err := s.order(c, m)
+	if err != nil {
+		return nil, err
 	}
 	resp := vardyn.Responses{Horizon: s.horizon(), Generalised: s.identify() == "generalised", Order: order}
 	theta, err := resp.Compute(m.a, m.sigma)
@@ -121,51 +118,116 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	var bands *vardyn.Bands
 	seed := uint64(1)
 	if s.Seed != nil {
 		seed = *s.Seed
 	}
-	if s.Reps > 0 {
-		prog := newProgress(fmt.Sprintf("galley: %s %s: bootstrap", c.Kind(), c.ID()))
-		bands, err = vardyn.Bootstrap(m.levels, m.a, m.resid, m.refit, resp, theta,
-			vardyn.BootSpec{Reps: s.Reps, Seed: seed, Coverage: s.coverage(), Progress: prog.update})
-		prog.finish(err)
-		if err != nil {
-			return nil, c.Errorf("reps", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
-		}
+	bands, err := s.bootstrap(c, m, resp, theta, seed)
+	if err != nil {
+		return nil, err
 	}
-	lohi := func(b int) [][][]float64 {
-		if bands == nil {
-			return nil
-		}
-		if s.interval() == "hall" {
-			return bands.Hall[b]
-		}
-		return bands.Percentile[b]
+	p := s.paths(theta, bands, resp.Horizon)
+	vals := s.values(m, p, order, bands, seed)
+	fig, err := s.figure(c, m, p, ri, si)
+	if err != nil {
+		return nil, err
 	}
-	lo, hi := lohi(0), lohi(1)
-	// Values: irf.RESPONSE.SHOCK = list over horizons 0..H.
+	notes := []string{s.note(m, bands)}
+	return renderFigure(c, fig, vals, notes)
+}
+
+// order returns the Cholesky ordering as indices into the series (nil
+// when order: is not given), or an error unless it names all of them.
+func (s *responsesSpec) order(c *engine.Context, m *model) ([]int, error) {
+	if len(s.Order) == 0 {
+		return nil, nil
+	}
+	if k := len(m.names); len(s.Order) != k {
+		return nil, c.Errorf("order", "order: name all %d series, first the one whose shock moves the others on impact", k)
+	}
+	return seriesIndices(c, "order", s.Order, m.names)
+}
+
+// bootstrap returns the bootstrap bands of the responses theta (nil
+// without reps:), reporting the progress of a long run.
+func (s *responsesSpec) bootstrap(c *engine.Context, m *model, resp vardyn.Responses, theta []*mat.Dense, seed uint64) (*vardyn.Bands, error) {
+	if s.Reps <= 0 {
+		return nil, nil
+	}
+	prog := newProgress(fmt.Sprintf("galley: %s %s: bootstrap", c.Kind(), c.ID()))
+	bands, err := vardyn.Bootstrap(m.levels, m.a, m.resid, m.refit, resp, theta,
+		vardyn.BootSpec{Reps: s.Reps, Seed: seed, Coverage: s.coverage(), Progress: prog.update})
+	prog.finish(err)
+	if err != nil {
+		return nil, c.Errorf("reps", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+	}
+	return bands, nil
+}
+
+// irfPaths reads the responses and their bands (the interval: asked for)
+// along the horizons 0 … horizon.
+type irfPaths struct {
+	theta   []*mat.Dense
+	lo, hi  [][][]float64 // nil without bands
+	bands   bool
+	horizon int
+}
+
+// paths returns the reader of the responses theta and of bands (nil
+// without reps:).
+func (s *responsesSpec) paths(theta []*mat.Dense, bands *vardyn.Bands, horizon int) irfPaths {
+	p := irfPaths{theta: theta, bands: bands != nil, horizon: horizon}
+	if bands == nil {
+		return p
+	}
+	b := bands.Percentile
+	if s.interval() == "hall" {
+		b = bands.Hall
+	}
+	p.lo, p.hi = b[0], b[1]
+	return p
+}
+
+// at returns src(h, i, j) over the horizons 0 … horizon.
+func (p irfPaths) at(src func(h, i, j int) float64, i, j int) []float64 {
+	out := make([]float64, p.horizon+1)
+	for h := range out {
+		out[h] = src(h, i, j)
+	}
+	return out
+}
+
+// est, lower and upper return the response of series i to shock j and
+// its band's ends over the horizons.
+func (p irfPaths) est(i, j int) []float64 {
+	return p.at(func(h, i, j int) float64 { return p.theta[h].At(i, j) }, i, j)
+}
+
+func (p irfPaths) lower(i, j int) []float64 {
+	return p.at(func(h, i, j int) float64 { return p.lo[h][i][j] }, i, j)
+}
+
+func (p irfPaths) upper(i, j int) []float64 {
+	return p.at(func(h, i, j int) float64 { return p.hi[h][i][j] }, i, j)
+}
+
+// values returns the results-file values: irf.RESPONSE.SHOCK (a list over
+// horizons 0 … H), with lower and upper and the bootstrap's settings when
+// there are bands.
+func (s *responsesSpec) values(m *model, p irfPaths, order []int, bands *vardyn.Bands, seed uint64) map[string]any {
 	irf, lower, upper := map[string]any{}, map[string]any{}, map[string]any{}
-	at := func(src func(h, i, j int) float64, i, j int) []float64 {
-		out := make([]float64, resp.Horizon+1)
-		for h := range out {
-			out[h] = src(h, i, j)
-		}
-		return out
-	}
 	for i, rn := range m.names {
 		ir, lr, ur := map[string]any{}, map[string]any{}, map[string]any{}
 		for j, sn := range m.names {
-			ir[sn] = at(func(h, i, j int) float64 { return theta[h].At(i, j) }, i, j)
-			if bands != nil {
-				lr[sn] = at(func(h, i, j int) float64 { return lo[h][i][j] }, i, j)
-				ur[sn] = at(func(h, i, j int) float64 { return hi[h][i][j] }, i, j)
+			ir[sn] = p.est(i, j)
+			if p.bands {
+				lr[sn] = p.lower(i, j)
+				ur[sn] = p.upper(i, j)
 			}
 		}
 		irf[rn], lower[rn], upper[rn] = ir, lr, ur
 	}
-	vals := map[string]any{"irf": irf, "horizon": resp.Horizon, "identify": s.identify(), "series": m.names, "model": m.desc}
+	vals := map[string]any{"irf": irf, "horizon": p.horizon, "identify": s.identify(), "series": m.names, "model": m.desc}
 	if order != nil {
 		vals["order"] = s.Order
 	}
@@ -173,8 +235,13 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals["lower"], vals["upper"] = lower, upper
 		vals["reps"], vals["failed"], vals["seed"], vals["coverage"], vals["interval"] = bands.Reps, bands.Failed, seed, s.coverage(), s.interval()
 	}
-	// The figure: one panel per pair, the horizon on the x axis.
-	dates := make([]series.Date, resp.Horizon+1)
+	return vals
+}
+
+// figure returns the chart: one panel per (response ri, shock si) pair,
+// response-major, the periods after the shock on the horizontal axis.
+func (s *responsesSpec) figure(c *engine.Context, m *model, p irfPaths, ri, si []int) (*figures.Figure, error) {
+	dates := make([]series.Date, p.horizon+1)
 	for h := range dates {
 		dates[h] = series.Date{Freq: series.Undated, Sub: h}
 	}
@@ -182,12 +249,11 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	var labels []string
 	for _, i := range ri {
 		for _, j := range si {
-			est := at(func(h, i, j int) float64 { return theta[h].At(i, j) }, i, j)
-			ss := []series.Series{{Name: "response", Dates: dates, Values: est}}
-			if bands != nil {
+			ss := []series.Series{{Name: "response", Dates: dates, Values: p.est(i, j)}}
+			if p.bands {
 				ss = append(ss,
-					series.Series{Name: fmt.Sprintf("%s band", pctText(s.coverage())), Dates: dates, Values: at(func(h, i, j int) float64 { return lo[h][i][j] }, i, j)},
-					series.Series{Name: "", Dates: dates, Values: at(func(h, i, j int) float64 { return hi[h][i][j] }, i, j)})
+					series.Series{Name: fmt.Sprintf("%s band", pctText(s.coverage())), Dates: dates, Values: p.lower(i, j)},
+					series.Series{Name: "", Dates: dates, Values: p.upper(i, j)})
 			}
 			panels = append(panels, figures.Panel{Series: ss, YLabel: m.names[i] + " ← " + m.names[j]})
 			labels = append(labels, m.names[i]+" ← "+m.names[j])
@@ -201,7 +267,13 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}
-	notes := []string{s.note(m, bands)}
+	return fig, nil
+}
+
+// renderFigure returns the result of a drawn figure: its size in vals, and
+// unless nested (a revision's build of another vintage, which compares
+// values only) its SVG and PDF and their files.
+func renderFigure(c *engine.Context, fig *figures.Figure, vals map[string]any, notes []string) (*engine.Result, error) {
 	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
 	vals["width"], vals["height"] = w, h
 	if c.Nested() {
@@ -221,6 +293,8 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		PNGAt: func(dpi int) ([]byte, error) { return fig.Render("png", dpi) }}}, nil
 }
 
+// note returns the figure's note: the responses, the identification and
+// the bands.
 func (s *responsesSpec) note(m *model, b *vardyn.Bands) string {
 	var sb strings.Builder
 	fmt.Fprintf(&sb, "Responses of %s over %d periods, from %s. ", strings.Join(m.names, ", "), s.horizon(), m.desc)

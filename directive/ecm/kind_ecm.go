@@ -115,6 +115,9 @@ func (s *ecmSpec) Check(c *engine.Context) error {
 	return c.CheckData(rel.Data, exprs, sample)
 }
 
+// Run estimates the error-correction model on the equilibrium error of the
+// relation named by from: and returns its table, values, actual and fitted
+// series, and model.
 func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	rel, p, q, cov, items, err := s.settings(c)
 	if err != nil {
@@ -124,50 +127,13 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	resid, ok := up.Series["resid"]
-	if !ok {
-		return nil, c.Errorf("from", "%q: the %s result has no residual series", s.From, up.Kind)
-	}
-	ectVals := resid.At()
-	sample := rel.Sample
-	if s.Sample != "" {
-		sample = s.Sample
-	}
-	d, err := c.DataUsing(rel.Data, append([]string{rel.Y}, rel.X...), sample, rel.Missing)
+	d, in, err := s.input(c, rel, up)
 	if err != nil {
 		return nil, err
-	}
-	if err := c.RefuseConstant(d, "from", "its differences are all zero, so there is nothing to error-correct", 0); err != nil {
-		return nil, err
-	}
-	extra, err := readExtras(c, rel, s.Extra, sample, d)
-	if err != nil {
-		return nil, err
-	}
-	ect := make([]float64, d.N())
-	for i, dt := range d.Dates {
-		ect[i] = math.NaN()
-		if v, ok := ectVals[dt.String()]; ok {
-			ect[i] = v
-		}
-	}
-	nx := len(rel.X)
-	in := ecm.Input{
-		Y: d.Cols[0], YName: rel.Y, X: d.Cols[1 : 1+nx], XNames: rel.X, ECT: ect,
-		Extra: extra, ExtraNames: append([]string{}, s.Extra...),
 	}
 	m, err := ecm.Estimate(in, ecm.Spec{YLags: p, XLags: q, Cov: cov})
 	if err != nil {
-		key := "from"
-		switch {
-		case c.Has("lags") && strings.Contains(err.Error(), "observations"):
-			key = "lags"
-		case len(s.Extra) > 0 && strings.Contains(err.Error(), "collinear"):
-			key = "extra"
-		case c.Has("sample"):
-			key = "sample"
-		}
-		return nil, c.Errorf(key, "error-correction model of %s: %v", rel.Y, err)
+		return nil, s.estimateError(c, rel, err)
 	}
 	diags, err := engine.RunDiagnostics(m.Fit, items, d.Freq, c.DwNull)
 	if err != nil {
@@ -180,31 +146,8 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	unit := engine.PeriodUnit(d.Freq)
 	adj := m.Adjust
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(rel.Y, 0))}}}
-	rows := engine.CoefRows(c, m.Names, m.Coef, dec, false)
-	// The half-life goes right under the adjustment coefficient (term 1:
-	// rows 2 and 3 are its estimate and standard error).
-	var hl []table.Row
-	if adj.HasHalfLife {
-		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life, " + unit), table.N(adj.HalfLife, dec)}}, {Cells: []table.Cell{table.Empty, table.SECell(adj.HalfLifeSE, dec)}}}
-	} else {
-		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life"), table.T("none: no error correction")}}}
-	}
-	body := append([]table.Row{}, rows[:4]...)
-	body = append(body, hl...)
-	body = append(body, rows[4:]...)
-	body = append(body,
-		table.Row{Cells: []table.Cell{table.T("N"), table.I(m.Fit.N)}, RuleAbove: true},
-		table.Row{Cells: []table.Cell{table.T("R²"), table.N(m.Fit.R2(), dec)}},
-		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(m.Fit.R2Adj(), dec)}},
-	)
-	body = append(body, engine.DiagRows(diags, dec)...)
-	t.Body = body
-	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
-	for _, dt := range d.Dropped { // left out for missing values inside the estimation span
-		if sd.Dates[0].Before(dt) && dt.Before(sd.Dates[len(sd.Dates)-1]) {
-			sd.Dropped = append(sd.Dropped, dt)
-		}
-	}
+	t.Body = body(c, m, engine.DiagRows(diags, dec), dec, unit)
+	sd := estimationSample(d, m)
 	t.Notes = []string{
 		fmt.Sprintf("Dependent variable: %s, the first difference of %s. Least squares; %s in parentheses; t-ratios compared with the standard normal distribution, since every regressor is stationary when the variables cointegrate.", ecm.DiffName(rel.Y, 0), rel.Y, cov.Describe()),
 		fmt.Sprintf("%s is the equilibrium error of %q (%s) lagged one period; d.v(-j) is the j-th lag of the first difference of v. Lags of d.%s: %d; differences of the regressors at lags 0 to %d.", ecm.ECTName, s.From, fromDesc(up.Kind), rel.Y, p, q),
@@ -238,6 +181,98 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
 	res.Model = engine.ModelOf("ECM", ecm.DiffName(rel.Y, 0), m.Names, m.Coef, vals, true, "")
 	return res, nil
+}
+
+// input returns the data of the relation rel over the sample (its own, or
+// sample:) and the estimation input: y, x, the extra regressors, and the
+// equilibrium error of the upstream result up at each date (NaN where it
+// has none).
+func (s *ecmSpec) input(c *engine.Context, rel contract.LongRun, up *engine.Result) (*engine.Data, ecm.Input, error) {
+	resid, ok := up.Series["resid"]
+	if !ok {
+		return nil, ecm.Input{}, c.Errorf("from", "%q: the %s result has no residual series", s.From, up.Kind)
+	}
+	ectVals := resid.At()
+	sample := rel.Sample
+	if s.Sample != "" {
+		sample = s.Sample
+	}
+	d, err := c.DataUsing(rel.Data, append([]string{rel.Y}, rel.X...), sample, rel.Missing)
+	if err != nil {
+		return nil, ecm.Input{}, err
+	}
+	if err := c.RefuseConstant(d, "from", "its differences are all zero, so there is nothing to error-correct", 0); err != nil {
+		return nil, ecm.Input{}, err
+	}
+	extra, err := readExtras(c, rel, s.Extra, sample, d)
+	if err != nil {
+		return nil, ecm.Input{}, err
+	}
+	ect := make([]float64, d.N())
+	for i, dt := range d.Dates {
+		ect[i] = math.NaN()
+		if v, ok := ectVals[dt.String()]; ok {
+			ect[i] = v
+		}
+	}
+	nx := len(rel.X)
+	in := ecm.Input{
+		Y: d.Cols[0], YName: rel.Y, X: d.Cols[1 : 1+nx], XNames: rel.X, ECT: ect,
+		Extra: extra, ExtraNames: append([]string{}, s.Extra...),
+	}
+	return d, in, nil
+}
+
+// estimateError returns the estimation error err at the key most likely
+// concerned: lags for too few observations, extra for collinearity, else
+// sample or from.
+func (s *ecmSpec) estimateError(c *engine.Context, rel contract.LongRun, err error) error {
+	key := "from"
+	switch {
+	case c.Has("lags") && strings.Contains(err.Error(), "observations"):
+		key = "lags"
+	case len(s.Extra) > 0 && strings.Contains(err.Error(), "collinear"):
+		key = "extra"
+	case c.Has("sample"):
+		key = "sample"
+	}
+	return c.Errorf(key, "error-correction model of %s: %v", rel.Y, err)
+}
+
+// body returns the table's rows: the coefficients with the half-life
+// under the adjustment coefficient, N, the R², then the diagnostics' rows.
+func body(c *engine.Context, m *ecm.Model, diagRows []table.Row, dec int, unit string) []table.Row {
+	adj := m.Adjust
+	rows := engine.CoefRows(c, m.Names, m.Coef, dec, false)
+	// The half-life goes right under the adjustment coefficient (term 1:
+	// rows 2 and 3 are its estimate and standard error).
+	var hl []table.Row
+	if adj.HasHalfLife {
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life, " + unit), table.N(adj.HalfLife, dec)}}, {Cells: []table.Cell{table.Empty, table.SECell(adj.HalfLifeSE, dec)}}}
+	} else {
+		hl = []table.Row{{Cells: []table.Cell{table.T("    half-life"), table.T("none: no error correction")}}}
+	}
+	body := append([]table.Row{}, rows[:4]...)
+	body = append(body, hl...)
+	body = append(body, rows[4:]...)
+	body = append(body,
+		table.Row{Cells: []table.Cell{table.T("N"), table.I(m.Fit.N)}, RuleAbove: true},
+		table.Row{Cells: []table.Cell{table.T("R²"), table.N(m.Fit.R2(), dec)}},
+		table.Row{Cells: []table.Cell{table.T("Adjusted R²"), table.N(m.Fit.R2Adj(), dec)}},
+	)
+	return append(body, diagRows...)
+}
+
+// estimationSample returns the dates the model was estimated on, with the
+// dates left out for missing values inside that span.
+func estimationSample(d *engine.Data, m *ecm.Model) *engine.Data {
+	sd := &engine.Data{Dates: d.Dates[m.First : m.Last+1]}
+	for _, dt := range d.Dropped { // left out for missing values inside the estimation span
+		if sd.Dates[0].Before(dt) && dt.Before(sd.Dates[len(sd.Dates)-1]) {
+			sd.Dropped = append(sd.Dropped, dt)
+		}
+	}
+	return sd
 }
 
 // readExtras reads the extra regressors apart from the levels and puts

@@ -40,6 +40,7 @@ func relationSeries(c *engine.Context, key, relKey string, r *engine.Result, n i
 	return series.Series{Name: fmt.Sprintf("relation %d", n), Dates: z.Dates, Values: z.Values}, nil
 }
 
+// plural returns "s" unless n is 1.
 func plural(n int) string {
 	if n == 1 {
 		return ""
@@ -112,7 +113,8 @@ func (s *figureSpec) regressionOf(c *engine.Context) (regressionSpec, error) {
 	return regressionSpec{data: c.DataAlias(o.Data), y: o.Y, x: o.X, sample: o.Sample, withConst: o.Const, missing: o.Missing}, nil
 }
 
-// buildDesign evaluates the regression's series and forms X.
+// buildDesign evaluates the regression's series and returns its design,
+// X formed by engine.Regressors as the ols directive forms it.
 func buildDesign(c *engine.Context, r regressionSpec) (*design, error) {
 	missing := r.missing
 	if missing == "" {
@@ -122,25 +124,19 @@ func buildDesign(c *engine.Context, r regressionSpec) (*design, error) {
 	if err != nil {
 		return nil, err
 	}
-	var terms []string
-	if r.withConst {
-		terms = append(terms, "const")
-	}
-	terms = append(terms, r.x...)
-	n, k := d.N(), len(terms)
-	if n <= k+1 {
-		return nil, c.Errorf("", "too few observations: %d in the sample %s for %d coefficients", n, d.Range(), k)
-	}
-	x := mat.NewDense(n, k, nil)
-	for i := 0; i < n; i++ {
-		j := 0
-		if r.withConst {
-			x.Set(i, 0, 1)
-			j = 1
-		}
-		for l := range r.x {
-			x.Set(i, j+l, d.Cols[1+l][i])
-		}
+	terms, x, err := engine.Regressors(c, d, r.x, r.withConst, 1)
+	if err != nil {
+		return nil, err
 	}
 	return &design{dates: d.Dates, y: d.Cols[0], x: x, terms: terms, yName: r.y, d: d}, nil
+}
+
+// design returns the regression a fit or stability plot examines (of: an
+// ols result, or the figure's own y and x), evaluated on its data.
+func (s *figureSpec) design(c *engine.Context) (*design, error) {
+	rs, err := s.regressionOf(c)
+	if err != nil {
+		return nil, err
+	}
+	return buildDesign(c, rs)
 }

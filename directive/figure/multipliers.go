@@ -17,6 +17,8 @@ import (
 var multiplierKeys = map[string]bool{"plot": true, "of": true, "coef": true, "names": true, "ylabel": true, "xlabel": true,
 	"legend": true, "width": true, "height": true, "id": true, "caption": true, "note": true, "missing": true}
 
+// checkMultipliers returns an error for a key plot multipliers does not
+// take, or an of: that names no result with split regressors.
 func (s *figureSpec) checkMultipliers(c *engine.Context) error {
 	for _, k := range []string{"data", "series", "panels", "residuals", "relation", "y", "x", "const", "sample", "shade", "ylabels", "lags", "alpha"} {
 		if c.Has(k) && !multiplierKeys[k] {
@@ -43,6 +45,8 @@ func (s *figureSpec) checkMultipliers(c *engine.Context) error {
 	return nil
 }
 
+// runMultipliers draws the multipliers of one split regressor (coef:, by
+// default the first) and returns the finished figure's result.
 func (s *figureSpec) runMultipliers(c *engine.Context, o *figures.Options, vals map[string]any) (*engine.Result, error) {
 	if err := s.checkMultipliers(c); err != nil {
 		return nil, err

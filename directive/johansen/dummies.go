@@ -87,85 +87,25 @@ type sysExtra struct {
 // first len(k.Series) columns are the series and the rest the extra
 // regressors) for a VECM with lags lagged differences.
 func (k *SystemKeys) buildExtra(c *engine.Context, d *engine.Data, cs johansen.Case, lags int) (*sysExtra, error) {
-	n := d.N()
-	out := &sysExtra{}
-	var ucols, rcols [][]float64
-	addU := func(label, key string, v []float64) {
-		ucols = append(ucols, v)
-		out.labels = append(out.labels, label)
-		out.keys = append(out.keys, key)
-	}
-	first := lags + 1 // first row of the estimation sample
-	if k.Seasonal {
-		s := d.Freq.PerYear()
-		if s != 4 && s != 12 {
-			return nil, c.Errorf("seasonal", "seasonal: centred seasonal dummies need quarterly or monthly data; these are %s", d.Freq)
-		}
-		for j := 1; j < s; j++ {
-			v := make([]float64, n)
-			for i, dt := range d.Dates {
-				v[i] = -1 / float64(s)
-				if dt.Sub == j {
-					v[i] += 1
-				}
-			}
-			name := fmt.Sprintf("Q%d", j)
-			if s == 12 {
-				name = fmt.Sprintf("M%02d", j)
-			}
-			addU("Season "+name+" (centred)", "season:"+name, v)
-		}
-	}
-	row := func(key string, i int, text string) (int, error) {
-		dt, _ := series.ParseDate(text)
-		for r, x := range d.Dates {
-			if x.Equal(dt) {
-				if r < first {
-					return 0, c.ItemErrorf(key, i, "%s: %s falls in the first %d observations, which only supply lags (the estimation sample starts %s)", key, dt, first, d.Dates[first])
-				}
-				return r, nil
-			}
-		}
-		return 0, c.ItemErrorf(key, i, "%s: %s is not a date of the sample %s (%s data)", key, text, d.Range(), d.Freq)
-	}
-	unit := func(r int) []float64 {
-		v := make([]float64, n)
-		if r < n {
-			v[r] = 1
-		}
-		return v
+	b := &extraBuilder{d: d, n: d.N(), first: lags + 1, out: &sysExtra{}}
+	if err := k.addSeasonal(c, b); err != nil {
+		return nil, err
 	}
 	for i, text := range k.Impulse {
-		r, err := row("impulse", i, text)
+		r, err := b.row(c, "impulse", i, text)
 		if err != nil {
 			return nil, err
 		}
-		addU("Impulse "+d.Dates[r].String(), "impulse:"+d.Dates[r].String(), unit(r))
+		b.addU("Impulse "+d.Dates[r].String(), "impulse:"+d.Dates[r].String(), b.unit(r))
 	}
-	for i, text := range k.Shift {
-		r, err := row("shift", i, text)
-		if err != nil {
-			return nil, err
-		}
-		step := make([]float64, n)
-		for j := r; j < n; j++ {
-			step[j] = 1
-		}
-		ds := d.Dates[r].String()
-		if shiftRestricted(cs) {
-			rcols = append(rcols, step)
-			out.restricted = append(out.restricted, "shift("+ds+")")
-			for l := 0; l <= lags && r+l < n; l++ {
-				addU("Impulse "+d.Dates[r+l].String()+" (shift)", "impulse:"+d.Dates[r+l].String(), unit(r+l))
-			}
-		} else {
-			addU("Shift "+ds, "shift:"+ds, step)
-		}
+	if err := k.addShifts(c, b, cs, lags); err != nil {
+		return nil, err
 	}
 	ks := len(k.Series)
 	for j, e := range k.Extra {
-		addU(e, e, d.Cols[ks+j])
+		b.addU(e, e, d.Cols[ks+j])
 	}
+	out := b.out
 	dup := map[string]bool{}
 	for _, key := range out.keys {
 		if dup[key] {
@@ -173,19 +113,121 @@ func (k *SystemKeys) buildExtra(c *engine.Context, d *engine.Data, cs johansen.C
 		}
 		dup[key] = true
 	}
-	dense := func(cols [][]float64) *mat.Dense {
-		if len(cols) == 0 {
-			return nil
-		}
-		m := mat.NewDense(n, len(cols), nil)
-		for j, v := range cols {
-			m.SetCol(j, v)
-		}
-		return m
-	}
-	out.x = johansen.Extra{Unrestricted: dense(ucols), Restricted: dense(rcols)}
+	out.x = johansen.Extra{Unrestricted: b.dense(b.ucols), Restricted: b.dense(b.rcols)}
 	out.notes = k.dummyNotes(cs)
 	return out, nil
+}
+
+// extraBuilder collects the unrestricted and restricted columns of the
+// dummies and extra regressors over the n observations of d.
+type extraBuilder struct {
+	d            *engine.Data
+	n            int
+	first        int // first row of the estimation sample
+	out          *sysExtra
+	ucols, rcols [][]float64
+}
+
+// addU adds an unrestricted column with its label and short-run term.
+func (b *extraBuilder) addU(label, key string, v []float64) {
+	b.ucols = append(b.ucols, v)
+	b.out.labels = append(b.out.labels, label)
+	b.out.keys = append(b.out.keys, key)
+}
+
+// row returns the observation of the date text, item i of key, or an
+// error when it is not in the sample or falls among the first
+// observations, which only supply lags.
+func (b *extraBuilder) row(c *engine.Context, key string, i int, text string) (int, error) {
+	d, first := b.d, b.first
+	dt, _ := series.ParseDate(text)
+	for r, x := range d.Dates {
+		if x.Equal(dt) {
+			if r < first {
+				return 0, c.ItemErrorf(key, i, "%s: %s falls in the first %d observations, which only supply lags (the estimation sample starts %s)", key, dt, first, d.Dates[first])
+			}
+			return r, nil
+		}
+	}
+	return 0, c.ItemErrorf(key, i, "%s: %s is not a date of the sample %s (%s data)", key, text, d.Range(), d.Freq)
+}
+
+// unit returns the impulse column that is 1 at observation r.
+func (b *extraBuilder) unit(r int) []float64 {
+	v := make([]float64, b.n)
+	if r < b.n {
+		v[r] = 1
+	}
+	return v
+}
+
+// dense returns the columns as an n×len(cols) matrix, nil when there are
+// none.
+func (b *extraBuilder) dense(cols [][]float64) *mat.Dense {
+	if len(cols) == 0 {
+		return nil
+	}
+	m := mat.NewDense(b.n, len(cols), nil)
+	for j, v := range cols {
+		m.SetCol(j, v)
+	}
+	return m
+}
+
+// addSeasonal adds the s − 1 centred seasonal dummies of seasonal: true,
+// or returns an error for data that are neither quarterly nor monthly.
+func (k *SystemKeys) addSeasonal(c *engine.Context, b *extraBuilder) error {
+	if !k.Seasonal {
+		return nil
+	}
+	d, n := b.d, b.n
+	s := d.Freq.PerYear()
+	if s != 4 && s != 12 {
+		return c.Errorf("seasonal", "seasonal: centred seasonal dummies need quarterly or monthly data; these are %s", d.Freq)
+	}
+	for j := 1; j < s; j++ {
+		v := make([]float64, n)
+		for i, dt := range d.Dates {
+			v[i] = -1 / float64(s)
+			if dt.Sub == j {
+				v[i] += 1
+			}
+		}
+		name := fmt.Sprintf("Q%d", j)
+		if s == 12 {
+			name = fmt.Sprintf("M%02d", j)
+		}
+		b.addU("Season "+name+" (centred)", "season:"+name, v)
+	}
+	return nil
+}
+
+// addShifts adds the step dummies of shift:: restricted, with impulses at
+// the date and the lags periods after it, in cases rc and rt; otherwise
+// unrestricted.
+func (k *SystemKeys) addShifts(c *engine.Context, b *extraBuilder, cs johansen.Case, lags int) error {
+	d, n := b.d, b.n
+	for i, text := range k.Shift {
+		r, err := b.row(c, "shift", i, text)
+		if err != nil {
+			return err
+		}
+		step := make([]float64, n)
+		for j := r; j < n; j++ {
+			step[j] = 1
+		}
+		ds := d.Dates[r].String()
+		if shiftRestricted(cs) {
+			b.rcols = append(b.rcols, step)
+			b.out.restricted = append(b.out.restricted, "shift("+ds+")")
+			for l := 0; l <= lags && r+l < n; l++ {
+				b.addU("Impulse "+d.Dates[r+l].String()+" (shift)", "impulse:"+d.Dates[r+l].String(), b.unit(r+l))
+			}
+		} else {
+			b.addU("Shift "+ds, "shift:"+ds, step)
+		}
+	}
+	return nil
 }
 
 // dummyNotes say what the dummies do to the rank tests.

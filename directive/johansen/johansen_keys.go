@@ -86,19 +86,15 @@ type sysRestr struct {
 	Row  []float64
 }
 
+// settings validates the system's keys and returns them: the series and
+// case, the level, the rows of β, the restriction and weak-exogeneity
+// tests; the first error is at its key.
 func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	var st sysSettings
-	if len(k.Series) < 2 {
-		return st, c.Errorf("series", "a cointegrated system needs at least two series; series lists %d", len(k.Series))
+	if err := k.checkSeries(c); err != nil {
+		return st, err
 	}
 	st.Names = k.Series
-	for i, a := range k.Series {
-		for _, b := range k.Series[:i] {
-			if normName(a) == normName(b) {
-				return st, c.Errorf("series", "series %q is listed twice; the moment matrices would be singular", a)
-			}
-		}
-	}
 	det := k.Det
 	if det == "" {
 		det = "c"
@@ -117,26 +113,8 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 			return st, c.Errorf("level", "level must be 0.10, 0.05 or 0.01 (the levels the critical values are tabulated at), not %g", st.Level)
 		}
 	}
-	K := len(k.Series)
-	if k.Rank != nil && (*k.Rank < 1 || *k.Rank > K-1) {
-		return st, c.Errorf("rank", "rank %d is outside 1..K−1 = 1..%d for %d series", *k.Rank, K-1, K)
-	}
-	if len(k.Normalize) > K-1 {
-		return st, c.Errorf("normalize", "normalize names %d series; there can be at most K−1 = %d relations", len(k.Normalize), K-1)
-	}
-	seen := map[int]bool{}
-	for _, n := range k.Normalize {
-		i, err := seriesIndex(n, k.Series)
-		if err != nil {
-			return st, c.Errorf("normalize", "normalize: %v", err)
-		}
-		if seen[i] {
-			return st, c.Errorf("normalize", "normalize: %q is named twice", n)
-		}
-		seen[i] = true
-	}
-	if k.Rank != nil && len(k.Normalize) > *k.Rank {
-		return st, c.Errorf("normalize", "normalize names %d series for rank %d; name at most one per relation", len(k.Normalize), *k.Rank)
+	if err := k.checkRank(c); err != nil {
+		return st, err
 	}
 	st.Coefs = slices.Clone(k.Series)
 	switch st.Case {
@@ -148,40 +126,8 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	if err := k.checkDummies(c, &st); err != nil {
 		return st, err
 	}
-	for _, h := range k.Restrict {
-		var rows []sysRestr
-		for _, e := range h.Equations {
-			row, err := betaRestriction(e, st.Coefs, st.Case)
-			if err != nil {
-				return st, c.Errorf("restrict", "restrict: %s: %v", h.Name, err)
-			}
-			rows = append(rows, sysRestr{Text: e, Row: row})
-		}
-		st.Rows = append(st.Rows, rows)
-	}
-	if k.Exogenous != nil {
-		return st, c.Errorf("exogenous", "exogenous: the weak-exogeneity tests are now written exogeneity_tests: (the same list); stationary regressors that condition the model go in extra:")
-	}
-	for _, ex := range k.ExogTests {
-		var idx []int
-		for _, n := range ex {
-			i, err := seriesIndex(n, k.Series)
-			if err != nil {
-				return st, c.Errorf("exogeneity_tests", "exogeneity_tests: %v", err)
-			}
-			idx = append(idx, i)
-		}
-		if len(idx) == 0 {
-			return st, c.Errorf("exogeneity_tests", "exogeneity_tests: an empty list")
-		}
-		st.Exog = append(st.Exog, idx)
-	}
-	names := map[string]bool{}
-	for _, n := range k.testNames() {
-		if names[n] {
-			return st, c.Errorf("restrict", "two restriction tests are both called %q", n)
-		}
-		names[n] = true
+	if err := k.readTests(c, &st); err != nil {
+		return st, err
 	}
 	st.SmallSample = k.SmallSample
 	// crit: simulate (simcrit.go)
@@ -193,6 +139,93 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		return st, c.Errorf("crit", "crit: simulate draws systems without dummies or extra regressors, so its critical values would not be those of this model; use the tables (the note says how the dummies affect them)")
 	}
 	return st, nil
+}
+
+// checkSeries returns an error unless series: lists two or more series,
+// none twice.
+func (k *SystemKeys) checkSeries(c *engine.Context) error {
+	if len(k.Series) < 2 {
+		return c.Errorf("series", "a cointegrated system needs at least two series; series lists %d", len(k.Series))
+	}
+	for i, a := range k.Series {
+		for _, b := range k.Series[:i] {
+			if normName(a) == normName(b) {
+				return c.Errorf("series", "series %q is listed twice; the moment matrices would be singular", a)
+			}
+		}
+	}
+	return nil
+}
+
+// checkRank returns an error for a rank outside 1 … K−1, or a normalize:
+// list that is too long for K or the rank, names an unknown series or
+// names one twice.
+func (k *SystemKeys) checkRank(c *engine.Context) error {
+	K := len(k.Series)
+	if k.Rank != nil && (*k.Rank < 1 || *k.Rank > K-1) {
+		return c.Errorf("rank", "rank %d is outside 1..K−1 = 1..%d for %d series", *k.Rank, K-1, K)
+	}
+	if len(k.Normalize) > K-1 {
+		return c.Errorf("normalize", "normalize names %d series; there can be at most K−1 = %d relations", len(k.Normalize), K-1)
+	}
+	seen := map[int]bool{}
+	for _, n := range k.Normalize {
+		i, err := seriesIndex(n, k.Series)
+		if err != nil {
+			return c.Errorf("normalize", "normalize: %v", err)
+		}
+		if seen[i] {
+			return c.Errorf("normalize", "normalize: %q is named twice", n)
+		}
+		seen[i] = true
+	}
+	if k.Rank != nil && len(k.Normalize) > *k.Rank {
+		return c.Errorf("normalize", "normalize names %d series for rank %d; name at most one per relation", len(k.Normalize), *k.Rank)
+	}
+	return nil
+}
+
+// readTests parses the restrict: equations into rows of R' (st.Rows) and
+// the exogeneity_tests: entries into series indices (st.Exog), or returns
+// an error, also for the retired exogenous: key and for two tests of one
+// name.
+func (k *SystemKeys) readTests(c *engine.Context, st *sysSettings) error {
+	for _, h := range k.Restrict {
+		var rows []sysRestr
+		for _, e := range h.Equations {
+			row, err := betaRestriction(e, st.Coefs, st.Case)
+			if err != nil {
+				return c.Errorf("restrict", "restrict: %s: %v", h.Name, err)
+			}
+			rows = append(rows, sysRestr{Text: e, Row: row})
+		}
+		st.Rows = append(st.Rows, rows)
+	}
+	if k.Exogenous != nil {
+		return c.Errorf("exogenous", "exogenous: the weak-exogeneity tests are now written exogeneity_tests: (the same list); stationary regressors that condition the model go in extra:")
+	}
+	for _, ex := range k.ExogTests {
+		var idx []int
+		for _, n := range ex {
+			i, err := seriesIndex(n, k.Series)
+			if err != nil {
+				return c.Errorf("exogeneity_tests", "exogeneity_tests: %v", err)
+			}
+			idx = append(idx, i)
+		}
+		if len(idx) == 0 {
+			return c.Errorf("exogeneity_tests", "exogeneity_tests: an empty list")
+		}
+		st.Exog = append(st.Exog, idx)
+	}
+	names := map[string]bool{}
+	for _, n := range k.testNames() {
+		if names[n] {
+			return c.Errorf("restrict", "two restriction tests are both called %q", n)
+		}
+		names[n] = true
+	}
+	return nil
 }
 
 // testNames are the names of the restriction tests, in table order: the
@@ -212,8 +245,11 @@ func (k *SystemKeys) testNames() []string {
 	return out
 }
 
+// normName returns a series name without its spaces, for comparisons.
 func normName(s string) string { return strings.Join(strings.Fields(s), "") }
 
+// seriesIndex returns the position of name among series (spaces ignored),
+// or an error that lists them.
 func seriesIndex(name string, series []string) (int, error) {
 	for i, s := range series {
 		if normName(s) == normName(name) {

@@ -103,6 +103,9 @@ func checkCritical(c *engine.Context, cs johansen.Case, k int) error {
 	return nil
 }
 
+// run validates the keys, reads the data and returns the system: the rank
+// tests, the rank, and at a rank of 1 … K−1 the estimates and the
+// restriction and weak-exogeneity tests.
 func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	st, err := k.settings(c)
 	if err != nil {
@@ -126,19 +129,9 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		y = mat.DenseCopyOf(y.Slice(0, d.N(), 0, K))
 	}
 	s.y = y
-	lags := k.Lags.Fixed
-	if k.Lags.Select != "" {
-		s.lagMax = defaultMaxLags(d.N(), K, st.Case)
-		if k.Lags.Max != nil {
-			s.lagMax = *k.Lags.Max
-		}
-		if s.lagMax < 0 {
-			return nil, c.Errorf("lags", "too few observations: %d in the sample %s cannot fit a VAR in levels for %d series", d.N(), d.Range(), K)
-		}
-		if s.lags, err = johansen.LagOrder(y, st.Case, s.lagMax); err != nil {
-			return nil, c.Errorf("lags", "%d observations in the sample %s: %v", d.N(), d.Range(), nameSeries(err, st.Names))
-		}
-		lags = map[string]int{"aic": s.lags.AIC, "bic": s.lags.BIC, "hq": s.lags.HQ}[k.Lags.Select]
+	lags, err := k.chooseLags(c, s)
+	if err != nil {
+		return nil, err
 	}
 	if s.ex, err = k.buildExtra(c, d, st.Case, lags); err != nil {
 		return nil, err
@@ -156,20 +149,8 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	}
 	r := s.res
 	s.trace, s.max = r.Statistics(k.SmallSample)
-	if sim != nil { // crit: simulate (simcrit.go): simulated tables and the rank they choose
-		if s.sim, err = simJohansen(c, sim, s); err != nil {
-			return nil, err
-		}
-	} else {
-		if s.crT, err = r.Critical(johansen.TraceStat); err == nil {
-			s.crM, err = r.Critical(johansen.MaxEigStat)
-		}
-		if err != nil {
-			return nil, c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
-		}
-		if s.chosen, err = r.Rank(st.Level, k.SmallSample); err != nil {
-			return nil, c.Errorf("level", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
-		}
+	if err := k.chooseRank(c, s, sim); err != nil {
+		return nil, err
 	}
 	s.rank = s.chosen
 	if k.Rank != nil {
@@ -182,8 +163,69 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		s.rank = 0
 		return s, nil
 	}
+	if err := k.normalisation(c, s); err != nil {
+		return nil, err
+	}
+	if s.vecm, err = r.Estimate(s.rank, s.norm); err != nil {
+		return nil, c.Errorf("normalize", "%v", nameSeries(err, st.Names))
+	}
+	if err := k.runTests(c, s); err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// chooseLags returns the number of lagged differences: lags: as given, or
+// the order its criterion chooses over 0 … max (the table kept in s.lags,
+// the maximum in s.lagMax).
+func (k *SystemKeys) chooseLags(c *engine.Context, s *sysState) (int, error) {
+	st, d, K := s.st, s.d, len(s.st.Names)
+	lags := k.Lags.Fixed
+	if k.Lags.Select == "" {
+		return lags, nil
+	}
+	s.lagMax = defaultMaxLags(d.N(), K, st.Case)
+	if k.Lags.Max != nil {
+		s.lagMax = *k.Lags.Max
+	}
+	if s.lagMax < 0 {
+		return 0, c.Errorf("lags", "too few observations: %d in the sample %s cannot fit a VAR in levels for %d series", d.N(), d.Range(), K)
+	}
+	var err error
+	if s.lags, err = johansen.LagOrder(s.y, st.Case, s.lagMax); err != nil {
+		return 0, c.Errorf("lags", "%d observations in the sample %s: %v", d.N(), d.Range(), nameSeries(err, st.Names))
+	}
+	return map[string]int{"aic": s.lags.AIC, "bic": s.lags.BIC, "hq": s.lags.HQ}[k.Lags.Select], nil
+}
+
+// chooseRank sets the critical values and the sequential choice of rank:
+// simulated with crit: simulate, else from the tables at level:.
+func (k *SystemKeys) chooseRank(c *engine.Context, s *sysState, sim *engine.SimSettings) error {
+	var err error
+	if sim != nil { // crit: simulate (simcrit.go): simulated tables and the rank they choose
+		s.sim, err = simJohansen(c, sim, s)
+		return err
+	}
+	r := s.res
+	if s.crT, err = r.Critical(johansen.TraceStat); err == nil {
+		s.crM, err = r.Critical(johansen.MaxEigStat)
+	}
+	if err != nil {
+		return c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
+	}
+	if s.chosen, err = r.Rank(s.st.Level, k.SmallSample); err != nil {
+		return c.Errorf("level", "%v", strings.TrimPrefix(err.Error(), "johansen: "))
+	}
+	return nil
+}
+
+// normalisation sets s.norm, the series each relation is normalised on:
+// those normalize: names, then the first others, one per relation; an
+// error when it names more than the rank.
+func (k *SystemKeys) normalisation(c *engine.Context, s *sysState) error {
+	st := s.st
 	if len(k.Normalize) > s.rank {
-		return nil, c.Errorf("normalize", "normalize names %d series, but the rank is %d (chosen at %s); name at most one series per relation", len(k.Normalize), s.rank, contract.Pct(st.Level))
+		return c.Errorf("normalize", "normalize names %d series, but the rank is %d (chosen at %s); name at most one series per relation", len(k.Normalize), s.rank, contract.Pct(st.Level))
 	}
 	for _, n := range k.Normalize {
 		i, _ := seriesIndex(n, st.Names)
@@ -194,18 +236,22 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 			s.norm = append(s.norm, i)
 		}
 	}
-	if s.vecm, err = r.Estimate(s.rank, s.norm); err != nil {
-		return nil, c.Errorf("normalize", "%v", nameSeries(err, st.Names))
-	}
+	return nil
+}
+
+// runTests runs the likelihood-ratio tests of the restrictions on β and of
+// weak exogeneity at the system's rank, appending them to s.tests.
+func (k *SystemKeys) runTests(c *engine.Context, s *sysState) error {
+	st, r := s.st, s.res
 	names := k.testNames()
 	for h, rows := range st.Rows {
 		H, err := restrictionBasis(rows, r.P1())
 		if err != nil {
-			return nil, c.Errorf("restrict", "restrict: %s: %v", names[h], err)
+			return c.Errorf("restrict", "restrict: %s: %v", names[h], err)
 		}
 		lr, err := r.TestBeta(s.rank, H)
 		if err != nil {
-			return nil, c.Errorf("restrict", "restrict: %s at rank %d: %v", names[h], s.rank, nameSeries(err, st.Names))
+			return c.Errorf("restrict", "restrict: %s at rank %d: %v", names[h], s.rank, nameSeries(err, st.Names))
 		}
 		var texts []string
 		for _, e := range rows {
@@ -216,7 +262,7 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	for i, ex := range st.Exog {
 		lr, err := r.WeakExogeneity(s.rank, ex...)
 		if err != nil {
-			return nil, c.Errorf("exogeneity_tests", "exogeneity_tests at rank %d: %v", s.rank, nameSeries(err, st.Names))
+			return c.Errorf("exogeneity_tests", "exogeneity_tests at rank %d: %v", s.rank, nameSeries(err, st.Names))
 		}
 		var who []string
 		for _, j := range ex {
@@ -224,7 +270,7 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		}
 		s.tests = append(s.tests, sysTest{Name: names[len(st.Rows)+i], Hyp: strings.Join(who, ", ") + " weakly exogenous (zero loadings)", LR: lr})
 	}
-	return s, nil
+	return nil
 }
 
 // restrictionBasis returns H, an orthonormal basis of the null space of R'
@@ -264,6 +310,7 @@ var sysCaseText = map[johansen.Case]string{
 // critSource names the origin of the critical values by case.
 func critSource(cs johansen.Case) string { return johansen.CriticalSource(cs) }
 
+// levelMap returns the critical values at johansen.Levels keyed by level.
 func levelMap(cv [3]float64) map[string]any {
 	m := map[string]any{}
 	for i, l := range johansen.Levels {
@@ -272,6 +319,7 @@ func levelMap(cv [3]float64) map[string]any {
 	return m
 }
 
+// values returns the system's results-file values.
 func (s *sysState) values() map[string]any {
 	r := s.res
 	ct := make([]map[string]any, r.K)

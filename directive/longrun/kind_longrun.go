@@ -170,6 +170,9 @@ func (s *dolsSpec) Check(c *engine.Context) error {
 	return err
 }
 
+// Run estimates the DOLS regression and returns its table (the long-run
+// coefficients, N, leads and lags, Wald tests), values, relation residuals
+// and model.
 func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
 	if err != nil {
@@ -206,10 +209,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	)
 	t.Body = append(t.Body, waldRows(walds, dec)...)
 	sd := &engine.Data{Dates: d.Dates[r.First : r.Last+1]}
-	choice := fmt.Sprintf("fixed at %d leads and %d lags", r.Leads, r.Lags)
-	if st.spec.Select != longrun.Fixed {
-		choice = fmt.Sprintf("chosen by %s over 0–%d leads and 0–%d lags on a common sample, then re-estimated on the full sample", map[longrun.Selector]string{longrun.AIC: "AIC", longrun.BIC: "BIC"}[st.spec.Select], st.spec.MaxLeads, st.spec.MaxLags)
-	}
+	choice := leadLagChoice(st.spec, r)
 	seNote := st.spec.Cov.Describe()
 	if st.autoHAC {
 		seNote += fmt.Sprintf(", the lag being the integer part of 4(T/100)^(2/9) with T = %d", d.N())
@@ -225,9 +225,31 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Notes = append(t.Notes, w)
 	}
 	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	vals := s.values(st, r, nd+k, walds, seNote, sd)
+	// The leads and lags are nuisance terms the table does not show.
+	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}}
+	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
+	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
+	return res, nil
+}
+
+// leadLagChoice returns how the leads and lags were set, for the note:
+// fixed, or chosen by a criterion over a stated range.
+func leadLagChoice(sp longrun.DOLSSpec, r *longrun.DOLSResult) string {
+	if sp.Select == longrun.Fixed {
+		return fmt.Sprintf("fixed at %d leads and %d lags", r.Leads, r.Lags)
+	}
+	return fmt.Sprintf("chosen by %s over 0–%d leads and 0–%d lags on a common sample, then re-estimated on the full sample", map[longrun.Selector]string{longrun.AIC: "AIC", longrun.BIC: "BIC"}[sp.Select], sp.MaxLeads, sp.MaxLags)
+}
+
+// values returns the results-file values of a DOLS result whose first
+// nk terms are the long-run ones (the rest, the leads and lags, go under
+// dynamics), with the bandwidth of a HAC covariance.
+func (s *dolsSpec) values(st dolsSettings, r *longrun.DOLSResult, nk int, walds []waldResult, seNote string, sd *engine.Data) map[string]any {
+	terms, coefs := r.Names[:nk], r.Table[:nk]
 	var dyn []map[string]any
-	if len(r.Names) > nd+k {
-		dyn = engine.CoefValues(r.Names[nd+k:], r.Table[nd+k:])
+	if len(r.Names) > nk {
+		dyn = engine.CoefValues(r.Names[nk:], r.Table[nk:])
 	}
 	sel := "fixed"
 	if st.spec.Select == longrun.AIC {
@@ -248,11 +270,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals["hac_lags"] = st.spec.Cov.Lags
 		vals["kernel"] = "bartlett"
 	}
-	// The leads and lags are nuisance terms the table does not show.
-	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}}
-	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
-	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
-	return res, nil
+	return vals
 }
 
 func (s *fmolsSpec) settings(c *engine.Context) (longrun.FMOLSSpec, error) {

@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"math"
 
-	"gonum.org/v1/gonum/mat"
-
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
@@ -57,25 +55,9 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	withConst := s.Const == nil || *s.Const
-	var terms []string
-	if withConst {
-		terms = append(terms, "const")
-	}
-	terms = append(terms, s.X...)
-	n, k := d.N(), len(terms)
-	if n <= k {
-		return nil, c.Errorf("", "too few observations: %d in the sample %s for %d coefficients", n, d.Range(), k)
-	}
-	x := mat.NewDense(n, k, nil)
-	for i := 0; i < n; i++ {
-		j := 0
-		if withConst {
-			x.Set(i, 0, 1)
-			j = 1
-		}
-		for l := range s.X {
-			x.Set(i, j+l, d.Cols[1+l][i])
-		}
+	terms, x, err := engine.Regressors(c, d, s.X, withConst, 0)
+	if err != nil {
+		return nil, err
 	}
 	fit, err := ols.Regress(d.Cols[0], x)
 	if err != nil {
