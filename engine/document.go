@@ -43,6 +43,12 @@ type Document struct {
 	Body     []byte // the Markdown after the front matter
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
+	// Outline numbers the manuscript's sections and marks its appendix.
+	Outline *manuscript.Outline
+
+	anchors   map[string]*Anchor // equations and sections, by id
+	cites     []*manuscript.CiteNode
+	eqNumbers map[*manuscript.MathBlock]string
 
 	src    []byte                  // the manuscript as read (normalised line ends)
 	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
@@ -93,6 +99,9 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		return nil, manuscript.ErrAt(path, manuscript.FirstBadUTF8Line(src), "manuscript is not valid UTF-8")
 	}
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
+	if line, r := manuscript.FirstControlChar(src); line > 0 {
+		return nil, manuscript.ErrAt(path, line, "the manuscript contains the control character U+%04X; remove it", r)
+	}
 	front, body, bodyLine, _ := manuscript.SplitFrontMatter(src)
 	meta, err := manuscript.ParseMeta(path, front)
 	if err != nil {
@@ -132,6 +141,7 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		}
 		d.byID[b.id] = b
 	}
+	errs = append(errs, d.scanText()...)
 	if len(errs) > 0 {
 		return nil, errors.Join(errs...)
 	}
@@ -287,18 +297,7 @@ func (d *Document) Run() error {
 	if len(errs) > 0 {
 		return errors.Join(errs...)
 	}
-	tables, figures := 0, 0
-	for _, b := range d.blocks {
-		switch {
-		case b.result.Table != nil:
-			tables++
-			b.result.Number = tables
-		case b.result.Figure != nil:
-			figures++
-			b.result.Number = figures
-			b.result.Values["number"] = figures
-		}
-	}
+	d.number()
 	for _, r := range d.refs {
 		if _, err := d.Inline(r); err != nil {
 			errs = append(errs, err)

@@ -64,6 +64,49 @@ func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, h.fenced)
 	reg.Register(manuscript.KindRef, h.ref)
 	reg.Register(manuscript.KindMath, h.math)
+	reg.Register(manuscript.KindMathBlock, h.mathBlock)
+	reg.Register(ast.KindHeading, h.heading)
+}
+
+func (h *htmlNodes) mathBlock(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkSkipChildren, nil
+	}
+	n := node.(*manuscript.MathBlock)
+	id := ""
+	if n.ID != "" {
+		id = ` id="eq-` + html.EscapeString(n.ID) + `"`
+	}
+	writeEquation(w, id, n.TeX, h.doc.EquationNumber(n))
+	return ast.WalkSkipChildren, nil
+}
+
+// writeEquation writes a display equation with its number at the right.
+func writeEquation(w util.BufWriter, id, tex, number string) {
+	w.WriteString(`<div class="equation"` + id + `>` + mathML(tex, true))
+	if number != "" {
+		w.WriteString(`<span class="eqno">(` + html.EscapeString(number) + `)</span>`)
+	}
+	w.WriteString("</div>\n")
+}
+
+func (h *htmlNodes) heading(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	n := node.(*ast.Heading)
+	tag := "h" + string(rune('0'+n.Level))
+	if !entering {
+		w.WriteString("</" + tag + ">\n")
+		return ast.WalkContinue, nil
+	}
+	s := h.doc.Section(n)
+	w.WriteString("<" + tag)
+	if s != nil && s.ID != "" {
+		w.WriteString(` id="sec-` + html.EscapeString(s.ID) + `"`)
+	}
+	w.WriteString(">")
+	if s != nil && s.Number != "" {
+		w.WriteString(`<span class="secnum">` + html.EscapeString(s.Number) + `</span> `)
+	}
+	return ast.WalkContinue, nil
 }
 
 func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -104,8 +147,8 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 		return ast.WalkStop, err
 	}
 	switch {
-	case t.Target != nil:
-		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(anchor(t.Target)), html.EscapeString(t.Text))
+	case t.XRef != nil:
+		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(xrefAnchor(t.XRef)), html.EscapeString(t.Text))
 	case t.Numeric:
 		w.WriteString(html.EscapeString(htmlMinus(t.Text)))
 	default:
@@ -117,11 +160,11 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 func (h *htmlNodes) math(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
 	if entering {
 		n := node.(*manuscript.MathNode)
-		cls := "math"
 		if n.Display {
-			cls = "math-display"
+			w.WriteString(`<span class="math-display">` + mathML(n.TeX, true) + `</span>`)
+		} else {
+			w.WriteString(mathML(n.TeX, false))
 		}
-		w.WriteString(`<span class="` + cls + `">` + texToHTML(n.TeX) + `</span>`)
 	}
 	return ast.WalkContinue, nil
 }
@@ -135,10 +178,23 @@ func htmlMinus(s string) string {
 }
 
 func anchor(r *engine.Result) string {
-	if r.Figure != nil {
-		return "fig-" + r.ID
+	if x := r.XRef(); x != nil {
+		return xrefAnchor(x)
 	}
-	return "tab-" + r.ID
+	return "res-" + r.ID
+}
+
+// xrefAnchor is the element id of a cross-reference target.
+func xrefAnchor(x *engine.XRef) string {
+	switch x.Kind {
+	case "figure":
+		return "fig-" + x.ID
+	case "equation":
+		return "eq-" + x.ID
+	case "section":
+		return "sec-" + x.ID
+	}
+	return "tab-" + x.ID
 }
 
 func writeHTMLResult(w util.BufWriter, r *engine.Result) {
@@ -155,6 +211,14 @@ func writeHTMLResult(w util.BufWriter, r *engine.Result) {
 		w.Write(inlineSVG(r.Figure.SVG))
 		writeHTMLNotes(w, r.Figure.Notes)
 		w.WriteString("</figure>\n")
+	case r.Equation != nil:
+		w.WriteString(`<div class="result estimated">` + "\n")
+		writeEquation(w, ` id="`+html.EscapeString(anchor(r))+`"`, r.Equation.TeX(), r.Tag)
+		if r.Equation.Stats != "" {
+			w.WriteString(`<p class="eqstats">` + mathML(r.Equation.Stats, false) + `</p>`)
+		}
+		writeHTMLNotes(w, r.Equation.Notes)
+		w.WriteString("</div>\n")
 	case r.Text != "":
 		w.WriteString("<p>" + html.EscapeString(r.Text) + "</p>\n")
 	}

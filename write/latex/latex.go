@@ -44,7 +44,7 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root)}
+	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root), notes: footnotes(d.Root)}
 	if err := w.blocks(d.Root); err != nil {
 		return nil, err
 	}
@@ -64,10 +64,24 @@ func Fragment(r *engine.Result) []byte {
 }
 
 type texWriter struct {
-	doc    *engine.Document
-	out    *bytes.Buffer
-	figDir string
-	top    int // the highest heading level used, typeset as \section
+	doc      *engine.Document
+	out      *bytes.Buffer
+	figDir   string
+	top      int // the highest heading level used, typeset as \section
+	notes    map[int]*east.Footnote
+	appendix bool // \appendix has been written
+}
+
+// footnotes maps each footnote's index to its text.
+func footnotes(root ast.Node) map[int]*east.Footnote {
+	out := map[int]*east.Footnote{}
+	_ = ast.Walk(root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if f, ok := n.(*east.Footnote); ok && entering {
+			out[f.Index] = f
+		}
+		return ast.WalkContinue, nil
+	})
+	return out
 }
 
 // topHeading is the smallest heading level in the document (1 if none),
@@ -96,6 +110,10 @@ func texAuthors(names []string) string {
 
 func (w *texWriter) blocks(parent ast.Node) error {
 	for n := parent.FirstChild(); n != nil; n = n.NextSibling() {
+		if parent == w.doc.Root && !w.appendix && w.doc.Outline.AppendixAt >= 0 && startOf(n) >= w.doc.Outline.AppendixAt {
+			w.appendix = true
+			w.out.WriteString("\n\\galleyappendix\n")
+		}
 		if err := w.block(n); err != nil {
 			return err
 		}
@@ -108,13 +126,38 @@ var texSections = []string{"section", "subsection", "subsubsection", "paragraph"
 func (w *texWriter) block(n ast.Node) error {
 	src := w.doc.Body
 	o := w.out
+	if n.Type() == ast.TypeBlock && n.Lines().Len() > 0 {
+		fmt.Fprintf(o, "%% galley:line %d\n", w.doc.LineOf(n.Lines().At(0).Start))
+	}
 	switch n := n.(type) {
 	case *ast.Heading:
-		o.WriteString("\n\\" + texSections[min(max(n.Level-w.top, 0), 5)] + "{")
+		sec := w.doc.Section(n)
+		level := min(max(n.Level-w.top, 0), 5)
+		o.WriteString("\n\\" + texSections[level])
+		if sec == nil || sec.Number == "" {
+			o.WriteString("*")
+		}
+		o.WriteString("{")
 		if err := w.inlines(n); err != nil {
 			return err
 		}
-		o.WriteString("}\n")
+		o.WriteString("}")
+		if sec != nil && sec.ID != "" {
+			o.WriteString("\\label{sec:" + sec.ID + "}")
+		}
+		o.WriteString("\n")
+	case *manuscript.MathBlock:
+		if !n.Numbered {
+			o.WriteString("\\[\n" + n.TeX + "\n\\]\n")
+			return nil
+		}
+		o.WriteString("\\begin{equation}")
+		if n.ID != "" {
+			o.WriteString("\\label{eq:" + n.ID + "}")
+		}
+		o.WriteString("\n" + n.TeX + "\n\\end{equation}\n")
+	case *east.FootnoteList:
+		// each footnote is written where it is referred to
 	case *ast.Paragraph, *ast.TextBlock:
 		o.WriteString("\n")
 		if err := w.inlines(n); err != nil {
@@ -253,18 +296,31 @@ func (w *texWriter) inline(n ast.Node) error {
 		} else {
 			o.WriteString("$" + n.TeX + "$")
 		}
+	case *east.FootnoteLink:
+		f := w.notes[n.Index]
+		if f == nil {
+			return nil
+		}
+		o.WriteString("\\footnote{")
+		for c := f.FirstChild(); c != nil; c = c.NextSibling() {
+			if c != f.FirstChild() {
+				o.WriteString("\\par ")
+			}
+			if err := w.inlines(c); err != nil {
+				return err
+			}
+		}
+		o.WriteString("}")
+	case *east.FootnoteBacklink:
+		// the footnote mark is LaTeX's own
 	case *manuscript.RefNode:
 		t, err := w.doc.Inline(n)
 		if err != nil {
 			return err
 		}
 		switch {
-		case t.Target != nil:
-			kind := "Table"
-			if t.Target.Figure != nil {
-				kind = "Figure"
-			}
-			o.WriteString(kind + "~\\ref{" + texLabel(t.Target) + "}")
+		case t.XRef != nil:
+			o.WriteString(texXRef(t))
 		case t.Numeric:
 			o.WriteString(texNumber(t.Text))
 		default:
@@ -277,10 +333,49 @@ func (w *texWriter) inline(n ast.Node) error {
 }
 
 func texLabel(r *engine.Result) string {
-	if r.Figure != nil {
+	switch {
+	case r.Figure != nil:
 		return "fig:" + r.ID
+	case r.Equation != nil:
+		return "eq:" + r.ID
 	}
 	return "tab:" + r.ID
+}
+
+// texXRef writes a cross-reference with LaTeX's own \ref, so that the
+// number printed is the one LaTeX gave the target (galley's numbering
+// and LaTeX's agree; the text before it is galley's).
+func texXRef(t engine.InlineValue) string {
+	x := t.XRef
+	switch x.Kind {
+	case "figure":
+		return "Figure~\\ref{fig:" + x.ID + "}"
+	case "equation":
+		return "\\eqref{eq:" + x.ID + "}"
+	case "section":
+		word, _, _ := strings.Cut(t.Text, " ")
+		return texEscape(word) + "~\\ref{sec:" + x.ID + "}"
+	}
+	return "Table~\\ref{tab:" + x.ID + "}"
+}
+
+// startOf is the body offset where a block starts (-1 if unknown).
+func startOf(n ast.Node) int {
+	if m, ok := n.(*manuscript.MathBlock); ok {
+		return m.Offset
+	}
+	if n.Type() == ast.TypeBlock && n.Lines().Len() > 0 {
+		return n.Lines().At(0).Start
+	}
+	if f, ok := n.(*ast.FencedCodeBlock); ok && f.Info != nil {
+		return f.Info.Segment.Start
+	}
+	for c := n.FirstChild(); c != nil; c = c.NextSibling() {
+		if s := startOf(c); s >= 0 {
+			return s
+		}
+	}
+	return -1
 }
 
 // texNumber puts a number in math mode when it has a sign, so that the
@@ -302,6 +397,18 @@ func (w *texWriter) result(r *engine.Result) {
 		fmt.Fprintf(w.out, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
 		writeTeXNotes(w.out, r.Figure.Notes)
 		w.out.WriteString("\\end{figure}\n")
+	case r.Equation != nil:
+		fmt.Fprintf(w.out, "\\begin{equation}\\label{%s}\n%s\n\\end{equation}\n", texLabel(r), r.Equation.TeX())
+		if r.Equation.Stats != "" || len(r.Equation.Notes) > 0 {
+			w.out.WriteString("\\begin{center}\\footnotesize ")
+			if r.Equation.Stats != "" {
+				w.out.WriteString("$" + r.Equation.Stats + "$")
+			}
+			for _, n := range r.Equation.Notes {
+				w.out.WriteString("\\\\\n" + texEscape(n))
+			}
+			w.out.WriteString("\n\\end{center}\n")
+		}
 	case r.Text != "":
 		w.out.WriteString("\n" + texEscape(r.Text) + "\n")
 	}

@@ -40,10 +40,40 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 			return nil, err
 		}
 		s := mdEscape(t.Text)
-		if t.Target != nil {
+		if t.XRef != nil {
 			s = t.Text
 		}
 		rs = append(rs, repl{n.Offset, n.End, s})
+	}
+	// Display equations keep $$ … $$ with galley's number as \tag, which
+	// downstream math renderers show; sections get galley's numbers; the
+	// appendix marker goes.
+	for _, m := range d.Outline.Equations {
+		tex := "$$\n" + m.TeX
+		if num := d.EquationNumber(m); num != "" {
+			tex += " \\tag{" + num + "}"
+		}
+		rs = append(rs, repl{m.Offset, m.End, tex + "\n$$\n"})
+	}
+	for _, s := range d.Outline.Sections {
+		end := s.TextEnd
+		if nl := bytes.IndexByte(d.Body[end:], '\n'); nl >= 0 {
+			end += nl
+		} else {
+			end = len(d.Body)
+		}
+		title := strings.TrimSpace(string(d.Body[s.TextStart+leading(d.Body[s.TextStart:s.TextEnd])+s.Skip : s.TextEnd]))
+		if s.Number != "" {
+			title = s.Number + " " + title
+		}
+		rs = append(rs, repl{s.TextStart, end, title})
+	}
+	if o := d.Outline; o.AppendixAt >= 0 && o.AppendixMarker != nil {
+		end := o.MarkerEnd
+		if end < len(d.Body) && d.Body[end-1] != '\n' {
+			end++
+		}
+		rs = append(rs, repl{o.AppendixAt, end, ""})
 	}
 	sort.Slice(rs, func(i, j int) bool { return rs[i].start < rs[j].start })
 	var out bytes.Buffer
@@ -113,11 +143,21 @@ func mdResult(r *engine.Result, figDir string) string {
 			b.WriteString("\n*" + mdEscape(n) + "*\n")
 		}
 		b.WriteString("\n")
+	case r.Equation != nil:
+		b.WriteString("$$\n" + r.Equation.TeX() + " \\tag{" + r.Tag + "}\n$$\n\n")
+		if r.Equation.Stats != "" {
+			b.WriteString("$" + r.Equation.Stats + "$\n\n")
+		}
+		for _, n := range r.Equation.Notes {
+			b.WriteString("*" + mdEscape(n) + "*\n\n")
+		}
 	case r.Text != "":
 		b.WriteString(mdEscape(r.Text) + "\n\n")
 	}
 	return b.String()
 }
+
+func leading(b []byte) int { return len(b) - len(bytes.TrimLeft(b, " \t")) }
 
 // mdHeader flattens the header rows into one row of labels: a spanning
 // group label is prefixed to each column it covers.
