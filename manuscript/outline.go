@@ -35,7 +35,7 @@ type Outline struct {
 	AppendixMarker ast.Node
 	// MarkerEnd is the body offset just past the marker's line.
 	MarkerEnd int
-	Equations      []*MathBlock
+	Equations []*MathBlock
 }
 
 // MaxNumberedLevel is the deepest heading level galley numbers
