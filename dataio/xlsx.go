@@ -1,6 +1,7 @@
 package dataio
 
 import (
+	"bytes"
 	"fmt"
 	"io"
 	"strconv"
@@ -9,9 +10,6 @@ import (
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/xuri/excelize/v2"
 )
-
-// maxUnzip bounds the decompressed size of a workbook.
-const maxUnzip = 1 << 30
 
 // ReadXLSX reads one sheet of an Office Open XML workbook (.xlsx)
 // through github.com/xuri/excelize/v2 and builds the frame with
@@ -26,8 +24,17 @@ const maxUnzip = 1 << 30
 // format shows a date, and whole numbers of five or more digits in the
 // date column. A #N/A cell is a missing value. Every error is a
 // *series.DataError naming the source. The whole workbook is held in
-// memory.
-func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
+// memory; r is read up to MaxDataBytes, and a workbook that expands
+// beyond maxExpanded bytes or whose sheets span more than maxCells
+// cells is refused before the library reads it.
+func ReadXLSX(r io.Reader, source, sheet string) (*series.Frame, error) {
+	return ReadXLSXAs(r, source, sheet, series.Undated)
+}
+
+// ReadXLSXAs is ReadXLSX with the frequency declared by the caller
+// instead of inferred from the dates (see series.FromCellsAs); Undated
+// infers it.
+func ReadXLSXAs(r io.Reader, source, sheet string, freq series.Freq) (fr *series.Frame, err error) {
 	bad := func(format string, args ...any) error {
 		return &series.DataError{Source: source, Msg: fmt.Sprintf(format, args...)}
 	}
@@ -37,7 +44,17 @@ func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
 			fr, err = nil, bad("not a readable .xlsx workbook: %v", p)
 		}
 	}()
-	f, err := excelize.OpenReader(r, excelize.Options{UnzipSizeLimit: maxUnzip})
+	b, err := io.ReadAll(io.LimitReader(r, MaxDataBytes+1))
+	if err != nil {
+		return nil, bad("reading: %v", err)
+	}
+	if len(b) > MaxDataBytes {
+		return nil, bad("larger than %d MB, the most galley reads from one file", MaxDataBytes>>20)
+	}
+	if err := checkBounds(b); err != nil {
+		return nil, bad("%v", err)
+	}
+	f, err := excelize.OpenReader(bytes.NewReader(b), excelize.Options{UnzipSizeLimit: maxExpanded})
 	if err != nil {
 		return nil, bad("not an .xlsx workbook: %v", err)
 	}
@@ -68,5 +85,5 @@ func ReadXLSX(r io.Reader, source, sheet string) (fr *series.Frame, err error) {
 	if err != nil {
 		return nil, bad("sheet %q: %v", name, err)
 	}
-	return series.FromCells(source, name, rows)
+	return series.FromCellsAs(source, name, rows, freq)
 }

@@ -134,6 +134,26 @@ func (c *Context) Upstream(key, id string, kinds ...string) (Directive, error) {
 	return b.dir, nil
 }
 
+// CheckRefWhere validates a reference to a directive whose kind
+// satisfies ok (a capability its registration declares, such as
+// Kind.Model), without running it; the error names the kinds that do.
+func (c *Context) CheckRefWhere(key, id string, ok func(*Kind) bool) error {
+	b, err := c.refBlock(key, id)
+	if err != nil {
+		return err
+	}
+	if !ok(b.kind) {
+		var names []string
+		for _, k := range Kinds() {
+			if ok(k) {
+				names = append(names, k.Name)
+			}
+		}
+		return c.Errorf(key, "%q is a %s result (line %d); this needs %s", id, b.kind.Name, b.line, strings.Join(names, " or "))
+	}
+	return nil
+}
+
 // CheckRef validates a reference to another directive without running it.
 func (c *Context) CheckRef(key, id string, kinds ...string) error {
 	_, err := c.refBlock(key, id, kinds...)

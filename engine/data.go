@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"fmt"
@@ -80,6 +81,20 @@ func (s *dataStore) path(alias string) (manuscript.DataRef, string, error) {
 	return ref, p, nil
 }
 
+// vintageOf is the vintage whose file the alias reads in this build, or
+// "" when it reads its current (default) file.
+func (s *dataStore) vintageOf(alias string) string {
+	ref, ok := s.doc.Meta.Data[alias]
+	v := s.doc.opts.Vintage
+	if !ok || v == "" || v == "default" {
+		return ""
+	}
+	if _, ok := ref.Vintage[v]; ok {
+		return v
+	}
+	return ""
+}
+
 // frame loads the data behind an alias (once).
 func (s *dataStore) frame(alias string) (*series.Frame, error) {
 	if f, ok := s.frames[alias]; ok {
@@ -106,7 +121,7 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	if err != nil {
 		return nil, fmt.Errorf("data alias %q: %w", alias, err)
 	}
-	raw, err := os.ReadFile(full)
+	raw, err := dataio.ReadFile(full, dataio.MaxDataBytes)
 	if err != nil {
 		return nil, fmt.Errorf("data alias %q: %w", alias, err)
 	}
@@ -116,12 +131,12 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 	var f *series.Frame
 	switch strings.ToLower(filepath.Ext(full)) {
 	case ".xlsx":
-		f, err = dataio.ReadXLSX(strings.NewReader(string(raw)), display, ref.Sheet)
+		f, err = dataio.ReadXLSXAs(bytes.NewReader(raw), display, ref.Sheet, ref.Freq())
 	default:
 		if ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
 		}
-		f, err = series.ReadCSV(strings.NewReader(string(raw)), display)
+		f, err = series.ReadCSVAs(bytes.NewReader(raw), display, ref.Freq())
 	}
 	if err != nil {
 		return nil, err
@@ -186,6 +201,9 @@ type Data struct {
 	// Dropped are the dates inside the sample left out for missing values
 	// (with missing: drop).
 	Dropped []series.Date
+	// Clipped says how the sample window was cut to the data of an
+	// earlier vintage ("" when it was not).
+	Clipped string
 }
 
 // N is the number of observations.
@@ -209,6 +227,9 @@ func (d *Data) SampleNote() string {
 			ds = append(ds, x.String())
 		}
 		s += fmt.Sprintf(" %d observations with missing values inside the sample were left out (%s); lags and differences span the gaps as if the remaining observations were consecutive.", len(d.Dropped), strings.Join(ds, ", "))
+	}
+	if d.Clipped != "" {
+		s += " " + d.Clipped
 	}
 	return s
 }
@@ -245,13 +266,27 @@ func (c *Context) DataUsing(alias string, exprs []string, sample, missing string
 		v.Name = s
 		ss[i] = v
 	}
+	clipped := ""
 	if sample != "" {
 		w, err := series.ParseWindow(sample)
 		if err != nil {
 			return nil, c.Errorf("sample", "sample %q: %v", sample, err)
 		}
+		// A sample written for the current data may reach past an
+		// earlier, shorter vintage: in a build on that vintage it is cut
+		// to the data, and the sample note says so.
+		vintage := c.doc.data.vintageOf(alias)
+		if vintage != "" {
+			if cw, moved := w.Clip(f.Dates); moved {
+				clipped = fmt.Sprintf("Warning: the sample %s reaches past the data of vintage %q (%s to %s) and was cut to %s.", w, vintage, f.Dates[0], f.Dates[len(f.Dates)-1], cw)
+				w = cw
+			}
+		}
 		for i := range ss {
 			if ss[i], err = w.Apply(ss[i]); err != nil {
+				if vintage != "" {
+					return nil, c.Errorf("sample", "%v (in the build on vintage %q of data alias %q)", err, vintage, alias)
+				}
 				return nil, c.Errorf("sample", "%v", err)
 			}
 		}
@@ -268,7 +303,7 @@ func (c *Context) DataUsing(alias string, exprs []string, sample, missing string
 			}
 		}
 	}
-	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f, Dropped: al.Dropped}, nil
+	return &Data{Freq: f.Freq, Dates: al.Dates, Cols: al.Values, Labels: exprs, Frame: f, Dropped: al.Dropped, Clipped: clipped}, nil
 }
 
 // CheckData validates an alias, expressions and a sample without running.
@@ -335,4 +370,44 @@ func (c *Context) exprKey(expr string) string {
 		}
 	}
 	return ""
+}
+
+// Constant reports whether column j takes one value at every
+// observation of the sample (and there is more than one).
+func (d *Data) Constant(j int) bool {
+	col := d.Cols[j]
+	if len(col) < 2 {
+		return false
+	}
+	for _, v := range col[1:] {
+		if v != col[0] {
+			return false
+		}
+	}
+	return true
+}
+
+// RefuseConstant returns an error for the first of the columns cols of
+// d (every column when cols is empty) that is constant over the sample:
+// a regression on it, or of it, is degenerate, and its statistics are
+// rounding noise. The error is at key, or at the key whose value names
+// the column's expression when key is ""; why says what the directive
+// cannot do with it.
+func (c *Context) RefuseConstant(d *Data, key, why string, cols ...int) error {
+	if len(cols) == 0 {
+		for j := range d.Cols {
+			cols = append(cols, j)
+		}
+	}
+	for _, j := range cols {
+		if !d.Constant(j) {
+			continue
+		}
+		k := key
+		if k == "" {
+			k = c.exprKey(d.Labels[j])
+		}
+		return c.Errorf(k, "%s is constant (%.6g at all %d observations, %s): %s", d.Labels[j], d.Cols[j][0], d.N(), d.Range(), why)
+	}
+	return nil
 }

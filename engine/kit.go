@@ -8,7 +8,9 @@ import (
 	"fmt"
 
 	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/restrict"
+	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/manuscript"
 )
 
@@ -46,4 +48,58 @@ func ParseRestriction(text string, names []string, opt restrict.Options) (*restr
 		return nil, fmt.Errorf("%w%s", err, manuscript.DidYouMean(re.Term, names))
 	}
 	return lin, err
+}
+
+// modelStatKeys are the summary statistics a contract.Model carries when
+// a result's values have them.
+var modelStatKeys = []string{"nobs", "r2", "r2_adj", "sigma", "loglik", "dw", "alpha", "halflife", "leads", "lags", "bandwidth"}
+
+// ModelOf is a result's contract.Model, built from what its own table and
+// values already hold, so that the table, the results file and every
+// reader of the model agree: the coefficients shown (terms and coefs),
+// the summary statistics and residual diagnostics under their keys in
+// vals, the standard errors described by vals["se_desc"] (else the
+// covariance vals["cov"] names), and the sample vals["sample"]. normal
+// says the t-ratios are judged against the standard normal; omitted says
+// what the coefficients leave out.
+func ModelOf(method, dep string, terms []string, coefs []ols.Coef, vals map[string]any, normal bool, omitted string) *contract.Model {
+	m := &contract.Model{Method: method, Dependent: dep, Stats: map[string]float64{}, Normal: normal, Omitted: omitted}
+	for i, t := range terms {
+		m.Coefs = append(m.Coefs, contract.Coef{Term: t, Est: coefs[i].Est, SE: coefs[i].SE, T: coefs[i].T, P: coefs[i].P})
+	}
+	for _, k := range modelStatKeys {
+		switch v := vals[k].(type) {
+		case int:
+			m.Stats[k] = float64(v)
+		case float64:
+			m.Stats[k] = v
+		}
+	}
+	if ds, ok := vals["diagnostics"].(map[string]any); ok {
+		m.Diagnostics = map[string]contract.Diagnostic{}
+		for k, raw := range ds {
+			d, _ := raw.(map[string]any)
+			label, _ := d["test"].(string)
+			stat, _ := d["stat"].(float64)
+			p, _ := d["pvalue"].(float64)
+			m.Diagnostics[k] = contract.Diagnostic{Label: label, Stat: stat, P: p}
+		}
+	}
+	if _, ok := m.Stats["dw"]; !ok { // an ecm reports Durbin–Watson among its diagnostics
+		if d, ok := m.Diagnostics["dw"]; ok {
+			m.Stats["dw"] = d.Stat
+		}
+	}
+	m.SE, _ = vals["se_desc"].(string)
+	if m.SE == "" {
+		if s, ok := vals["cov"].(string); ok {
+			if cv, err := ols.ParseCov(s); err == nil {
+				m.SE = cv.Describe()
+			}
+		}
+	}
+	if s, ok := vals["sample"].(map[string]any); ok {
+		m.Sample = fmt.Sprintf("%v–%v, N = %v", s["from"], s["to"], s["n"])
+	}
+	return m
 }

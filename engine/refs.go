@@ -41,8 +41,8 @@ func parseRef(s string) (ref, error) {
 	return r, nil
 }
 
-// Fields every result has, whatever its kind.
-var commonFields = []string{"label", "number", "id", "kind"}
+// CommonFields are the fields every result has, whatever its kind.
+var CommonFields = []string{"label", "number", "id", "kind"}
 
 func (d *Document) checkRef(n *manuscript.RefNode) (ref, error) {
 	line := d.LineOf(n.Offset)
@@ -63,8 +63,8 @@ func (d *Document) checkRef(n *manuscript.RefNode) (ref, error) {
 	if !ok {
 		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: no directive has id %q, nor any equation or section%s", n.Ref, r.id, manuscript.DidYouMean(r.id, d.refIDs()))
 	}
-	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(commonFields, r.path[0]) {
-		all := append(slices.Clone(f), commonFields...)
+	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(CommonFields, r.path[0]) {
+		all := append(slices.Clone(f), CommonFields...)
 		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: a %s result has no field %q%s; fields: %s", n.Ref, b.kind.Name, r.path[0], manuscript.DidYouMean(r.path[0], all), strings.Join(all, ", "))
 	}
 	return r, nil

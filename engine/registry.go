@@ -40,6 +40,9 @@ type Kind struct {
 	// Fields are the top-level value names its results carry, for checking
 	// inline references before anything runs. Nil means any.
 	Fields []string
+	// Model: its results are one estimated equation (Result.Model is
+	// set), so model tables and estimated equations can show them.
+	Model bool
 }
 
 var kinds = map[string]*Kind{}

@@ -72,7 +72,7 @@ type SimSettings struct {
 }
 
 // simKinds are the kinds that accept crit: simulate.
-var simKinds = []string{"adf", "engle-granger", "johansen", "vecm"}
+var simKinds = []string{"adf", "engle-granger", "gregory-hansen", "johansen", "vecm"}
 
 // simulated reports whether the keys ask for simulated critical values
 // (only meaningful after settings accepted them).

@@ -109,25 +109,27 @@ func TestECMWiring(t *testing.T) {
 	checkDiag(t, "ecm_north", "dw", v, dw, err)
 
 	// ecm_south: p = 2, q = 0, HAC(4), an extra regressor whose first two
-	// values are missing (so the data start at 2004-03), diagnostics with
-	// orders as written.
+	// values are missing (it enters at time t, so the first usable
+	// observation is 2004-04, where the lags of d.log(south) first
+	// exist), diagnostics with orders as written.
 	egs, err := coint.EngleGranger(g.south, [][]float64{g.north}, critical.Const, unitroot.LagRule{Select: unitroot.BIC, Max: 6})
 	if err != nil {
 		t.Fatal(err)
 	}
 	extra := make([]float64, len(g.fuel))
+	extra[0], extra[1] = math.NaN(), math.NaN()
 	for i := 2; i < len(extra); i++ {
 		extra[i] = g.fuel[i-1] - g.fuel[i-2]
 	}
-	m, err = ecm.Estimate(ecm.Input{Y: g.south[2:], YName: "log(south)", X: [][]float64{g.north[2:]}, XNames: []string{"log(north)"},
-		ECT: egs.Resid[2:], Extra: [][]float64{extra[2:]}, ExtraNames: []string{"lag(diff(log(fuel)), 1)"}},
+	m, err = ecm.Estimate(ecm.Input{Y: g.south, YName: "log(south)", X: [][]float64{g.north}, XNames: []string{"log(north)"},
+		ECT: egs.Resid, Extra: [][]float64{extra}, ExtraNames: []string{"lag(diff(log(fuel)), 1)"}},
 		ecm.Spec{YLags: 2, XLags: 0, Cov: ols.CovSpec{Kind: ols.HAC, Lags: 4}})
 	if err != nil {
 		t.Fatal(err)
 	}
 	v = resultByID(t, doc, "ecm_south").Values
 	checkECM(t, "ecm_south", v, m)
-	if s := v["sample"].(map[string]any); s["from"] != "2004-06" || s["n"] != m.Fit.N {
+	if s := v["sample"].(map[string]any); s["from"] != "2004-04" || s["n"] != m.Fit.N || m.First != 3 {
 		t.Errorf("ecm_south sample %v", s)
 	}
 	bg, err = diag.BreuschGodfrey(m.Fit, 6)

@@ -14,7 +14,6 @@ import (
 	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
-	djohansen "github.com/galley-econ/galley/directive/johansen"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/resultsfile"
 )
@@ -117,7 +116,7 @@ const sysDKFront = "---\ntitle: T\ndata:\n  dk: data.csv\n---\n"
 // lagged difference (urca K = 2), with the restriction tests that
 // testdata/scripts/johansen_urca.R runs.
 const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\nnormalize: LRM\n" +
-	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogenous: [LRY, [LRY, IBO]]\n```\n\n" +
+	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogeneity_tests: [LRY, [LRY, IBO]]\n```\n\n" +
 	"```galley vecm\nid: dkv\nfrom: dk\nshow: short-run\n```\n"
 
 // TestJohansenDenmarkUrca checks the values a manuscript reports against
@@ -315,7 +314,7 @@ func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
 // examples/gridlink/gen/main.go) the sequential trace tests at 5% in the
 // demo's specification (case c, lags by BIC up to 12) choose rank 2.
 func TestJohansenDemoRank(t *testing.T) {
-	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogenous: [log(fuel)]\n```\n"
+	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogeneity_tests: [log(fuel)]\n```\n"
 	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../examples/gridlink/data/gridlink.csv")})["sys"]
 	if r := sysAt(t, vals, "rank_chosen"); r != 2 {
 		t.Fatalf("sequential rank = %v, want 2 (trace %v, 5%% critical values %v)", r, vals["trace"], vals["crit_trace"])
@@ -410,16 +409,16 @@ func TestJohansenBadInput(t *testing.T) {
 		{"normalize not a series", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nnormalize: LRX\n"), dk,
 			[]string{"paper.md:12:", `"LRX" is not one of the series`, "did you mean LRM?"}},
 		{"restrict unknown coefficient", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM = -LRZ\"\n"), dk,
-			[]string{"paper.md:12:", `"LRZ" is not a coefficient`}},
+			[]string{"paper.md:12:", `"LRZ" is not one of the terms (LRM, LRY, IBO) (did you mean LRM?)`}},
 		{"restrict const outside rc", jo("series: [LRM, LRY, IBO]\ndet: c\nlags: 1\nrank: 1\nrestrict:\n  h: \"const = 0\"\n"), dk,
 			[]string{"paper.md:13:", "const row only in case rc"}},
 		{"restrict without equals", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM + LRY\"\n"), dk,
-			[]string{"paper.md:12:", "single '='"}},
+			[]string{"paper.md:12:", `write one "=" per equation`}},
 		{"restrict dependent equations", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: [\"LRM = -LRY\", \"2 LRM + 2*LRY = 0\"]\n"), dk,
 			[]string{"paper.md:12:", "not independent"}},
-		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogenous: [[LRM, LRY]]\n"), dk,
-			[]string{"paper.md:12:", "exogenous at rank 2"}},
-		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogenous: [LRY]\n"), dk,
+		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogeneity_tests: [[LRM, LRY]]\n"), dk,
+			[]string{"paper.md:12:", "exogeneity_tests at rank 2"}},
+		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogeneity_tests: [LRY]\n"), dk,
 			[]string{"paper.md:7:", "choose rank", "set rank:"}},
 		{"vecm with neither", sysDKFront + "\n" + fence("vecm", "id: v\n"), dk,
 			[]string{"paper.md:7:", "give from:"}},
@@ -458,38 +457,6 @@ func TestJohansenBadInput(t *testing.T) {
 			}
 			inOrder(t, err.Error(), tc.want)
 		})
-	}
-}
-
-// TestParseRestriction: the equation syntax gives the rows of R'.
-func TestParseRestriction(t *testing.T) {
-	coefs := []string{"log(north)", "log(south)", "log(fuel)", "const"}
-	for _, c := range []struct {
-		eq   string
-		want []float64
-	}{
-		{"log(north) = -log(fuel)", []float64{1, 0, 1, 0}},
-		{"log(south) - log(north) = 0", []float64{-1, 1, 0, 0}},
-		{"-log(north) + 0.8*log(fuel) = const", []float64{-1, 0, 0.8, -1}},
-		{"2 log( fuel ) = 0", []float64{0, 0, 2, 0}},
-		{"1e-1*log(south) = log(south) - log(north)", []float64{1, 0.1 - 1, 0, 0}},
-	} {
-		got, err := djohansen.ParseRestriction(c.eq, coefs, johansen.RC)
-		if err != nil {
-			t.Errorf("%q: %v", c.eq, err)
-			continue
-		}
-		for i := range got {
-			if math.Abs(got[i]-c.want[i]) > 1e-15 {
-				t.Errorf("%q: row %v, want %v", c.eq, got, c.want)
-				break
-			}
-		}
-	}
-	for _, bad := range []string{"log(north) = 1", "log(north) = log(north)", "log(north) +", "log(north = 0", "a = b = c"} {
-		if _, err := djohansen.ParseRestriction(bad, coefs, johansen.RC); err == nil {
-			t.Errorf("%q: no error", bad)
-		}
 	}
 }
 

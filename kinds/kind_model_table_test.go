@@ -117,7 +117,7 @@ func TestModelTableBadInput(t *testing.T) {
 		runBad(t, mt("id: t\nmodels: [o, oo]\n"), files, "paper.md:21:", `no directive has id "oo"`)
 	})
 	t.Run("not a model", func(t *testing.T) {
-		runBad(t, mt("id: t\nmodels: [o, eg]\n"), files, "paper.md:21:", `"eg" is a engle-granger result`, "ols or ecm or dols or fmols")
+		runBad(t, mt("id: t\nmodels: [o, eg]\n"), files, "paper.md:21:", `"eg" is a engle-granger result`, "dols or ecm or fmols or ols")
 	})
 	t.Run("labels", func(t *testing.T) {
 		runBad(t, mt("id: t\nmodels: [o]\nlabels: [A, B]\n"), files, "paper.md:22:", "2 labels for 1 models")

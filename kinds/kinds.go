@@ -5,6 +5,7 @@ package kinds
 
 import (
 	_ "github.com/galley-econ/galley/directive/coint"
+	_ "github.com/galley-econ/galley/directive/dynamics"
 	_ "github.com/galley-econ/galley/directive/ecm"
 	_ "github.com/galley-econ/galley/directive/figure"
 	_ "github.com/galley-econ/galley/directive/grid"

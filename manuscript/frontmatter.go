@@ -6,6 +6,8 @@ import (
 	"strings"
 
 	"gopkg.in/yaml.v3"
+
+	"github.com/galley-econ/galley/analysis/series"
 )
 
 // Meta is the manuscript's front matter.
@@ -27,12 +29,26 @@ func (m *Meta) AllAuthors() []string { return append(append([]string{}, m.Author
 // Authors accepts one name or a list of names.
 type Authors = NameList
 
-// DataRef names a data file, with an optional sheet (XLSX) and vintages.
+// DataRef names a data file, with an optional sheet (XLSX), the
+// frequency of its dates when the reader should not infer it, and
+// vintages.
 type DataRef struct {
-	Path    string            `yaml:"path"`
-	Sheet   string            `yaml:"sheet"`
-	Vintage map[string]string `yaml:"vintage"`
-	Line    int               `yaml:"-"`
+	Path      string            `yaml:"path"`
+	Sheet     string            `yaml:"sheet"`
+	Frequency string            `yaml:"frequency"`
+	Vintage   map[string]string `yaml:"vintage"`
+	Line      int               `yaml:"-"`
+}
+
+// Freq is the declared frequency, or series.Undated when none is
+// declared (the reader infers it). Frequency was checked when the
+// front matter was read.
+func (d DataRef) Freq() series.Freq {
+	if d.Frequency == "" {
+		return series.Undated
+	}
+	f, _ := series.ParseFreq(d.Frequency)
+	return f
 }
 
 func (d *DataRef) UnmarshalYAML(n *yaml.Node) error {
@@ -53,6 +69,17 @@ func (d *DataRef) UnmarshalYAML(n *yaml.Node) error {
 	*d = DataRef(p)
 	if d.Path == "" && len(d.Vintage) == 0 {
 		return fmt.Errorf("line %d: a data entry needs a path", n.Line)
+	}
+	if d.Frequency != "" {
+		if _, err := series.ParseFreq(d.Frequency); err != nil {
+			line := n.Line
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				if n.Content[i].Value == "frequency" {
+					line = n.Content[i].Line
+				}
+			}
+			return fmt.Errorf("line %d: %v", line, err)
+		}
 	}
 	return nil
 }
@@ -87,7 +114,7 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 	}
 	var root yaml.Node
 	if err := yaml.Unmarshal(front, &root); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	if len(root.Content) == 0 {
 		return m, nil
@@ -97,10 +124,10 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 		return nil, ErrAt(file, 2, "front matter must be a mapping of keys to values")
 	}
 	if err := CheckKeys(doc, m); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	if err := doc.Decode(m); err != nil {
-		return nil, YamlError(file, 1, err)
+		return nil, YamlError(file, 2, err)
 	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {

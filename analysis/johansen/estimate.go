@@ -3,6 +3,7 @@ package johansen
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"github.com/galley-econ/galley/analysis/ols"
 	"gonum.org/v1/gonum/mat"
@@ -12,21 +13,22 @@ import (
 type TermKind int
 
 const (
-	Constant TermKind = iota // unrestricted constant
-	Trend                    // unrestricted trend (case CT)
-	LagDiff                  // lagged difference Δy_{Series, t−Lag}
+	Constant  TermKind = iota // unrestricted constant
+	Trend                     // unrestricted trend (case CT)
+	LagDiff                   // lagged difference Δy_{Series, t−Lag}
+	ExtraTerm                 // unrestricted extra regressor number Series (Extra)
 )
 
 // Term describes one short-run regressor.
 type Term struct {
 	Kind   TermKind
 	Lag    int // for LagDiff: 1..Lags
-	Series int // for LagDiff: column of y
+	Series int // for LagDiff: column of y; for ExtraTerm: column of Extra.Unrestricted
 }
 
 // Terms lists the short-run regressors in their column order: the
 // unrestricted deterministic terms, then Δy_{t−1} (all series), ...,
-// Δy_{t−Lags}.
+// Δy_{t−Lags}, then the unrestricted extra regressors.
 func (r *Result) Terms() []Term {
 	var out []Term
 	if d := r.Case.unrestricted(); d >= 1 {
@@ -39,6 +41,9 @@ func (r *Result) Terms() []Term {
 		for j := 0; j < r.K; j++ {
 			out = append(out, Term{Kind: LagDiff, Lag: l, Series: j})
 		}
+	}
+	for j := 0; j < r.NU; j++ {
+		out = append(out, Term{Kind: ExtraTerm, Series: j})
 	}
 	return out
 }
@@ -61,6 +66,77 @@ type VECM struct {
 	// deterministic terms), K×len(Terms), with OLS standard errors ShortSE.
 	Short, ShortSE *mat.Dense
 	Terms          []Term
+
+	// eqCov[i] is the classical OLS covariance s_i²(X'X)⁻¹ of equation
+	// i's coefficients (α_i', then the short-run terms), in the units of y;
+	// dfResid = T − rank − len(Terms).
+	eqCov   []*mat.SymDense
+	dfResid int
+
+	// Resid holds the residuals ε̂_t of the short-run equations given β
+	// (T×K, in the units of y); row t belongs to row t + Lags + 1 of the
+	// levels.
+	Resid *mat.Dense
+}
+
+// EquationCov returns the classical least-squares covariance matrix
+// s_i²(X'X)⁻¹, s_i² = e_i'e_i/(T − m), of the coefficients of equation i
+// given β: first the loadings α_i1..α_ir, then the short-run terms in the
+// order of Terms (the regression of Estimate), with T − m, the residual
+// degrees of freedom. Wald tests of zero restrictions in one equation
+// (Granger causality in the VECM) are built from it.
+func (m *VECM) EquationCov(i int) (*mat.SymDense, int, error) {
+	if i < 0 || i >= len(m.eqCov) {
+		return nil, 0, fmt.Errorf("johansen: equation %d is outside 0..%d", i, len(m.eqCov)-1)
+	}
+	return m.eqCov[i], m.dfResid, nil
+}
+
+// VARForm returns the coefficient matrices A_1..A_{k+1} of the VECM
+// written as a VAR in levels, y_t = Σ_{i=1}^{k+1} A_i y_{t−i} + ... + ε_t
+// (Lütkepohl 2005, §6.1):
+//
+//	A_1 = I_K + Π_y + Γ_1,  A_i = Γ_i − Γ_{i−1} (1 < i ≤ k),  A_{k+1} = −Γ_k,
+//
+// Π_y = αβ_y' with β_y the rows of β for the series (the restricted terms
+// belong to the deterministic part); with k = 0, A_1 = I_K + Π_y.
+func (m *VECM) VARForm() []*mat.Dense {
+	k, _ := m.Alpha.Dims()
+	lags := 0
+	for _, tm := range m.Terms {
+		if tm.Kind == LagDiff && tm.Lag > lags {
+			lags = tm.Lag
+		}
+	}
+	gamma := make([]*mat.Dense, lags+1) // gamma[l], l = 1..lags
+	for l := 1; l <= lags; l++ {
+		gamma[l] = mat.NewDense(k, k, nil)
+	}
+	for c, tm := range m.Terms {
+		if tm.Kind == LagDiff {
+			for i := 0; i < k; i++ {
+				gamma[tm.Lag].Set(i, tm.Series, m.Short.At(i, c))
+			}
+		}
+	}
+	var piY mat.Dense
+	piY.Mul(m.Alpha, m.Beta.Slice(0, k, 0, m.Rank).T())
+	out := make([]*mat.Dense, lags+1)
+	for i := range out {
+		out[i] = mat.NewDense(k, k, nil)
+	}
+	for i := 0; i < k; i++ {
+		out[0].Set(i, i, 1)
+	}
+	out[0].Add(out[0], &piY)
+	if lags >= 1 {
+		out[0].Add(out[0], gamma[1])
+		for i := 2; i <= lags; i++ {
+			out[i-1].Sub(gamma[i], gamma[i-1])
+		}
+		out[lags].Scale(-1, gamma[lags])
+	}
+	return out
 }
 
 // Estimate returns the rank-r VECM (Johansen 1995, §6.1 and ch. 13).
@@ -167,9 +243,6 @@ func (r *Result) unscaleShortRun(v *VECM, cInv []float64) {
 	d := r.scale
 	v.Alpha = outer(d, v.Alpha, cInv)
 	v.AlphaSE = outer(d, v.AlphaSE, cInv)
-	if v.Short == nil {
-		return
-	}
 	col := make([]float64, len(v.Terms))
 	for j, tm := range v.Terms {
 		col[j] = 1
@@ -177,8 +250,20 @@ func (r *Result) unscaleShortRun(v *VECM, cInv []float64) {
 			col[j] = 1 / d[tm.Series]
 		}
 	}
-	v.Short = outer(d, v.Short, col)
-	v.ShortSE = outer(d, v.ShortSE, col)
+	if v.Short != nil {
+		v.Short = outer(d, v.Short, col)
+		v.ShortSE = outer(d, v.ShortSE, col)
+	}
+	// Equation i's coefficients map by d_i times the column factor
+	// (C⁻¹ for the loadings, col for the short-run terms).
+	f := append(slices.Clone(cInv), col...)
+	for i, c := range v.eqCov {
+		g := make([]float64, len(f))
+		for j := range f {
+			g[j] = d[i] * f[j]
+		}
+		v.eqCov[i] = outerSym(g, c)
+	}
 }
 
 func b2f(b bool) float64 {
@@ -293,13 +378,21 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		v.ShortSE = mat.NewDense(k, ns, nil)
 	}
 	yi := make([]float64, t)
+	v.eqCov = make([]*mat.SymDense, k)
+	v.dfResid = t - rank - ns
+	v.Resid = mat.NewDense(t, k, nil)
 	for i := 0; i < k; i++ {
 		mat.Col(yi, i, r.z0)
 		f, err := ols.Regress(yi, x)
 		if err != nil {
 			return fmt.Errorf("johansen: short-run equation %d: %v", i, err)
 		}
-		se := ols.SE(f.Cov(ols.CovSpec{Kind: ols.Classical}))
+		cov := f.Cov(ols.CovSpec{Kind: ols.Classical})
+		v.eqCov[i] = cov
+		for j, e := range f.Resid {
+			v.Resid.Set(j, i, e*r.scale[i])
+		}
+		se := ols.SE(cov)
 		for j := 0; j < rank; j++ {
 			v.Alpha.Set(i, j, f.Coef[j])
 			v.AlphaSE.Set(i, j, se[j])
@@ -317,6 +410,9 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 //
 //	z_jt = β_j'ỹ_t,  ỹ_t = y_t (cases N, C, CT), (y_t', 1)' (RC), (y_t', t+1)' (RT),
 //
+// followed, when the model has restricted extra regressors, by their
+// values x_t (xr, one row per row of y; nil otherwise).
+//
 // one slice per relation. The restricted trend takes the value t+1 at row
 // t, as in the VECM, where β'ỹ_{t−1} pairs y_{t−1} with the trend value of
 // the row of Δy_t (see Test). In cases N and RC z_jt is the equilibrium
@@ -324,8 +420,13 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 // constant absorbs any shift of the relation, so its level is arbitrary
 // (and in CT it may carry a linear trend, absorbed by the unrestricted
 // trend).
-func (m *VECM) Relations(c Case, y *mat.Dense) [][]float64 {
+func (m *VECM) Relations(c Case, y, xr *mat.Dense) [][]float64 {
 	rows, k := y.Dims()
+	nr := 0
+	if xr != nil {
+		_, nr = xr.Dims()
+	}
+	m0 := c.restricted()
 	out := make([][]float64, m.Rank)
 	for j := range out {
 		z := make([]float64, rows)
@@ -339,6 +440,9 @@ func (m *VECM) Relations(c Case, y *mat.Dense) [][]float64 {
 				v += m.Beta.At(k, j)
 			case RT:
 				v += m.Beta.At(k, j) * float64(t+1)
+			}
+			for h := 0; h < nr && k+m0+h < m.Beta.RawMatrix().Rows; h++ {
+				v += m.Beta.At(k+m0+h, j) * xr.At(t, h)
 			}
 			z[t] = v
 		}

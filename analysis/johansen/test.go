@@ -17,6 +17,11 @@ type Result struct {
 	Lags int // lagged differences k in the VECM (VAR order in levels k+1)
 	K    int // number of series
 	T    int // observations used (input rows − Lags − 1)
+	// NU and NR count the extra unrestricted and restricted regressors
+	// (Extra): the unrestricted ones follow the lagged differences among
+	// the short-run regressors, the restricted ones follow y_{t−1} and the
+	// case's restricted term among the rows of β.
+	NU, NR int
 
 	// Eigenvalues λ_1 ≥ ... ≥ λ_K of |λS11 − S10 S00⁻¹ S01| = 0.
 	Eigenvalues []float64
@@ -51,7 +56,33 @@ type Result struct {
 }
 
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
-func (r *Result) P1() int { return r.K + r.Case.restricted() }
+func (r *Result) P1() int { return r.K + r.Case.restricted() + r.NR }
+
+// Extra holds regressors beyond the deterministic terms of the case, each a
+// matrix with one row per row of y (nil when there are none).
+//
+// Unrestricted columns w_t enter every short-run equation at the date of
+// Δy_t: centred seasonal dummies, impulse dummies, stationary (I(0))
+// conditioning regressors, and step dummies in the cases whose constant is
+// unrestricted.
+//
+// Restricted columns x_t enter the cointegrating relations lagged once,
+// beside y_{t−1} — β'(y_{t−1}', [const or trend], x_{t−1}')' — as a step
+// dummy does when the level shift it describes lies in the relations
+// (Johansen, Mosconi and Nielsen 2000, §2).
+type Extra struct {
+	Unrestricted, Restricted *mat.Dense
+}
+
+func (x Extra) counts() (nu, nr int) {
+	if x.Unrestricted != nil {
+		_, nu = x.Unrestricted.Dims()
+	}
+	if x.Restricted != nil {
+		_, nr = x.Restricted.Dims()
+	}
+	return nu, nr
+}
 
 // Test performs Johansen's reduced-rank regression (Johansen 1988, 1991;
 // Johansen 1995, ch. 6) of the VECM in Case c with lags lagged differences
@@ -73,6 +104,24 @@ func (r *Result) P1() int { return r.K + r.Case.restricted() }
 // outcome does not depend on the units of measurement: the singularity
 // checks are judged on the scaled problem.
 func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
+	return TestExtra(y, c, lags, Extra{})
+}
+
+// TestExtra is Test with extra regressors (Extra): the unrestricted
+// columns w_t join the short-run regressors that Δy_t and ỹ_{t−1} are
+// regressed on, and the restricted columns x_{t−1} are appended to ỹ_{t−1},
+// so that the reduced-rank regression, the eigenvalues and the statistics
+// are those of
+//
+//	Δy_t = α β'(y_{t−1}', ρ', x_{t−1}')' + Σ_{i=1}^{k} Γ_i Δy_{t−i} + Φ d_t + Ψ w_t + ε_t
+//
+// (Johansen 1995, §5.7 and §6.1, where the deterministic terms are any
+// regressors split into restricted and unrestricted parts). Centred
+// seasonal and impulse dummies leave the asymptotic distribution of the
+// rank statistics unchanged; step dummies restricted to the relations
+// change it (Johansen, Mosconi and Nielsen 2000), and any dummy changes
+// its finite-sample distribution.
+func TestExtra(y *mat.Dense, c Case, lags int, x Extra) (*Result, error) {
 	if y == nil {
 		return nil, errors.New("johansen: no data")
 	}
@@ -89,17 +138,29 @@ func Test(y *mat.Dense, c Case, lags int) (*Result, error) {
 	if err := checkSeries(y); err != nil {
 		return nil, err
 	}
-	m := c.restricted()
+	nu, nr := x.counts()
+	for _, e := range []*mat.Dense{x.Unrestricted, x.Restricted} {
+		if e == nil {
+			continue
+		}
+		if er, _ := e.Dims(); er != rows {
+			return nil, fmt.Errorf("johansen: extra regressors have %d rows; y has %d", er, rows)
+		}
+		if err := checkFinite(e); err != nil {
+			return nil, err
+		}
+	}
+	m := c.restricted() + nr
 	p1 := k + m
-	ns := c.unrestricted() + k*lags
+	ns := c.unrestricted() + k*lags + nu
 	t := rows - lags - 1
 	if need := ns + p1 + k; t <= need {
 		return nil, fmt.Errorf("johansen: too few observations: %d rows with %d lagged differences leave %d for estimation; case %s with %d series needs more than %d",
 			rows, lags, max(t, 0), c, k, need)
 	}
 	scale := seriesScale(y)
-	d, z0, z1, zs := design(scaleColumns(y, scale), c, lags)
-	res := &Result{Case: c, Lags: lags, K: k, T: t, scale: scale, z0: z0, z1: z1, zs: zs}
+	d, z0, z1, zs := design(scaleColumns(y, scale), c, lags, x)
+	res := &Result{Case: c, Lags: lags, K: k, T: t, NU: nu, NR: nr, scale: scale, z0: z0, z1: z1, zs: zs}
 	if err := res.reduce(d); err != nil {
 		return nil, err
 	}
@@ -118,16 +179,31 @@ func (r *Result) unscale() {
 	r.Vectors = mulRows(r.vs, s1, true)
 }
 
+// checkFinite names the first non-finite value of an extra regressor.
+func checkFinite(e *mat.Dense) error {
+	rows, cols := e.Dims()
+	for j := 0; j < cols; j++ {
+		for i := 0; i < rows; i++ {
+			if v := e.At(i, j); math.IsNaN(v) || math.IsInf(v, 0) {
+				return fmt.Errorf("johansen: extra regressor %d has a missing or infinite value at row %d", j, i)
+			}
+		}
+	}
+	return nil
+}
+
 // design builds the matrix [short-run regressors | ỹ_{t−1} | Δy_t] with
 // short-run regressors [1, t (as the case has them), Δy_{t−1}, ...,
-// Δy_{t−lags}], and returns it with views of its three blocks.
-func design(y *mat.Dense, c Case, lags int) (d, z0, z1, zs *mat.Dense) {
+// Δy_{t−lags}, w_t] and ỹ_{t−1} = [y_{t−1}, restricted term, x_{t−1}], and
+// returns it with views of its three blocks.
+func design(y *mat.Dense, c Case, lags int, x Extra) (d, z0, z1, zs *mat.Dense) {
 	rows, k := y.Dims()
 	t := rows - lags - 1
+	nu, nr := x.counts()
 	m := c.restricted()
 	dn := c.unrestricted()
-	ns := dn + k*lags
-	p1 := k + m
+	ns := dn + k*lags + nu
+	p1 := k + m + nr
 	n := ns + p1 + k
 	d = mat.NewDense(t, n, nil)
 	raw := d.RawMatrix()
@@ -152,6 +228,9 @@ func design(y *mat.Dense, c Case, lags int) (d, z0, z1, zs *mat.Dense) {
 			}
 			col += k
 		}
+		for j := 0; j < nu; j++ {
+			row[col+j] = x.Unrestricted.At(s, j)
+		}
 		cur, prev := yrow(s), yrow(s-1)
 		copy(row[ns:ns+k], prev)
 		switch c {
@@ -159,6 +238,9 @@ func design(y *mat.Dense, c Case, lags int) (d, z0, z1, zs *mat.Dense) {
 			row[ns+k] = 1
 		case RT:
 			row[ns+k] = float64(s)
+		}
+		for j := 0; j < nr; j++ {
+			row[ns+k+m+j] = x.Restricted.At(s-1, j)
 		}
 		for j := 0; j < k; j++ {
 			row[ns+p1+j] = cur[j] - prev[j]
@@ -357,13 +439,17 @@ func (r *Result) singular(j, ns, p1 int) error {
 		what = "the constant"
 	case j < d:
 		what = "the trend"
-	case j < ns:
+	case j < ns-r.NU:
 		l := (j-d)/k + 1
 		what = fmt.Sprintf("lagged difference %d of series %d", l, (j-d)%k)
+	case j < ns:
+		what = fmt.Sprintf("unrestricted extra regressor %d", j-(ns-r.NU))
 	case j < ns+k:
 		what = fmt.Sprintf("the lagged level of series %d", j-ns)
-	case j < ns+p1:
+	case j < ns+k+r.Case.restricted():
 		what = "the restricted " + map[Case]string{RC: "constant", RT: "trend"}[r.Case]
+	case j < ns+p1:
+		what = fmt.Sprintf("restricted extra regressor %d", j-ns-k-r.Case.restricted())
 	default:
 		what = fmt.Sprintf("the difference of series %d", j-ns-p1)
 	}

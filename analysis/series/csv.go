@@ -16,9 +16,18 @@ import (
 // The date column is the first one named date, period or time (any
 // case), else the first column if it is unnamed or its first value is a
 // quarterly, monthly or daily date; without one the data are Undated
-// and numbered 1…n. All dates must be of one frequency and strictly
+// and numbered 1…n. All dates must be of one form and strictly
 // increasing; annual, quarterly and monthly dates must also be
 // consecutive (daily dates may skip days).
+//
+// Calendar dates (1974-01-01) are read as annual, quarterly or monthly
+// periods when they date one period each on one rule: every date the
+// first day of its year, quarter or month (1974-01-01, 1974-04-01, …),
+// every date the last day (1974-03-31, 1974-06-30, …), or every date
+// the same day inside its period; and at least two of them in
+// consecutive periods. The coarsest such frequency is chosen; then, as
+// for dates written as periods, no period may be skipped. Otherwise
+// they stay days. Frame.FreqBasis says which rule decided.
 //
 // Values are plain decimal numbers; an empty cell, NA, . or NaN (any
 // case) is a missing value, kept as NaN. Infinite or overflowing
@@ -27,7 +36,16 @@ import (
 //
 // The rows are streamed: memory grows with the columns only.
 func ReadCSV(r io.Reader, source string) (*Frame, error) {
-	t := newTable(source)
+	return ReadCSVAs(r, source, Undated)
+}
+
+// ReadCSVAs is ReadCSV with the frequency declared by the caller
+// instead of inferred (Undated: infer it). Calendar dates are then read
+// as the periods of freq that contain them, whatever day of the period
+// they name, each period with one date and none skipped; dates written
+// as periods must have the declared frequency.
+func ReadCSVAs(r io.Reader, source string, freq Freq) (*Frame, error) {
+	t := newTable(source, freq)
 	br := bufio.NewReaderSize(r, 64<<10)
 	if b, err := br.Peek(3); err == nil && bytes.Equal(b, []byte("\xEF\xBB\xBF")) {
 		br.Discard(3)

@@ -9,12 +9,16 @@ import (
 // from a file. The slices are owned by the frame; callers must not
 // modify them.
 type Frame struct {
-	Source string   // file name, for messages
-	Sheet  string   // spreadsheet sheet read; "" for delimited text
-	Freq   Freq     // frequency of Dates
-	Dates  []Date   // one per data row, strictly increasing
-	Names  []string // column names, without the date column
-	Lines  []int    // source line (spreadsheet row) of each data row
+	Source string // file name, for messages
+	Sheet  string // spreadsheet sheet read; "" for delimited text
+	Freq   Freq   // frequency of Dates
+	// FreqBasis says how Freq was decided: from the form of the dates,
+	// from calendar dates that fall one to a period on one rule, or
+	// declared by the caller.
+	FreqBasis string
+	Dates     []Date   // one per data row, strictly increasing
+	Names     []string // column names, without the date column
+	Lines     []int    // source line (spreadsheet row) of each data row
 
 	cols [][]float64 // cols[j][i]: column Names[j], row i; NaN = missing
 }

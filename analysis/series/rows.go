@@ -39,11 +39,17 @@ type CellRow struct {
 // first cell counting as its date. Its cells may be text in any form
 // ParseDate accepts, or date serials: numbers whose format shows a
 // date, and whole numbers of five or more digits (a four-digit number
-// is a year). When every date cell is a serial, the days become a
-// coarser frequency if every day is the first (or every day the last)
-// of a year, of a quarter or of a month.
+// is a year). Serials are calendar dates: as in ReadCSV, they become
+// annual, quarterly or monthly periods when they date one period each
+// on one rule.
 func FromCells(source, sheet string, rows []CellRow) (*Frame, error) {
-	t := newTable(source)
+	return FromCellsAs(source, sheet, rows, Undated)
+}
+
+// FromCellsAs is FromCells with the frequency declared by the caller
+// (see ReadCSVAs); Undated infers it.
+func FromCellsAs(source, sheet string, rows []CellRow, freq Freq) (*Frame, error) {
+	t := newTable(source, freq)
 	if len(rows) == 0 {
 		return nil, t.errf(0, "", "sheet %q is empty: expected a header row naming the columns", sheet)
 	}
@@ -77,23 +83,16 @@ func FromCells(source, sheet string, rows []CellRow) (*Frame, error) {
 	dateCol := chooseDateColumn(t.header, first)
 	dates := make([]string, len(data))
 	if dateCol >= 0 {
-		serial := true
-		days := make([]time.Time, len(data))
 		for i, r := range data {
 			var c Cell
 			if dateCol < len(r.Cells) {
 				c = r.Cells[dateCol]
 			}
 			if serialDate(c) {
-				days[i] = c.Day
 				dates[i] = c.Day.Format("2006-01-02")
 			} else {
-				serial = false
 				dates[i] = c.Text
 			}
-		}
-		if serial {
-			coarsen(days, dates)
 		}
 	}
 	fields := make([]string, width)
@@ -136,50 +135,6 @@ func serialDate(c Cell) bool {
 		return false
 	}
 	return c.DateFormat || (c.Number == math.Trunc(c.Number) && c.Number >= 10000)
-}
-
-// coarsen rewrites the date texts at a coarser frequency when the days
-// follow one convention: every day the first (or every day the last)
-// of a year, of a quarter or of a month. One date alone stays a day.
-func coarsen(days []time.Time, dates []string) {
-	if len(days) < 2 {
-		return
-	}
-	for _, f := range []Freq{Annual, Quarterly, Monthly} {
-		for _, end := range []bool{false, true} {
-			if allAt(days, f, end) {
-				for i, d := range days {
-					m := int(d.Month())
-					sub := 1
-					switch f {
-					case Quarterly:
-						sub = (m-1)/3 + 1
-					case Monthly:
-						sub = m
-					}
-					dates[i] = Date{Freq: f, Year: d.Year(), Sub: sub}.String()
-				}
-				return
-			}
-		}
-	}
-}
-
-// allAt reports whether every day starts (or, with end, ends) a period
-// of frequency f.
-func allAt(days []time.Time, f Freq, end bool) bool {
-	step := 12 / f.PerYear()
-	for _, d := range days {
-		m := int(d.Month())
-		if end {
-			if (m%step) != 0 || d.AddDate(0, 0, 1).Day() != 1 {
-				return false
-			}
-		} else if (m-1)%step != 0 || d.Day() != 1 {
-			return false
-		}
-	}
-	return true
 }
 
 // colName writes a 0-based column index as spreadsheet letters:

@@ -18,10 +18,11 @@ type table struct {
 	dateCol  int      // index in header of the date column, −1 = undated
 	decided  bool     // dateCol has been chosen (at the first data row)
 	headLine int
+	want     Freq // the declared frequency; Undated: infer it
 }
 
-func newTable(source string) *table {
-	return &table{f: &Frame{Source: source}, dateCol: -1}
+func newTable(source string, want Freq) *table {
+	return &table{f: &Frame{Source: source}, dateCol: -1, want: want}
 }
 
 func (t *table) errf(line int, col, format string, args ...any) *DataError {
@@ -180,10 +181,24 @@ func (t *table) rowDate(s string, line int) (Date, error) {
 	return d, nil
 }
 
-// finish returns the frame, or an error if there were no data rows.
+// finish settles the frequency (declared, or inferred from calendar
+// dates) and returns the frame, or an error if there were no data rows.
 func (t *table) finish() (*Frame, error) {
 	if len(t.f.Dates) == 0 {
 		return nil, t.errf(0, "", "no data rows below the header")
+	}
+	col := ""
+	if t.dateCol >= 0 {
+		col = t.dateName()
+	}
+	var err error
+	if t.want != Undated {
+		err = t.f.declare(t.want, col)
+	} else {
+		err = t.f.infer(col)
+	}
+	if err != nil {
+		return nil, err
 	}
 	return t.f, nil
 }

@@ -134,6 +134,34 @@ func (w Window) Bounds(dates []Date) (lo, hi int, err error) {
 	return lo, hi, nil
 }
 
+// Clip moves the ends of the window that reach past the dates to the
+// first or the last date: a sample written for the current data, used
+// on an earlier and shorter vintage of them. moved reports whether an
+// end moved. A window of another frequency than the dates, or one that
+// would hold no date once clipped, is returned unchanged (Bounds then
+// reports it).
+func (w Window) Clip(dates []Date) (c Window, moved bool) {
+	n := len(dates)
+	if n == 0 {
+		return w, false
+	}
+	first, last := dates[0], dates[n-1]
+	if (w.HasFrom && w.From.Freq != first.Freq) || (w.HasTo && w.To.Freq != first.Freq) {
+		return w, false
+	}
+	if (w.HasFrom && last.Before(w.From)) || (w.HasTo && w.To.Before(first)) {
+		return w, false
+	}
+	c = w
+	if w.HasFrom && w.From.Before(first) {
+		c.From, moved = first, true
+	}
+	if w.HasTo && last.Before(w.To) {
+		c.To, moved = last, true
+	}
+	return c, moved
+}
+
 // Apply restricts a series to the window (see Bounds for the errors).
 // The result's Values are a copy; its Dates share s.Dates.
 func (w Window) Apply(s *Series) (*Series, error) {

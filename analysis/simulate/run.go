@@ -66,6 +66,8 @@ func (s Spec) newStat(p plan) statFunc {
 	case EG:
 		k := newEGKernel(s.T, s.Lags, p.tauCase.Deterministics(), s.N)
 		return k.eg
+	case GHADF, GHZt, GHZa:
+		return newGHKernel(s, p).stat
 	}
 	k := newJohKernel(s.N, s.Lags, s.T)
 	maxeig := p.test == JohansenMaxEig
@@ -113,7 +115,7 @@ func Run(ctx context.Context, s Spec, progress func(done, total int)) (*Result, 
 	}
 	slices.Sort(stats)
 	res := &Result{
-		Spec: s, Key: s.Key(), Lower: p.test == ADF || p.test == EG, NObs: p.nobs,
+		Spec: s, Key: s.Key(), Lower: p.test != JohansenTrace && p.test != JohansenMaxEig, NObs: p.nobs,
 		Levels: append([]float64(nil), Levels...), Reps: s.Reps, Seed: s.Seed, Sample: stats,
 	}
 	for _, l := range Levels {

@@ -5,6 +5,7 @@ import (
 	"runtime"
 	"strings"
 
+	"github.com/galley-econ/galley/analysis/coint"
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/johansen"
 )
@@ -15,6 +16,11 @@ const (
 	EG             = "eg"
 	JohansenTrace  = "johansen-trace"
 	JohansenMaxEig = "johansen-maxeig"
+	// The Gregory–Hansen (1996) statistics ADF*, Zt* and Zα*
+	// (kernel_gh.go).
+	GHADF = "gh-adf"
+	GHZt  = "gh-zt"
+	GHZa  = "gh-za"
 )
 
 // Limits of a Spec.
@@ -43,6 +49,9 @@ type Spec struct {
 	Lags int // fixed number of lagged differences
 	Reps int // replications, MinReps..MaxReps
 	Seed uint64
+	// Trim is the trimming of the Gregory–Hansen break dates (0 means
+	// coint.DefaultGHTrim); the other tests ignore it.
+	Trim float64
 	// Workers is the number of goroutines; 0 means runtime.NumCPU(). It
 	// does not affect the result.
 	Workers int
@@ -53,6 +62,8 @@ type plan struct {
 	test    string
 	tauCase critical.Case
 	johCase johansen.Case
+	ghModel coint.GHModel
+	trim    float64
 	caseStr string
 	nobs    int // observations in the test regression
 	workers int
@@ -122,8 +133,12 @@ func (s Spec) check() (plan, error) {
 		if need := nu + p1 + s.N; p.nobs <= need {
 			return p, fmt.Errorf("simulate: T = %d is too short for %d lagged differences: %d observations for %d regressors in case %s with %d series", s.T, s.Lags, max(p.nobs, 0), need, c, s.N)
 		}
+	case GHADF, GHZt, GHZa:
+		if err := s.checkGH(&p); err != nil {
+			return p, err
+		}
 	default:
-		return p, fmt.Errorf("simulate: unknown test %q (want adf, eg, johansen-trace or johansen-maxeig)", s.Test)
+		return p, fmt.Errorf("simulate: unknown test %q (want adf, eg, johansen-trace, johansen-maxeig, gh-adf, gh-zt or gh-za)", s.Test)
 	}
 	return p, nil
 }
@@ -137,8 +152,12 @@ func (s Spec) Key() string {
 	if err != nil {
 		return ""
 	}
-	return fmt.Sprintf("%s|test=%s|case=%s|n=%d|t=%d|lags=%d|reps=%d|seed=%d",
+	k := fmt.Sprintf("%s|test=%s|case=%s|n=%d|t=%d|lags=%d|reps=%d|seed=%d",
 		keyVersion, p.test, p.caseStr, s.N, s.T, s.Lags, s.Reps, s.Seed)
+	if p.trim > 0 {
+		k += fmt.Sprintf("|trim=%g", p.trim)
+	}
+	return k
 }
 
 // Validate reports whether s is a valid Spec, with the reason if not.

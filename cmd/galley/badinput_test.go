@@ -8,9 +8,11 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"regexp"
 	"runtime"
 	"strconv"
 	"strings"
+	"sync"
 	"syscall"
 	"testing"
 	"time"
@@ -36,8 +38,10 @@ func captureStderr(t *testing.T, f func()) string {
 // TestBadInputCorpus runs every case under testdata/bad/ (made by
 // testdata/bad/make_corpus.py): the exit code must match the first line
 // of want.txt, and the error (or, for a build that succeeds, the Markdown
-// output) must contain the remaining lines in order. No failing case may
-// leave an output behind.
+// output) must contain the remaining lines in order. A failing case must
+// name a file and line, leave an earlier build's output exactly as it
+// was and add nothing beside it; no case may panic or print fmt's error
+// text (%!verb).
 func TestBadInputCorpus(t *testing.T) {
 	root := filepath.Join("..", "..", "testdata", "bad")
 	dirs, _ := os.ReadDir(root)
@@ -55,7 +59,14 @@ func TestBadInputCorpus(t *testing.T) {
 			}
 			lines := strings.Split(strings.TrimRight(string(want), "\n"), "\n")
 			code, _ := strconv.Atoi(strings.TrimPrefix(lines[0], "exit "))
+			// An earlier build's output, which a failed build must leave
+			// exactly as it was.
 			out := filepath.Join(t.TempDir(), "out")
+			earlier := []byte("EARLIER BUILD\n")
+			if err := os.MkdirAll(out, 0o755); err != nil {
+				t.Fatal(err)
+			}
+			os.WriteFile(filepath.Join(out, "paper.md"), earlier, 0o644)
 			var got int
 			msg := captureStderr(t, func() {
 				got = run([]string{"build", filepath.Join(dir, "paper.md"), "--to", "markdown", "--out", out, "--no-cache"})
@@ -70,8 +81,19 @@ func TestBadInputCorpus(t *testing.T) {
 					t.Fatal(err)
 				}
 				text = string(md)
-			} else if _, err := os.Stat(out); !os.IsNotExist(err) {
-				t.Errorf("a failed build left output behind in %s", out)
+			} else {
+				if md, _ := os.ReadFile(filepath.Join(out, "paper.md")); !bytes.Equal(md, earlier) {
+					t.Errorf("a failed build changed the earlier output")
+				}
+				if ents, _ := os.ReadDir(out); len(ents) != 1 {
+					t.Errorf("a failed build left files behind in %s: %v", out, ents)
+				}
+				if !fileLine.MatchString(msg) {
+					t.Errorf("the error names no file and line:\n%s", msg)
+				}
+			}
+			if strings.Contains(text, "%!") {
+				t.Errorf("fmt's error text reached the output:\n%s", text)
 			}
 			at := 0
 			for _, w := range lines[1:] {
@@ -86,10 +108,13 @@ func TestBadInputCorpus(t *testing.T) {
 			}
 		})
 	}
-	if n < 15 {
+	if n < 80 {
 		t.Fatalf("only %d cases in the corpus", n)
 	}
 }
+
+// fileLine matches a position "FILE:LINE:" in a message.
+var fileLine = regexp.MustCompile(`\.(md|csv|xlsx):[0-9]+:`)
 
 // TestMillionRows: a data file of a million rows is loaded and analysed
 // in bounded memory (the heap grows by well under the size of a
@@ -131,10 +156,7 @@ func TestMillionRows(t *testing.T) {
 // previous good output intact: outputs are staged beside their targets
 // and renamed into place only when all of them are written.
 func TestKilledBuildKeepsOutput(t *testing.T) {
-	bin := filepath.Join(t.TempDir(), "galley")
-	if b, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		t.Fatalf("go build: %v\n%s", err, b)
-	}
+	bin := galleyBinary(t)
 	dir := demoCopy(t)
 	paper := filepath.Join(dir, "paper.md")
 	out := filepath.Join(dir, "out")
@@ -168,5 +190,185 @@ func TestKilledBuildKeepsOutput(t *testing.T) {
 		if !newHTML && !bytes.Equal(res, goodRes) && len(res) > 0 && !bytes.HasSuffix(bytes.TrimSpace(res), []byte("}")) {
 			t.Fatalf("after a kill at %v the results file is truncated", delay)
 		}
+	}
+}
+
+var (
+	binOnce sync.Once
+	binPath string
+	binErr  error
+)
+
+// galleyBinary builds the command once for the tests that run it as a
+// process (signals, kills).
+func galleyBinary(t *testing.T) string {
+	t.Helper()
+	binOnce.Do(func() {
+		dir, err := os.MkdirTemp("", "galley-bin")
+		if err != nil {
+			binErr = err
+			return
+		}
+		binPath = filepath.Join(dir, "galley")
+		if b, err := exec.Command("go", "build", "-o", binPath, ".").CombinedOutput(); err != nil {
+			binErr = fmt.Errorf("go build: %v\n%s", err, b)
+		}
+	})
+	if binErr != nil {
+		t.Fatal(binErr)
+	}
+	return binPath
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if binPath != "" {
+		os.RemoveAll(filepath.Dir(binPath))
+	}
+	os.Exit(code)
+}
+
+// runBounded is run with a guard against a hang: a command that blocks
+// (on a named pipe, say) fails the test instead of stalling the suite.
+func runBounded(t *testing.T, args ...string) (int, string) {
+	t.Helper()
+	type res struct {
+		code int
+		msg  string
+	}
+	done := make(chan res, 1)
+	go func() {
+		var code int
+		msg := captureStderr(t, func() { code = run(args) })
+		done <- res{code, msg}
+	}()
+	select {
+	case r := <-done:
+		return r.code, r.msg
+	case <-time.After(30 * time.Second):
+		t.Fatalf("galley %s blocked", strings.Join(args, " "))
+	}
+	return 0, ""
+}
+
+// TestSpecialFiles: a named pipe or a device named as the manuscript, a
+// data file or a results file is refused at once with exit 1 and a
+// message that says what it is; nothing blocks and nothing is read
+// without bound (issue 14, items 6 and 7).
+func TestSpecialFiles(t *testing.T) {
+	dir := t.TempDir()
+	fifo := filepath.Join(dir, "pipe.csv")
+	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+		t.Skipf("no named pipes here: %v", err)
+	}
+	pipeMD := filepath.Join(dir, "pipe.md")
+	syscall.Mkfifo(pipeMD, 0o644)
+	paper := func(name, data string) string {
+		p := filepath.Join(dir, name)
+		os.WriteFile(p, []byte("---\ndata:\n  d: "+data+"\n---\n\n```galley ols\nid: m\ndata: d\ny: y\nx: [x]\n```\n"), 0o644)
+		return p
+	}
+	viaPipe := paper("viapipe.md", "pipe.csv")
+	viaZero := paper("viazero.md", "/dev/zero")
+	os.Symlink("/dev/zero", filepath.Join(dir, "zero.csv"))
+	viaLink := paper("vialink.md", "zero.csv")
+	out := filepath.Join(dir, "out")
+	cases := []struct {
+		args []string
+		want []string
+	}{
+		{[]string{"inspect", fifo}, []string{"pipe.csv is a named pipe (FIFO)"}},
+		{[]string{"inspect", "/dev/zero"}, []string{"/dev/zero is a device, not a regular file"}},
+		{[]string{"build", pipeMD, "--out", out}, []string{"pipe.md is a named pipe (FIFO)"}},
+		{[]string{"check", pipeMD}, []string{"pipe.md is a named pipe (FIFO)"}},
+		{[]string{"check", "/dev/zero"}, []string{"/dev/zero is a device"}},
+		{[]string{"build", viaPipe, "--out", out, "--no-cache"}, []string{"viapipe.md:8:", "pipe.csv is a named pipe (FIFO)"}},
+		{[]string{"check", viaPipe}, []string{"viapipe.md:8:", "named pipe (FIFO)"}},
+		{[]string{"build", viaZero, "--allow-outside", "--out", out, "--no-cache"}, []string{"viazero.md:8:", "/dev/zero is a device"}},
+		{[]string{"build", viaLink, "--allow-outside", "--out", out, "--no-cache"}, []string{"vialink.md:8:", "zero.csv is a device"}},
+		{[]string{"build", viaLink, "--out", out, "--no-cache"}, []string{"vialink.md:8:", "leads outside"}},
+		{[]string{"compare", fifo, "/dev/zero"}, []string{"named pipe (FIFO)"}},
+		{[]string{"build", viaZero, "--against", fifo, "--allow-outside", "--out", out}, []string{"named pipe (FIFO)"}},
+	}
+	for _, c := range cases {
+		code, msg := runBounded(t, c.args...)
+		if code != 1 {
+			t.Errorf("galley %v: exit %d, want 1; %s", c.args, code, msg)
+			continue
+		}
+		at := 0
+		for _, w := range c.want {
+			i := strings.Index(msg[at:], w)
+			if i < 0 {
+				t.Errorf("galley %v: message lacks %q (in order):\n%s", c.args, w, msg)
+				break
+			}
+			at += i + len(w)
+		}
+		if strings.Contains(msg, "goroutine ") || strings.Contains(msg, "panic") {
+			t.Errorf("galley %v panicked:\n%s", c.args, msg)
+		}
+	}
+	if _, err := os.Stat(out); !os.IsNotExist(err) {
+		t.Error("a refused build left output behind")
+	}
+}
+
+// TestWatchStopsOnSIGTERM: under watch, a data alias that names a named
+// pipe fails the build (it does not block it), and SIGTERM then stops
+// the process with exit 0 (issue 14, item 7). Before, the build blocked
+// on the pipe and the signal was never acted on.
+func TestWatchStopsOnSIGTERM(t *testing.T) {
+	dir := t.TempDir()
+	if err := syscall.Mkfifo(filepath.Join(dir, "pipe.csv"), 0o644); err != nil {
+		t.Skipf("no named pipes here: %v", err)
+	}
+	p := filepath.Join(dir, "paper.md")
+	os.WriteFile(p, []byte("---\ndata:\n  d: pipe.csv\n---\n\n```galley ols\nid: m\ndata: d\ny: y\nx: [x]\n```\n"), 0o644)
+	cmd := exec.Command(galleyBinary(t), "watch", p, "--no-cache")
+	stderr, _ := cmd.StderrPipe()
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	failed := make(chan string, 1)
+	go func() {
+		sc := bufio.NewScanner(stderr)
+		var log strings.Builder
+		sent := false
+		for sc.Scan() {
+			log.WriteString(sc.Text() + "\n")
+			if !sent && strings.Contains(sc.Text(), "named pipe (FIFO)") {
+				failed <- log.String()
+				sent = true
+			}
+		}
+		if !sent {
+			failed <- log.String()
+		}
+	}()
+	select {
+	case log := <-failed:
+		if !strings.Contains(log, "paper.md:8:") || !strings.Contains(log, "named pipe (FIFO)") {
+			cmd.Process.Kill()
+			cmd.Wait()
+			t.Fatalf("the first build did not fail on the pipe:\n%s", log)
+		}
+	case <-time.After(30 * time.Second):
+		cmd.Process.Kill()
+		cmd.Wait()
+		t.Fatal("the first build blocked on the named pipe")
+	}
+	cmd.Process.Signal(syscall.SIGTERM)
+	exited := make(chan error, 1)
+	go func() { exited <- cmd.Wait() }()
+	select {
+	case err := <-exited:
+		if err != nil {
+			t.Errorf("watch ended with %v after SIGTERM, want exit 0", err)
+		}
+	case <-time.After(30 * time.Second):
+		cmd.Process.Kill()
+		<-exited
+		t.Fatal("watch did not stop on SIGTERM")
 	}
 }

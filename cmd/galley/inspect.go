@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"fmt"
 	"math"
 	"os"
@@ -18,21 +19,20 @@ type inspectCmd struct {
 }
 
 func (c *inspectCmd) Run() error {
-	f, err := os.Open(c.File)
+	raw, err := dataio.ReadFile(c.File, dataio.MaxDataBytes)
 	if err != nil {
 		return err
 	}
-	defer f.Close()
 	var fr *series.Frame
 	if strings.EqualFold(filepath.Ext(c.File), ".xlsx") {
-		fr, err = dataio.ReadXLSX(f, c.File, c.Sheet)
+		fr, err = dataio.ReadXLSX(bytes.NewReader(raw), c.File, c.Sheet)
 	} else {
-		fr, err = series.ReadCSV(f, c.File)
+		fr, err = series.ReadCSV(bytes.NewReader(raw), c.File)
 	}
 	if err != nil {
 		return err
 	}
-	fmt.Printf("%s\n  frequency: %s\n  rows: %d\n", c.File, fr.Freq, fr.Len())
+	fmt.Printf("%s\n  frequency: %s (%s)\n  rows: %d\n", c.File, fr.Freq, fr.FreqBasis, fr.Len())
 	if fr.Len() > 0 {
 		fmt.Printf("  dates: %s to %s\n", fr.Dates[0], fr.Dates[fr.Len()-1])
 	}

@@ -14,6 +14,7 @@ import (
 
 	"github.com/alecthomas/kong"
 
+	"github.com/galley-econ/galley/dataio"
 	"github.com/galley-econ/galley/internal/version"
 )
 
@@ -68,6 +69,10 @@ func run(args []string) int {
 			code = 2
 			return
 		}
+		if err := c.checkInputs(ctx.Command()); err != nil {
+			code = report(err)
+			return
+		}
 		if err := ctx.Run(); err != nil {
 			code = report(err)
 		}
@@ -76,6 +81,35 @@ func run(args []string) int {
 }
 
 type exitCode int
+
+// checkInputs refuses, before a command opens them, the files named on
+// the command line that are not regular files of bounded size: a named
+// pipe would block the read forever and a device such as /dev/zero
+// would be read without end. Data files are checked where they are
+// opened (dataio.OpenRegular), so the same rule holds for the files a
+// manuscript names.
+func (c *cli) checkInputs(command string) error {
+	var files []string
+	switch strings.Fields(command + " ")[0] {
+	case "build":
+		files = []string{c.Build.Manuscript, c.Build.Against}
+	case "check":
+		files = []string{c.Check.Manuscript}
+	case "watch":
+		files = []string{c.Watch.Manuscript}
+	case "compare":
+		files = []string{c.Compare.Old, c.Compare.New}
+	}
+	for _, f := range files {
+		if f == "" {
+			continue
+		}
+		if err := dataio.CheckRegular(f, dataio.MaxTextBytes); err != nil {
+			return err
+		}
+	}
+	return nil
+}
 
 // report prints an error (one line per joined error) and returns the
 // exit code.

@@ -19,6 +19,7 @@ import (
 	"syscall"
 	"time"
 
+	"github.com/galley-econ/galley/dataio"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/version"
@@ -100,7 +101,9 @@ func (w *watcher) run(ctx context.Context, ln net.Listener) error {
 	served := make(chan error, 1)
 	go func() { served <- srv.Serve(ln) }()
 
-	w.build()
+	if !w.buildOrStop(ctx) {
+		return w.shutdown(srv, served)
+	}
 	prev := w.snapshot()
 	var pending map[string]fileState
 	missing := map[string]bool{}
@@ -143,9 +146,33 @@ loop:
 			pending = now
 			continue
 		}
-		w.build()
+		if !w.buildOrStop(ctx) {
+			break loop
+		}
 		prev, pending = w.snapshot(), nil
 	}
+	return w.shutdown(srv, served)
+}
+
+// buildOrStop runs one build, and returns false without waiting for it
+// when ctx is cancelled first: a signal stops the watcher even while a
+// build is stuck (the build is abandoned; the process ends).
+func (w *watcher) buildOrStop(ctx context.Context) bool {
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		w.build()
+	}()
+	select {
+	case <-done:
+		return true
+	case <-ctx.Done():
+		return false
+	}
+}
+
+// shutdown stops the preview server.
+func (w *watcher) shutdown(srv *http.Server, served chan error) error {
 	shut, cancel := context.WithTimeout(context.Background(), 2*time.Second)
 	defer cancel()
 	if err := srv.Shutdown(shut); err != nil {
@@ -235,7 +262,11 @@ func dataFiles(doc *engine.Document) []string {
 // also go to the log.
 func (w *watcher) build() {
 	start := time.Now()
-	doc, err := engine.Parse(w.manuscript, w.options())
+	var doc *engine.Document
+	err := dataio.CheckRegular(w.manuscript, dataio.MaxTextBytes)
+	if err == nil {
+		doc, err = engine.Parse(w.manuscript, w.options())
+	}
 	if doc != nil {
 		w.mu.Lock()
 		w.files = dataFiles(doc)

@@ -91,6 +91,9 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := c.RefuseConstant(d, "", "a cointegration test needs series that vary (the residuals of a constant would be rounding noise)"); err != nil {
+		return nil, err
+	}
 	all := strings.EqualFold(s.Normalize, "all")
 	deps := []int{0}
 	if all {

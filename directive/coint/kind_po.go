@@ -81,6 +81,9 @@ func (s *poSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := c.RefuseConstant(d, "", "a cointegration test needs series that vary (the residuals of a constant would be rounding noise)"); err != nil {
+		return nil, err
+	}
 	if d.N() < 3 {
 		return nil, c.Errorf("", "too few observations: %d in the sample %s", d.N(), d.Range())
 	}

@@ -3,6 +3,7 @@ package ecm
 import (
 	"fmt"
 	"math"
+	"sort"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/ecm"
@@ -38,6 +39,7 @@ func init() {
 		New:     func() engine.Directive { return &ecmSpec{} },
 		Fields: []string{"coef", "alpha", "alpha_se", "halflife", "halflife_se", "error_corrects", "diagnostics", "nobs", "r2", "r2_adj",
 			"sigma", "cov", "se_desc", "ylags", "xlags", "from", "y", "sample", "actual", "fitted"},
+		Model: true,
 	})
 }
 
@@ -132,8 +134,14 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if s.Sample != "" {
 		sample = s.Sample
 	}
-	exprs := append(append([]string{rel.Y}, rel.X...), s.Extra...)
-	d, err := c.DataUsing(rel.Data, exprs, sample, rel.Missing)
+	d, err := c.DataUsing(rel.Data, append([]string{rel.Y}, rel.X...), sample, rel.Missing)
+	if err != nil {
+		return nil, err
+	}
+	if err := c.RefuseConstant(d, "from", "its differences are all zero, so there is nothing to error-correct", 0); err != nil {
+		return nil, err
+	}
+	extra, err := readExtras(c, rel, s.Extra, sample, d)
 	if err != nil {
 		return nil, err
 	}
@@ -147,7 +155,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	nx := len(rel.X)
 	in := ecm.Input{
 		Y: d.Cols[0], YName: rel.Y, X: d.Cols[1 : 1+nx], XNames: rel.X, ECT: ect,
-		Extra: d.Cols[1+nx:], ExtraNames: append([]string{}, s.Extra...),
+		Extra: extra, ExtraNames: append([]string{}, s.Extra...),
 	}
 	m, err := ecm.Estimate(in, ecm.Spec{YLags: p, XLags: q, Cov: cov})
 	if err != nil {
@@ -216,7 +224,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"diagnostics": engine.DiagValues(diags), "nobs": m.Fit.N, "r2": m.Fit.R2(), "r2_adj": m.Fit.R2Adj(),
 		"sigma": math.Sqrt(m.Fit.Sigma2()), "cov": cov.String(), "se_desc": cov.Describe(),
 		"ylags": p, "xlags": q, "from": s.From, "y": ecm.DiffName(rel.Y, 0),
-		"sample": map[string]any{"from": sd.Dates[0].String(), "to": sd.Dates[len(sd.Dates)-1].String(), "n": sd.N()},
+		"sample": engine.SampleValues(sd),
 	}
 	if adj.HasHalfLife {
 		vals["halflife"], vals["halflife_se"] = adj.HalfLife, adj.HalfLifeSE
@@ -229,7 +237,62 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("actual", contract.NewDated(sd.Dates, actual))
 	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
+	res.Model = engine.ModelOf("ECM", ecm.DiffName(rel.Y, 0), m.Names, m.Coef, vals, true, "")
 	return res, nil
+}
+
+// readExtras reads the extra regressors apart from the levels and puts
+// them on the levels' dates (NaN where an extra has no value). Each
+// extra enters at time t, so a value it lacks at the start (the first
+// difference of a level, say) removes only the observations that need
+// it. Read together with the levels, the extras would cut the levels'
+// span to their own, and the differences of the levels would then lose
+// one more observation at the start. With missing: drop, the dates an
+// extra leaves out inside the sample are left out of the levels too,
+// as one reading of all the series would.
+func readExtras(c *engine.Context, rel contract.LongRun, exprs []string, sample string, d *engine.Data) ([][]float64, error) {
+	if len(exprs) == 0 {
+		return nil, nil
+	}
+	e, err := c.DataUsing(rel.Data, exprs, sample, rel.Missing)
+	if err != nil {
+		return nil, err
+	}
+	if len(e.Dropped) > 0 {
+		gone := map[string]bool{}
+		for _, dt := range e.Dropped {
+			gone[dt.String()] = true
+		}
+		keep := d.Dates[:0:0]
+		cols := make([][]float64, len(d.Cols))
+		for i, dt := range d.Dates {
+			if gone[dt.String()] {
+				d.Dropped = append(d.Dropped, dt)
+				continue
+			}
+			keep = append(keep, dt)
+			for j := range cols {
+				cols[j] = append(cols[j], d.Cols[j][i])
+			}
+		}
+		d.Dates, d.Cols = keep, cols
+		sort.Slice(d.Dropped, func(i, j int) bool { return d.Dropped[i].Before(d.Dropped[j]) })
+	}
+	at := make(map[string]int, e.N())
+	for i, dt := range e.Dates {
+		at[dt.String()] = i
+	}
+	out := make([][]float64, len(exprs))
+	for k := range exprs {
+		out[k] = make([]float64, d.N())
+		for i, dt := range d.Dates {
+			out[k][i] = math.NaN()
+			if j, ok := at[dt.String()]; ok {
+				out[k][i] = e.Cols[k][j]
+			}
+		}
+	}
+	return out, nil
 }
 
 func periodUnit(f series.Freq) string {

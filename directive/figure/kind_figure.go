@@ -44,6 +44,8 @@ type figureSpec struct {
 	Height        float64     `yaml:"height"`
 	Lags          int         `yaml:"lags"`
 	Alpha         float64     `yaml:"alpha"`
+
+	notes []string // about shaded windows cut to the data
 }
 
 type shadeSpec struct {
@@ -65,7 +67,7 @@ func init() {
 		Name:    "figure",
 		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient",
 		New:     func() engine.Directive { return &figureSpec{} },
-		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "number"},
+		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation"},
 	})
 }
 
@@ -280,7 +282,7 @@ func (s *figureSpec) finish(c *engine.Context, fig *figures.Figure, vals map[str
 		// Inside a revision report's build of another vintage only the
 		// values are compared; the drawing is skipped.
 		vals["width"], vals["height"] = w, h
-		return &engine.Result{Values: vals, Figure: &engine.Figure{Width: w, Height: h}}, nil
+		return &engine.Result{Values: vals, Figure: &engine.Figure{Width: w, Height: h, Notes: s.notes}}, nil
 	}
 	svg, err := fig.Render("svg", 0)
 	if err != nil {
@@ -294,7 +296,7 @@ func (s *figureSpec) finish(c *engine.Context, fig *figures.Figure, vals map[str
 	id := c.ID()
 	vals["files"] = map[string]any{"svg": engine.FigureFolder + "/" + id + ".svg", "pdf": engine.FigureFolder + "/" + id + ".pdf"}
 	res := &engine.Result{Values: vals, Figure: &engine.Figure{
-		SVG: svg, PDF: pdf, Width: w, Height: h,
+		SVG: svg, PDF: pdf, Width: w, Height: h, Notes: s.notes,
 		PNGAt: func(dpi int) ([]byte, error) { return fig.Render("png", dpi) },
 	}}
 	return res, nil
@@ -323,13 +325,21 @@ func span(ss []series.Series) (from, to series.Date, n int) {
 	return from, to, len(seen)
 }
 
-// shade converts the shaded windows, each of which must lie within the
-// plotted dates.
+// shade converts the shaded windows. A window that runs past the
+// plotted dates is cut to them, with a note. One that lies wholly
+// outside them is an error naming the data's span; in a build on an
+// earlier vintage of the data (shorter than the current data the
+// manuscript was written for) it is left out, with a note.
 func (s *figureSpec) shade(c *engine.Context, ss []series.Series, o *figures.Options) error {
+	s.notes = nil
 	if len(s.Shade) == 0 {
 		return nil
 	}
 	from, to, _ := span(ss)
+	vintage := c.Document().Vintage()
+	if vintage == "default" {
+		vintage = ""
+	}
 	for i, w := range s.Shade {
 		a, b, err := parseShade(w)
 		if err != nil {
@@ -338,10 +348,28 @@ func (s *figureSpec) shade(c *engine.Context, ss []series.Series, o *figures.Opt
 		if a.Freq != from.Freq {
 			return c.ItemErrorf("shade", i, "shaded window %s to %s is %s but the figure's data are %s", a, b, a.Freq, from.Freq)
 		}
-		if a.Before(from) || to.Before(b) {
-			return c.ItemErrorf("shade", i, "shaded window %s to %s lies outside the plotted data, which run from %s to %s", a, b, from, to)
+		if b.Before(from) || to.Before(a) {
+			if vintage == "" {
+				return c.ItemErrorf("shade", i, "shaded window %s to %s lies outside the plotted data, which run from %s to %s", a, b, from, to)
+			}
+			s.notes = append(s.notes, fmt.Sprintf("The shaded window %s to %s lies outside the data of vintage %q (%s to %s) and is not shown.", a, b, vintage, from, to))
+			continue
 		}
-		o.Shade = append(o.Shade, figures.Window{From: a, To: b})
+		ca, cb := a, b
+		if ca.Before(from) {
+			ca = from
+		}
+		if to.Before(cb) {
+			cb = to
+		}
+		if !ca.Equal(a) || !cb.Equal(b) {
+			of := "the plotted data"
+			if vintage != "" {
+				of = fmt.Sprintf("the data of vintage %q", vintage)
+			}
+			s.notes = append(s.notes, fmt.Sprintf("The shaded window %s to %s runs past %s (%s to %s); it is shaded from %s to %s.", a, b, of, from, to, ca, cb))
+		}
+		o.Shade = append(o.Shade, figures.Window{From: ca, To: cb})
 	}
 	return nil
 }

@@ -1,15 +1,15 @@
 package johansen
 
 import (
+	"errors"
 	"fmt"
-	"regexp"
 	"slices"
-	"strconv"
 	"strings"
 
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/restrict"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/manuscript"
 )
@@ -145,10 +145,13 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	case johansen.RT:
 		st.Coefs = append(st.Coefs, "trend")
 	}
+	if err := k.checkDummies(c, &st); err != nil {
+		return st, err
+	}
 	for _, h := range k.Restrict {
 		var rows []sysRestr
 		for _, e := range h.Equations {
-			row, err := ParseRestriction(e, st.Coefs, st.Case)
+			row, err := betaRestriction(e, st.Coefs, st.Case)
 			if err != nil {
 				return st, c.Errorf("restrict", "restrict: %s: %v", h.Name, err)
 			}
@@ -156,17 +159,20 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		}
 		st.Rows = append(st.Rows, rows)
 	}
-	for _, ex := range k.Exogenous {
+	if k.Exogenous != nil {
+		return st, c.Errorf("exogenous", "exogenous: the weak-exogeneity tests are now written exogeneity_tests: (the same list); stationary regressors that condition the model go in extra:")
+	}
+	for _, ex := range k.ExogTests {
 		var idx []int
 		for _, n := range ex {
 			i, err := seriesIndex(n, k.Series)
 			if err != nil {
-				return st, c.Errorf("exogenous", "exogenous: %v", err)
+				return st, c.Errorf("exogeneity_tests", "exogeneity_tests: %v", err)
 			}
 			idx = append(idx, i)
 		}
 		if len(idx) == 0 {
-			return st, c.Errorf("exogenous", "exogenous: an empty list")
+			return st, c.Errorf("exogeneity_tests", "exogeneity_tests: an empty list")
 		}
 		st.Exog = append(st.Exog, idx)
 	}
@@ -183,6 +189,8 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		return st, err
 	} else if sim != nil && k.SmallSample {
 		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")
+	} else if sim != nil && k.hasExtra() {
+		return st, c.Errorf("crit", "crit: simulate draws systems without dummies or extra regressors, so its critical values would not be those of this model; use the tables (the note says how the dummies affect them)")
 	}
 	return st, nil
 }
@@ -194,7 +202,7 @@ func (k *SystemKeys) testNames() []string {
 	for _, h := range k.Restrict {
 		out = append(out, h.Name)
 	}
-	for _, ex := range k.Exogenous {
+	for _, ex := range k.ExogTests {
 		var parts []string
 		for _, n := range ex {
 			parts = append(parts, normName(n))
@@ -215,110 +223,20 @@ func seriesIndex(name string, series []string) (int, error) {
 	return 0, fmt.Errorf("%q is not one of the series%s (%s)", name, manuscript.DidYouMean(name, series), strings.Join(series, ", "))
 }
 
-var coefTermRE = regexp.MustCompile(`^([0-9]*\.?[0-9]+(?:[eE][-+]?[0-9]+)?)?\s*\*?\s*(.*)$`)
-
-// ParseRestriction reads one linear equation on the coefficients of a
-// cointegrating relation, such as "log(north) = -log(fuel)",
-// "log(south) - log(north) = 0" or "const = 0", into the row r of R' in
-// R'β = 0: each side is a sum of terms [±][number[*]]name, a name being one
-// of coefs (whitespace ignored), or the number 0.
-func ParseRestriction(eq string, coefs []string, cs johansen.Case) ([]float64, error) {
-	lhs, rhs, ok := strings.Cut(eq, "=")
-	if !ok || strings.Contains(rhs, "=") {
-		return nil, fmt.Errorf("%q: write one equation with a single '=', e.g. \"log(a) = -log(b)\"", eq)
+// betaRestriction reads one homogeneous linear equation on the
+// coefficients of β (the series, and const or trend in cases rc and rt),
+// in galley's one restriction grammar (analysis/restrict).
+func betaRestriction(eq string, coefs []string, cs johansen.Case) ([]float64, error) {
+	lin, err := engine.ParseRestriction(eq, coefs, restrict.Options{Homogeneous: true})
+	var re *restrict.Error
+	if errors.As(err, &re) && errors.Is(err, restrict.ErrUnknownTerm) && (re.Term == "const" || re.Term == "trend") {
+		return nil, fmt.Errorf("%w; β has a %s row only in case %s (this is case %s)", err, re.Term, map[string]string{"const": "rc", "trend": "rt"}[re.Term], cs)
 	}
-	row := make([]float64, len(coefs))
-	for side, text := range []string{lhs, rhs} {
-		sign := 1.0
-		if side == 1 {
-			sign = -1
-		}
-		terms, err := splitTerms(text)
-		if err != nil {
-			return nil, fmt.Errorf("%q: %v", eq, err)
-		}
-		for _, t := range terms {
-			m := coefTermRE.FindStringSubmatch(t.text)
-			w := 1.0
-			if m[1] != "" {
-				w, _ = strconv.ParseFloat(m[1], 64)
-			}
-			name := normName(m[2])
-			if name == "" {
-				if w != 0 {
-					return nil, fmt.Errorf("%q: restrictions on β are homogeneous; a constant other than 0 cannot appear (write the restricted constant as const)", eq)
-				}
-				continue
-			}
-			i := slices.IndexFunc(coefs, func(c string) bool { return normName(c) == name })
-			if i < 0 {
-				hint := ""
-				if name == "const" || name == "trend" {
-					hint = fmt.Sprintf("; β has a %s row only in case %s (this is case %s)", name, map[string]string{"const": "rc", "trend": "rt"}[name], cs)
-				}
-				return nil, fmt.Errorf("%q: %q is not a coefficient of the relations%s (%s)%s", eq, m[2], manuscript.DidYouMean(m[2], coefs), strings.Join(coefs, ", "), hint)
-			}
-			row[i] += sign * t.sign * w
-		}
-	}
-	if slices.IndexFunc(row, func(v float64) bool { return v != 0 }) < 0 {
-		return nil, fmt.Errorf("%q restricts nothing (its coefficients cancel)", eq)
-	}
-	return row, nil
-}
-
-type signedTerm struct {
-	sign float64
-	text string
-}
-
-// splitTerms splits a sum at its top-level + and − signs (not inside
-// parentheses, not in a number's exponent).
-func splitTerms(s string) ([]signedTerm, error) {
-	var out []signedTerm
-	depth, start := 0, 0
-	sign := 1.0
-	flush := func(end int) error {
-		t := strings.TrimSpace(s[start:end])
-		if t == "" {
-			return fmt.Errorf("a term is missing")
-		}
-		out = append(out, signedTerm{sign, t})
-		return nil
-	}
-	s = strings.ReplaceAll(s, "−", "-")
-	for i, r := range s {
-		switch r {
-		case '(':
-			depth++
-		case ')':
-			depth--
-		case '+', '-':
-			if depth != 0 || (i > 0 && (s[i-1] == 'e' || s[i-1] == 'E') && i > 1 && s[i-2] >= '0' && s[i-2] <= '9') {
-				continue
-			}
-			if strings.TrimSpace(s[start:i]) == "" && len(out) == 0 {
-				if r == '-' {
-					sign = -sign
-				}
-				start = i + 1
-				continue
-			}
-			if err := flush(i); err != nil {
-				return nil, err
-			}
-			sign = 1
-			if r == '-' {
-				sign = -1
-			}
-			start = i + 1
-		}
-	}
-	if depth != 0 {
-		return nil, fmt.Errorf("unbalanced parentheses")
-	}
-	if err := flush(len(s)); err != nil {
+	if err != nil {
 		return nil, err
 	}
-	return out, nil
+	if len(lin.R) != 1 {
+		return nil, fmt.Errorf("%q: write one equation per entry (each entry is one row of the restriction)", eq)
+	}
+	return lin.R[0], nil
 }

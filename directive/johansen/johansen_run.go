@@ -32,7 +32,10 @@ type sysState struct {
 	norm       []int // normalisation series
 	vecm       *johansen.VECM
 	tests      []sysTest
-	sim        *sysSim // crit: simulate (simcrit.go)
+	sim        *sysSim   // crit: simulate (simcrit.go)
+	ex         *sysExtra // dummies and extra regressors (dummies.go)
+	xr         *mat.Dense
+	y          *mat.Dense // the levels of the series (T×K)
 }
 
 type sysTest struct {
@@ -113,12 +116,16 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	if err := checkCritical(c, st.Case, K); sim == nil && err != nil {
 		return nil, err
 	}
-	d, err := c.Data(c.DataAlias(k.Data), k.Series, k.Sample)
+	d, err := c.Data(c.DataAlias(k.Data), append(slices.Clone(k.Series), k.Extra...), k.Sample)
 	if err != nil {
 		return nil, err
 	}
 	s := &sysState{st: st, d: d}
 	y := levelsMatrix(d)
+	if len(k.Extra) > 0 {
+		y = mat.DenseCopyOf(y.Slice(0, d.N(), 0, K))
+	}
+	s.y = y
 	lags := k.Lags.Fixed
 	if k.Lags.Select != "" {
 		s.lagMax = defaultMaxLags(d.N(), K, st.Case)
@@ -133,12 +140,19 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		}
 		lags = map[string]int{"aic": s.lags.AIC, "bic": s.lags.BIC, "hq": s.lags.HQ}[k.Lags.Select]
 	}
-	if s.res, err = johansen.Test(y, st.Case, lags); err != nil {
+	if s.ex, err = k.buildExtra(c, d, st.Case, lags); err != nil {
+		return nil, err
+	}
+	s.xr = s.ex.x.Restricted
+	if s.res, err = johansen.TestExtra(y, st.Case, lags, s.ex.x); err != nil {
 		key := "series"
-		if strings.Contains(err.Error(), "too few observations") {
+		switch {
+		case strings.Contains(err.Error(), "too few observations"):
 			key = "lags"
+		case strings.Contains(err.Error(), "extra regressor"):
+			key = ""
 		}
-		return nil, c.Errorf(key, "%d observations in the sample %s: %v", d.N(), d.Range(), nameSeries(err, st.Names))
+		return nil, c.Errorf(key, "%d observations in the sample %s: %v", d.N(), d.Range(), nameExtra(nameSeries(err, st.Names), s.ex))
 	}
 	r := s.res
 	s.trace, s.max = r.Statistics(k.SmallSample)
@@ -162,7 +176,7 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		s.rank = *k.Rank
 	}
 	if s.rank < 1 || s.rank > K-1 {
-		if len(k.Normalize) > 0 || len(k.Restrict) > 0 || len(k.Exogenous) > 0 {
+		if len(k.Normalize) > 0 || len(k.Restrict) > 0 || len(k.ExogTests) > 0 {
 			return nil, c.Errorf("", "the sequential trace tests at %s choose rank %d, so there are no relations to normalise or test; set rank: (1..%d) to estimate them anyway", contract.Pct(st.Level), s.chosen, K-1)
 		}
 		s.rank = 0
@@ -202,7 +216,7 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	for i, ex := range st.Exog {
 		lr, err := r.WeakExogeneity(s.rank, ex...)
 		if err != nil {
-			return nil, c.Errorf("exogenous", "exogenous at rank %d: %v", s.rank, nameSeries(err, st.Names))
+			return nil, c.Errorf("exogeneity_tests", "exogeneity_tests at rank %d: %v", s.rank, nameSeries(err, st.Names))
 		}
 		var who []string
 		for _, j := range ex {
@@ -273,6 +287,9 @@ func (s *sysState) values() map[string]any {
 		"nobs": r.T, "lags": r.Lags, "det": r.Case.String(), "series": slices.Clone(s.st.Names),
 		"sample": map[string]any{"from": s.d.Dates[r.Lags+1].String(), "to": s.d.Dates[s.d.N()-1].String(), "n": r.T},
 	}
+	if s.ex != nil && (len(s.ex.keys) > 0 || len(s.ex.restricted) > 0) {
+		v["dummies"] = s.dummyValues()
+	}
 	if s.lags != nil {
 		v["lag_choice"] = map[string]any{"aic": s.lags.AIC, "bic": s.lags.BIC, "hq": s.lags.HQ, "max": s.lagMax, "nobs": s.lags.T}
 	}
@@ -313,12 +330,26 @@ func (s *sysState) values() map[string]any {
 // relation (johansen.VECM.Relations gives the formula and the meaning of
 // their levels in each case).
 func (s *sysState) relations() []contract.Dated {
-	zs := s.vecm.Relations(s.res.Case, levelsMatrix(s.d))
+	zs := s.vecm.Relations(s.res.Case, s.y, s.xr)
 	out := make([]contract.Dated, len(zs))
 	for j, z := range zs {
 		out[j] = contract.NewDated(s.d.Dates, z)
 	}
 	return out
+}
+
+// dummyValues lists the extra regressors of the model (only set when
+// there are any): the unrestricted ones by their short-run keys, the
+// restricted ones by their β rows.
+func (s *sysState) dummyValues() map[string]any {
+	v := map[string]any{}
+	if len(s.ex.keys) > 0 {
+		v["unrestricted"] = slices.Clone(s.ex.keys)
+	}
+	if len(s.ex.restricted) > 0 {
+		v["restricted"] = slices.Clone(s.ex.restricted)
+	}
+	return v
 }
 
 // lagPhrase says how the lags were set.

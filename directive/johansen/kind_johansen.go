@@ -37,8 +37,17 @@ type SystemKeys struct {
 	Rank        *int                  `yaml:"rank"`
 	Normalize   manuscript.NameList   `yaml:"normalize"`
 	Restrict    sysHypotheses         `yaml:"restrict"`
-	Exogenous   []manuscript.NameList `yaml:"exogenous"`
+	ExogTests   []manuscript.NameList `yaml:"exogeneity_tests"`
 	Decimals    *int                  `yaml:"decimals"`
+
+	// Dummies and conditioning regressors (dummies.go).
+	Seasonal bool                `yaml:"seasonal"`
+	Impulse  manuscript.NameList `yaml:"impulse"`
+	Shift    manuscript.NameList `yaml:"shift"`
+	Extra    []string            `yaml:"extra"`
+	// Exogenous is the old spelling of exogeneity_tests, kept only to be
+	// refused with a message that names the new key.
+	Exogenous any `yaml:"exogenous"`
 
 	engine.SimKeys `yaml:",inline"` // crit: simulate (simcrit.go)
 }
@@ -55,6 +64,8 @@ type vecmSpec struct {
 	SystemKeys    `yaml:",inline"`
 	From          string `yaml:"from"`
 	Show          string `yaml:"show"`
+
+	state *sysState // its own system (without from:), set by Run
 }
 
 type varLagsSpec struct {
@@ -69,7 +80,7 @@ type varLagsSpec struct {
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
 	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
-	"relations", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+	"relations", "dummies", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
 	engine.Register(engine.Kind{Name: "johansen", Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
@@ -126,6 +137,7 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Body = append(t.Body, table.Row{Cells: row})
 	}
 	t.Notes = []string{sysNote(st, s.Lags.Select)}
+	t.Notes = append(t.Notes, st.ex.notes...)
 	if st.sim != nil { // crit: simulate (simcrit.go)
 		t.Notes = append(t.Notes, st.sim.mcseNote())
 	}

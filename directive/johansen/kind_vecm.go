@@ -18,7 +18,7 @@ import (
 // ownKeys lists the system keys set on a vecm directive.
 func (s *vecmSpec) ownKeys(c *engine.Context) []string {
 	var out []string
-	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogenous", "crit", "reps", "seed"} {
+	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogeneity_tests", "seasonal", "impulse", "shift", "extra", "crit", "reps", "seed"} {
 		if c.Has(k) {
 			out = append(out, k)
 		}
@@ -77,6 +77,7 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if st, err = s.run(c); err != nil {
 			return nil, err
 		}
+		s.state = st
 	}
 	if st.vecm == nil {
 		return nil, c.Errorf("", "the sequential trace tests at %s choose rank %d, so there is no error-correction model to show; set rank: (1..%d)", contract.Pct(st.st.Level), st.chosen, st.res.K-1)
@@ -151,12 +152,14 @@ func relationsTable(st *sysState, dec int) *table.Table {
 }
 
 // shortRunTerm names a short-run regressor for tables and values.
-func shortRunTerm(tm johansen.Term, names []string) (label, key string) {
+func shortRunTerm(tm johansen.Term, names []string, ex *sysExtra) (label, key string) {
 	switch tm.Kind {
 	case johansen.Constant:
 		return "Constant", "const"
 	case johansen.Trend:
 		return "Trend", "trend"
+	case johansen.ExtraTerm:
+		return ex.labels[tm.Series], ex.keys[tm.Series]
 	}
 	n := names[tm.Series]
 	return fmt.Sprintf("Δ%s, lag %d", n, tm.Lag), fmt.Sprintf("lag%d:%s", tm.Lag, normName(n))
@@ -182,7 +185,7 @@ func shortRunTable(st *sysState, dec int) *table.Table {
 		add(fmt.Sprintf("Relation %d (α)", j+1), func(eq int) float64 { return m.Alpha.At(eq, j) }, func(eq int) float64 { return m.AlphaSE.At(eq, j) }, false)
 	}
 	for k, tm := range m.Terms {
-		label, _ := shortRunTerm(tm, st.st.Names)
+		label, _ := shortRunTerm(tm, st.st.Names, st.ex)
 		add(label, func(eq int) float64 { return m.Short.At(eq, k) }, func(eq int) float64 { return m.ShortSE.At(eq, k) }, k == 0)
 	}
 	t.Notes = append(t.Notes, "Columns are equations. Given β, each equation is fitted by least squares; standard errors in parentheses.")
@@ -195,7 +198,7 @@ func shortValues(st *sysState) []map[string]any {
 	m := st.vecm
 	out := []map[string]any{}
 	for k, tm := range m.Terms {
-		_, key := shortRunTerm(tm, st.st.Names)
+		_, key := shortRunTerm(tm, st.st.Names, st.ex)
 		e := map[string]any{"term": key}
 		for eq, n := range st.st.Names {
 			e[n] = map[string]any{"est": m.Short.At(eq, k), "se": m.ShortSE.At(eq, k)}

@@ -54,13 +54,13 @@ type fmolsSpec struct {
 var (
 	longrunFields = []string{"coef", "nobs", "wald", "cov", "se_desc", "det", "y", "x", "sample", "resid"}
 	dolsFields    = append([]string{"leads", "lags", "r2", "select", "dynamics", "bandwidth", "hac_lags", "kernel"}, longrunFields...)
-	fmolsFields   = append([]string{"bandwidth", "kernel"}, longrunFields...)
+	fmolsFields   = append([]string{"bandwidth", "kernel", "lc"}, longrunFields...)
 )
 
 func init() {
-	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields,
+	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields, Model: true,
 		New: func() engine.Directive { return &dolsSpec{} }})
-	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields,
+	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields, Model: true,
 		New: func() engine.Directive { return &fmolsSpec{} }})
 }
 
@@ -250,6 +250,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
+	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
 	return res, nil
 }
 
@@ -315,6 +316,11 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		table.Row{Cells: []table.Cell{table.T("Bandwidth"), table.N(r.Bandwidth, 2)}},
 	)
 	t.Body = append(t.Body, waldRows(walds, dec)...)
+	lcRows, lcNote, lcVals, err := lcBlock(c, d.Cols[0], d.Cols[1:], sp.Det, r, dec) // lc_rows.go
+	if err != nil {
+		return nil, err
+	}
+	t.Body = append(t.Body, lcRows...)
 	sd := &engine.Data{Dates: d.Dates[r.First:]}
 	bwText := fmt.Sprintf("bandwidth %.2f chosen by Andrews' (1991) AR(1) rule", r.Bandwidth)
 	if sp.Bandwidth > 0 {
@@ -329,15 +335,16 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if w := waldNote(walds); w != "" {
 		t.Notes = append(t.Notes, w)
 	}
-	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
+	t.Notes = append(t.Notes, lcNote, c.StarNote()+" "+sd.SampleNote())
 	vals := map[string]any{
-		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds),
+		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds), "lc": lcVals,
 		"bandwidth": r.Bandwidth, "kernel": strings.ToLower(kname), "cov": "fmols", "se_desc": seDesc, "det": sp.Det.String(),
 		"y": s.Y, "x": append([]string(nil), s.X...),
 		"sample": engine.SampleValues(sd),
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], sp.Det, r.Coef)))
+	res.Model = engine.ModelOf("FMOLS", s.Y, r.Names, r.Table, vals, true, "")
 	return res, nil
 }
 

@@ -6,8 +6,8 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/manuscript"
 )
@@ -22,28 +22,23 @@ type modelTableSpec struct {
 	Decimals      *int     `yaml:"decimals"`
 }
 
-// modelKinds are the kinds whose results a model table can show.
-var modelKinds = []string{"ols", "ecm", "dols", "fmols"}
-
 // modelStats are the lower-block rows a model table can show, with their
-// labels; each is a top-level number in the models' values.
+// labels; each is a key of contract.Model.Stats.
 var modelStats = []struct{ key, label string }{
 	{"nobs", "N"}, {"r2", "R²"}, {"r2_adj", "Adjusted R²"}, {"sigma", "Residual standard error"},
 	{"loglik", "Log-likelihood"}, {"dw", "Durbin–Watson"}, {"alpha", "Adjustment coefficient α"},
 	{"halflife", "Half-life"}, {"leads", "Leads of Δx"}, {"lags", "Lags of Δx"}, {"bandwidth", "Bandwidth"},
 }
 
-// modelDiagnostics are the residual diagnostics (of ecm results) a model
-// table can show in its lower block: the p-value of each test (for
-// Durbin–Watson, which ols results carry at the top level, the statistic).
+// modelDiagnostics are the residual diagnostics (contract.Model's
+// Diagnostics) a model table can show in its lower block, by the p-value
+// of each test.
 var modelDiagnostics = []string{"bg", "lb", "jb", "arch", "bp", "reset"}
-
-var modelMethod = map[string]string{"ols": "OLS", "ecm": "ECM", "dols": "DOLS", "fmols": "FMOLS"}
 
 func init() {
 	engine.Register(engine.Kind{
 		Name:    "model-table",
-		Summary: "several ols, ecm, dols or fmols results side by side",
+		Summary: "several estimated equations (ols, ecm, dols, fmols, …) side by side",
 		New:     func() engine.Directive { return &modelTableSpec{} },
 		Fields:  []string{"models", "terms", "stats"},
 	})
@@ -58,11 +53,11 @@ func (s *modelTableSpec) stats() []string {
 
 func (s *modelTableSpec) Check(c *engine.Context) error {
 	if len(s.Models) == 0 {
-		return c.Errorf("", "galley model-table: the key \"models\" is required: a list of ids of %s results", strings.Join(modelKinds, ", "))
+		return c.Errorf("", "galley model-table: the key \"models\" is required: a list of ids of estimated equations (ols, ecm, dols, fmols, …)")
 	}
 	seen := map[string]bool{}
 	for _, id := range s.Models {
-		if err := c.CheckRef("models", id, modelKinds...); err != nil {
+		if err := c.CheckRefWhere("models", id, func(k *engine.Kind) bool { return k.Model }); err != nil {
 			return err
 		}
 		if seen[id] {
@@ -86,42 +81,21 @@ func (s *modelTableSpec) Check(c *engine.Context) error {
 	return nil
 }
 
-// modelCoef is one coefficient of a model, from its values.
-type modelCoef struct{ est, se, p float64 }
-
-func modelCoefs(r *engine.Result) (map[string]modelCoef, []string) {
-	m := map[string]modelCoef{}
-	var order []string
-	list, _ := r.Values["coef"].([]map[string]any)
-	for _, e := range list {
-		name, _ := e["term"].(string)
-		est, _ := e["est"].(float64)
-		se, _ := e["se"].(float64)
-		p, ok := e["p"].(float64)
-		if !ok {
-			p = math.NaN()
-		}
-		m[name] = modelCoef{est, se, p}
-		order = append(order, name)
-	}
-	return m, order
-}
-
 func (s *modelTableSpec) Run(c *engine.Context) (*engine.Result, error) {
-	res := make([]*engine.Result, len(s.Models))
-	coefs := make([]map[string]modelCoef, len(s.Models))
+	models := make([]*contract.Model, len(s.Models))
 	var union []string
 	for i, id := range s.Models {
-		r, err := c.Result("models", id, modelKinds...)
+		r, err := c.Result("models", id)
 		if err != nil {
 			return nil, err
 		}
-		res[i] = r
-		var order []string
-		coefs[i], order = modelCoefs(r)
-		for _, t := range order {
-			if !slices.Contains(union, t) {
-				union = append(union, t)
+		if r.Model == nil {
+			return nil, c.ItemErrorf("models", i, "%q is a %s result (line %d), which is not an estimated equation a model table can show", id, r.Kind, r.Line)
+		}
+		models[i] = r.Model
+		for _, cf := range r.Model.Coefs {
+			if !slices.Contains(union, cf.Term) {
+				union = append(union, cf.Term)
 			}
 		}
 	}
@@ -135,34 +109,58 @@ func (s *modelTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 		terms = s.Terms
 	}
 	dec := engine.DecimalsOr(c, s.Decimals)
-	n := len(s.Models)
+	t := &table.Table{Stub: 1, Head: s.head(models)}
+	t.Body = coefRows(c, models, terms, dec)
+	stats, statVals := s.statRows(models, dec)
+	t.Body = append(t.Body, stats...)
+	t.Notes = modelNotes(c, models)
+	vals := map[string]any{"models": append([]string(nil), s.Models...), "terms": append([]string(nil), terms...), "stats": statVals}
+	return &engine.Result{Table: t, Values: vals}, nil
+}
+
+// head is the column numbers, the methods (or the author's labels) and
+// the dependent variables.
+func (s *modelTableSpec) head(models []*contract.Model) [][]table.Cell {
 	head1 := []table.Cell{table.T("")}
 	head2 := []table.Cell{table.T("")}
 	head3 := []table.Cell{table.T("Dependent variable")}
-	for i, r := range res {
+	for i, m := range models {
 		head1 = append(head1, table.T(fmt.Sprintf("(%d)", i+1)))
-		label := modelMethod[r.Kind]
+		label := m.Method
 		if len(s.Labels) > 0 {
 			label = s.Labels[i]
 		}
 		head2 = append(head2, table.T(label))
-		head3 = append(head3, table.T(modelDep(r)))
+		head3 = append(head3, table.T(m.Dependent))
 	}
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{head1, head2, head3}}
+	return [][]table.Cell{head1, head2, head3}
+}
+
+// coefRows are each term's estimates with stars and, beneath, their
+// standard errors, empty where a model lacks the term.
+func coefRows(c *engine.Context, models []*contract.Model, terms []string, dec int) []table.Row {
+	var rows []table.Row
 	for _, term := range terms {
 		est := []table.Cell{table.T(term)}
 		se := []table.Cell{table.Empty}
-		for i := range res {
-			cf, ok := coefs[i][term]
+		for _, m := range models {
+			cf, ok := m.Coef(term)
 			if !ok {
 				est, se = append(est, table.Empty), append(se, table.Empty)
 				continue
 			}
-			est = append(est, table.Starred(cf.est, dec, starsOrZero(c, cf.p)))
-			se = append(se, table.SECell(cf.se, dec))
+			est = append(est, table.Starred(cf.Est, dec, starsOrZero(c, cf.P)))
+			se = append(se, table.SECell(cf.SE, dec))
 		}
-		t.Body = append(t.Body, table.Row{Cells: est}, table.Row{Cells: se})
+		rows = append(rows, table.Row{Cells: est}, table.Row{Cells: se})
 	}
+	return rows
+}
+
+// statRows is the lower block: one row per statistic asked for, and the
+// values shown, by statistic (nil where a model lacks it).
+func (s *modelTableSpec) statRows(models []*contract.Model, dec int) ([]table.Row, map[string]any) {
+	var rows []table.Row
 	statVals := map[string]any{}
 	for j, st := range s.stats() {
 		label := st
@@ -171,38 +169,36 @@ func (s *modelTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 				label = ms.label
 			}
 		}
-		if slices.Contains(modelDiagnostics, st) {
-			label = diagnosticLabel(res, st) + ", p-value"
+		diag := slices.Contains(modelDiagnostics, st)
+		if diag {
+			label = diagnosticLabel(models, st) + ", p-value"
 		}
 		row := table.Row{Cells: []table.Cell{table.T(label)}, RuleAbove: j == 0}
-		vs := make([]any, n)
-		for i, r := range res {
-			v, ok := r.Values[st]
-			if !ok {
-				v, ok = diagnosticValue(r, st)
+		vs := make([]any, len(models))
+		for i, m := range models {
+			x, ok := m.Stats[st]
+			if diag {
+				var d contract.Diagnostic
+				d, ok = m.Diagnostics[st]
+				x = d.P
 			}
-			vs[i] = v
-			switch x := v.(type) {
-			case int:
-				row.Cells = append(row.Cells, table.I(x))
-			case float64:
-				if ok && st == "bandwidth" && x != math.Trunc(x) {
-					row.Cells = append(row.Cells, table.N(x, 2))
-				} else if st == "bandwidth" || st == "leads" || st == "lags" {
-					row.Cells = append(row.Cells, table.I(int(x)))
-				} else {
-					row.Cells = append(row.Cells, table.N(x, dec))
-				}
-			default:
+			switch {
+			case !ok:
 				row.Cells = append(row.Cells, table.Empty)
+				continue
+			case st == "nobs" || st == "leads" || st == "lags" || (st == "bandwidth" && x == math.Trunc(x)):
+				row.Cells = append(row.Cells, table.I(int(x)))
+			case st == "bandwidth":
+				row.Cells = append(row.Cells, table.N(x, 2))
+			default:
+				row.Cells = append(row.Cells, table.N(x, dec))
 			}
+			vs[i] = x
 		}
 		statVals[st] = vs
-		t.Body = append(t.Body, row)
+		rows = append(rows, row)
 	}
-	t.Notes = modelNotes(c, res)
-	vals := map[string]any{"models": append([]string(nil), s.Models...), "terms": append([]string(nil), terms...), "stats": statVals}
-	return &engine.Result{Table: t, Values: vals}, nil
+	return rows, statVals
 }
 
 func starsOrZero(c *engine.Context, p float64) int {
@@ -210,38 +206,6 @@ func starsOrZero(c *engine.Context, p float64) int {
 		return 0
 	}
 	return c.StarsFor(p)
-}
-
-// modelDep is the dependent variable of a model.
-func modelDep(r *engine.Result) string {
-	if y, ok := r.Values["y"].(string); ok {
-		return y
-	}
-	if y, ok := r.Spec["y"].(string); ok {
-		return y
-	}
-	return ""
-}
-
-// modelSE describes a model's standard errors.
-func modelSE(r *engine.Result) string {
-	if s, ok := r.Values["se_desc"].(string); ok {
-		return s
-	}
-	if s, ok := r.Values["cov"].(string); ok {
-		if cv, err := ols.ParseCov(s); err == nil {
-			return cv.Describe()
-		}
-	}
-	return "standard errors as in the model's own table"
-}
-
-func modelSample(r *engine.Result) string {
-	m, ok := r.Values["sample"].(map[string]any)
-	if !ok {
-		return "sample as in the model's own table"
-	}
-	return fmt.Sprintf("%v–%v, N = %v", m["from"], m["to"], m["n"])
 }
 
 // allSame reports whether every string is the same, returning it.
@@ -254,11 +218,20 @@ func allSame(s []string) (string, bool) {
 	return s[0], true
 }
 
-func modelNotes(c *engine.Context, res []*engine.Result) []string {
-	var ses, samples []string
-	for _, r := range res {
-		ses = append(ses, modelSE(r))
-		samples = append(samples, modelSample(r))
+func modelNotes(c *engine.Context, models []*contract.Model) []string {
+	var ses, samples, omitted []string
+	normal, student := false, false
+	for _, m := range models {
+		ses = append(ses, m.SE)
+		samples = append(samples, m.Sample)
+		if o := m.Method + " columns omit " + m.Omitted + "."; m.Omitted != "" && !slices.Contains(omitted, o) {
+			omitted = append(omitted, o)
+		}
+		if m.Normal {
+			normal = true
+		} else {
+			student = true
+		}
 	}
 	list := func(s []string) string {
 		parts := make([]string, len(s))
@@ -274,15 +247,6 @@ func modelNotes(c *engine.Context, res []*engine.Result) []string {
 	} else {
 		b.WriteString(list(ses) + ".")
 	}
-	normal := false
-	student := false
-	for _, r := range res {
-		if r.Kind == "ols" {
-			student = true
-		} else {
-			normal = true
-		}
-	}
 	switch {
 	case normal && student:
 		b.WriteString(" Stars from Student's t for OLS columns and from the standard normal for the others.")
@@ -297,37 +261,15 @@ func modelNotes(c *engine.Context, res []*engine.Result) []string {
 		s = "Sample " + one + " in every column."
 	}
 	notes = append(notes, c.StarNote()+" "+s)
-	if dols := slices.ContainsFunc(res, func(r *engine.Result) bool { return r.Kind == "dols" }); dols {
-		notes = append(notes, "DOLS columns omit the coefficients of the leads and lags of the differenced regressors.")
-	}
-	return notes
-}
-
-// diagnosticValue reads a residual diagnostic from a result's values: the
-// p-value, or for Durbin–Watson the statistic.
-func diagnosticValue(r *engine.Result, name string) (any, bool) {
-	ds, _ := r.Values["diagnostics"].(map[string]any)
-	d, _ := ds[name].(map[string]any)
-	if d == nil {
-		return nil, false
-	}
-	key := "pvalue"
-	if name == "dw" {
-		key = "stat"
-	}
-	v, ok := d[key]
-	return v, ok
+	return append(notes, omitted...)
 }
 
 // diagnosticLabel is the name of a diagnostic as the first model that
 // has it labels it (e.g. "Breusch–Godfrey LM(12)").
-func diagnosticLabel(res []*engine.Result, name string) string {
-	for _, r := range res {
-		ds, _ := r.Values["diagnostics"].(map[string]any)
-		if d, _ := ds[name].(map[string]any); d != nil {
-			if l, _ := d["test"].(string); l != "" {
-				return l
-			}
+func diagnosticLabel(models []*contract.Model, name string) string {
+	for _, m := range models {
+		if d, ok := m.Diagnostics[name]; ok && d.Label != "" {
+			return d.Label
 		}
 	}
 	return name

@@ -30,6 +30,7 @@ func init() {
 		Summary: "least-squares regression with OLS, HC1 or Newey–West HAC standard errors",
 		New:     func() engine.Directive { return &olsSpec{} },
 		Fields:  []string{"coef", "nobs", "r2", "r2_adj", "dw", "cov", "sigma", "loglik", "sample", "resid"},
+		Model:   true,
 	})
 }
 
@@ -50,6 +51,9 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	cov, _ := ols.ParseCov(s.SE)
 	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
 	if err != nil {
+		return nil, err
+	}
+	if err := c.RefuseConstant(d, "", "a regression cannot explain a series that does not vary (its fit would be exact and its t-ratios rounding noise)", 0); err != nil {
 		return nil, err
 	}
 	withConst := s.Const == nil || *s.Const
@@ -110,6 +114,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	res := &engine.Result{Table: t, Values: vals}
 	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))
+	res.Model = engine.ModelOf("OLS", s.Y, terms, coefs, vals, false, "")
 	return res, nil
 }
 

@@ -70,7 +70,7 @@ func parseURTest(c *engine.Context, test, det string, lags engine.LagSpec, bw, b
 	}
 	if def.Bandwidth {
 		if lags.Set {
-			return u, c.Errorf("lags", "%s uses a long-run variance: set bandwidth (short, long or a number), not lags", def.Title)
+			return u, c.Errorf("lags", "%s uses a long-run variance: set bandwidth (rule4, rule12, auto, auto-hfo or a number), not lags", def.Title)
 		}
 		if bw == "" {
 			bw = "short"
@@ -195,7 +195,7 @@ func urNote(u urTest, o *contract.Outcome, series string) string {
 		fmt.Fprintf(&b, " Deterministic terms: %s.", contract.DetNames[u.Det])
 	}
 	if o.IsBW {
-		fmt.Fprintf(&b, " Newey–West long-run variance with %d Bartlett lags (%s).", o.Lags, u.Bandwidth)
+		fmt.Fprintf(&b, " Newey–West long-run variance with %s.", bandwidthText(u.Bandwidth, o.Lags))
 	} else {
 		fmt.Fprintf(&b, " Lagged differences: %d, %s.", o.Lags, engine.DescribeLags(u.Lags, o.MaxLag))
 	}

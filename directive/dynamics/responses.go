@@ -1,0 +1,288 @@
+package dynamics
+
+import (
+	"fmt"
+	"os"
+	"strings"
+	"sync"
+	"time"
+
+	"gonum.org/v1/plot/vg"
+
+	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/analysis/vardyn"
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/figures"
+)
+
+// responsesSpec is the responses kind: impulse responses drawn as one
+// panel per (response, shock) pair, response-major, with bootstrap bands.
+type responsesSpec struct {
+	engine.Common `yaml:",inline"`
+	SourceKeys    `yaml:",inline"`
+	Horizon       *int     `yaml:"horizon"`
+	Identify      string   `yaml:"identify"`
+	Order         []string `yaml:"order"`
+	Responses     []string `yaml:"responses"`
+	Shocks        []string `yaml:"shocks"`
+	Reps          int      `yaml:"reps"`
+	Seed          *uint64  `yaml:"seed"`
+	Coverage      *float64 `yaml:"coverage"`
+	Interval      string   `yaml:"interval"`
+	Width         float64  `yaml:"width"`
+	Height        float64  `yaml:"height"`
+}
+
+func (s *responsesSpec) horizon() int {
+	if s.Horizon == nil {
+		return 20
+	}
+	return *s.Horizon
+}
+
+func (s *responsesSpec) identify() string {
+	if s.Identify == "" {
+		return "cholesky"
+	}
+	return strings.ToLower(s.Identify)
+}
+
+func (s *responsesSpec) interval() string {
+	if s.Interval == "" {
+		return "percentile"
+	}
+	return strings.ToLower(s.Interval)
+}
+
+func (s *responsesSpec) coverage() float64 {
+	if s.Coverage == nil {
+		return 0.90
+	}
+	return *s.Coverage
+}
+
+func (s *responsesSpec) Check(c *engine.Context) error {
+	if err := s.SourceKeys.check(c); err != nil {
+		return err
+	}
+	if h := s.horizon(); h < 1 || h > 200 {
+		return c.Errorf("horizon", "horizon must be 1–200 periods, not %d", h)
+	}
+	if id := s.identify(); id != "cholesky" && id != "generalised" {
+		return c.Errorf("identify", "identify: write cholesky (orthogonalised shocks in the order given by order:) or generalised (Pesaran–Shin), not %q", s.Identify)
+	}
+	if s.identify() == "generalised" && len(s.Order) > 0 {
+		return c.Errorf("order", "order: generalised responses do not depend on an ordering; drop order or use identify: cholesky")
+	}
+	if s.Reps != 0 && (s.Reps < 100 || s.Reps > 100000) {
+		return c.Errorf("reps", "reps: bootstrap bands need 100–100,000 replications (0 for none), not %d", s.Reps)
+	}
+	if cv := s.coverage(); !(cv >= 0.5 && cv < 1) {
+		return c.Errorf("coverage", "coverage must be at least 0.5 and below 1, not %g", cv)
+	}
+	if iv := s.interval(); iv != "percentile" && iv != "hall" {
+		return c.Errorf("interval", "interval: write percentile or hall, not %q", s.Interval)
+	}
+	if s.Reps == 0 {
+		for _, k := range []string{"seed", "coverage", "interval"} {
+			if c.Has(k) {
+				return c.Errorf(k, "%s: there are no bands without reps: (the bootstrap replications)", k)
+			}
+		}
+	}
+	return nil
+}
+
+func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
+	m, err := s.fit(c)
+	if err != nil {
+		return nil, err
+	}
+	k := len(m.names)
+	var order []int
+	if len(s.Order) > 0 {
+		if len(s.Order) != k {
+			return nil, c.Errorf("order", "order: name all %d series, first the one whose shock moves the others on impact", k)
+		}
+		if order, err = seriesIndices(c, "order", s.Order, m.names); err != nil {
+			return nil, err
+		}
+	}
+	resp := vardyn.Responses{Horizon: s.horizon(), Generalised: s.identify() == "generalised", Order: order}
+	theta, err := resp.Compute(m.a, m.sigma)
+	if err != nil {
+		return nil, c.Errorf("", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+	}
+	ri, err := seriesIndices(c, "responses", s.Responses, m.names)
+	if err != nil {
+		return nil, err
+	}
+	si, err := seriesIndices(c, "shocks", s.Shocks, m.names)
+	if err != nil {
+		return nil, err
+	}
+	var bands *vardyn.Bands
+	seed := uint64(1)
+	if s.Seed != nil {
+		seed = *s.Seed
+	}
+	if s.Reps > 0 {
+		prog := newProgress(fmt.Sprintf("galley: %s %s: bootstrap", c.Kind(), c.ID()))
+		bands, err = vardyn.Bootstrap(m.levels, m.a, m.resid, m.refit, resp, theta,
+			vardyn.BootSpec{Reps: s.Reps, Seed: seed, Coverage: s.coverage(), Progress: prog.update})
+		prog.finish(err)
+		if err != nil {
+			return nil, c.Errorf("reps", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+		}
+	}
+	lohi := func(b int) [][][]float64 {
+		if bands == nil {
+			return nil
+		}
+		if s.interval() == "hall" {
+			return bands.Hall[b]
+		}
+		return bands.Percentile[b]
+	}
+	lo, hi := lohi(0), lohi(1)
+	// Values: irf.RESPONSE.SHOCK = list over horizons 0..H.
+	irf, lower, upper := map[string]any{}, map[string]any{}, map[string]any{}
+	at := func(src func(h, i, j int) float64, i, j int) []float64 {
+		out := make([]float64, resp.Horizon+1)
+		for h := range out {
+			out[h] = src(h, i, j)
+		}
+		return out
+	}
+	for i, rn := range m.names {
+		ir, lr, ur := map[string]any{}, map[string]any{}, map[string]any{}
+		for j, sn := range m.names {
+			ir[sn] = at(func(h, i, j int) float64 { return theta[h].At(i, j) }, i, j)
+			if bands != nil {
+				lr[sn] = at(func(h, i, j int) float64 { return lo[h][i][j] }, i, j)
+				ur[sn] = at(func(h, i, j int) float64 { return hi[h][i][j] }, i, j)
+			}
+		}
+		irf[rn], lower[rn], upper[rn] = ir, lr, ur
+	}
+	vals := map[string]any{"irf": irf, "horizon": resp.Horizon, "identify": s.identify(), "series": m.names, "model": m.desc}
+	if order != nil {
+		vals["order"] = s.Order
+	}
+	if bands != nil {
+		vals["lower"], vals["upper"] = lower, upper
+		vals["reps"], vals["failed"], vals["seed"], vals["coverage"], vals["interval"] = bands.Reps, bands.Failed, seed, s.coverage(), s.interval()
+	}
+	// The figure: one panel per pair, the horizon on the x axis.
+	dates := make([]series.Date, resp.Horizon+1)
+	for h := range dates {
+		dates[h] = series.Date{Freq: series.Undated, Sub: h}
+	}
+	var panels []figures.Panel
+	var labels []string
+	for _, i := range ri {
+		for _, j := range si {
+			est := at(func(h, i, j int) float64 { return theta[h].At(i, j) }, i, j)
+			ss := []series.Series{{Name: "response", Dates: dates, Values: est}}
+			if bands != nil {
+				ss = append(ss,
+					series.Series{Name: fmt.Sprintf("%s band", pctText(s.coverage())), Dates: dates, Values: at(func(h, i, j int) float64 { return lo[h][i][j] }, i, j)},
+					series.Series{Name: "", Dates: dates, Values: at(func(h, i, j int) float64 { return hi[h][i][j] }, i, j)})
+			}
+			panels = append(panels, figures.Panel{Series: ss, YLabel: m.names[i] + " ← " + m.names[j]})
+			labels = append(labels, m.names[i]+" ← "+m.names[j])
+		}
+	}
+	o := figures.Options{Width: s.Width, Height: s.Height, XLabel: "Periods after the shock", PanelLabels: labels, Legend: figures.LegendNone}
+	if s.Height == 0 {
+		o.Height = min(1.3*float64(len(panels)), 39)
+	}
+	fig, err := figures.Panels(panels, o)
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	notes := []string{s.note(m, bands)}
+	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
+	vals["width"], vals["height"] = w, h
+	if c.Nested() {
+		return &engine.Result{Values: vals, Figure: &engine.Figure{Width: w, Height: h, Notes: notes}}, nil
+	}
+	svg, err := fig.Render("svg", 0)
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	pdf, err := fig.Render("pdf", 0)
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	id := c.ID()
+	vals["files"] = map[string]any{"svg": engine.FigureFolder + "/" + id + ".svg", "pdf": engine.FigureFolder + "/" + id + ".pdf"}
+	return &engine.Result{Values: vals, Figure: &engine.Figure{SVG: svg, PDF: pdf, Width: w, Height: h, Notes: notes,
+		PNGAt: func(dpi int) ([]byte, error) { return fig.Render("png", dpi) }}}, nil
+}
+
+func (s *responsesSpec) note(m *model, b *vardyn.Bands) string {
+	var sb strings.Builder
+	fmt.Fprintf(&sb, "Responses of %s over %d periods, from %s. ", strings.Join(m.names, ", "), s.horizon(), m.desc)
+	if s.identify() == "generalised" {
+		sb.WriteString("Generalised responses (Pesaran and Shin 1998) to a one-standard-deviation shock in each series' innovation; they do not depend on an ordering. ")
+	} else {
+		ord := m.names
+		if len(s.Order) > 0 {
+			ord = s.Order
+		}
+		fmt.Fprintf(&sb, "Orthogonalised responses to one-standard-deviation shocks, Cholesky ordering %s. ", strings.Join(ord, ", "))
+	}
+	if b != nil {
+		iv := "percentile"
+		if s.interval() == "hall" {
+			iv = "Hall's"
+		}
+		fmt.Fprintf(&sb, "Bands: pointwise %s %s intervals from %d residual-bootstrap replications (recursive design", pctText(s.coverage()), iv, b.Reps)
+		if m.vecm != nil {
+			sb.WriteString(", the VECM re-estimated at its rank with a fresh β each time")
+		}
+		sb.WriteString(")")
+		if b.Failed > 0 {
+			fmt.Fprintf(&sb, "; %d replications could not be re-estimated and are left out", b.Failed)
+		}
+		sb.WriteString(".")
+	}
+	return sb.String()
+}
+
+func pctText(p float64) string {
+	return strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.2f", p*100), "0"), ".") + "%"
+}
+
+// progress reports a long bootstrap on stderr: nothing for the first
+// second, then a line at each quarter of the replications and at the end.
+type progress struct {
+	mu    sync.Mutex
+	label string
+	start time.Time
+	next  int
+	shown bool
+}
+
+func newProgress(label string) *progress { return &progress{label: label, start: time.Now(), next: 1} }
+
+func (p *progress) update(done, total int) {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	el := time.Since(p.start)
+	if el < time.Second || done >= total {
+		return
+	}
+	if q := 4 * done / total; q >= p.next {
+		p.next = q + 1
+		p.shown = true
+		fmt.Fprintf(os.Stderr, "%s %d%% of %d replications after %s\n", p.label, 100*done/total, total, el.Round(100*time.Millisecond))
+	}
+}
+
+func (p *progress) finish(err error) {
+	if p.shown && err == nil {
+		fmt.Fprintf(os.Stderr, "%s done in %s\n", p.label, time.Since(p.start).Round(100*time.Millisecond))
+	}
+}
