@@ -48,7 +48,7 @@ var statTeX = []struct{ key, tex string }{
 var beneathValues = []string{"se", "t", "none"}
 
 func (s *equationSpec) Check(c *engine.Context) error {
-	if err := c.CheckRef("of", s.Of); err != nil {
+	if err := c.CheckRefWhere("of", s.Of, func(k *engine.Kind) bool { return k.Model }); err != nil {
 		return err
 	}
 	if s.Beneath != "" && !slices.Contains(beneathValues, s.Beneath) {
@@ -193,8 +193,13 @@ func ExprTeX(expr string) string {
 		src = m[1]
 		shift, _ = strconv.Atoi(m[2])
 	}
+	delta := ""
+	if rest, ok := strings.CutPrefix(src, "d."); ok { // a term name for a difference: d.x, d.x(-1)
+		src, delta = rest, `\Delta `
+	}
 	p := &exprParser{s: src}
 	out, ok := p.expr(shift)
+	out = delta + out
 	if !ok || p.i != len(p.s) {
 		return `\text{` + texText(expr) + `}`
 	}

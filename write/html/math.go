@@ -3,6 +3,7 @@ package html
 import (
 	"html"
 	"regexp"
+	"sort"
 	"strings"
 
 	"github.com/wyatt915/treeblood"
@@ -20,7 +21,11 @@ var texMacros = map[string]string{
 	"dfrac":        `\frac{#1}{#2}`,
 }
 
-var mathMLSpace = regexp.MustCompile(`>\s+<`)
+var (
+	mathMLSpace = regexp.MustCompile(`>\s+<`)
+	mathMLTag   = regexp.MustCompile(`<([a-z]+)((?:\s+[a-zA-Z:-]+="[^"]*")+)\s*(/?)>`)
+	mathMLAttr  = regexp.MustCompile(`[a-zA-Z:-]+="[^"]*"`)
+)
 
 // mathML typesets TeX as a MathML element; display makes it a block.
 // Anything the converter cannot read is shown as the TeX, marked.
@@ -43,6 +48,14 @@ func mathML(tex string, display bool) string {
 		return `<code class="tex">` + html.EscapeString(tex) + `</code>`
 	}
 	out = strings.TrimSpace(mathMLSpace.ReplaceAllString(out, "><"))
+	// The converter writes attributes in map order; sort them so that a
+	// page is the same bytes on every build.
+	out = mathMLTag.ReplaceAllStringFunc(out, func(tag string) string {
+		m := mathMLTag.FindStringSubmatch(tag)
+		attrs := mathMLAttr.FindAllString(m[2], -1)
+		sort.Strings(attrs)
+		return "<" + m[1] + " " + strings.Join(attrs, " ") + m[3] + ">"
+	})
 	// The namespace is implied inside HTML; leaving it out keeps the page
 	// free of addresses.
 	return strings.Replace(out, ` xmlns="http://www.w3.org/1998/Math/MathML"`, "", 1)
