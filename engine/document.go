@@ -43,12 +43,17 @@ type Document struct {
 	Body     []byte // the Markdown after the front matter
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
+	// Preamble is the author's LaTeX preamble file (front matter
+	// latex: preamble:), read when the manuscript is parsed.
+	Preamble []byte
 	// Outline numbers the manuscript's sections and marks its appendix.
 	Outline *manuscript.Outline
 
-	anchors   map[string]*Anchor // equations and sections, by id
-	cites     []*manuscript.CiteNode
-	eqNumbers map[*manuscript.MathBlock]string
+	anchors    map[string]*Anchor // equations and sections, by id
+	bib        *manuscript.Library
+	references []*manuscript.BibEntry
+	cites      []*manuscript.CiteNode
+	eqNumbers  map[*manuscript.MathBlock]string
 
 	src    []byte                  // the manuscript as read (normalised line ends)
 	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
@@ -142,6 +147,19 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		d.byID[b.id] = b
 	}
 	errs = append(errs, d.scanText()...)
+	errs = append(errs, d.loadBibliography()...)
+	if p := meta.LaTeX.Preamble; p != "" {
+		full, err := confine(d.Dir, p, opts.AllowOutside)
+		if err == nil {
+			d.Preamble, err = os.ReadFile(full)
+		}
+		if err != nil {
+			errs = append(errs, manuscript.ErrAt(path, meta.Lines["latex"], "latex: preamble: %v", strings.Replace(err.Error(), "data file", "file", 1)))
+		} else if line, r := manuscript.FirstControlChar(d.Preamble); line > 0 {
+			errs = append(errs, manuscript.ErrAt(p, line, "the preamble contains the control character U+%04X", r))
+		}
+	}
+	d.placeReferences()
 	if len(errs) > 0 {
 		return nil, errors.Join(errs...)
 	}
@@ -298,6 +316,9 @@ func (d *Document) Run() error {
 		return errors.Join(errs...)
 	}
 	d.number()
+	if err := d.collectReferences(); err != nil {
+		return err
+	}
 	for _, r := range d.refs {
 		if _, err := d.Inline(r); err != nil {
 			errs = append(errs, err)

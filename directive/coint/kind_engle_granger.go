@@ -196,7 +196,7 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if all {
 		vals["each"] = each
 	}
-	res := &engine.Result{Table: t, Values: vals, Test: first}
+	res := &engine.Result{Table: t, Values: vals, Test: first, Cites: []string{"engle-granger-1987", "mackinnon-2010", "mackinnon-1994"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
 	return res, nil
 }

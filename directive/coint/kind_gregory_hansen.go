@@ -224,7 +224,7 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals["x"] = append([]string(nil), s.X...)
 	vals["vars"] = len(vars)
 	vals["sample"] = engine.SampleValues(d)
-	res := &engine.Result{Table: t, Values: vals, Test: outs[0]}
+	res := &engine.Result{Table: t, Values: vals, Test: outs[0], Cites: []string{"gregory-hansen-1996"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates[:len(r.Resid)], r.Resid))
 	return res, nil
 }

@@ -48,7 +48,11 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	err = t.Execute(&out, map[string]any{
 		"Version":  o.Version,
 		"Title":    d.Meta.Title,
-		"Authors":  d.Meta.AllAuthors(),
+		"People":      d.Meta.People(),
+		"Thanks":      d.Meta.Thanks,
+		"VersionLine": d.Meta.Version,
+		"Keywords":    strings.Join(d.Meta.Keywords, "; "),
+		"JEL":         strings.Join(d.Meta.JEL, ", "),
 		"Date":     d.Meta.Date,
 		"Abstract": d.Meta.Abstract,
 		"CSS":      template.CSS(templates.StyleCSS),
@@ -66,6 +70,50 @@ func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(manuscript.KindMath, h.math)
 	reg.Register(manuscript.KindMathBlock, h.mathBlock)
 	reg.Register(ast.KindHeading, h.heading)
+	reg.Register(manuscript.KindCite, h.cite)
+	reg.Register(manuscript.KindReferences, h.references)
+}
+
+func (h *htmlNodes) cite(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	n := node.(*manuscript.CiteNode)
+	entries, err := h.doc.Cite(n)
+	if err != nil {
+		return ast.WalkStop, err
+	}
+	open, parts, close := manuscript.FormatCite(n, entries)
+	w.WriteString(`<span class="cite">` + html.EscapeString(open))
+	for i, p := range parts {
+		if i > 0 {
+			w.WriteString(html.EscapeString(manuscript.CiteSeparator(n.Cmd)))
+		}
+		w.WriteString(`<a href="#ref-` + html.EscapeString(p.Key) + `">` + html.EscapeString(p.Text) + `</a>`)
+	}
+	w.WriteString(html.EscapeString(close) + `</span>`)
+	return ast.WalkContinue, nil
+}
+
+func (h *htmlNodes) references(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	refs := h.doc.References()
+	if !entering || len(refs) == 0 {
+		return ast.WalkContinue, nil
+	}
+	w.WriteString(`<section class="references" id="references">` + "\n<h2>References</h2>\n")
+	for _, e := range refs {
+		w.WriteString(`<p class="ref" id="ref-` + html.EscapeString(e.Key) + `">`)
+		for _, sp := range e.Reference() {
+			if sp.Italic {
+				w.WriteString("<em>" + html.EscapeString(sp.Text) + "</em>")
+			} else {
+				w.WriteString(html.EscapeString(sp.Text))
+			}
+		}
+		w.WriteString("</p>\n")
+	}
+	w.WriteString("</section>\n")
+	return ast.WalkContinue, nil
 }
 
 func (h *htmlNodes) mathBlock(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {

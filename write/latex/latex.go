@@ -3,6 +3,7 @@ package latex
 import (
 	"bytes"
 	"fmt"
+	"regexp"
 	"strings"
 	"text/template"
 
@@ -34,12 +35,34 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
+	m := d.Meta
+	class, opts := "article", "11pt"
+	if m.LaTeX.Class != "" {
+		class = m.LaTeX.Class
+	}
+	if len(m.LaTeX.Options) > 0 {
+		opts = strings.Join(m.LaTeX.Options, ",")
+	}
+	date := texEscape(m.Date)
+	if m.Version != "" {
+		if date != "" {
+			date += "\\\\ "
+		}
+		date += "\\small " + texEscape(m.Version)
+	}
 	err = t.Execute(&out, map[string]string{
-		"Version":  o.Version,
-		"Title":    texEscape(d.Meta.Title),
-		"Authors":  texAuthors(d.Meta.AllAuthors()),
-		"Date":     texEscape(d.Meta.Date),
-		"Abstract": texEscape(d.Meta.Abstract),
+		"Version":          o.Version,
+		"Class":            class,
+		"ClassOptions":     opts,
+		"UserPreamble":     string(d.Preamble),
+		"UserPreambleFile": m.LaTeX.Preamble,
+		"Title":            texEscape(m.Title),
+		"Thanks":           texEscape(m.Thanks),
+		"Authors":          texAuthors(m.People()),
+		"Date":             date,
+		"Abstract":         texEscape(m.Abstract),
+		"Keywords":         texEscape(strings.Join(m.Keywords, "; ")),
+		"JEL":              texEscape(strings.Join(m.JEL, ", ")),
 	})
 	if err != nil {
 		return nil, err
@@ -57,8 +80,10 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 // column type d defined as D{.}{.}{-1}).
 func Fragment(r *engine.Result) []byte {
 	var b bytes.Buffer
-	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} and\n")
+	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} (and longtable\n")
+	b.WriteString("% for a table longer than a page, pdflscape for one wider than the text) and\n")
 	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
+	b.WriteString("\\providecommand{\\galleyfit}[1]{\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{#1}}\n")
 	writeTeXTable(&b, r)
 	return b.Bytes()
 }
@@ -100,10 +125,16 @@ func topHeading(root ast.Node) int {
 	return top
 }
 
-func texAuthors(names []string) string {
-	esc := make([]string, len(names))
-	for i, n := range names {
-		esc[i] = texEscape(n)
+func texAuthors(people []manuscript.Author) string {
+	esc := make([]string, len(people))
+	for i, p := range people {
+		esc[i] = texEscape(p.Name)
+		if p.Affiliation != "" {
+			esc[i] += "\\\\ \\small " + texEscape(p.Affiliation)
+		}
+		if p.Email != "" {
+			esc[i] += "\\\\ \\small\\texttt{" + texEscape(p.Email) + "}"
+		}
 	}
 	return strings.Join(esc, " \\and ")
 }
@@ -156,6 +187,8 @@ func (w *texWriter) block(n ast.Node) error {
 			o.WriteString("\\label{eq:" + n.ID + "}")
 		}
 		o.WriteString("\n" + n.TeX + "\n\\end{equation}\n")
+	case *manuscript.ReferencesNode:
+		w.bibliography()
 	case *east.FootnoteList:
 		// each footnote is written where it is referred to
 	case *ast.Paragraph, *ast.TextBlock:
@@ -311,6 +344,18 @@ func (w *texWriter) inline(n ast.Node) error {
 			}
 		}
 		o.WriteString("}")
+	case *manuscript.CiteNode:
+		if _, err := w.doc.Cite(n); err != nil {
+			return err
+		}
+		o.WriteString("\\" + n.Cmd)
+		if n.Pre != "" {
+			o.WriteString("[" + texEscape(manuscript.Detex(n.Pre)) + "]")
+		}
+		if n.Pre != "" || n.Post != "" {
+			o.WriteString("[" + texEscape(manuscript.Detex(n.Post)) + "]")
+		}
+		o.WriteString("{" + strings.Join(n.Keys, ",") + "}")
 	case *east.FootnoteBacklink:
 		// the footnote mark is LaTeX's own
 	case *manuscript.RefNode:
@@ -359,6 +404,30 @@ func texXRef(t engine.InlineValue) string {
 	return "Table~\\ref{tab:" + x.ID + "}"
 }
 
+// bibliography writes the reference list as natbib reads it, so that
+// one pdflatex run (two for cross-references) needs no BibTeX step:
+// \bibitem[Engle and Granger(1987)]{key} and galley's formatting of the
+// entry.
+func (w *texWriter) bibliography() {
+	refs := w.doc.References()
+	if len(refs) == 0 {
+		return
+	}
+	fmt.Fprintf(w.out, "\n\\begin{thebibliography}{%d}\n", len(refs))
+	for _, e := range refs {
+		fmt.Fprintf(w.out, "\\bibitem[%s(%s)]{%s}\n", texEscape(strings.ReplaceAll(e.AuthorText(), "et al.", "et~al.")), texEscape(e.YearText()), e.Key)
+		for _, sp := range e.Reference() {
+			if sp.Italic {
+				w.out.WriteString("\\emph{" + texEscape(sp.Text) + "}")
+			} else {
+				w.out.WriteString(texEscape(sp.Text))
+			}
+		}
+		w.out.WriteString("\n")
+	}
+	w.out.WriteString("\\end{thebibliography}\n")
+}
+
 // startOf is the body offset where a block starts (-1 if unknown).
 func startOf(n ast.Node) int {
 	if m, ok := n.(*manuscript.MathBlock); ok {
@@ -393,7 +462,7 @@ func (w *texWriter) result(r *engine.Result) {
 		w.out.WriteString("\n")
 		writeTeXTable(w.out, r)
 	case r.Figure != nil:
-		fmt.Fprintf(w.out, "\n\\begin{figure}[htbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
+		fmt.Fprintf(w.out, "\n\\begin{figure}[!tbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
 		fmt.Fprintf(w.out, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
 		writeTeXNotes(w.out, r.Figure.Notes)
 		w.out.WriteString("\\end{figure}\n")
@@ -414,38 +483,127 @@ func (w *texWriter) result(r *engine.Result) {
 	}
 }
 
+// Page-layout limits for tables: a table taller than longRows rows is
+// set as a longtable that breaks across pages, with its notes after its
+// last row; one whose estimated width at \scriptsize still exceeds the
+// text block is set on a landscape page.
+const (
+	longRows      = 44
+	textWidthPt   = 468.0 // 6.5in, the text block of the default geometry
+	scriptCharPt  = 3.6   // an average character at \scriptsize (7pt)
+	scriptColSep  = 7.0   // 2 × \tabcolsep at \scriptsize after galley's tightening
+	landscapeNote = "wider than the text block even at 7pt: set on a landscape page"
+)
+
+// estimatedWidth is a rough width of the table at \scriptsize, in points.
+func estimatedWidth(t *table.Table) float64 {
+	cols := t.Cols()
+	widths := make([]int, cols)
+	measure := func(cells []table.Cell) {
+		col := 0
+		for _, c := range cells {
+			span := max(c.Span, 1)
+			n := len([]rune(c.Text))
+			if c.IsNum {
+				s, _ := table.NumText(c)
+				n = len(s) + c.Stars + len(c.Suffix) + 2
+			}
+			if span == 1 && col < cols && n > widths[col] {
+				widths[col] = n
+			}
+			col += span
+		}
+	}
+	for _, h := range t.Head {
+		measure(h)
+	}
+	for _, r := range t.Body {
+		measure(r.Cells)
+	}
+	w := 0.0
+	for _, n := range widths {
+		w += float64(n)*scriptCharPt + scriptColSep
+	}
+	return w
+}
+
 func writeTeXTable(b *bytes.Buffer, r *engine.Result) {
 	t := r.Table
 	cols := t.Cols()
 	spec := strings.Repeat("l", t.Stub) + strings.Repeat("d", max(cols-t.Stub, 0))
-	fmt.Fprintf(b, "\\begin{table}[htbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
-	// Wide tables get tighter columns; one still wider than the text is
-	// scaled down to fit.
+	landscape := estimatedWidth(t) > textWidthPt
+	if landscape {
+		b.WriteString("\\begin{landscape}\n")
+	}
+	rows := len(t.Head) + len(t.Body)
+	if rows > longRows {
+		writeLongTable(b, r, spec)
+	} else {
+		fmt.Fprintf(b, "\\begin{table}[!tbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
+		if cols > 7 {
+			b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
+		}
+		// the largest size at which the table fits the line (galleyfit)
+		b.WriteString("\\galleyfit{%\n\\begin{tabular}{" + spec + "}\n\\toprule\n")
+		for _, row := range t.Head {
+			writeTeXRow(b, row, t.Stub, true)
+		}
+		b.WriteString("\\midrule\n")
+		for _, row := range t.Body {
+			if row.RuleAbove {
+				b.WriteString("\\midrule\n")
+			}
+			writeTeXRow(b, row.Cells, t.Stub, false)
+		}
+		b.WriteString("\\bottomrule\n\\end{tabular}}\n")
+		writeTeXNotes(b, t.Notes)
+		b.WriteString("\\end{table}\n")
+	}
+	if landscape {
+		b.WriteString("\\end{landscape}\n")
+	}
+}
+
+// writeLongTable sets a table that breaks across pages: the header
+// repeats on each page, "continued" lines say where it goes on, and the
+// notes follow its last row in the text block.
+func writeLongTable(b *bytes.Buffer, r *engine.Result, spec string) {
+	t := r.Table
+	cols := t.Cols()
+	head := func() {
+		b.WriteString("\\toprule\n")
+		for _, row := range t.Head {
+			writeTeXRow(b, row, t.Stub, true)
+		}
+		b.WriteString("\\midrule\n")
+	}
+	b.WriteString("\\begingroup\\small\n")
 	if cols > 7 {
 		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
 	}
-	b.WriteString("\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{%\n")
-	b.WriteString("\\begin{tabular}{" + spec + "}\n\\toprule\n")
-	for _, row := range t.Head {
-		writeTeXRow(b, row, t.Stub, true)
-	}
-	b.WriteString("\\midrule\n")
+	fmt.Fprintf(b, "\\begin{longtable}{%s}\n\\caption{%s}\\label{%s}\\\\\n", spec, texEscape(t.Caption), texLabel(r))
+	head()
+	b.WriteString("\\endfirsthead\n")
+	fmt.Fprintf(b, "\\multicolumn{%d}{l}{\\emph{\\tablename~\\thetable, continued}}\\\\\n", cols)
+	head()
+	b.WriteString("\\endhead\n")
+	fmt.Fprintf(b, "\\midrule\n\\multicolumn{%d}{r}{\\emph{continued on the next page}}\\\\\n\\endfoot\n\\bottomrule\n\\endlastfoot\n", cols)
 	for _, row := range t.Body {
 		if row.RuleAbove {
 			b.WriteString("\\midrule\n")
 		}
 		writeTeXRow(b, row.Cells, t.Stub, false)
 	}
-	b.WriteString("\\bottomrule\n\\end{tabular}}\n")
+	b.WriteString("\\end{longtable}\n")
 	writeTeXNotes(b, t.Notes)
-	b.WriteString("\\end{table}\n")
+	b.WriteString("\\endgroup\n")
 }
 
 func writeTeXNotes(b *bytes.Buffer, notes []string) {
 	if len(notes) == 0 {
 		return
 	}
-	b.WriteString("\\par\\smallskip\\begin{minipage}{0.9\\linewidth}\\footnotesize\n")
+	b.WriteString("\\par\\smallskip\\noindent\\begin{minipage}{\\linewidth}\\footnotesize\n")
 	for i, n := range notes {
 		if i == 0 {
 			b.WriteString("\\emph{Notes:} ")
@@ -541,8 +699,35 @@ var texReplacer = strings.NewReplacer(
 	"\u0302", "", "\u0303", "", "\u0304", "", "\u2009", `\,`, "\u00a0", "~", "\u2005", " ", "\u2003", `\quad{}`,
 )
 
-// texEscape makes literal text safe in LaTeX's text mode.
-func texEscape(s string) string { return texReplacer.Replace(s) }
+// combiningAccent is a letter with a combining hat, tilde or bar (d̂),
+// which LaTeX sets as math (\hat{d}).
+var combiningAccent = regexp.MustCompile(`(\pL)([\x{0302}\x{0303}\x{0304}])`)
+
+var accentCmd = map[string]string{"\u0302": `\hat`, "\u0303": `\tilde`, "\u0304": `\bar`}
+
+// texEscape makes literal text safe in LaTeX's text mode; control
+// characters are dropped.
+func texEscape(s string) string {
+	s = strings.Map(func(r rune) rune {
+		if r < 0x20 && r != '\n' && r != '\t' || r == 0x7f || r >= 0x80 && r < 0xa0 {
+			return -1
+		}
+		return r
+	}, s)
+	if !combiningAccent.MatchString(s) {
+		return texReplacer.Replace(s)
+	}
+	var b strings.Builder
+	last := 0
+	for _, m := range combiningAccent.FindAllStringSubmatchIndex(s, -1) {
+		b.WriteString(texReplacer.Replace(s[last:m[0]]))
+		letter := texReplacer.Replace(s[m[2]:m[3]])
+		b.WriteString(`\ensuremath{` + accentCmd[s[m[4]:m[5]]] + `{` + letter + `}}`)
+		last = m[1]
+	}
+	b.WriteString(texReplacer.Replace(s[last:]))
+	return b.String()
+}
 
 // texURL escapes the characters that break \href and \url arguments.
 func texURL(s string) string {

@@ -8,6 +8,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // Options tune the Markdown writer.
@@ -68,6 +69,30 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 		}
 		rs = append(rs, repl{s.TextStart, end, title})
 	}
+	for _, n := range d.Cites() {
+		entries, err := d.Cite(n)
+		if err != nil {
+			return nil, err
+		}
+		open, parts, close := manuscript.FormatCite(n, entries)
+		var b strings.Builder
+		b.WriteString(mdEscape(open))
+		for i, p := range parts {
+			if i > 0 {
+				b.WriteString(mdEscape(manuscript.CiteSeparator(n.Cmd)))
+			}
+			b.WriteString("[" + mdEscape(p.Text) + "](#ref-" + p.Key + ")")
+		}
+		b.WriteString(mdEscape(close))
+		rs = append(rs, repl{n.Offset, n.End, b.String()})
+	}
+	if refs := mdReferences(d); refs != "" {
+		at := len(d.Body)
+		if d.Outline.AppendixAt >= 0 {
+			at = d.Outline.AppendixAt
+		}
+		rs = append(rs, repl{at, at, refs})
+	}
 	if o := d.Outline; o.AppendixAt >= 0 && o.AppendixMarker != nil {
 		end := o.MarkerEnd
 		if end < len(d.Body) && d.Body[end-1] != '\n' {
@@ -75,19 +100,41 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 		}
 		rs = append(rs, repl{o.AppendixAt, end, ""})
 	}
-	sort.Slice(rs, func(i, j int) bool { return rs[i].start < rs[j].start })
+	sort.SliceStable(rs, func(i, j int) bool { return rs[i].start < rs[j].start })
 	var out bytes.Buffer
 	if d.Meta.Title != "" {
 		out.WriteString("# " + mdEscape(d.Meta.Title) + "\n\n")
 	}
-	if a := d.Meta.AllAuthors(); len(a) > 0 {
-		out.WriteString(mdEscape(strings.Join(a, ", ")) + "\n\n")
+	for _, a := range d.Meta.People() {
+		line := "**" + mdEscape(a.Name) + "**"
+		if a.Affiliation != "" {
+			line += ", " + mdEscape(a.Affiliation)
+		}
+		if a.Email != "" {
+			line += ", " + mdEscape(a.Email)
+		}
+		out.WriteString(line + "  \n")
+	}
+	if len(d.Meta.People()) > 0 {
+		out.WriteString("\n")
 	}
 	if d.Meta.Date != "" {
 		out.WriteString(mdEscape(d.Meta.Date) + "\n\n")
 	}
+	if d.Meta.Version != "" {
+		out.WriteString("*" + mdEscape(d.Meta.Version) + "*\n\n")
+	}
 	if d.Meta.Abstract != "" {
 		out.WriteString("**Abstract.** " + mdEscape(d.Meta.Abstract) + "\n\n")
+	}
+	if len(d.Meta.Keywords) > 0 {
+		out.WriteString("**Keywords:** " + mdEscape(strings.Join(d.Meta.Keywords, "; ")) + "\n\n")
+	}
+	if len(d.Meta.JEL) > 0 {
+		out.WriteString("**JEL classification:** " + mdEscape(strings.Join(d.Meta.JEL, ", ")) + "\n\n")
+	}
+	if d.Meta.Thanks != "" {
+		out.WriteString("*" + mdEscape(d.Meta.Thanks) + "*\n\n")
 	}
 	pos := 0
 	for _, r := range rs {
@@ -153,6 +200,29 @@ func mdResult(r *engine.Result, figDir string) string {
 		}
 	case r.Text != "":
 		b.WriteString(mdEscape(r.Text) + "\n\n")
+	}
+	return b.String()
+}
+
+// mdReferences is the reference list, each entry with an anchor that
+// the citations link to.
+func mdReferences(d *engine.Document) string {
+	refs := d.References()
+	if len(refs) == 0 {
+		return ""
+	}
+	var b strings.Builder
+	b.WriteString("\n## References\n\n")
+	for _, e := range refs {
+		b.WriteString(`<a id="ref-` + e.Key + `"></a>`)
+		for _, sp := range e.Reference() {
+			if sp.Italic {
+				b.WriteString("*" + mdEscape(sp.Text) + "*")
+			} else {
+				b.WriteString(mdEscape(sp.Text))
+			}
+		}
+		b.WriteString("\n\n")
 	}
 	return b.String()
 }
