@@ -46,18 +46,18 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	}
 	var out bytes.Buffer
 	err = t.Execute(&out, map[string]any{
-		"Version":  o.Version,
-		"Title":    d.Meta.Title,
+		"Version":     o.Version,
+		"Title":       d.Meta.Title,
 		"People":      d.Meta.People(),
 		"Thanks":      d.Meta.Thanks,
 		"VersionLine": d.Meta.Version,
 		"Keywords":    strings.Join(d.Meta.Keywords, "; "),
 		"JEL":         strings.Join(d.Meta.JEL, ", "),
-		"Date":     d.Meta.Date,
-		"Abstract": d.Meta.Abstract,
-		"CSS":      template.CSS(templates.StyleCSS),
-		"Body":     template.HTML(body.String()),
-		"Script":   o.Script,
+		"Date":        d.Meta.Date,
+		"Abstract":    d.Meta.Abstract,
+		"CSS":         template.CSS(templates.StyleCSS),
+		"Body":        template.HTML(body.String()),
+		"Script":      o.Script,
 	})
 	return out.Bytes(), err
 }
