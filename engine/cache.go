@@ -158,7 +158,19 @@ func (d *Document) columnHash(alias, col string) (string, bool) {
 	return h, ok
 }
 
+// directivesDep is the pseudo-input of a result that reads the whole
+// build (a revision report): the list of the document's directives, so
+// that adding or removing one invalidates it.
+const directivesDep = "doc:directives"
+
 func (d *Document) hashColumn(alias, col string) (string, bool) {
+	if alias == directivesDep {
+		h := sha256.New()
+		for _, b := range d.blocks {
+			fmt.Fprintf(h, "%s\x00%s\x00", b.id, b.kind.Name)
+		}
+		return hex.EncodeToString(h.Sum(nil)), true
+	}
 	if p, ok := strings.CutPrefix(alias, "file:"); ok {
 		full, err := confine(d.Dir, p, d.opts.AllowOutside)
 		if err != nil {

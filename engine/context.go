@@ -298,21 +298,31 @@ func (c *Context) HasVintage(name string) bool {
 	return false
 }
 
-// UpstreamContext is a Context for the directive with the given id, for
-// a directive of the same family that redoes that directive's analysis
-// (its result came from the cache without its working state).
-func (c *Context) UpstreamContext(id string) *Context {
-	b, ok := c.doc.byID[id]
-	if !ok {
-		return nil
+// Live returns the directive with the given id once it has run in this
+// build. A result reused from the cache leaves its directive without the
+// working state (an estimated system, say) that a contract interface such
+// as contract.SystemSource hands on, so Live runs it once more when its
+// result was reused; its values are those already cached, only the state
+// is wanted. If kinds are given, the target must be one of them.
+func (c *Context) Live(key, id string, kinds ...string) (Directive, error) {
+	if _, err := c.Result(key, id, kinds...); err != nil {
+		return nil, err
 	}
-	return &Context{doc: c.doc, b: b}
+	b := c.doc.byID[id]
+	if b.reused && !b.live {
+		if _, err := safeRun(b.dir, &Context{doc: c.doc, b: b}); err != nil {
+			return nil, &manuscript.PosError{File: c.doc.File, Line: c.doc.keyLine(c.b, key), Msg: fmt.Sprintf("%q could not be computed again", id), Err: err}
+		}
+		b.live = true
+	}
+	return b.dir, nil
 }
 
 // RunAllExcept runs every directive not of the given kind first and makes
 // this directive depend on all of them (a report that compares the whole
 // build). The error names the line of the first that failed.
 func (c *Context) RunAllExcept(kind string) error {
+	c.b.deps.col(directivesDep, "")
 	for _, b := range c.doc.blocks {
 		if b.kind.Name == kind {
 			continue

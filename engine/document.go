@@ -86,6 +86,7 @@ type block struct {
 	fullKey string // specKey and the hashes of everything it read
 	deps    deps   // what it read while running
 	reused  bool   // its result came from the cache
+	live    bool   // it ran in this build after all (Context.Live)
 }
 
 // Parse reads and parses a manuscript, decodes every directive strictly,

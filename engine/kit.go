@@ -10,6 +10,7 @@ import (
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/restrict"
+	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/manuscript"
 )
@@ -102,4 +103,18 @@ func ModelOf(method, dep string, terms []string, coefs []ols.Coef, vals map[stri
 		m.Sample = fmt.Sprintf("%v–%v, N = %v", s["from"], s["to"], s["n"])
 	}
 	return m
+}
+
+// PeriodUnit names a frequency's periods in the plural, for durations
+// such as half-lives: "months", "quarters", "years", else "periods".
+func PeriodUnit(f series.Freq) string {
+	switch f {
+	case series.Monthly:
+		return "months"
+	case series.Quarterly:
+		return "quarters"
+	case series.Annual:
+		return "years"
+	}
+	return "periods"
 }

@@ -40,6 +40,8 @@ type Kind struct {
 	// Fields are the top-level value names its results carry, for checking
 	// inline references before anything runs. Nil means any.
 	Fields []string
+	// Simulate: the kind accepts crit: simulate (SimKeys).
+	Simulate bool
 	// Model: its results are one estimated equation (Result.Model is
 	// set), so model tables and estimated equations can show them.
 	Model bool

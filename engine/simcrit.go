@@ -3,7 +3,7 @@ package engine
 // crit: simulate — Monte Carlo critical values at the directive's own
 // sample size, number of variables, deterministic case and lags.
 //
-// The adf, engle-granger, johansen and vecm directives accept
+// The adf, engle-granger, johansen, vecm and ardl directives accept
 //
 //	crit: simulate   # or table (the default: published response surfaces/tables)
 //	reps: 20000      # replications, simulate.MinReps..simulate.MaxReps
@@ -71,16 +71,13 @@ type SimSettings struct {
 	Seed uint64
 }
 
-// simKinds are the kinds that accept crit: simulate.
-var simKinds = []string{"adf", "engle-granger", "gregory-hansen", "johansen", "vecm"}
-
 // simulated reports whether the keys ask for simulated critical values
 // (only meaningful after settings accepted them).
 func (k *SimKeys) simulated() bool { return strings.EqualFold(strings.TrimSpace(k.Crit), "simulate") }
 
 // Settings validates the keys for a directive of kind; it returns nil
 // (and no error) when the critical values come from the tables.
-func (k *SimKeys) Settings(c *Context, kind string) (*SimSettings, error) {
+func (k *SimKeys) Settings(c *Context) (*SimSettings, error) {
 	switch strings.ToLower(strings.TrimSpace(k.Crit)) {
 	case "", "table":
 		if c.Has("reps") {
@@ -94,8 +91,14 @@ func (k *SimKeys) Settings(c *Context, kind string) (*SimSettings, error) {
 	default:
 		return nil, c.Errorf("crit", "crit: write simulate (Monte Carlo critical values at this sample size) or table (the published tables, the default), not %q", k.Crit)
 	}
-	if !slices.Contains(simKinds, kind) {
-		return nil, c.Errorf("crit", "crit: simulate is available for %s, not for %s", strings.Join(simKinds, ", "), kind)
+	if !c.b.kind.Simulate {
+		var can []string
+		for _, k := range Kinds() {
+			if k.Simulate {
+				can = append(can, k.Name)
+			}
+		}
+		return nil, c.Errorf("crit", "crit: simulate is available for %s, not for %s", strings.Join(can, ", "), c.b.kind.Name)
 	}
 	s := &SimSettings{Reps: DefaultSimReps, Seed: DefaultSimSeed}
 	if k.Reps != nil {

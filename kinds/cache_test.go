@@ -229,3 +229,27 @@ func loadResults(t *testing.T, b []byte, name string) *resultsfile.File {
 	}
 	return f
 }
+
+// TestRevisionRerunsWhenDirectivesChange: a revision report compares the
+// whole build, so adding a directive makes it run again even though its
+// own spec and the results it read before are unchanged.
+func TestRevisionRerunsWhenDirectivesChange(t *testing.T) {
+	p := copyDemo(t)
+	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
+	runCached(t, p, c)
+	src, err := os.ReadFile(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	added := append(src, []byte("\n"+fence("adf", "id: added_late\ndata: grid\nseries: log(north)\n"))...)
+	if err := os.WriteFile(p, added, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	d, _ := runCached(t, p, c)
+	if !slices.Contains(d.Ran(), "rev") {
+		t.Errorf("the revision report was reused after a directive was added (ran %v)", d.Ran())
+	}
+	if slices.Contains(d.Ran(), "static") {
+		t.Errorf("an unrelated result ran again (ran %v)", d.Ran())
+	}
+}

@@ -4,6 +4,7 @@
 package kinds
 
 import (
+	_ "github.com/galley-econ/galley/directive/ardl"
 	_ "github.com/galley-econ/galley/directive/coint"
 	_ "github.com/galley-econ/galley/directive/dynamics"
 	_ "github.com/galley-econ/galley/directive/ecm"

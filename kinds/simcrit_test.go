@@ -273,7 +273,7 @@ func TestSimBadKeys(t *testing.T) {
 	}{
 		{"few reps", "adf", "crit: simulate\nreps: 50\n", []string{"paper.md:10:", "reps must be 100..10000000 replications, not 50"}},
 		{"bogus crit", "adf", "crit: bogus\n", []string{"paper.md:9:", `crit: write simulate`, `not "bogus"`}},
-		{"kpss", "kpss", "crit: simulate\n", []string{"paper.md:9:", "crit: simulate is available for adf, engle-granger, gregory-hansen, johansen, vecm, not for kpss"}},
+		{"kpss", "kpss", "crit: simulate\n", []string{"paper.md:9:", "crit: simulate is available for adf, ardl, engle-granger, gregory-hansen, johansen, vecm, not for kpss"}},
 		{"reps alone", "adf", "reps: 5000\n", []string{"paper.md:9:", "reps applies only with crit: simulate"}},
 		{"negative seed", "adf", "crit: simulate\nseed: -3\n", []string{"paper.md:10:", "seed must be zero or more"}},
 	} {

@@ -226,7 +226,7 @@ func flatten(prefix string, v any, out map[string]any) {
 
 func isInteresting(leaf string) bool {
 	switch leaf {
-	case "reject_5", "order", "rank", "error_corrects":
+	case "reject_5", "order", "rank", "error_corrects", "verdict":
 		return true
 	}
 	return false
@@ -248,7 +248,7 @@ func conclusion(path, leaf string, a, b any, o Options) (Change, bool) {
 		if a != b {
 			return Change{What: parent + "rejects its null at 5%", Old: yesNo(a), New: yesNo(b)}, true
 		}
-	case "order", "rank":
+	case "order", "rank", "verdict":
 		if !equal(a, b, 0) {
 			return Change{What: what, Old: show(a, true), New: show(b, true)}, true
 		}

@@ -13,16 +13,16 @@ import (
 )
 
 // Selector chooses how the numbers of leads and lags of a DOLS
-// regression are set.
-type Selector int
+// regression are set (rules.Selector; DOLS accepts Fixed, AIC and BIC).
+type Selector = rules.Selector
 
 const (
 	// Fixed uses DOLSSpec.Lags and DOLSSpec.Leads.
-	Fixed Selector = iota
+	Fixed = rules.SelectFixed
 	// AIC minimises ln(SSR/N) + 2K/N over the grid (rules.AIC.PerObs).
-	AIC
+	AIC = rules.SelectAIC
 	// BIC minimises ln(SSR/N) + K·ln(N)/N over the grid (rules.BIC.PerObs).
-	BIC
+	BIC = rules.SelectBIC
 )
 
 // DOLSSpec specifies a dynamic OLS regression.

@@ -69,6 +69,9 @@ func (s Spec) newStat(p plan) statFunc {
 	case GHADF, GHZt, GHZa:
 		return newGHKernel(s, p).stat
 	}
+	if isARDL(p.test) {
+		return newARDLKernel(p.test, p.ardlCase, s.N, s.T, s.Lags).stat
+	}
 	k := newJohKernel(s.N, s.Lags, s.T)
 	maxeig := p.test == JohansenMaxEig
 	return func(r *rand.Rand) float64 {
@@ -115,7 +118,7 @@ func Run(ctx context.Context, s Spec, progress func(done, total int)) (*Result, 
 	}
 	slices.Sort(stats)
 	res := &Result{
-		Spec: s, Key: s.Key(), Lower: p.test != JohansenTrace && p.test != JohansenMaxEig, NObs: p.nobs,
+		Spec: s, Key: s.Key(), Lower: p.test != JohansenTrace && p.test != JohansenMaxEig && p.test != ARDLF0 && p.test != ARDLF1, NObs: p.nobs,
 		Levels: append([]float64(nil), Levels...), Reps: s.Reps, Seed: s.Seed, Sample: stats,
 	}
 	for _, l := range Levels {

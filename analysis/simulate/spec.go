@@ -5,6 +5,7 @@ import (
 	"runtime"
 	"strings"
 
+	"github.com/galley-econ/galley/analysis/ardl"
 	"github.com/galley-econ/galley/analysis/coint"
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/johansen"
@@ -40,11 +41,11 @@ const keyVersion = "sim1"
 
 // Spec describes one Monte Carlo experiment.
 type Spec struct {
-	Test string // "adf", "eg", "johansen-trace" or "johansen-maxeig"
+	Test string // "adf", "eg", "johansen-trace", "johansen-maxeig", or an ARDL bounds statistic (ARDLF0 …)
 	// Case is the deterministic case: n, c, ct or ctt for adf and eg (in
 	// eg, of the static regression), n, rc, c, rt or ct for Johansen.
 	Case string
-	N    int // variables: 1 for adf, 2..MaxVars for eg, 1..MaxVars for Johansen
+	N    int // variables: 1 for adf, 2..MaxVars for eg, 1..MaxVars for Johansen; regressors k for ARDL
 	T    int // length of each simulated series (observations in levels)
 	Lags int // fixed number of lagged differences
 	Reps int // replications, MinReps..MaxReps
@@ -59,14 +60,15 @@ type Spec struct {
 
 // plan is a validated Spec.
 type plan struct {
-	test    string
-	tauCase critical.Case
-	johCase johansen.Case
-	ghModel coint.GHModel
-	trim    float64
-	caseStr string
-	nobs    int // observations in the test regression
-	workers int
+	test     string
+	tauCase  critical.Case
+	johCase  johansen.Case
+	ghModel  coint.GHModel
+	trim     float64
+	ardlCase ardl.Case
+	caseStr  string
+	nobs     int // observations in the test regression
+	workers  int
 }
 
 // check validates s and resolves its names.
@@ -137,8 +139,25 @@ func (s Spec) check() (plan, error) {
 		if err := s.checkGH(&p); err != nil {
 			return p, err
 		}
+	case ARDLF0, ARDLF1, ARDLT0, ARDLT1:
+		c, err := ardl.ParseCase(s.Case)
+		if err != nil {
+			return p, fmt.Errorf("simulate: %s: %w", p.test, err)
+		}
+		p.ardlCase, p.caseStr = c, c.String()
+		if (p.test == ARDLT0 || p.test == ARDLT1) && !c.HasT() {
+			return p, fmt.Errorf("simulate: the bounds t test is defined in cases n, c and ct, not %s", c)
+		}
+		if s.N < 1 || s.N > MaxVars {
+			return p, fmt.Errorf("simulate: %s needs k = 1..%d regressors, not %d", p.test, MaxVars, s.N)
+		}
+		p.nobs = nobsARDL(s.T, s.Lags)
+		k := newARDLKernelSize(c, s.N, s.Lags)
+		if p.nobs-k < 1 {
+			return p, fmt.Errorf("simulate: T = %d is too short for %d lagged differences: the bounds regression would have %d observations for %d regressors", s.T, s.Lags, max(p.nobs, 0), k)
+		}
 	default:
-		return p, fmt.Errorf("simulate: unknown test %q (want adf, eg, johansen-trace, johansen-maxeig, gh-adf, gh-zt or gh-za)", s.Test)
+		return p, fmt.Errorf("simulate: unknown test %q (want adf, eg, johansen-trace, johansen-maxeig, gh-adf, gh-zt, gh-za, ardl-f-i0, ardl-f-i1, ardl-t-i0 or ardl-t-i1)", s.Test)
 	}
 	return p, nil
 }

@@ -1,67 +1,34 @@
 package unitroot
 
 import (
-	"fmt"
-	"strings"
-
 	"github.com/galley-econ/galley/analysis/rules"
 )
 
-// Selector says how the number of lagged differences is chosen.
-type Selector int
+// Selector says how the number of lagged differences is chosen: the
+// one selector type of the analysis packages (rules.Selector).
+type Selector = rules.Selector
 
+// The selectors a unit-root regression accepts.
 const (
 	// Fixed uses LagRule.Lags lagged differences.
-	Fixed Selector = iota
+	Fixed = rules.SelectFixed
 	// AIC minimises Akaike's criterion n·ln(SSR/n) + 2K over 0..Max lags
 	// (rules.AIC.Total).
-	AIC
+	AIC = rules.SelectAIC
 	// BIC minimises Schwarz's criterion n·ln(SSR/n) + K·ln n over 0..Max
 	// lags (rules.BIC.Total).
-	BIC
+	BIC = rules.SelectBIC
 	// TStat is general-to-specific: start from Max and drop the last lag
 	// while its |t| < 1.645 (the 10% two-sided normal value).
-	TStat
+	TStat = rules.SelectTStat
 	// MAIC minimises the modified AIC of Ng and Perron (2001) over 0..Max
 	// lags (see selectMAIC); it needs a regression without deterministic
 	// terms, as on a GLS-detrended series (DFGLS, NgPerron).
-	MAIC
+	MAIC = rules.SelectMAIC
 )
 
-// String returns "fixed", "aic", "bic", "tstat" or "maic".
-func (s Selector) String() string {
-	switch s {
-	case Fixed:
-		return "fixed"
-	case AIC:
-		return "aic"
-	case BIC:
-		return "bic"
-	case TStat:
-		return "tstat"
-	case MAIC:
-		return "maic"
-	}
-	return fmt.Sprintf("Selector(%d)", int(s))
-}
-
-// ParseSelector reads "fixed", "aic", "bic", "tstat" or "maic"
-// (case-insensitive).
-func ParseSelector(s string) (Selector, error) {
-	switch strings.ToLower(strings.TrimSpace(s)) {
-	case "fixed":
-		return Fixed, nil
-	case "aic":
-		return AIC, nil
-	case "bic", "sic", "schwarz":
-		return BIC, nil
-	case "tstat", "t":
-		return TStat, nil
-	case "maic":
-		return MAIC, nil
-	}
-	return 0, fmt.Errorf("unknown lag selector %q (want fixed, aic, bic, tstat or maic)", s)
-}
+// ParseSelector reads a selector name (rules.ParseSelector).
+func ParseSelector(s string) (Selector, error) { return rules.ParseSelector(s) }
 
 // LagRule fixes or selects the number of lagged differences p.
 //

@@ -39,10 +39,11 @@ var egFields = []string{"stat", "pvalue", "pvalue_source", "lags", "nobs", "crit
 
 func init() {
 	engine.Register(engine.Kind{
-		Name:    "engle-granger",
-		Summary: "Engle–Granger residual-based ADF test of no cointegration, with the static long-run relation",
-		New:     func() engine.Directive { return &egSpec{} },
-		Fields:  egFields,
+		Name:     "engle-granger",
+		Simulate: true,
+		Summary:  "Engle–Granger residual-based ADF test of no cointegration, with the static long-run relation",
+		New:      func() engine.Directive { return &egSpec{} },
+		Fields:   egFields,
 	})
 }
 
@@ -66,7 +67,7 @@ func (s *egSpec) Check(c *engine.Context) error {
 	default:
 		return c.Errorf("normalize", "normalize: write all (each variable as the dependent in turn) or leave it out (y on x)")
 	}
-	if _, err := s.SimKeys.Settings(c, "engle-granger"); err != nil { // crit: simulate (simcrit.go)
+	if _, err := s.SimKeys.Settings(c); err != nil { // crit: simulate (simcrit.go)
 		return err
 	}
 	if n := len(s.X) + 1; n > critical.MaxTauN {
@@ -117,7 +118,7 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 		rows[r] = res
 	}
 	// crit: simulate (simcrit.go): simulated critical values and p-values, row by row.
-	sim, err := s.SimKeys.Settings(c, "engle-granger")
+	sim, err := s.SimKeys.Settings(c)
 	if err != nil {
 		return nil, err
 	}

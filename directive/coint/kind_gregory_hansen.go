@@ -36,10 +36,11 @@ var ghFields = []string{"test", "stat", "pvalue", "pvalue_source", "lags", "nobs
 
 func init() {
 	engine.Register(engine.Kind{
-		Name:    "gregory-hansen",
-		Summary: "Gregory–Hansen tests of no cointegration against cointegration with a level, trend or regime shift at an unknown date",
-		New:     func() engine.Directive { return &ghSpec{} },
-		Fields:  ghFields,
+		Name:     "gregory-hansen",
+		Simulate: true,
+		Summary:  "Gregory–Hansen tests of no cointegration against cointegration with a level, trend or regime shift at an unknown date",
+		New:      func() engine.Directive { return &ghSpec{} },
+		Fields:   ghFields,
 	})
 }
 
@@ -99,7 +100,7 @@ func (s *ghSpec) settings(c *engine.Context) (ghSettings, error) {
 	if st.bw, err = unitroot.ParseBandwidth(bw); err != nil {
 		return st, c.Errorf("bandwidth", "%v", err)
 	}
-	if st.sim, err = s.SimKeys.Settings(c, "gregory-hansen"); err != nil {
+	if st.sim, err = s.SimKeys.Settings(c); err != nil {
 		return st, err
 	}
 	return st, nil

@@ -95,10 +95,7 @@ func (k *SourceKeys) det(c *engine.Context) (vardyn.Det, error) {
 // names returns the series of the system without running anything.
 func (k *SourceKeys) fit(c *engine.Context) (*model, error) {
 	if k.From != "" {
-		if _, err := c.Result("from", k.From, upstreamKinds...); err != nil {
-			return nil, err
-		}
-		up, err := c.Upstream("from", k.From, upstreamKinds...)
+		up, err := c.Live("from", k.From, upstreamKinds...)
 		if err != nil {
 			return nil, err
 		}
@@ -106,7 +103,7 @@ func (k *SourceKeys) fit(c *engine.Context) (*model, error) {
 		if !ok {
 			return nil, c.Errorf("from", "%q does not estimate a VECM", k.From)
 		}
-		sys, err := src.EstimatedSystem(c.UpstreamContext(k.From))
+		sys, err := src.EstimatedSystem()
 		if err != nil {
 			return nil, c.Errorf("from", "%s: %v", k.From, err)
 		}

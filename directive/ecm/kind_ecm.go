@@ -8,7 +8,6 @@ import (
 
 	"github.com/galley-econ/galley/analysis/ecm"
 	"github.com/galley-econ/galley/analysis/ols"
-	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
@@ -178,7 +177,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	unit := periodUnit(d.Freq)
+	unit := engine.PeriodUnit(d.Freq)
 	adj := m.Adjust
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(ecm.DiffName(rel.Y, 0))}}}
 	rows := engine.CoefRows(c, m.Names, m.Coef, dec, false)
@@ -293,18 +292,6 @@ func readExtras(c *engine.Context, rel contract.LongRun, exprs []string, sample 
 		}
 	}
 	return out, nil
-}
-
-func periodUnit(f series.Freq) string {
-	switch f {
-	case series.Monthly:
-		return "months"
-	case series.Quarterly:
-		return "quarters"
-	case series.Annual:
-		return "years"
-	}
-	return "periods"
 }
 
 func fromDesc(kind string) string {

@@ -54,7 +54,7 @@ type shadeSpec struct {
 }
 
 // The plot kinds, in the order the documentation gives them.
-var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive"}
+var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive", "multipliers"}
 
 var legendPlaces = map[string]figures.LegendPos{
 	"top-left": figures.LegendTopLeft, "top-right": figures.LegendTopRight,
@@ -67,7 +67,7 @@ func init() {
 		Name:    "figure",
 		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient",
 		New:     func() engine.Directive { return &figureSpec{} },
-		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation"},
+		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "of", "coef", "horizon"},
 	})
 }
 
@@ -132,6 +132,9 @@ func (s *figureSpec) Check(c *engine.Context) error {
 		if _, err := series.ParseWindow(s.Sample); err != nil {
 			return c.Errorf("sample", "sample %q: %v", s.Sample, err)
 		}
+	}
+	if p == "multipliers" {
+		return s.checkMultipliers(c) // multipliers.go
 	}
 	ex := s.exprs()
 	switch {
@@ -247,6 +250,9 @@ func (s *figureSpec) Run(c *engine.Context) (*engine.Result, error) {
 		o.Legend = legendPlaces[s.Legend]
 	}
 	vals := map[string]any{"plot": p}
+	if p == "multipliers" {
+		return s.runMultipliers(c, &o, vals) // multipliers.go
+	}
 	var fig *figures.Figure
 	var dr drawn
 	var err error

@@ -185,7 +185,7 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	}
 	st.SmallSample = k.SmallSample
 	// crit: simulate (simcrit.go)
-	if sim, err := k.SimKeys.Settings(c, c.Kind()); err != nil {
+	if sim, err := k.SimKeys.Settings(c); err != nil {
 		return st, err
 	} else if sim != nil && k.SmallSample {
 		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")

@@ -109,7 +109,7 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 		return nil, err
 	}
 	K := len(st.Names)
-	sim, err := k.SimKeys.Settings(c, c.Kind()) // crit: simulate (simcrit.go)
+	sim, err := k.SimKeys.Settings(c) // crit: simulate (simcrit.go)
 	if err != nil {
 		return nil, err
 	}

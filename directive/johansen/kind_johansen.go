@@ -65,7 +65,8 @@ type vecmSpec struct {
 	From          string `yaml:"from"`
 	Show          string `yaml:"show"`
 
-	state *sysState // its own system (without from:), set by Run
+	state *sysState     // its own system (without from:), set by Run
+	from  *johansenSpec // the johansen directive named in from:, set by Run
 }
 
 type varLagsSpec struct {
@@ -83,9 +84,9 @@ var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", 
 	"relations", "dummies", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
-	engine.Register(engine.Kind{Name: "johansen", Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
+	engine.Register(engine.Kind{Name: "johansen", Simulate: true, Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
 		New: func() engine.Directive { return &johansenSpec{} }, Fields: sysFields})
-	engine.Register(engine.Kind{Name: "vecm", Summary: "vector error-correction model: cointegrating relations, loadings, restriction tests or short-run coefficients",
+	engine.Register(engine.Kind{Name: "vecm", Simulate: true, Summary: "vector error-correction model: cointegrating relations, loadings, restriction tests or short-run coefficients",
 		New: func() engine.Directive { return &vecmSpec{} }, Fields: append(slices.Clone(sysFields), "short", "show")})
 	engine.Register(engine.Kind{Name: "var-lags", Summary: "lag-order criteria (AIC, BIC, HQ) of the VAR in levels behind a VECM",
 		New: func() engine.Directive { return &varLagsSpec{} }, Fields: []string{"rows", "aic", "bic", "hq", "nobs", "max", "det", "series", "sample"}})

@@ -56,22 +56,12 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	var st *sysState
 	sel := s.Lags.Select
 	if s.From != "" {
-		if _, err := c.Result("from", s.From, "johansen"); err != nil {
-			return nil, err
-		}
-		up, err := c.Upstream("from", s.From, "johansen")
+		up, err := c.Live("from", s.From, "johansen")
 		if err != nil {
 			return nil, err
 		}
-		js := up.(*johansenSpec)
-		if js.state == nil { // its result came from the cache: redo the analysis
-			st, err := js.run(c.UpstreamContext(s.From))
-			if err != nil {
-				return nil, err
-			}
-			js.state = st
-		}
-		st, sel = js.state, js.Lags.Select
+		s.from = up.(*johansenSpec)
+		st, sel = s.from.state, s.from.Lags.Select
 	} else {
 		var err error
 		if st, err = s.run(c); err != nil {

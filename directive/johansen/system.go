@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"slices"
 
-	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 )
 
@@ -23,46 +22,24 @@ func (s *sysState) system(missing string) (*contract.System, error) {
 	}, nil
 }
 
-func upstreamContext(ctx any) (*engine.Context, error) {
-	c, ok := ctx.(*engine.Context)
-	if !ok || c == nil {
-		return nil, errors.New("internal: EstimatedSystem needs the directive's engine context")
-	}
-	return c, nil
-}
-
-// EstimatedSystem implements contract.SystemSource.
-func (s *johansenSpec) EstimatedSystem(ctx any) (*contract.System, error) {
-	if s.state == nil { // the result came from the cache: run the analysis
-		c, err := upstreamContext(ctx)
-		if err != nil {
-			return nil, err
-		}
-		if s.state, err = s.run(c); err != nil {
-			return nil, err
-		}
+// EstimatedSystem implements contract.SystemSource. The engine runs the
+// directive in this build before handing it on (engine.Context.Live), so
+// its state is there.
+func (s *johansenSpec) EstimatedSystem() (*contract.System, error) {
+	if s.state == nil {
+		return nil, errors.New("internal: the johansen directive has not run in this build")
 	}
 	return s.state.system(s.Missing)
 }
 
 // EstimatedSystem implements contract.SystemSource: the system of the
 // johansen directive named in from:, or the vecm's own.
-func (s *vecmSpec) EstimatedSystem(ctx any) (*contract.System, error) {
-	c, err := upstreamContext(ctx)
-	if err != nil {
-		return nil, err
-	}
-	if s.From != "" {
-		up, err := c.Upstream("from", s.From, "johansen")
-		if err != nil {
-			return nil, err
-		}
-		return up.(*johansenSpec).EstimatedSystem(c.UpstreamContext(s.From))
+func (s *vecmSpec) EstimatedSystem() (*contract.System, error) {
+	if s.from != nil {
+		return s.from.EstimatedSystem()
 	}
 	if s.state == nil {
-		if s.state, err = s.run(c); err != nil {
-			return nil, err
-		}
+		return nil, errors.New("internal: the vecm directive has not run in this build")
 	}
 	return s.state.system(s.Missing)
 }

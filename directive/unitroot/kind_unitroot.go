@@ -108,7 +108,7 @@ func (s *urSpec) Check(c *engine.Context) error {
 	if _, err := s.settings(c); err != nil {
 		return err
 	}
-	if _, err := s.SimKeys.Settings(c, s.test); err != nil { // crit: simulate (simcrit.go)
+	if _, err := s.SimKeys.Settings(c); err != nil { // crit: simulate (simcrit.go)
 		return err
 	}
 	return c.CheckData(c.DataAlias(s.Data), []string{s.Series}, s.Sample)
@@ -128,7 +128,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, c.Errorf("series", "%s of %s: %v", title(u.Name), s.Series, err)
 	}
 	// crit: simulate (simcrit.go): simulated critical values and p-value.
-	if sim, err := s.SimKeys.Settings(c, s.test); err != nil {
+	if sim, err := s.SimKeys.Settings(c); err != nil {
 		return nil, err
 	} else if sim != nil {
 		if _, err := simADF(c, sim, u, o); err != nil {

@@ -24,6 +24,8 @@ type testDef struct {
 	Bandwidth bool
 	// Stationarity: the null is stationarity (KPSS), not a unit root.
 	Stationarity bool
+	// Simulate: crit: simulate is offered (a simulation kernel exists).
+	Simulate bool
 	// Break: a one-break test (break:, trim:) whose terms are fixed by
 	// its break model rather than det:.
 	Break bool
@@ -50,7 +52,7 @@ var testDefs []*testDef
 // registerTest adds a test and registers its directive kind.
 func registerTest(d *testDef) {
 	testDefs = append(testDefs, d)
-	engine.Register(engine.Kind{Name: d.Name, Summary: d.Summary, Fields: append(slices.Clone(urFields), d.Fields...),
+	engine.Register(engine.Kind{Name: d.Name, Summary: d.Summary, Fields: append(slices.Clone(urFields), d.Fields...), Simulate: d.Simulate,
 		New: func() engine.Directive { return &urSpec{test: d.Name} }})
 }
 
@@ -91,7 +93,7 @@ func (u urTest) run(y []float64) (*contract.Outcome, error) {
 var levelOrTrend = []critical.Case{critical.Const, critical.ConstTrend}
 
 func init() {
-	registerTest(&testDef{Name: "adf", Title: "ADF", Summary: "augmented Dickey–Fuller unit-root test",
+	registerTest(&testDef{Name: "adf", Title: "ADF", Summary: "augmented Dickey–Fuller unit-root test", Simulate: true,
 		Fields: append([]string{"pvalue_source", "lags", "det"}, simFields...),
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.ADF(y, u.Det, u.Lags)

@@ -29,10 +29,10 @@ type System struct {
 
 // SystemSource is implemented by the directives that estimate a VECM
 // (johansen, vecm). EstimatedSystem returns the system at the rank the
-// directive reports; ctx is the upstream directive's own *engine.Context
-// (engine.Context.UpstreamContext), through which it runs its analysis
-// again when its result came from the cache and nothing ran in this build.
-// It is an error when the directive's rank is 0 or K (no VECM).
+// directive reports; a consumer asks the engine for the directive with
+// engine.Context.Live, which makes sure it ran in this build (a result
+// reused from the cache carries no estimated system). It is an error
+// when the directive's rank is 0 or K (no VECM).
 type SystemSource interface {
-	EstimatedSystem(ctx any) (*System, error)
+	EstimatedSystem() (*System, error)
 }
