@@ -35,13 +35,14 @@ type Library struct {
 	Keys    []string // in file order
 }
 
-// the parser keeps its state in package variables
+// the reader keeps its state in package variables, so one parse at a time
 var bibMu sync.Mutex
 
 var (
-	entryStartRE = regexp.MustCompile(`(?m)^[ \t]*@([A-Za-z]+)[ \t]*[{(][ \t]*([^,\s]+)[ \t]*,`)
-	parsePosRE   = regexp.MustCompile(`at (\d+):(\d+)`)
-	citeKeyRE    = regexp.MustCompile(`^[A-Za-z0-9:_.+/-]+$`)
+	entryStartRE  = regexp.MustCompile(`(?m)^[ \t]*@([A-Za-z]+)[ \t]*[{(][ \t]*([^,\s]+)[ \t]*,`)
+	parsePosRE    = regexp.MustCompile(`at (\d+):(\d+)`)
+	commentLineRE = regexp.MustCompile(`(?m)^[ \t]*%.*$`)
+	citeKeyRE     = regexp.MustCompile(`^[A-Za-z0-9:_.+/-]+$`)
 )
 
 // ParseBib reads a BibTeX file with github.com/nickng/bibtex and
@@ -71,8 +72,11 @@ func ParseBib(file string, src []byte) (*Library, error) {
 		lines[key] = line
 		order = append(order, key)
 	}
+	// BibTeX ignores text outside entries; the reader does not always, so
+	// comment lines are blanked (keeping the line count).
+	clean := commentLineRE.ReplaceAll(src, nil)
 	bibMu.Lock()
-	parsed, err := parseBibSafely(src)
+	parsed, err := parseBibSafely(clean)
 	bibMu.Unlock()
 	if err != nil {
 		line := 0
@@ -95,9 +99,10 @@ func ParseBib(file string, src []byte) (*Library, error) {
 		lib.Entries[be.Key] = be
 	}
 	for _, k := range order {
-		if _, ok := lib.Entries[k]; ok {
-			lib.Keys = append(lib.Keys, k)
+		if _, ok := lib.Entries[k]; !ok {
+			return nil, ErrAt(file, lines[k], "the entry %q could not be read (check its braces, commas and the text before it)", k)
 		}
+		lib.Keys = append(lib.Keys, k)
 	}
 	for _, k := range lib.Keys {
 		e := lib.Entries[k]
@@ -128,6 +133,10 @@ func parseBibSafely(src []byte) (b *bibtex.BibTex, err error) {
 			b, err = nil, fmt.Errorf("the BibTeX reader failed: %v", p)
 		}
 	}()
+	// The reader keeps a flag in a package variable that an earlier
+	// failed parse can leave set, which makes every later parse fail; a
+	// lone comma resets it (its own parse error is expected).
+	_, _ = bibtex.Parse(strings.NewReader(","))
 	return bibtex.Parse(bytes.NewReader(src))
 }
 
@@ -396,7 +405,13 @@ func Detex(s string) string {
 			b.WriteRune(r)
 		}
 	}
-	return strings.Join(strings.Fields(b.String()), " ")
+	return collapseSpace(b.String())
+}
+
+// collapseSpace turns runs of ASCII white space into one space (a
+// no-break space stays).
+func collapseSpace(s string) string {
+	return strings.Join(strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == '\t' || r == '\n' || r == '\r' }), " ")
 }
 
 // composeAccent returns the precomposed letter where Unicode has one.

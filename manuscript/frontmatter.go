@@ -204,6 +204,10 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 	if err := doc.Decode(m); err != nil {
 		return nil, YamlError(file, 2, err)
 	}
+	m.Lines = map[string]int{}
+	for i := 0; i+1 < len(doc.Content); i += 2 {
+		m.Lines[doc.Content[i].Value] = doc.Content[i].Line + 1
+	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {
 			return nil, ErrAt(file, 2, "stars: each threshold must be a probability between 0 and 1, got %g", p)

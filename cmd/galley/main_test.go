@@ -12,7 +12,7 @@ func demoCopy(t *testing.T) string {
 	t.Helper()
 	dir := t.TempDir()
 	data, _ := filepath.Glob(filepath.Join("..", "..", "examples", "gridlink", "data", "*.csv"))
-	files := []string{"paper.md"}
+	files := []string{"paper.md", "references.bib"}
 	for _, p := range data {
 		files = append(files, filepath.Join("data", filepath.Base(p)))
 	}

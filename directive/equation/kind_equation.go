@@ -14,7 +14,6 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/engine"
-	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
 	"github.com/galley-econ/galley/manuscript"
 )
@@ -34,7 +33,7 @@ func init() {
 		Name:    "estimated-equation",
 		Summary: "an estimated model as a numbered display equation, standard errors beneath the coefficients",
 		New:     func() engine.Directive { return &equationSpec{} },
-		Fields:  []string{"of", "terms"},
+		Fields:  []string{"of"},
 	})
 }
 
@@ -160,16 +159,10 @@ func (s *equationSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if n := s.Note; n != "" {
 		eq.Notes = append(eq.Notes, n)
 	}
-	values := map[string]any{"of": s.Of, "terms": termValues(m)}
+	// The numbers are the model's own (in its result's values); repeating
+	// them here would count them twice in comparisons of builds.
+	values := map[string]any{"of": s.Of}
 	return &engine.Result{Equation: eq, Values: values}, nil
-}
-
-func termValues(m *contract.Model) []map[string]any {
-	out := make([]map[string]any, len(m.Coefs))
-	for i, k := range m.Coefs {
-		out[i] = map[string]any{"term": k.Term, "est": k.Est, "se": k.SE}
-	}
-	return out
 }
 
 func isConst(term string) bool { return term == "const" || term == "constant" || term == "intercept" }

@@ -415,7 +415,7 @@ func (w *texWriter) bibliography() {
 	}
 	fmt.Fprintf(w.out, "\n\\begin{thebibliography}{%d}\n", len(refs))
 	for _, e := range refs {
-		fmt.Fprintf(w.out, "\\bibitem[%s(%s)]{%s}\n", texEscape(strings.ReplaceAll(e.AuthorText(), "et al.", "et~al.")), texEscape(e.YearText()), e.Key)
+		fmt.Fprintf(w.out, "\\bibitem[%s(%s)]{%s}\n", strings.ReplaceAll(texEscape(e.AuthorText()), "et al.", "et~al."), texEscape(e.YearText()), e.Key)
 		for _, sp := range e.Reference() {
 			if sp.Italic {
 				w.out.WriteString("\\emph{" + texEscape(sp.Text) + "}")
