@@ -102,7 +102,7 @@ func TestFailedBuildKeepsOutput(t *testing.T) {
 	if code := run([]string{"build"}); code != 2 {
 		t.Errorf("missing argument: exit %d, want 2", code)
 	}
-	if code := run([]string{"build", paper, "--to", "pdf"}); code != 2 {
+	if code := run([]string{"build", paper, "--to", "docx"}); code != 2 {
 		t.Errorf("bad format: exit %d, want 2", code)
 	}
 }
