@@ -43,6 +43,17 @@ type Document struct {
 	Body     []byte // the Markdown after the front matter
 	BodyLine int    // file line of Body's first line
 	Root     ast.Node
+	// Preamble is the author's LaTeX preamble file (front matter
+	// latex: preamble:), read when the manuscript is parsed.
+	Preamble []byte
+	// Outline numbers the manuscript's sections and marks its appendix.
+	Outline *manuscript.Outline
+
+	anchors    map[string]*Anchor // equations and sections, by id
+	bib        *manuscript.Library
+	references []*manuscript.BibEntry
+	cites      []*manuscript.CiteNode
+	eqNumbers  map[*manuscript.MathBlock]string
 
 	src    []byte                  // the manuscript as read (normalised line ends)
 	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
@@ -94,6 +105,9 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		return nil, manuscript.ErrAt(path, manuscript.FirstBadUTF8Line(src), "manuscript is not valid UTF-8")
 	}
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
+	if line, r := manuscript.FirstControlChar(src); line > 0 {
+		return nil, manuscript.ErrAt(path, line, "the manuscript contains the control character U+%04X; remove it", r)
+	}
 	front, body, bodyLine, ok := manuscript.SplitFrontMatter(src)
 	if !ok && bytes.HasPrefix(bytes.TrimPrefix(src, []byte("\xef\xbb\xbf")), []byte("---\n")) {
 		return nil, manuscript.ErrAt(path, 1, "the front matter that starts here is never closed: end it with a line of --- (a rule at the very top of the text is written *** instead)")
@@ -136,6 +150,20 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		}
 		d.byID[b.id] = b
 	}
+	errs = append(errs, d.scanText()...)
+	errs = append(errs, d.loadBibliography()...)
+	if p := meta.LaTeX.Preamble; p != "" {
+		full, err := confine(d.Dir, p, opts.AllowOutside)
+		if err == nil {
+			d.Preamble, err = os.ReadFile(full)
+		}
+		if err != nil {
+			errs = append(errs, manuscript.ErrAt(path, meta.Lines["latex"], "latex: preamble: %v", strings.Replace(err.Error(), "data file", "file", 1)))
+		} else if line, r := manuscript.FirstControlChar(d.Preamble); line > 0 {
+			errs = append(errs, manuscript.ErrAt(p, line, "the preamble contains the control character U+%04X", r))
+		}
+	}
+	d.placeReferences()
 	if len(errs) > 0 {
 		return nil, errors.Join(errs...)
 	}
@@ -301,17 +329,9 @@ func (d *Document) Run() error {
 	if len(errs) > 0 {
 		return errors.Join(errs...)
 	}
-	tables, figures := 0, 0
-	for _, b := range d.blocks {
-		switch {
-		case b.result.Table != nil:
-			tables++
-			b.result.Number = tables
-		case b.result.Figure != nil:
-			figures++
-			b.result.Number = figures
-			b.result.Values["number"] = figures
-		}
+	d.number()
+	if err := d.collectReferences(); err != nil {
+		return err
 	}
 	for _, r := range d.refs {
 		if _, err := d.Inline(r); err != nil {

@@ -52,8 +52,17 @@ func (d *Document) checkRef(n *manuscript.RefNode) (ref, error) {
 		return r, manuscript.ErrAt(d.File, line, "%v", err)
 	}
 	b, ok := d.byID[r.id]
+	if a, isAnchor := d.anchors[r.id]; !ok && isAnchor {
+		if len(r.path) != 1 || r.path[0] != "label" && r.path[0] != "number" {
+			return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %q is %s; refer to it with {{%s.label}} or {{%s.number}}", n.Ref, r.id, article(a.Kind), r.id, r.id)
+		}
+		if a.Kind == "section" && a.Number == "" {
+			return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: the section %q is below the numbered levels (galley numbers %d levels of headings), so it has no number to refer to", n.Ref, r.id, manuscript.MaxNumberedLevel)
+		}
+		return r, nil
+	}
 	if !ok {
-		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: no directive has id %q%s", n.Ref, r.id, manuscript.DidYouMean(r.id, d.ids()))
+		return r, manuscript.ErrAt(d.File, line, "inline value {{%s}}: no directive has id %q, nor any equation or section%s", n.Ref, r.id, manuscript.DidYouMean(r.id, d.refIDs()))
 	}
 	if f := b.kind.Fields; f != nil && !slices.Contains(f, r.path[0]) && !slices.Contains(CommonFields, r.path[0]) {
 		all := append(slices.Clone(f), CommonFields...)
@@ -69,6 +78,17 @@ type InlineValue struct {
 	Text    string
 	Numeric bool
 	Target  *Result
+	// XRef is set for every cross-reference ({{id.label}}): to a table,
+	// figure or equation result, or to a display equation or section of
+	// the manuscript.
+	XRef *XRef
+}
+
+func article(kind string) string {
+	if kind == "equation" {
+		return "an equation"
+	}
+	return "a section"
 }
 
 // Inline is the text of the inline value n.
@@ -78,6 +98,12 @@ func (d *Document) Inline(n *manuscript.RefNode) (InlineValue, error) {
 	if err != nil {
 		return InlineValue{}, err
 	}
+	if a, ok := d.anchors[r.id]; ok && d.byID[r.id] == nil {
+		if r.path[0] == "number" {
+			return InlineValue{Text: a.Number}, nil
+		}
+		return InlineValue{Text: a.Label(), XRef: a.XRef()}, nil
+	}
 	res := d.byID[r.id].result
 	if res == nil {
 		return InlineValue{}, manuscript.ErrAt(d.File, line, "inline value {{%s}}: %q has no result", n.Ref, r.id)
@@ -85,9 +111,12 @@ func (d *Document) Inline(n *manuscript.RefNode) (InlineValue, error) {
 	var v any
 	switch r.path[0] {
 	case "label":
-		return InlineValue{Text: res.Label(), Target: res}, nil
+		return InlineValue{Text: res.Label(), Target: res, XRef: res.XRef()}, nil
 	case "number":
 		v = res.Number
+		if strings.Contains(res.Tag, ".") {
+			v = res.Tag
+		}
 	case "id":
 		v = res.ID
 	case "kind":

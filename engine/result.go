@@ -34,7 +34,17 @@ type Result struct {
 	Model     *contract.Model
 	Series    map[string]contract.Dated
 	Relations []contract.Dated
-	Number    int // table or figure number in the document (1-based)
+	// Equation is a display equation the result typesets (an estimated
+	// equation); it is numbered with the manuscript's equations.
+	Equation *table.Equation
+	// Cites are the keys, in galley's reference table (package bib), of
+	// the published works behind the result's method and critical
+	// values; with cite-methods: true in the front matter they join the
+	// reference list.
+	Cites  []string
+	Number int // table, figure or equation number (1-based; within an appendix section there)
+	// Tag is the number as printed: "3", or "A.1" in the appendix.
+	Tag string
 	// Hidden lists the top-level value keys whose numbers the result's
 	// table does not show (nuisance values, such as the coefficients of
 	// DOLS's leads and lags). Comparisons report changes among them apart
@@ -74,15 +84,46 @@ func (r *Result) Caption() string {
 	return ""
 }
 
-// Label is "Table N" or "Figure N", or "" when there is nothing to refer to.
+// Label is "Table N", "Figure N" or "(N)" for an equation, or "" when
+// there is nothing to refer to.
 func (r *Result) Label() string {
+	tag := r.Tag
+	if tag == "" {
+		tag = itoa(r.Number)
+	}
 	switch {
 	case r.Table != nil:
-		return "Table " + itoa(r.Number)
+		return "Table " + tag
 	case r.Figure != nil:
-		return "Figure " + itoa(r.Number)
+		return "Figure " + tag
+	case r.Equation != nil:
+		return "(" + tag + ")"
 	}
 	return ""
+}
+
+// XRef is the target of a cross-reference: what it is ("table",
+// "figure", "equation", "section"), its id and its number as printed.
+type XRef struct {
+	Kind, ID, Number string
+}
+
+// XRef is the cross-reference target of a result, or nil when it has
+// nothing to refer to.
+func (r *Result) XRef() *XRef {
+	tag := r.Tag
+	if tag == "" {
+		tag = itoa(r.Number)
+	}
+	switch {
+	case r.Table != nil:
+		return &XRef{"table", r.ID, tag}
+	case r.Figure != nil:
+		return &XRef{"figure", r.ID, tag}
+	case r.Equation != nil:
+		return &XRef{"equation", r.ID, tag}
+	}
+	return nil
 }
 
 // Figure is a rendered figure in every format the writers need.

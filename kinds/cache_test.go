@@ -23,7 +23,7 @@ func copyDemo(t *testing.T) string {
 	dir := t.TempDir()
 	src := filepath.Join("..", "examples", "gridlink")
 	data, _ := filepath.Glob(filepath.Join(src, "data", "*.csv"))
-	files := []string{"paper.md"}
+	files := []string{"paper.md", "references.bib"}
 	for _, p := range data {
 		files = append(files, filepath.Join("data", filepath.Base(p)))
 	}

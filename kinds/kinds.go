@@ -8,6 +8,7 @@ import (
 	_ "github.com/galley-econ/galley/directive/coint"
 	_ "github.com/galley-econ/galley/directive/dynamics"
 	_ "github.com/galley-econ/galley/directive/ecm"
+	_ "github.com/galley-econ/galley/directive/equation"
 	_ "github.com/galley-econ/galley/directive/figure"
 	_ "github.com/galley-econ/galley/directive/grid"
 	_ "github.com/galley-econ/galley/directive/johansen"

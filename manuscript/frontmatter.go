@@ -21,13 +21,88 @@ type Meta struct {
 	Stars    []float64          `yaml:"stars"`
 	Decimals *int               `yaml:"decimals"`
 	Keywords []string           `yaml:"keywords"`
+	// JEL are Journal of Economic Literature classification codes.
+	JEL []string `yaml:"jel"`
+	// Thanks is the acknowledgement note on the title.
+	Thanks string `yaml:"thanks"`
+	// Version is a version or draft line under the date ("Draft; comments welcome").
+	Version string `yaml:"version"`
+	// Bibliography is the BibTeX file citations are looked up in.
+	Bibliography string `yaml:"bibliography"`
+	// CiteMethods adds the works behind each directive's method and
+	// critical values to the reference list.
+	CiteMethods bool `yaml:"cite-methods"`
+	// LaTeX tunes the LaTeX output: the document class and its options,
+	// and a preamble file of the author's own.
+	LaTeX LaTeXMeta `yaml:"latex"`
+	// Lines are the file lines of the top-level keys.
+	Lines map[string]int `yaml:"-"`
 }
 
-// AllAuthors joins author and authors.
-func (m *Meta) AllAuthors() []string { return append(append([]string{}, m.Author...), m.Authors...) }
+// LaTeXMeta is the front matter's latex: block.
+type LaTeXMeta struct {
+	Class    string   `yaml:"class"`
+	Options  []string `yaml:"options"`
+	Preamble string   `yaml:"preamble"`
+}
 
-// Authors accepts one name or a list of names.
-type Authors = NameList
+// AllAuthors lists the authors' names (author and authors together).
+func (m *Meta) AllAuthors() []string {
+	var out []string
+	for _, a := range m.People() {
+		out = append(out, a.Name)
+	}
+	return out
+}
+
+// People lists the authors with their affiliations and e-mail.
+func (m *Meta) People() []Author { return append(append([]Author{}, m.Author...), m.Authors...) }
+
+// Author is one author: a name, or a name with an affiliation and e-mail.
+type Author struct {
+	Name        string `yaml:"name"`
+	Affiliation string `yaml:"affiliation"`
+	Email       string `yaml:"email"`
+}
+
+// Authors accepts one author or a list; each is a name or a mapping
+// with name, affiliation and email.
+type Authors []Author
+
+func (l *Authors) UnmarshalYAML(n *yaml.Node) error {
+	one := func(n *yaml.Node) (Author, error) {
+		if n.Kind == yaml.ScalarNode {
+			return Author{Name: n.Value}, nil
+		}
+		var a Author
+		if err := CheckKeys(n, &a); err != nil {
+			return a, err
+		}
+		if err := n.Decode(&a); err != nil {
+			return a, err
+		}
+		if a.Name == "" {
+			return a, fmt.Errorf("line %d: an author needs a name", n.Line)
+		}
+		return a, nil
+	}
+	if n.Kind == yaml.SequenceNode {
+		for _, c := range n.Content {
+			a, err := one(c)
+			if err != nil {
+				return err
+			}
+			*l = append(*l, a)
+		}
+		return nil
+	}
+	a, err := one(n)
+	if err != nil {
+		return err
+	}
+	*l = Authors{a}
+	return nil
+}
 
 // DataRef names a data file, with an optional sheet (XLSX), the
 // frequency of its dates when the reader should not infer it, and
@@ -128,6 +203,10 @@ func ParseMeta(file string, front []byte) (*Meta, error) {
 	}
 	if err := doc.Decode(m); err != nil {
 		return nil, YamlError(file, 2, err)
+	}
+	m.Lines = map[string]int{}
+	for i := 0; i+1 < len(doc.Content); i += 2 {
+		m.Lines[doc.Content[i].Value] = doc.Content[i].Line + 1
 	}
 	for _, p := range m.Stars {
 		if !(p > 0 && p < 1) {

@@ -32,6 +32,7 @@ type MathNode struct {
 	ast.BaseInline
 	TeX     string
 	Display bool
+	Offset  int // byte offset of the opening $ in the body
 }
 
 // KindMath is the AST kind of MathNode.
@@ -72,7 +73,7 @@ func (mathParser) Trigger() []byte { return []byte{'$'} }
 // the opening $ is followed by a non-space, the closing $ is preceded by
 // a non-space and not followed by a digit.
 func (mathParser) Parse(parent ast.Node, block text.Reader, pc parser.Context) ast.Node {
-	line, _ := block.PeekLine()
+	line, seg := block.PeekLine()
 	if len(line) < 2 {
 		return nil
 	}
@@ -82,7 +83,7 @@ func (mathParser) Parse(parent ast.Node, block text.Reader, pc parser.Context) a
 			return nil
 		}
 		block.Advance(end + 4)
-		return &MathNode{TeX: string(bytes.TrimSpace(line[2 : 2+end])), Display: true}
+		return &MathNode{TeX: string(bytes.TrimSpace(line[2 : 2+end])), Display: true, Offset: seg.Start}
 	}
 	if line[1] == ' ' || line[1] == '\t' {
 		return nil
@@ -99,21 +100,26 @@ func (mathParser) Parse(parent ast.Node, block text.Reader, pc parser.Context) a
 				return nil
 			}
 			block.Advance(i + 1)
-			return &MathNode{TeX: string(line[1:i])}
+			return &MathNode{TeX: string(line[1:i]), Offset: seg.Start}
 		}
 	}
 	return nil
 }
 
 // NewMarkdown is the goldmark instance every writer parses with:
-// CommonMark plus pipe tables, strikethrough, and galley's inline nodes.
+// CommonMark plus pipe tables, strikethrough, footnotes, heading
+// attributes ({#id}), and galley's nodes: display equations, inline
+// values, math and citations.
 func NewMarkdown() goldmark.Markdown {
 	return goldmark.New(
-		goldmark.WithExtensions(extension.Table, extension.Strikethrough),
+		goldmark.WithExtensions(extension.Table, extension.Strikethrough, extension.Footnote),
 		goldmark.WithParserOptions(
+			parser.WithAttribute(),
+			parser.WithBlockParsers(mathBlockPriority),
 			parser.WithInlineParsers(
 				util.Prioritized(refParser{}, 150),
 				util.Prioritized(mathParser{}, 150),
+				util.Prioritized(citeParser{}, 150),
 			),
 		),
 	)

@@ -20,3 +20,20 @@ func FirstBadUTF8Line(b []byte) int {
 	}
 	return line
 }
+
+// FirstControlChar finds the first control character other than tab,
+// line feed and carriage return (C0, DEL and C1): its 1-based line and
+// the character, or line 0 when there is none.
+func FirstControlChar(b []byte) (int, rune) {
+	line := 1
+	for _, r := range string(b) {
+		switch {
+		case r == '\n':
+			line++
+		case r == '\t' || r == '\r':
+		case r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0:
+			return line, r
+		}
+	}
+	return 0, 0
+}

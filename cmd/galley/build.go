@@ -19,7 +19,7 @@ import (
 
 type buildCmd struct {
 	Manuscript   string   `arg:"" help:"The manuscript (.md)." type:"existingfile"`
-	To           []string `short:"t" help:"Output format: html, latex or markdown (repeatable)." enum:"html,latex,markdown,md,tex" default:"html"`
+	To           []string `short:"t" help:"Output format: html, latex, markdown or pdf (repeatable; pdf runs pdflatex)." enum:"html,latex,markdown,md,tex,pdf" default:"html"`
 	Out          string   `short:"o" help:"Output folder (default: out/ beside the manuscript)." type:"path"`
 	AllowOutside bool     `help:"Allow data paths that leave the manuscript's folder."`
 	Vintage      string   `help:"Use this vintage of every data alias that names vintages."`
@@ -111,6 +111,16 @@ func outputs(doc *engine.Document, formats []string, pngDPI int) (map[string][]b
 					files[filepath.Join("tables", r.ID+".tex")] = latex.Fragment(r)
 				}
 			}
+		case "pdf":
+			tex, err := latex.Write(doc, latex.Options{Version: version.Version, FigureDir: engine.FigureFolder})
+			if err != nil {
+				return nil, err
+			}
+			pdf, err := compilePDF(doc, tex)
+			if err != nil {
+				return nil, err
+			}
+			files[base+".pdf"] = pdf
 		case "markdown", "md":
 			b, err := markdown.Write(doc, markdown.Options{FigureDir: engine.FigureFolder})
 			if err != nil {

@@ -12,7 +12,7 @@ func demoCopy(t *testing.T) string {
 	t.Helper()
 	dir := t.TempDir()
 	data, _ := filepath.Glob(filepath.Join("..", "..", "examples", "gridlink", "data", "*.csv"))
-	files := []string{"paper.md"}
+	files := []string{"paper.md", "references.bib"}
 	for _, p := range data {
 		files = append(files, filepath.Join("data", filepath.Base(p)))
 	}
@@ -102,7 +102,7 @@ func TestFailedBuildKeepsOutput(t *testing.T) {
 	if code := run([]string{"build"}); code != 2 {
 		t.Errorf("missing argument: exit %d, want 2", code)
 	}
-	if code := run([]string{"build", paper, "--to", "pdf"}); code != 2 {
+	if code := run([]string{"build", paper, "--to", "docx"}); code != 2 {
 		t.Errorf("bad format: exit %d, want 2", code)
 	}
 }

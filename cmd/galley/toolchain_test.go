@@ -102,7 +102,8 @@ func TestLaTeXCompiles(t *testing.T) {
 }
 
 // TestTableFragmentCompiles: a standalone table fragment can be \input
-// into a minimal article with the packages its header names.
+// into a minimal article with the packages its header names (longtable
+// and pdflscape included, for the long and the wide).
 func TestTableFragmentCompiles(t *testing.T) {
 	out := buildDemoTo(t, "latex")
 	frags, _ := filepath.Glob(filepath.Join(out, "tables", "*.tex"))
@@ -113,7 +114,7 @@ func TestTableFragmentCompiles(t *testing.T) {
 	for _, f := range frags {
 		inputs.WriteString("\\input{tables/" + filepath.Base(f) + "}\n")
 	}
-	doc := "\\documentclass{article}\n\\usepackage{booktabs,dcolumn,graphicx,amsmath}\n\\newcolumntype{d}{D{.}{.}{-1}}\n\\begin{document}\n" + inputs.String() + "\\end{document}\n"
+	doc := "\\documentclass{article}\n\\usepackage{booktabs,dcolumn,graphicx,amsmath,longtable,pdflscape}\n\\newcolumntype{d}{D{.}{.}{-1}}\n\\begin{document}\n" + inputs.String() + "\\end{document}\n"
 	if err := os.WriteFile(filepath.Join(out, "host.tex"), []byte(doc), 0o644); err != nil {
 		t.Fatal(err)
 	}

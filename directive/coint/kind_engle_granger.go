@@ -149,7 +149,7 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Notes[1] = simEGNote(sims, vars, deps)
 	}
 	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
-	res := &engine.Result{Table: t, Values: s.values(each, det, len(vars), d, all), Test: first}
+	res := &engine.Result{Table: t, Values: s.values(each, det, len(vars), d, all), Test: first, Cites: []string{"engle-granger-1987", "mackinnon-2010", "mackinnon-1994"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
 	return res, nil
 }

@@ -142,5 +142,5 @@ func (s *poSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"bandwidth": r.Lags, "nobs": r.NObs, "det": det.String(), "y": s.Y, "x": append([]string(nil), s.X...),
 		"static": static, "sample": engine.SampleValues(d),
 	}
-	return &engine.Result{Table: t, Values: vals}, nil
+	return &engine.Result{Table: t, Values: vals, Cites: []string{"phillips-ouliaris-1990"}}, nil
 }

@@ -176,7 +176,7 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	for i := range actual {
 		actual[i] = m.Fit.Fitted[i] + m.Fit.Resid[i]
 	}
-	res := &engine.Result{Table: t, Values: vals}
+	res := &engine.Result{Table: t, Values: vals, Cites: []string{"engle-granger-1987"}}
 	res.SetSeries("actual", contract.NewDated(sd.Dates, actual))
 	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
 	res.Model = engine.ModelOf("ECM", ecm.DiffName(rel.Y, 0), m.Names, m.Coef, vals, true, "")

@@ -146,7 +146,7 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))
 	}
 	t.Notes = append(t.Notes, "*, **, ***: the statistic exceeds its 10%, 5%, 1% critical value. "+st.d.SampleNote())
-	res := &engine.Result{Table: t, Values: st.values()}
+	res := &engine.Result{Table: t, Values: st.values(), Cites: []string{"johansen-1991", "mhm-1999"}}
 	if st.vecm != nil {
 		res.Relations = st.relations()
 	}

@@ -227,7 +227,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	t.Notes = append(t.Notes, c.StarNote()+" "+sd.SampleNote())
 	vals := s.values(st, r, nd+k, walds, seNote, sd)
 	// The leads and lags are nuisance terms the table does not show.
-	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}}
+	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}, Cites: []string{"saikkonen-1991", "stock-watson-1993", "newey-west-1987"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
 	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
 	return res, nil
@@ -361,7 +361,7 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"y": s.Y, "x": append([]string(nil), s.X...),
 		"sample": engine.SampleValues(sd),
 	}
-	res := &engine.Result{Table: t, Values: vals}
+	res := &engine.Result{Table: t, Values: vals, Cites: []string{"phillips-hansen-1990", "hansen-1992"}}
 	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], sp.Det, r.Coef)))
 	res.Model = engine.ModelOf("FMOLS", s.Y, r.Names, r.Table, vals, true, "")
 	return res, nil

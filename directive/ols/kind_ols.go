@@ -111,7 +111,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"loglik":       fit.LogLik(),
 		"sample":       engine.SampleValues(d),
 	}
-	res := &engine.Result{Table: t, Values: vals}
+	res := &engine.Result{Table: t, Values: vals, Cites: seCites(s.SE)}
 	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))
 	res.Model = engine.ModelOf("OLS", s.Y, terms, coefs, vals, false, "")
 	return res, nil

@@ -181,7 +181,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 	} else {
 		vals["det"] = u.Det.String()
 	}
-	return &engine.Result{Table: t, Values: vals, Test: o}, nil
+	return &engine.Result{Table: t, Values: vals, Test: o, Cites: lookupTest(c.Kind()).Cites}, nil
 }
 
 // urNote explains the test: the null, the deterministic terms, the lag

@@ -168,7 +168,7 @@ func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals = append(vals, entry)
 	}
 	t.Notes = s.notes(c, levT, difT, seen, dec)
-	return &engine.Result{Table: t, Values: map[string]any{"series": vals, "tests": s.tests(), "level": s.level()}}, nil
+	return &engine.Result{Table: t, Values: map[string]any{"series": vals, "tests": s.tests(), "level": s.level()}, Cites: citesOf(s.tests())}, nil
 }
 
 // head is the two header rows: Levels and First differences over the

@@ -37,6 +37,9 @@ type testDef struct {
 	// family's default, AIC with Schwert's maximum).
 	Lags *unitroot.LagRule
 	Run  func(y []float64, u urTest) (*contract.Outcome, error)
+	// Cites are the works behind the test and its critical values, as
+	// keys of galley's reference table (manuscript.MethodBib).
+	Cites []string
 	// Fields are the further values Run puts in Outcome.Extra, and Rows
 	// those of them the single-test table shows under the statistic.
 	Fields []string
@@ -93,7 +96,7 @@ func (u urTest) run(y []float64) (*contract.Outcome, error) {
 var levelOrTrend = []critical.Case{critical.Const, critical.ConstTrend}
 
 func init() {
-	registerTest(&testDef{Name: "adf", Title: "ADF", Summary: "augmented Dickey–Fuller unit-root test", Simulate: true,
+	registerTest(&testDef{Name: "adf", Cites: []string{"dickey-fuller-1979", "said-dickey-1984", "mackinnon-2010", "mackinnon-1994"}, Title: "ADF", Summary: "augmented Dickey–Fuller unit-root test", Simulate: true,
 		Fields: append([]string{"pvalue_source", "lags", "det"}, simFields...),
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.ADF(y, u.Det, u.Lags)
@@ -103,7 +106,7 @@ func init() {
 			return &contract.Outcome{Test: "ADF", StatName: "τ", Stat: r.Stat, PValue: r.PValue, Lags: r.Lags, MaxLag: r.Reg.MaxLag,
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "MacKinnon (1994)", Null: "has a unit root"}, nil
 		}})
-	registerTest(&testDef{Name: "pp", Title: "PP", Summary: "Phillips–Perron unit-root test", Bandwidth: true,
+	registerTest(&testDef{Name: "pp", Cites: []string{"phillips-perron-1988", "mackinnon-2010", "mackinnon-1994", "newey-west-1994"}, Title: "PP", Summary: "Phillips–Perron unit-root test", Bandwidth: true,
 		Fields: []string{"pvalue_source", "bandwidth", "det", "stat_alpha", "crit_alpha", "crit_alpha_source"},
 		Dets:   []critical.Case{critical.NoConst, critical.Const, critical.ConstTrend}, DetHelp: "Phillips–Perron supports det n, c or ct",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
@@ -115,7 +118,7 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "MacKinnon (1994)", Null: "has a unit root",
 				Extra: map[string]any{"stat_alpha": r.StatAlpha, "crit_alpha": contract.CritMap(r.CritAlpha), "crit_alpha_source": r.CritAlphaSource}}, nil
 		}})
-	registerTest(&testDef{Name: "kpss", Title: "KPSS", Summary: "KPSS test of level or trend stationarity", Bandwidth: true, Stationarity: true,
+	registerTest(&testDef{Name: "kpss", Cites: []string{"kpss-1992", "newey-west-1994"}, Title: "KPSS", Summary: "KPSS test of level or trend stationarity", Bandwidth: true, Stationarity: true,
 		Fields: []string{"pvalue_source", "pvalue_clipped", "bandwidth", "det"},
 		Dets:   levelOrTrend, DetHelp: "KPSS tests level (c) or trend (ct) stationarity; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
@@ -126,7 +129,7 @@ func init() {
 			return &contract.Outcome{Test: "KPSS", StatName: "η", Stat: r.Stat, PValue: r.PValue, PClipped: r.PClipped, Lags: r.Bandwidth, IsBW: true,
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: "interpolated in KPSS (1992) Table 1", Upper: true, Null: kpssNull(u.Det)}, nil
 		}})
-	registerTest(&testDef{Name: "dfgls", Title: "DF-GLS", Summary: "DF-GLS unit-root test of Elliott, Rothenberg and Stock",
+	registerTest(&testDef{Name: "dfgls", Cites: []string{"ers-1996"}, Title: "DF-GLS", Summary: "DF-GLS unit-root test of Elliott, Rothenberg and Stock",
 		Fields: []string{"pvalue_source", "lags", "det"},
 		Dets:   levelOrTrend, DetHelp: "DF-GLS has a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
@@ -141,7 +144,7 @@ func init() {
 			return &contract.Outcome{Test: "DF-GLS", StatName: "τ", Stat: r.Stat, PValue: r.PValue, Lags: r.Lags, MaxLag: r.Reg.MaxLag,
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, PSource: ps, Null: "has a unit root"}, nil
 		}})
-	registerTest(&testDef{Name: "za", Title: "ZA", Summary: "Zivot–Andrews unit-root test with one break at an unknown date", Break: true,
+	registerTest(&testDef{Name: "za", Cites: []string{"zivot-andrews-1992"}, Title: "ZA", Summary: "Zivot–Andrews unit-root test with one break at an unknown date", Break: true,
 		Fields: []string{"lags", "break", "break_index", "break_model", "trim"},
 		Run: func(y []float64, u urTest) (*contract.Outcome, error) {
 			r, err := unitroot.ZA(y, u.Break, u.Trim, u.Lags)
@@ -152,7 +155,7 @@ func init() {
 				NObs: r.NObs, Crit: r.Crit, CritSource: r.CritSource, Null: "has a unit root (and no break)",
 				Extra: map[string]any{"break_index": r.Break, "trim": r.Trim}}, nil
 		}})
-	registerTest(&testDef{Name: "ngperron", Title: "Ng–Perron", Summary: "Ng–Perron M tests (MZα, MZt, MSB, MPT) on GLS-detrended data, lags by the modified AIC",
+	registerTest(&testDef{Name: "ngperron", Cites: []string{"ng-perron-2001"}, Title: "Ng–Perron", Summary: "Ng–Perron M tests (MZα, MZt, MSB, MPT) on GLS-detrended data, lags by the modified AIC",
 		Dets: levelOrTrend, DetHelp: "the Ng–Perron tests have a constant (c) or a constant and trend (ct) case; det: %s is not one of them",
 		Lags: &unitroot.LagRule{Select: unitroot.MAIC, Max: -1}, Run: ngPerron,
 		Fields: []string{"lags", "det", "mza", "mzt", "msb", "mpt", "crit_mza", "crit_msb", "crit_mpt", "s2ar"},

@@ -46,14 +46,18 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	}
 	var out bytes.Buffer
 	err = t.Execute(&out, map[string]any{
-		"Version":  o.Version,
-		"Title":    d.Meta.Title,
-		"Authors":  d.Meta.AllAuthors(),
-		"Date":     d.Meta.Date,
-		"Abstract": d.Meta.Abstract,
-		"CSS":      template.CSS(templates.StyleCSS),
-		"Body":     template.HTML(body.String()),
-		"Script":   o.Script,
+		"Version":     o.Version,
+		"Title":       d.Meta.Title,
+		"People":      d.Meta.People(),
+		"Thanks":      d.Meta.Thanks,
+		"VersionLine": d.Meta.Version,
+		"Keywords":    strings.Join(d.Meta.Keywords, "; "),
+		"JEL":         strings.Join(d.Meta.JEL, ", "),
+		"Date":        d.Meta.Date,
+		"Abstract":    d.Meta.Abstract,
+		"CSS":         template.CSS(templates.StyleCSS),
+		"Body":        template.HTML(body.String()),
+		"Script":      o.Script,
 	})
 	return out.Bytes(), err
 }
@@ -64,6 +68,93 @@ func (h *htmlNodes) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, h.fenced)
 	reg.Register(manuscript.KindRef, h.ref)
 	reg.Register(manuscript.KindMath, h.math)
+	reg.Register(manuscript.KindMathBlock, h.mathBlock)
+	reg.Register(ast.KindHeading, h.heading)
+	reg.Register(manuscript.KindCite, h.cite)
+	reg.Register(manuscript.KindReferences, h.references)
+}
+
+func (h *htmlNodes) cite(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkContinue, nil
+	}
+	n := node.(*manuscript.CiteNode)
+	entries, err := h.doc.Cite(n)
+	if err != nil {
+		return ast.WalkStop, err
+	}
+	open, parts, close := manuscript.FormatCite(n, entries)
+	w.WriteString(`<span class="cite">` + html.EscapeString(open))
+	for i, p := range parts {
+		if i > 0 {
+			w.WriteString(html.EscapeString(manuscript.CiteSeparator(n.Cmd)))
+		}
+		w.WriteString(`<a href="#ref-` + html.EscapeString(p.Key) + `">` + html.EscapeString(p.Text) + `</a>`)
+	}
+	w.WriteString(html.EscapeString(close) + `</span>`)
+	return ast.WalkContinue, nil
+}
+
+func (h *htmlNodes) references(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	refs := h.doc.References()
+	if !entering || len(refs) == 0 {
+		return ast.WalkContinue, nil
+	}
+	w.WriteString(`<section class="references" id="references">` + "\n<h2>References</h2>\n")
+	for _, e := range refs {
+		w.WriteString(`<p class="ref" id="ref-` + html.EscapeString(e.Key) + `">`)
+		for _, sp := range e.Reference() {
+			if sp.Italic {
+				w.WriteString("<em>" + html.EscapeString(sp.Text) + "</em>")
+			} else {
+				w.WriteString(html.EscapeString(sp.Text))
+			}
+		}
+		w.WriteString("</p>\n")
+	}
+	w.WriteString("</section>\n")
+	return ast.WalkContinue, nil
+}
+
+func (h *htmlNodes) mathBlock(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkSkipChildren, nil
+	}
+	n := node.(*manuscript.MathBlock)
+	id := ""
+	if n.ID != "" {
+		id = ` id="eq-` + html.EscapeString(n.ID) + `"`
+	}
+	writeEquation(w, id, n.TeX, h.doc.EquationNumber(n))
+	return ast.WalkSkipChildren, nil
+}
+
+// writeEquation writes a display equation with its number at the right.
+func writeEquation(w util.BufWriter, id, tex, number string) {
+	w.WriteString(`<div class="equation"` + id + `>` + mathML(tex, true))
+	if number != "" {
+		w.WriteString(`<span class="eqno">(` + html.EscapeString(number) + `)</span>`)
+	}
+	w.WriteString("</div>\n")
+}
+
+func (h *htmlNodes) heading(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
+	n := node.(*ast.Heading)
+	tag := "h" + string(rune('0'+n.Level))
+	if !entering {
+		w.WriteString("</" + tag + ">\n")
+		return ast.WalkContinue, nil
+	}
+	s := h.doc.Section(n)
+	w.WriteString("<" + tag)
+	if s != nil && s.ID != "" {
+		w.WriteString(` id="sec-` + html.EscapeString(s.ID) + `"`)
+	}
+	w.WriteString(">")
+	if s != nil && s.Number != "" {
+		w.WriteString(`<span class="secnum">` + html.EscapeString(s.Number) + `</span> `)
+	}
+	return ast.WalkContinue, nil
 }
 
 func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -104,8 +195,8 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 		return ast.WalkStop, err
 	}
 	switch {
-	case t.Target != nil:
-		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(anchor(t.Target)), html.EscapeString(t.Text))
+	case t.XRef != nil:
+		fmt.Fprintf(w, `<a class="xref" href="#%s">%s</a>`, html.EscapeString(xrefAnchor(t.XRef)), html.EscapeString(t.Text))
 	case t.Numeric:
 		w.WriteString(html.EscapeString(htmlMinus(t.Text)))
 	default:
@@ -117,11 +208,11 @@ func (h *htmlNodes) ref(w util.BufWriter, src []byte, node ast.Node, entering bo
 func (h *htmlNodes) math(w util.BufWriter, src []byte, node ast.Node, entering bool) (ast.WalkStatus, error) {
 	if entering {
 		n := node.(*manuscript.MathNode)
-		cls := "math"
 		if n.Display {
-			cls = "math-display"
+			w.WriteString(`<span class="math-display">` + mathML(n.TeX, true) + `</span>`)
+		} else {
+			w.WriteString(mathML(n.TeX, false))
 		}
-		w.WriteString(`<span class="` + cls + `">` + texToHTML(n.TeX) + `</span>`)
 	}
 	return ast.WalkContinue, nil
 }
@@ -135,10 +226,23 @@ func htmlMinus(s string) string {
 }
 
 func anchor(r *engine.Result) string {
-	if r.Figure != nil {
-		return "fig-" + r.ID
+	if x := r.XRef(); x != nil {
+		return xrefAnchor(x)
 	}
-	return "tab-" + r.ID
+	return "res-" + r.ID
+}
+
+// xrefAnchor is the element id of a cross-reference target.
+func xrefAnchor(x *engine.XRef) string {
+	switch x.Kind {
+	case "figure":
+		return "fig-" + x.ID
+	case "equation":
+		return "eq-" + x.ID
+	case "section":
+		return "sec-" + x.ID
+	}
+	return "tab-" + x.ID
 }
 
 func writeHTMLResult(w util.BufWriter, r *engine.Result) {
@@ -155,6 +259,14 @@ func writeHTMLResult(w util.BufWriter, r *engine.Result) {
 		w.Write(inlineSVG(r.Figure.SVG))
 		writeHTMLNotes(w, r.Figure.Notes)
 		w.WriteString("</figure>\n")
+	case r.Equation != nil:
+		w.WriteString(`<div class="result estimated">` + "\n")
+		writeEquation(w, ` id="`+html.EscapeString(anchor(r))+`"`, r.Equation.TeX(), r.Tag)
+		if r.Equation.Stats != "" {
+			w.WriteString(`<p class="eqstats">` + mathML(r.Equation.Stats, false) + `</p>`)
+		}
+		writeHTMLNotes(w, r.Equation.Notes)
+		w.WriteString("</div>\n")
 	case r.Text != "":
 		w.WriteString("<p>" + html.EscapeString(r.Text) + "</p>\n")
 	}

@@ -3,6 +3,7 @@ package latex
 import (
 	"bytes"
 	"fmt"
+	"regexp"
 	"strings"
 	"text/template"
 
@@ -34,17 +35,39 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
+	m := d.Meta
+	class, opts := "article", "11pt"
+	if m.LaTeX.Class != "" {
+		class = m.LaTeX.Class
+	}
+	if len(m.LaTeX.Options) > 0 {
+		opts = strings.Join(m.LaTeX.Options, ",")
+	}
+	date := texEscape(m.Date)
+	if m.Version != "" {
+		if date != "" {
+			date += "\\\\ "
+		}
+		date += "\\small " + texEscape(m.Version)
+	}
 	err = t.Execute(&out, map[string]string{
-		"Version":  o.Version,
-		"Title":    texEscape(d.Meta.Title),
-		"Authors":  texAuthors(d.Meta.AllAuthors()),
-		"Date":     texEscape(d.Meta.Date),
-		"Abstract": texEscape(d.Meta.Abstract),
+		"Version":          o.Version,
+		"Class":            class,
+		"ClassOptions":     opts,
+		"UserPreamble":     string(d.Preamble),
+		"UserPreambleFile": m.LaTeX.Preamble,
+		"Title":            texEscape(m.Title),
+		"Thanks":           texEscape(m.Thanks),
+		"Authors":          texAuthors(m.People()),
+		"Date":             date,
+		"Abstract":         texEscape(m.Abstract),
+		"Keywords":         texEscape(strings.Join(m.Keywords, "; ")),
+		"JEL":              texEscape(strings.Join(m.JEL, ", ")),
 	})
 	if err != nil {
 		return nil, err
 	}
-	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root)}
+	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root), notes: footnotes(d.Root)}
 	if err := w.blocks(d.Root); err != nil {
 		return nil, err
 	}
@@ -57,17 +80,33 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 // column type d defined as D{.}{.}{-1}).
 func Fragment(r *engine.Result) []byte {
 	var b bytes.Buffer
-	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} and\n")
+	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} (and longtable\n")
+	b.WriteString("% for a table longer than a page, pdflscape for one wider than the text) and\n")
 	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
+	b.WriteString("\\providecommand{\\galleyfit}[1]{\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{#1}}\n")
 	writeTeXTable(&b, r)
 	return b.Bytes()
 }
 
 type texWriter struct {
-	doc    *engine.Document
-	out    *bytes.Buffer
-	figDir string
-	top    int // the highest heading level used, typeset as \section
+	doc      *engine.Document
+	out      *bytes.Buffer
+	figDir   string
+	top      int // the highest heading level used, typeset as \section
+	notes    map[int]*east.Footnote
+	appendix bool // \appendix has been written
+}
+
+// footnotes maps each footnote's index to its text.
+func footnotes(root ast.Node) map[int]*east.Footnote {
+	out := map[int]*east.Footnote{}
+	_ = ast.Walk(root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if f, ok := n.(*east.Footnote); ok && entering {
+			out[f.Index] = f
+		}
+		return ast.WalkContinue, nil
+	})
+	return out
 }
 
 // topHeading is the smallest heading level in the document (1 if none),
@@ -86,16 +125,26 @@ func topHeading(root ast.Node) int {
 	return top
 }
 
-func texAuthors(names []string) string {
-	esc := make([]string, len(names))
-	for i, n := range names {
-		esc[i] = texEscape(n)
+func texAuthors(people []manuscript.Author) string {
+	esc := make([]string, len(people))
+	for i, p := range people {
+		esc[i] = texEscape(p.Name)
+		if p.Affiliation != "" {
+			esc[i] += "\\\\ \\small " + texEscape(p.Affiliation)
+		}
+		if p.Email != "" {
+			esc[i] += "\\\\ \\small\\texttt{" + texEscape(p.Email) + "}"
+		}
 	}
 	return strings.Join(esc, " \\and ")
 }
 
 func (w *texWriter) blocks(parent ast.Node) error {
 	for n := parent.FirstChild(); n != nil; n = n.NextSibling() {
+		if parent == w.doc.Root && !w.appendix && w.doc.Outline.AppendixAt >= 0 && startOf(n) >= w.doc.Outline.AppendixAt {
+			w.appendix = true
+			w.out.WriteString("\n\\galleyappendix\n")
+		}
 		if err := w.block(n); err != nil {
 			return err
 		}
@@ -108,13 +157,40 @@ var texSections = []string{"section", "subsection", "subsubsection", "paragraph"
 func (w *texWriter) block(n ast.Node) error {
 	src := w.doc.Body
 	o := w.out
+	if n.Type() == ast.TypeBlock && n.Lines().Len() > 0 {
+		fmt.Fprintf(o, "%% galley:line %d\n", w.doc.LineOf(n.Lines().At(0).Start))
+	}
 	switch n := n.(type) {
 	case *ast.Heading:
-		o.WriteString("\n\\" + texSections[min(max(n.Level-w.top, 0), 5)] + "{")
+		sec := w.doc.Section(n)
+		level := min(max(n.Level-w.top, 0), 5)
+		o.WriteString("\n\\" + texSections[level])
+		if sec == nil || sec.Number == "" {
+			o.WriteString("*")
+		}
+		o.WriteString("{")
 		if err := w.inlines(n); err != nil {
 			return err
 		}
-		o.WriteString("}\n")
+		o.WriteString("}")
+		if sec != nil && sec.ID != "" {
+			o.WriteString("\\label{sec:" + sec.ID + "}")
+		}
+		o.WriteString("\n")
+	case *manuscript.MathBlock:
+		if !n.Numbered {
+			o.WriteString("\\[\n" + n.TeX + "\n\\]\n")
+			return nil
+		}
+		o.WriteString("\\begin{equation}")
+		if n.ID != "" {
+			o.WriteString("\\label{eq:" + n.ID + "}")
+		}
+		o.WriteString("\n" + n.TeX + "\n\\end{equation}\n")
+	case *manuscript.ReferencesNode:
+		w.bibliography()
+	case *east.FootnoteList:
+		// each footnote is written where it is referred to
 	case *ast.Paragraph, *ast.TextBlock:
 		o.WriteString("\n")
 		if err := w.inlines(n); err != nil {
@@ -253,18 +329,43 @@ func (w *texWriter) inline(n ast.Node) error {
 		} else {
 			o.WriteString("$" + n.TeX + "$")
 		}
+	case *east.FootnoteLink:
+		f := w.notes[n.Index]
+		if f == nil {
+			return nil
+		}
+		o.WriteString("\\footnote{")
+		for c := f.FirstChild(); c != nil; c = c.NextSibling() {
+			if c != f.FirstChild() {
+				o.WriteString("\\par ")
+			}
+			if err := w.inlines(c); err != nil {
+				return err
+			}
+		}
+		o.WriteString("}")
+	case *manuscript.CiteNode:
+		if _, err := w.doc.Cite(n); err != nil {
+			return err
+		}
+		o.WriteString("\\" + n.Cmd)
+		if n.Pre != "" {
+			o.WriteString("[" + texEscape(manuscript.Detex(n.Pre)) + "]")
+		}
+		if n.Pre != "" || n.Post != "" {
+			o.WriteString("[" + texEscape(manuscript.Detex(n.Post)) + "]")
+		}
+		o.WriteString("{" + strings.Join(n.Keys, ",") + "}")
+	case *east.FootnoteBacklink:
+		// the footnote mark is LaTeX's own
 	case *manuscript.RefNode:
 		t, err := w.doc.Inline(n)
 		if err != nil {
 			return err
 		}
 		switch {
-		case t.Target != nil:
-			kind := "Table"
-			if t.Target.Figure != nil {
-				kind = "Figure"
-			}
-			o.WriteString(kind + "~\\ref{" + texLabel(t.Target) + "}")
+		case t.XRef != nil:
+			o.WriteString(texXRef(t))
 		case t.Numeric:
 			o.WriteString(texNumber(t.Text))
 		default:
@@ -277,10 +378,73 @@ func (w *texWriter) inline(n ast.Node) error {
 }
 
 func texLabel(r *engine.Result) string {
-	if r.Figure != nil {
+	switch {
+	case r.Figure != nil:
 		return "fig:" + r.ID
+	case r.Equation != nil:
+		return "eq:" + r.ID
 	}
 	return "tab:" + r.ID
+}
+
+// texXRef writes a cross-reference with LaTeX's own \ref, so that the
+// number printed is the one LaTeX gave the target (galley's numbering
+// and LaTeX's agree; the text before it is galley's).
+func texXRef(t engine.InlineValue) string {
+	x := t.XRef
+	switch x.Kind {
+	case "figure":
+		return "Figure~\\ref{fig:" + x.ID + "}"
+	case "equation":
+		return "\\eqref{eq:" + x.ID + "}"
+	case "section":
+		word, _, _ := strings.Cut(t.Text, " ")
+		return texEscape(word) + "~\\ref{sec:" + x.ID + "}"
+	}
+	return "Table~\\ref{tab:" + x.ID + "}"
+}
+
+// bibliography writes the reference list as natbib reads it, so that
+// one pdflatex run (two for cross-references) needs no BibTeX step:
+// \bibitem[Engle and Granger(1987)]{key} and galley's formatting of the
+// entry.
+func (w *texWriter) bibliography() {
+	refs := w.doc.References()
+	if len(refs) == 0 {
+		return
+	}
+	fmt.Fprintf(w.out, "\n\\begin{thebibliography}{%d}\n", len(refs))
+	for _, e := range refs {
+		fmt.Fprintf(w.out, "\\bibitem[%s(%s)]{%s}\n", strings.ReplaceAll(texEscape(e.AuthorText()), "et al.", "et~al."), texEscape(e.YearText()), e.Key)
+		for _, sp := range e.Reference() {
+			if sp.Italic {
+				w.out.WriteString("\\emph{" + texEscape(sp.Text) + "}")
+			} else {
+				w.out.WriteString(texEscape(sp.Text))
+			}
+		}
+		w.out.WriteString("\n")
+	}
+	w.out.WriteString("\\end{thebibliography}\n")
+}
+
+// startOf is the body offset where a block starts (-1 if unknown).
+func startOf(n ast.Node) int {
+	if m, ok := n.(*manuscript.MathBlock); ok {
+		return m.Offset
+	}
+	if n.Type() == ast.TypeBlock && n.Lines().Len() > 0 {
+		return n.Lines().At(0).Start
+	}
+	if f, ok := n.(*ast.FencedCodeBlock); ok && f.Info != nil {
+		return f.Info.Segment.Start
+	}
+	for c := n.FirstChild(); c != nil; c = c.NextSibling() {
+		if s := startOf(c); s >= 0 {
+			return s
+		}
+	}
+	return -1
 }
 
 // texNumber puts a number in math mode when it has a sign, so that the
@@ -298,47 +462,148 @@ func (w *texWriter) result(r *engine.Result) {
 		w.out.WriteString("\n")
 		writeTeXTable(w.out, r)
 	case r.Figure != nil:
-		fmt.Fprintf(w.out, "\n\\begin{figure}[htbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
+		fmt.Fprintf(w.out, "\n\\begin{figure}[!tbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
 		fmt.Fprintf(w.out, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
 		writeTeXNotes(w.out, r.Figure.Notes)
 		w.out.WriteString("\\end{figure}\n")
+	case r.Equation != nil:
+		fmt.Fprintf(w.out, "\\begin{equation}\\label{%s}\n%s\n\\end{equation}\n", texLabel(r), r.Equation.TeX())
+		if r.Equation.Stats != "" || len(r.Equation.Notes) > 0 {
+			w.out.WriteString("\\begin{center}\\footnotesize ")
+			if r.Equation.Stats != "" {
+				w.out.WriteString("$" + r.Equation.Stats + "$")
+			}
+			for _, n := range r.Equation.Notes {
+				w.out.WriteString("\\\\\n" + texEscape(n))
+			}
+			w.out.WriteString("\n\\end{center}\n")
+		}
 	case r.Text != "":
 		w.out.WriteString("\n" + texEscape(r.Text) + "\n")
 	}
+}
+
+// Page-layout limits for tables: a table taller than longRows rows is
+// set as a longtable that breaks across pages, with its notes after its
+// last row; one whose estimated width at \scriptsize still exceeds the
+// text block is set on a landscape page.
+const (
+	longRows      = 44
+	textWidthPt   = 468.0 // 6.5in, the text block of the default geometry
+	scriptCharPt  = 3.6   // an average character at \scriptsize (7pt)
+	scriptColSep  = 7.0   // 2 × \tabcolsep at \scriptsize after galley's tightening
+	landscapeNote = "wider than the text block even at 7pt: set on a landscape page"
+)
+
+// estimatedWidth is a rough width of the table at \scriptsize, in points.
+func estimatedWidth(t *table.Table) float64 {
+	cols := t.Cols()
+	widths := make([]int, cols)
+	measure := func(cells []table.Cell) {
+		col := 0
+		for _, c := range cells {
+			span := max(c.Span, 1)
+			n := len([]rune(c.Text))
+			if c.IsNum {
+				s, _ := table.NumText(c)
+				n = len(s) + c.Stars + len(c.Suffix) + 2
+			}
+			if span == 1 && col < cols && n > widths[col] {
+				widths[col] = n
+			}
+			col += span
+		}
+	}
+	for _, h := range t.Head {
+		measure(h)
+	}
+	for _, r := range t.Body {
+		measure(r.Cells)
+	}
+	w := 0.0
+	for _, n := range widths {
+		w += float64(n)*scriptCharPt + scriptColSep
+	}
+	return w
 }
 
 func writeTeXTable(b *bytes.Buffer, r *engine.Result) {
 	t := r.Table
 	cols := t.Cols()
 	spec := strings.Repeat("l", t.Stub) + strings.Repeat("d", max(cols-t.Stub, 0))
-	fmt.Fprintf(b, "\\begin{table}[htbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
-	// Wide tables get tighter columns; one still wider than the text is
-	// scaled down to fit.
+	landscape := estimatedWidth(t) > textWidthPt
+	if landscape {
+		b.WriteString("\\begin{landscape}\n")
+	}
+	rows := len(t.Head) + len(t.Body)
+	if rows > longRows {
+		writeLongTable(b, r, spec)
+	} else {
+		fmt.Fprintf(b, "\\begin{table}[!tbp]\n\\centering\n\\caption{%s}\\label{%s}\n", texEscape(t.Caption), texLabel(r))
+		if cols > 7 {
+			b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
+		}
+		// the largest size at which the table fits the line (galleyfit)
+		b.WriteString("\\galleyfit{%\n\\begin{tabular}{" + spec + "}\n\\toprule\n")
+		for _, row := range t.Head {
+			writeTeXRow(b, row, t.Stub, true)
+		}
+		b.WriteString("\\midrule\n")
+		for _, row := range t.Body {
+			if row.RuleAbove {
+				b.WriteString("\\midrule\n")
+			}
+			writeTeXRow(b, row.Cells, t.Stub, false)
+		}
+		b.WriteString("\\bottomrule\n\\end{tabular}}\n")
+		writeTeXNotes(b, t.Notes)
+		b.WriteString("\\end{table}\n")
+	}
+	if landscape {
+		b.WriteString("\\end{landscape}\n")
+	}
+}
+
+// writeLongTable sets a table that breaks across pages: the header
+// repeats on each page, "continued" lines say where it goes on, and the
+// notes follow its last row in the text block.
+func writeLongTable(b *bytes.Buffer, r *engine.Result, spec string) {
+	t := r.Table
+	cols := t.Cols()
+	head := func() {
+		b.WriteString("\\toprule\n")
+		for _, row := range t.Head {
+			writeTeXRow(b, row, t.Stub, true)
+		}
+		b.WriteString("\\midrule\n")
+	}
+	b.WriteString("\\begingroup\\small\n")
 	if cols > 7 {
 		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
 	}
-	b.WriteString("\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{%\n")
-	b.WriteString("\\begin{tabular}{" + spec + "}\n\\toprule\n")
-	for _, row := range t.Head {
-		writeTeXRow(b, row, t.Stub, true)
-	}
-	b.WriteString("\\midrule\n")
+	fmt.Fprintf(b, "\\begin{longtable}{%s}\n\\caption{%s}\\label{%s}\\\\\n", spec, texEscape(t.Caption), texLabel(r))
+	head()
+	b.WriteString("\\endfirsthead\n")
+	fmt.Fprintf(b, "\\multicolumn{%d}{l}{\\emph{\\tablename~\\thetable, continued}}\\\\\n", cols)
+	head()
+	b.WriteString("\\endhead\n")
+	fmt.Fprintf(b, "\\midrule\n\\multicolumn{%d}{r}{\\emph{continued on the next page}}\\\\\n\\endfoot\n\\bottomrule\n\\endlastfoot\n", cols)
 	for _, row := range t.Body {
 		if row.RuleAbove {
 			b.WriteString("\\midrule\n")
 		}
 		writeTeXRow(b, row.Cells, t.Stub, false)
 	}
-	b.WriteString("\\bottomrule\n\\end{tabular}}\n")
+	b.WriteString("\\end{longtable}\n")
 	writeTeXNotes(b, t.Notes)
-	b.WriteString("\\end{table}\n")
+	b.WriteString("\\endgroup\n")
 }
 
 func writeTeXNotes(b *bytes.Buffer, notes []string) {
 	if len(notes) == 0 {
 		return
 	}
-	b.WriteString("\\par\\smallskip\\begin{minipage}{0.9\\linewidth}\\footnotesize\n")
+	b.WriteString("\\par\\smallskip\\noindent\\begin{minipage}{\\linewidth}\\footnotesize\n")
 	for i, n := range notes {
 		if i == 0 {
 			b.WriteString("\\emph{Notes:} ")
@@ -434,8 +699,35 @@ var texReplacer = strings.NewReplacer(
 	"\u0302", "", "\u0303", "", "\u0304", "", "\u2009", `\,`, "\u00a0", "~", "\u2005", " ", "\u2003", `\quad{}`,
 )
 
-// texEscape makes literal text safe in LaTeX's text mode.
-func texEscape(s string) string { return texReplacer.Replace(s) }
+// combiningAccent is a letter with a combining hat, tilde or bar (d̂),
+// which LaTeX sets as math (\hat{d}).
+var combiningAccent = regexp.MustCompile(`(\pL)([\x{0302}\x{0303}\x{0304}])`)
+
+var accentCmd = map[string]string{"\u0302": `\hat`, "\u0303": `\tilde`, "\u0304": `\bar`}
+
+// texEscape makes literal text safe in LaTeX's text mode; control
+// characters are dropped.
+func texEscape(s string) string {
+	s = strings.Map(func(r rune) rune {
+		if r < 0x20 && r != '\n' && r != '\t' || r == 0x7f || r >= 0x80 && r < 0xa0 {
+			return -1
+		}
+		return r
+	}, s)
+	if !combiningAccent.MatchString(s) {
+		return texReplacer.Replace(s)
+	}
+	var b strings.Builder
+	last := 0
+	for _, m := range combiningAccent.FindAllStringSubmatchIndex(s, -1) {
+		b.WriteString(texReplacer.Replace(s[last:m[0]]))
+		letter := texReplacer.Replace(s[m[2]:m[3]])
+		b.WriteString(`\ensuremath{` + accentCmd[s[m[4]:m[5]]] + `{` + letter + `}}`)
+		last = m[1]
+	}
+	b.WriteString(texReplacer.Replace(s[last:]))
+	return b.String()
+}
 
 // texURL escapes the characters that break \href and \url arguments.
 func texURL(s string) string {

@@ -1,0 +1,142 @@
+package main
+
+import (
+	"os"
+
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/write/latex"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+// TestDemoPDF: --to pdf builds the demo paper; its text (pdftotext)
+// shows numbered equations, author-year citations, the reference list,
+// appendix tables, footnote text and no TeX or Markdown leaking through;
+// and each table or figure is set at most two pages after its first
+// reference (the page breaks are pdftotext's form feeds).
+func TestDemoPDF(t *testing.T) {
+	need(t, "pdflatex")
+	out := buildDemoTo(t, "pdf")
+	cmd := exec.Command(need(t, "pdftotext"), "-layout", "paper.pdf", "paper.txt")
+	cmd.Dir = out
+	if b, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("pdftotext: %v\n%s", err, b)
+	}
+	raw, err := os.ReadFile(filepath.Join(out, "paper.txt"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := string(raw)
+	flat := strings.Join(strings.Fields(text), " ")
+	for _, want := range []string{"(1)", "(2)", "(3)", "(Engle and Granger, 1987)", "Dickey and Fuller (1979)",
+		"References", "Engle, Robert F. and C. W. J. Granger (1987). Co-Integration and Error Correction",
+		"MacKinnon, James G. (2010)", "Table A.1", "Table A.2", "A Robustness", "B The data revision",
+		"Because the data are simulated with known parameters", "JEL classification: C22, C32, Q41",
+		"Department of Economics, University of Nowhere"} {
+		if !strings.Contains(flat, want) {
+			t.Errorf("the PDF's text lacks %q", want)
+		}
+	}
+	for _, bad := range []string{`\textbackslash`, "$$", "[@", "[^", `\cite`, "et~al", "??"} {
+		if strings.Contains(text, bad) {
+			t.Errorf("the PDF's text contains %q", bad)
+		}
+	}
+	pages := strings.Split(text, "\f")
+	first, placed := map[string]int{}, map[string]int{}
+	ref := regexp.MustCompile(`(Table|Figure) ([0-9]+|[A-Z]\.[0-9]+)(:?)`)
+	for i, p := range pages {
+		for _, m := range ref.FindAllStringSubmatch(strings.Join(strings.Fields(p), " "), -1) {
+			key := m[1] + " " + m[2]
+			if m[3] == ":" {
+				if _, ok := placed[key]; !ok {
+					placed[key] = i
+				}
+			} else if _, ok := first[key]; !ok {
+				first[key] = i
+			}
+		}
+	}
+	if len(placed) < 20 {
+		t.Fatalf("found %d captions in the PDF text, expected every table and figure", len(placed))
+	}
+	for key, at := range placed {
+		if r, ok := first[key]; ok && at-r > 2 {
+			t.Errorf("%s is set on page %d, %d pages after its first reference (page %d)", key, at+1, at-r, r+1)
+		}
+	}
+}
+
+// TestEquationsInChromium: every display equation of the demo's HTML
+// has a laid-out box of non-zero width and height in headless Chromium
+// (MathML rendered natively; nothing is fetched, as TestHTMLInChromium
+// checks for the page as a whole).
+func TestEquationsInChromium(t *testing.T) {
+	bin := need(t, "chromium")
+	out := buildDemoTo(t, "html")
+	html, err := os.ReadFile(filepath.Join(out, "paper.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := strings.Count(string(html), `<div class="equation"`)
+	if want < 3 {
+		t.Fatalf("the demo has %d display equations", want)
+	}
+	probe := filepath.Join(out, "eq.html")
+	rec := `<script>window.addEventListener("load",function(){var s=[];document.querySelectorAll(".equation math").forEach(function(m){var r=m.getBoundingClientRect();s.push(Math.round(r.width)+"x"+Math.round(r.height))});document.body.setAttribute("data-eq",s.join(" "));document.body.setAttribute("data-fetched",String(performance.getEntriesByType("resource").length))})</script></body>`
+	os.WriteFile(probe, []byte(strings.Replace(string(html), "</body>", rec, 1)), 0o644)
+	cmd := exec.Command(bin, "--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+		"--disable-component-update", "--disable-sync", "--no-first-run", "--user-data-dir="+t.TempDir(),
+		"--window-size=1100,2200", "--virtual-time-budget=3000", "--dump-dom", "file://"+probe)
+	dom, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("chromium: %v", err)
+	}
+	m := regexp.MustCompile(`data-eq="([^"]*)"`).FindSubmatch(dom)
+	if m == nil {
+		t.Fatal("the probe did not run")
+	}
+	boxes := strings.Fields(string(m[1]))
+	if len(boxes) != want {
+		t.Fatalf("%d equation boxes laid out, want %d", len(boxes), want)
+	}
+	for i, b := range boxes {
+		if strings.HasPrefix(b, "0x") || strings.HasSuffix(b, "x0") {
+			t.Errorf("display equation %d has an empty box (%s)", i+1, b)
+		}
+	}
+	if !strings.Contains(string(dom), `data-fetched="0"`) {
+		t.Error("the page fetched resources")
+	}
+}
+
+// TestPDFErrors: a LaTeX error is reported at the manuscript line that
+// produced it; without pdflatex, --to pdf is a clear error.
+func TestPDFErrors(t *testing.T) {
+	need(t, "pdflatex")
+	dir := t.TempDir()
+	p := filepath.Join(dir, "paper.md")
+	os.WriteFile(p, []byte("---\ntitle: T\n---\n\n## One\n\nFine text.\n\nBad math $\\nosuchcommand x$ here.\n"), 0o644)
+	doc, err := engine.Parse(p, engine.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := doc.Run(); err != nil {
+		t.Fatal(err)
+	}
+	tex, err := latex.Write(doc, latex.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = compilePDF(doc, tex)
+	if err == nil || !strings.Contains(err.Error(), "paper.md:9: LaTeX error") || !strings.Contains(err.Error(), "Undefined control sequence") {
+		t.Fatalf("error %v, want one at paper.md:9", err)
+	}
+	t.Setenv("PATH", t.TempDir())
+	if _, err := compilePDF(doc, tex); err == nil || !strings.Contains(err.Error(), "needs pdflatex on the PATH") {
+		t.Fatalf("without pdflatex: %v", err)
+	}
+}
