@@ -11,7 +11,7 @@ import (
 // TestEscaping: series names and labels that mean something to HTML or
 // LaTeX are shown literally in every format, and the LaTeX still compiles.
 func TestEscaping(t *testing.T) {
-	names := []string{"<script>", "a_b%c&d#e$f", `\input{x}`, "}"}
+	names := []string{"<script>", "a_b%c&d#e$f", `\input{x}`, "}", "&amp;&lt;"}
 	dir := t.TempDir()
 	var csv strings.Builder
 	csv.WriteString("date")
@@ -29,7 +29,7 @@ func TestEscaping(t *testing.T) {
 	os.WriteFile(filepath.Join(dir, "data.csv"), []byte(csv.String()), 0o644)
 	q := func(s string) string { return "\"`" + strings.ReplaceAll(s, `\`, `\\`) + "`\"" }
 	doc := "---\ntitle: \"Odd <b>names</b> & 100% {braces}\"\ndata:\n  d: data.csv\n---\n\n" +
-		"```galley summary-stats\nid: desc\ndata: d\nseries: [" + q(names[0]) + ", " + q(names[1]) + ", " + q(names[2]) + ", " + q(names[3]) + "]\ncaption: \"Caption with <i>tags</i>, $dollars$, _under_ & \\\\input{x}\"\n```\n\n" +
+		"```galley summary-stats\nid: desc\ndata: d\nseries: [" + q(names[0]) + ", " + q(names[1]) + ", " + q(names[2]) + ", " + q(names[3]) + ", " + q(names[4]) + "]\ncaption: \"Caption with <i>tags</i>, $dollars$, _under_ & \\\\input{x}\"\n```\n\n" +
 		"```galley ols\nid: m\ndata: d\ny: " + q(names[0]) + "\nx: [" + q(names[1]) + "]\n```\n\nThe name is {{desc.series.0.name}}.\n"
 	paper := filepath.Join(dir, "paper.md")
 	os.WriteFile(paper, []byte(doc), 0o644)
@@ -65,6 +65,10 @@ func TestEscaping(t *testing.T) {
 	md, _ := os.ReadFile(filepath.Join(out, "paper.md"))
 	if strings.Contains(string(md), "<script>") {
 		t.Error("Markdown contains a raw <script>")
+	}
+	// An entity in a name stays text: "&amp;&lt;" must not render as "&<".
+	if !strings.Contains(string(md), `\&amp;\&lt;`) {
+		t.Error(`Markdown leaves the entities in "&amp;&lt;" live`)
 	}
 	if _, err := os.Stat("/usr/bin/pdflatex"); err == nil || os.Getenv("CI") != "" {
 		pdflatex(t, out, "paper.tex")

@@ -265,7 +265,7 @@ func mdCell(c table.Cell) string {
 	return s + strings.Repeat(`\*`, c.Stars) + mdEscape(c.Suffix)
 }
 
-var mdReplacer = strings.NewReplacer(`\`, `\\`, "*", `\*`, "_", `\_`, "|", `\|`, "`", "\\`",
+var mdReplacer = strings.NewReplacer(`\`, `\\`, "&", `\&`, "*", `\*`, "_", `\_`, "|", `\|`, "`", "\\`",
 	"<", `\<`, ">", `\>`, "[", `\[`, "]", `\]`, "#", `\#`, "$", `\$`, "{", `\{`, "}", `\}`)
 
 // mdEscape makes literal text safe in CommonMark inline context.
