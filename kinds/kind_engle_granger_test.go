@@ -299,7 +299,7 @@ func TestEngleGrangerOddNames(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !strings.Contains(string(md), `price\_a&b`) || !strings.Contains(string(md), `\<x\>`) {
+	if !strings.Contains(string(md), `price\_a\&b`) || !strings.Contains(string(md), `\<x\>`) {
 		t.Errorf("Markdown does not escape the odd names:\n%s", md)
 	}
 	st := resultByID(t, d, "odd").Values["static"].(map[string]any)
