@@ -80,6 +80,18 @@ func Parse(b []byte, name string) (*File, error) {
 	if f.Galley == "" || f.Results == nil {
 		return nil, fmt.Errorf("%s: not a galley results file (no \"galley\" version or \"results\")", name)
 	}
+	seen := map[string]bool{}
+	for i, r := range f.Results {
+		switch {
+		case r.ID == "" || r.Kind == "":
+			return nil, fmt.Errorf("%s: result %d has no id or no kind; not a galley results file", name, i+1)
+		case r.Values == nil:
+			return nil, fmt.Errorf("%s: result %q has no values; not a galley results file", name, r.ID)
+		case seen[r.ID]:
+			return nil, fmt.Errorf("%s: two results have the id %q; not a galley results file", name, r.ID)
+		}
+		seen[r.ID] = true
+	}
 	f.Path = name
 	return &f, nil
 }

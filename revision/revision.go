@@ -201,7 +201,8 @@ func Compare(old, new *resultsfile.File, o Options) *Report {
 		}
 		nm[rec.ID] = true
 		prev, ok := om[rec.ID]
-		if !ok {
+		if !ok || prev.Kind != rec.Kind {
+			// Results are the same result only if id and kind agree.
 			r.OnlyNew = append(r.OnlyNew, rec.ID)
 			continue
 		}
@@ -212,8 +213,12 @@ func Compare(old, new *resultsfile.File, o Options) *Report {
 		}
 		r.Items = append(r.Items, it)
 	}
+	nk := map[string]string{}
+	for _, rec := range new.Results {
+		nk[rec.ID] = rec.Kind
+	}
 	for _, rec := range old.Results {
-		if keep(rec.ID) && !nm[rec.ID] {
+		if k, ok := nk[rec.ID]; keep(rec.ID) && (!nm[rec.ID] || !ok || k != rec.Kind) {
 			r.OnlyOld = append(r.OnlyOld, rec.ID)
 		}
 	}
@@ -318,18 +323,26 @@ func compareRecord(old, new resultsfile.Record, o Options) Item {
 			}
 			continue
 		}
-		if x, ok := a.(float64); ok {
-			if y, ok := b.(float64); ok && moved(x, y, o.Tol) {
-				ch := Change{What: describe(k), Old: num(x), New: num(y), Rel: relChange(x, y)}
-				ch.Move, ch.Unit = 100*ch.Rel, "%"
-				if d, unit, ok := scale(of, k, leaf); ok {
-					ch.Move, ch.Unit = (y-x)/d, unit
-				}
-				if seen {
-					it.Moved = append(it.Moved, ch)
-				} else {
-					it.Hidden = append(it.Hidden, ch)
-				}
+		x, xok := a.(float64)
+		y, yok := b.(float64)
+		if !(xok && yok) {
+			// Text, or a number turned into text: reported when it
+			// differs, never silently "unchanged".
+			if !equal(a, b, o.Tol) && (isInteresting(leaf) || seen) {
+				it.Presence = append(it.Presence, Change{What: describe(k), Old: show(a, true), New: show(b, true)})
+			}
+			continue
+		}
+		if moved(x, y, o.Tol) {
+			ch := Change{What: describe(k), Old: num(x), New: num(y), Rel: relChange(x, y)}
+			ch.Move, ch.Unit = 100*ch.Rel, "%"
+			if d, unit, ok := scale(of, k, leaf); ok {
+				ch.Move, ch.Unit = (y-x)/d, unit
+			}
+			if seen {
+				it.Moved = append(it.Moved, ch)
+			} else {
+				it.Hidden = append(it.Hidden, ch)
 			}
 		}
 	}

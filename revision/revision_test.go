@@ -147,3 +147,27 @@ func TestSpecAndInputChanges(t *testing.T) {
 		t.Errorf("inputs %+v", r.InputsChanged)
 	}
 }
+
+// TestCompareTypeAndKind: a number replaced by text is a change, not
+// "unchanged"; results of two different kinds that share an id are not
+// the same result.
+func TestCompareTypeAndKind(t *testing.T) {
+	old := file("paper.md",
+		resultsfile.Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": -3.5, "test": "ADF"}},
+		resultsfile.Record{ID: "m", Kind: "ols", Values: map[string]any{"r2": 0.5}},
+	)
+	new := file("paper.md",
+		resultsfile.Record{ID: "a", Kind: "adf", Values: map[string]any{"stat": "n/a", "test": "ADF"}},
+		resultsfile.Record{ID: "m", Kind: "kpss", Values: map[string]any{"r2": 0.5}},
+	)
+	r := Compare(old, new, Options{})
+	if r.Unchanged != 0 {
+		t.Errorf("%d results reported unchanged", r.Unchanged)
+	}
+	if len(r.Items) != 1 || len(r.Items[0].Presence) != 1 || r.Items[0].Presence[0].New != "n/a" {
+		t.Errorf("the number turned into text is not reported: %+v", r.Items)
+	}
+	if !slices.Contains(r.OnlyOld, "m") || !slices.Contains(r.OnlyNew, "m") {
+		t.Errorf("an ols and a kpss result with one id were paired: only old %v, only new %v", r.OnlyOld, r.OnlyNew)
+	}
+}
