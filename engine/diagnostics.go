@@ -243,7 +243,7 @@ func DiagNote(ds []diagResult) string {
 				break
 			}
 			parts = append(parts, "Durbin–Watson d with its exact p-value P(d ≤ d̂) against positive first-order autocorrelation for normal errors given the regressors (Imhof's inversion), "+
-				"only indicative here since the regressors are lagged values of the dependent variable or built from them (ect(-1), lags of its difference), which biases d toward 2 (common practice: Breusch–Godfrey is the valid test)")
+				"only indicative here since the regressors are lagged values of the dependent variable or built from them (ectₜ₋₁, lags of its difference), which biases d toward 2 (common practice: Breusch–Godfrey is the valid test)")
 		}
 	}
 	return parts[0] + ": " + strings.Join(parts[1:], "; ") + "."

@@ -177,7 +177,11 @@ func Lookup(v any, path []string) (any, error) {
 						names = append(names, name)
 					}
 				}
-				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), manuscript.DidYouMean(p, names))
+				hint := TermHint(p)
+				if hint == "" {
+					hint = manuscript.DidYouMean(p, names)
+				}
+				return nil, fmt.Errorf("%q is not among %s%s", p, strings.Join(path[:i], "."), hint)
 			}
 		case []float64:
 			k, err := strconv.Atoi(p)

@@ -20,7 +20,7 @@ func TestEstimatedEquation(t *testing.T) {
 		fence("engle-granger", "id: eg\ndata: grid\ny: log(north)\nx: [log(fuel)]\n") +
 		fence("ecm", "id: m\nfrom: eg\nlags: 1\n") +
 		"{{fit.label}} is the fitted model.\n\n" +
-		fence("estimated-equation", "id: fit\nof: m\nsymbols: {ect(-1): '\\hat{u}_{t-1}'}\nstats: [nobs, r2]\n")
+		fence("estimated-equation", "id: fit\nof: m\nsymbols:\n  lag(ect,1): '\\hat{u}_{t-1}'\nstats: [nobs, r2]\n")
 	p := writeProject(t, body, map[string]string{"data.csv": string(csv)})
 	doc, h, tex, md := renderAll(t, p)
 	var coefs []map[string]any
@@ -42,7 +42,7 @@ func TestEstimatedEquation(t *testing.T) {
 	wantIn(t, "HTML", h, `<div class="equation" id="eq-fit"><math`, `<span class="eqno">(2)</span>`, `<munder>`, `href="#eq-fit">(2)</a> is the fitted model`)
 	wantIn(t, "Markdown", md, `\tag{2}`, "(2) is the fitted model")
 	if strings.Contains(tex, `\mathit{ect}`) {
-		t.Error("the symbol given for ect(-1) was not used")
+		t.Error("the symbol given for lag(ect,1) was not used")
 	}
 }
 

@@ -1,15 +1,18 @@
 package kinds
 
 import (
+	"regexp"
 	"slices"
 	"sort"
 	"testing"
 
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/table"
 )
 
 // TestProducedValuesAreAccepted: every top-level value a directive
-// produces can be quoted in prose, that is, its kind's Fields list (which
+// produces can be quoted in prose (and no table label is written in the
+// old suffix notation), that is, its kind's Fields list (which
 // `galley check` uses before anything runs) names it. Run on the demo
 // paper and on a manuscript with the kinds the demo lacks.
 func TestProducedValuesAreAccepted(t *testing.T) {
@@ -18,8 +21,25 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 		kinds[k.Name] = k
 	}
 	seen := map[string]bool{}
+	oldNotation := regexp.MustCompile(`\([-+]\d+\)|(^|[^a-z])d\.|^(lag|lead|diff)\(`)
 	check := func(results []*engine.Result) {
 		for _, r := range results {
+			// Row labels and headers are in galley's notation (Δ and time
+			// subscripts), never in the suffix notation "x(-1)", "d.x".
+			if r.Table != nil {
+				var labels []table.Cell
+				for _, h := range r.Table.Head {
+					labels = append(labels, h...)
+				}
+				for _, row := range r.Table.Body {
+					labels = append(labels, row.Cells[:min(r.Table.Stub, len(row.Cells))]...)
+				}
+				for _, l := range labels {
+					if !l.IsNum && oldNotation.MatchString(l.Text) {
+						t.Errorf("%s (%s): the label %q is in the old suffix notation or not typeset", r.ID, r.Kind, l.Text)
+					}
+				}
+			}
 			k := kinds[r.Kind]
 			seen[r.Kind] = true
 			if k == nil || k.Fields == nil {

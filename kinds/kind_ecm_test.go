@@ -84,7 +84,7 @@ func TestECMWiring(t *testing.T) {
 	}
 	v := resultByID(t, doc, "ecm_north").Values
 	checkECM(t, "ecm_north", v, m)
-	wantTerms := []string{"const", "ect(-1)", "d.log(north)(-1)", "d.log(fuel)", "d.log(fuel)(-1)"}
+	wantTerms := []string{"const", "lag(ect,1)", "lag(diff(log(north)),1)", "diff(log(fuel))", "lag(diff(log(fuel)),1)"}
 	for i, w := range wantTerms {
 		if m.Names[i] != w {
 			t.Errorf("term %d = %s, want %s", i, m.Names[i], w)
@@ -110,7 +110,7 @@ func TestECMWiring(t *testing.T) {
 
 	// ecm_south: p = 2, q = 0, HAC(4), an extra regressor whose first two
 	// values are missing (it enters at time t, so the first usable
-	// observation is 2004-04, where the lags of d.log(south) first
+	// observation is 2004-04, where the lags of diff(log(south)) first
 	// exist), diagnostics with orders as written.
 	egs, err := coint.EngleGranger(g.south, [][]float64{g.north}, critical.Const, unitroot.LagRule{Select: unitroot.BIC, Max: 6})
 	if err != nil {

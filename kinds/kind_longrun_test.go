@@ -57,7 +57,7 @@ func TestDOLSWiring(t *testing.T) {
 	wantNum(t, "dols leads", v["leads"], 2)
 	wantNum(t, "dols lags", v["lags"], 3)
 	wantNum(t, "dols bandwidth", v["bandwidth"], 6) // b = L + 1
-	if dyn := v["dynamics"].([]map[string]any); len(dyn) != 6 || dyn[0]["term"] != "d.log(fuel)(-3)" || dyn[5]["term"] != "d.log(fuel)(+2)" {
+	if dyn := v["dynamics"].([]map[string]any); len(dyn) != 6 || dyn[0]["term"] != "lag(diff(log(fuel)),3)" || dyn[5]["term"] != "lead(diff(log(fuel)),2)" {
 		t.Errorf("dynamics terms %v", dyn)
 	}
 	if s := v["sample"].(map[string]any); s["from"] != "2004-05" || s["to"] != "2025-10" || s["n"] != 258 {

@@ -31,13 +31,13 @@ func TestModelTableWiring(t *testing.T) {
 	if h := tab.Head[1]; h[1].Text != "Short run" || h[3].Text != "FMOLS" {
 		t.Errorf("labels %v", h)
 	}
-	if h := tab.Head[2]; h[1].Text != "d.log(north)" || h[2].Text != "log(north)" {
+	if h := tab.Head[2]; h[1].Text != "Δlog(north)" || h[2].Text != "log(north)" {
 		t.Errorf("dependent row %v", h)
 	}
 	for i, term := range union {
 		est, se := tab.Body[2*i].Cells, tab.Body[2*i+1].Cells
-		if est[0].Text != term {
-			t.Fatalf("row %d is %q, want %q", 2*i, est[0].Text, term)
+		if est[0].Plain() != engine.TermText(term) {
+			t.Fatalf("row %d is %q, want %q (the term %s typeset)", 2*i, est[0].Plain(), engine.TermText(term), term)
 		}
 		for j, m := range models {
 			var c map[string]any

@@ -122,10 +122,10 @@ const (
 	ECTName   = ecm.ECTName
 )
 
-// LevelName is the name of v_{t−1}: "v(-1)".
-func LevelName(v string) string { return v + "(-1)" }
+// LevelName is the name of v_{t−1}: "lag(v,1)".
+func LevelName(v string) string { return "lag(" + v + ",1)" }
 
-// DiffName is ecm.DiffName: "d.v" or "d.v(-j)".
+// DiffName is ecm.DiffName: "diff(v)" or "lag(diff(v),j)".
 func DiffName(v string, lag int) string { return ecm.DiffName(v, lag) }
 
 func (in *Input) names() (string, []string, []string, error) {

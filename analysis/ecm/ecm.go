@@ -66,18 +66,21 @@ type Model struct {
 	Adjust      Adjustment
 }
 
-// Term names. The lag of a difference is written "(-j)".
+// Term names, in galley's expression language without spaces: the
+// difference of v is "diff(v)", its lag j "lag(diff(v),j)", and the
+// equilibrium error lagged once "lag(ect,1)". Tables typeset them
+// (Δv_{t−j}); see engine.TermLabel.
 const (
 	ConstName = "const"
-	ECTName   = "ect(-1)"
+	ECTName   = "lag(ect,1)"
 )
 
-// DiffName is the term name of Δv_{t−lag}: "d.v" or "d.v(-lag)".
+// DiffName is the term name of Δv_{t−lag}: "diff(v)" or "lag(diff(v),lag)".
 func DiffName(v string, lag int) string {
 	if lag == 0 {
-		return "d." + v
+		return "diff(" + v + ")"
 	}
-	return fmt.Sprintf("d.%s(-%d)", v, lag)
+	return fmt.Sprintf("lag(diff(%s),%d)", v, lag)
 }
 
 // Estimate builds the error-correction regression and fits it by least

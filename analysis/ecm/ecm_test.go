@@ -93,7 +93,7 @@ func TestAgainstStatsmodels(t *testing.T) {
 				t.Fatalf("%s: names %v, want %v", c.Name, m.Names, c.Names)
 			}
 			for j := range c.Names {
-				if m.Names[j] != c.Names[j] {
+				if m.Names[j] != refdata.TermName(c.Names[j]) {
 					t.Errorf("%s: name %d %q, want %q", c.Name, j, m.Names[j], c.Names[j])
 				}
 				if e := relErr(m.Coef[j].Est, want.Coef[j]); e > tol {

@@ -52,15 +52,17 @@ type DOLSResult struct {
 	IC float64
 }
 
-// LeadLagName is the term name of Δx_{t+j}: "d.x(-2)", "d.x", "d.x(+1)".
+// LeadLagName is the term name of Δx_{t+j}: "lag(diff(x),2)",
+// "diff(x)", "lead(diff(x),1)" (galley's expression language; see
+// ecm.DiffName).
 func LeadLagName(x string, j int) string {
 	switch {
 	case j < 0:
-		return fmt.Sprintf("d.%s(%d)", x, j)
+		return fmt.Sprintf("lag(diff(%s),%d)", x, -j)
 	case j > 0:
-		return fmt.Sprintf("d.%s(+%d)", x, j)
+		return fmt.Sprintf("lead(diff(%s),%d)", x, j)
 	}
-	return "d." + x
+	return "diff(" + x + ")"
 }
 
 // DOLS estimates the cointegrating regression by dynamic OLS (Stock and

@@ -88,7 +88,7 @@ func (s *equationSpec) Run(c *engine.Context) (*engine.Result, error) {
 			for _, c := range m.Coefs {
 				names = append(names, c.Term)
 			}
-			return nil, c.Errorf("symbols", "%q is neither the dependent variable nor a term of %s%s; its terms: %s", term, s.Of, manuscript.DidYouMean(term, names), strings.Join(names, ", "))
+			return nil, c.Errorf("symbols", "%q is neither the dependent variable nor a term of %s%s; its terms: %s", term, s.Of, hint(term, names), strings.Join(names, ", "))
 		}
 	}
 	dec := c.Decimals()
@@ -371,4 +371,13 @@ func balanced(s string) bool {
 		}
 	}
 	return depth == 0
+}
+
+// hint suggests the term meant: its new spelling when written in the old
+// suffix notation, else the closest name.
+func hint(term string, names []string) string {
+	if h := engine.TermHint(term); h != "" {
+		return h
+	}
+	return manuscript.DidYouMean(term, names)
 }

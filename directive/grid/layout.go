@@ -3,6 +3,7 @@ package grid
 import (
 	"slices"
 
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
 )
 
@@ -103,9 +104,9 @@ func (sh gridShow) heading(shown []gridShown) string {
 	case sh.test && len(shown) > 0 && shown[0].testRef != "":
 		return shown[0].testRef + " statistic"
 	case sh.coef && sh.field == "":
-		return sh.term
+		return engine.TermText(sh.term)
 	case sh.coef:
-		return sh.term + " (" + sh.field + ")"
+		return engine.TermText(sh.term) + " (" + sh.field + ")"
 	}
 	return sh.path
 }

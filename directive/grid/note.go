@@ -43,14 +43,14 @@ func (sh gridShow) shownNote(shown []gridShown) string {
 		}
 		fmt.Fprintf(&b, " Shown: %s.", name)
 	case sh.coef && sh.field == "":
-		fmt.Fprintf(&b, " Shown: the coefficient on %s, with its standard error in parentheses below.", sh.term)
+		fmt.Fprintf(&b, " Shown: the coefficient on %s, with its standard error in parentheses below.", engine.TermText(sh.term))
 	case sh.coef:
-		fmt.Fprintf(&b, " Shown: the %s of the coefficient on %s.", map[string]string{"est": "estimate", "se": "standard error", "t": "t-ratio", "p": "p-value"}[sh.field], sh.term)
+		fmt.Fprintf(&b, " Shown: the %s of the coefficient on %s.", map[string]string{"est": "estimate", "se": "standard error", "t": "t-ratio", "p": "p-value"}[sh.field], engine.TermText(sh.term))
 	default:
 		fmt.Fprintf(&b, " Shown: %s.", sh.path)
 	}
 	if slices.ContainsFunc(shown, func(v gridShown) bool { return v.missing }) {
-		fmt.Fprintf(&b, " A blank cell: that regression has no term %s.", sh.term)
+		fmt.Fprintf(&b, " A blank cell: that regression has no term %s.", engine.TermText(sh.term))
 	}
 	return b.String()
 }

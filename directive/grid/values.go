@@ -67,7 +67,7 @@ func (s *gridSpec) resolveShow(c *engine.Context, results []*engine.Result) (gri
 			if s.Show == "" {
 				key = ""
 			}
-			return sh, c.Errorf(key, "show: no cell has the term %q%s; terms: %s", sh.term, manuscript.DidYouMean(sh.term, terms), strings.Join(terms, ", "))
+			return sh, c.Errorf(key, "show: no cell has the term %q%s; terms: %s", sh.term, termHint(sh.term, terms), strings.Join(terms, ", "))
 		}
 		return sh, nil
 	}
@@ -235,4 +235,13 @@ func isInt(v any) bool {
 		return true
 	}
 	return false
+}
+
+// termHint suggests the term meant: its new spelling when written in the
+// old suffix notation, else the closest name.
+func termHint(term string, names []string) string {
+	if h := engine.TermHint(term); h != "" {
+		return h
+	}
+	return manuscript.DidYouMean(term, names)
 }

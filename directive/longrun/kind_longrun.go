@@ -200,7 +200,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
 	t.Body = longRunRows(c, terms, coefs, nd, dec)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.Fit.N)}, RuleAbove: true},
@@ -328,7 +328,7 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
 	t.Body = longRunRows(c, r.Names, r.Table, nd, dec)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.N)}, RuleAbove: true},

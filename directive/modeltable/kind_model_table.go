@@ -131,7 +131,7 @@ func (s *modelTableSpec) head(models []*contract.Model) [][]table.Cell {
 			label = s.Labels[i]
 		}
 		head2 = append(head2, table.T(label))
-		head3 = append(head3, table.T(m.Dependent))
+		head3 = append(head3, engine.TermCell(m.Dependent))
 	}
 	return [][]table.Cell{head1, head2, head3}
 }
@@ -141,7 +141,7 @@ func (s *modelTableSpec) head(models []*contract.Model) [][]table.Cell {
 func coefRows(c *engine.Context, models []*contract.Model, terms []string, dec int) []table.Row {
 	var rows []table.Row
 	for _, term := range terms {
-		est := []table.Cell{table.T(term)}
+		est := []table.Cell{engine.TermCell(term)}
 		se := []table.Cell{table.Empty}
 		for _, m := range models {
 			cf, ok := m.Coef(term)

@@ -1,5 +1,7 @@
 package table
 
+import "strings"
+
 // Table is a formatted result table, independent of output format. All
 // text is literal Unicode; each writer escapes and translates it.
 type Table struct {
@@ -28,6 +30,10 @@ type Cell struct {
 	Paren  bool   // wrap in parentheses (standard errors)
 	Suffix string // literal text after the number, e.g. " [3]" for lags
 	Span   int    // columns spanned (0 or 1: one)
+	// Sub is a subscript after Text (a time index such as "t−1", for a
+	// lagged term): HTML sets it with <sub>, LaTeX in math mode, Markdown
+	// with Unicode subscript characters.
+	Sub string
 }
 
 // T is a text cell.
@@ -46,6 +52,20 @@ func Starred(v float64, dec, stars int) Cell {
 
 // SECell is a standard error in parentheses.
 func SECell(v float64, dec int) Cell { return Cell{Num: v, IsNum: true, Dec: dec, Paren: true} }
+
+// Label is a text cell with a subscript: Label("Δlog(north)", "t−1").
+func Label(text, sub string) Cell { return Cell{Text: text, Sub: sub} }
+
+// Plain is the cell's text with its subscript in Unicode subscript
+// characters, for places without typesetting (plain-text reports).
+func (c Cell) Plain() string { return c.Text + UnicodeSub(c.Sub) }
+
+// UnicodeSub writes s (letters t, digits, + and the minus signs) in
+// Unicode subscript characters, leaving other characters as they are.
+func UnicodeSub(s string) string { return subReplacer.Replace(s) }
+
+var subReplacer = strings.NewReplacer("t", "ₜ", "−", "₋", "-", "₋", "+", "₊",
+	"0", "₀", "1", "₁", "2", "₂", "3", "₃", "4", "₄", "5", "₅", "6", "₆", "7", "₇", "8", "₈", "9", "₉")
 
 // Span is a text cell spanning n columns.
 func Span(s string, n int) Cell { return Cell{Text: s, Span: n} }

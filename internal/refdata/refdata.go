@@ -11,6 +11,8 @@ import (
 	"path/filepath"
 	"runtime"
 	"strconv"
+
+	"github.com/galley-econ/galley/internal/termname"
 )
 
 // Root is the repository's testdata folder.
@@ -99,4 +101,12 @@ func JSONFile(t TB, path string, v any) {
 	if err := json.Unmarshal(b, v); err != nil {
 		t.Fatalf("%s: %v", path, err)
 	}
+}
+
+// TermName translates a term name in the notation the fixture scripts
+// write (statsmodels' style: "ect(-1)", "d.x(-2)") into galley's term
+// names (termname.FromSuffix).
+func TermName(s string) string {
+	n, _ := termname.FromSuffix(s)
+	return n
 }

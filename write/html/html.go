@@ -348,6 +348,9 @@ func writeHTMLTable(w util.BufWriter, t *table.Table) {
 // the decimal points up within a column.
 func htmlCell(c table.Cell) string {
 	if !c.IsNum {
+		if c.Sub != "" {
+			return html.EscapeString(c.Text) + "<sub>" + html.EscapeString(c.Sub) + "</sub>"
+		}
 		return html.EscapeString(c.Text)
 	}
 	s, neg := table.NumText(c)

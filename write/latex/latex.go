@@ -624,13 +624,13 @@ func writeTeXRow(b *bytes.Buffer, cells []table.Cell, stub int, head bool) {
 		case c.IsNum && col >= stub:
 			b.WriteString(texNumCell(c))
 		case col < stub && span == 1:
-			b.WriteString(texEscape(c.Text))
+			b.WriteString(texText(c))
 		default:
 			align := "c"
 			if col < stub {
 				align = "l"
 			}
-			fmt.Fprintf(b, "\\multicolumn{%d}{%s}{%s}", span, align, texEscape(c.Text))
+			fmt.Fprintf(b, "\\multicolumn{%d}{%s}{%s}", span, align, texText(c))
 		}
 		col += span
 	}
@@ -708,6 +708,30 @@ var accentCmd = map[string]string{"\u0302": `\hat`, "\u0303": `\tilde`, "\u0304"
 // texEscape makes literal text safe in LaTeX's text mode; control
 // characters are dropped.
 func texEscape(s string) string {
+	if !subscriptRun.MatchString(s) {
+		return texEscapeText(s)
+	}
+	// A run of Unicode subscript characters (a time index such as ₜ₋₁) is
+	// one subscript in math mode.
+	var b strings.Builder
+	last := 0
+	for _, m := range subscriptRun.FindAllStringIndex(s, -1) {
+		b.WriteString(texEscapeText(s[last:m[0]]))
+		b.WriteString(`\ensuremath{_{` + subscriptTeX.Replace(s[m[0]:m[1]]) + `}}`)
+		last = m[1]
+	}
+	b.WriteString(texEscapeText(s[last:]))
+	return b.String()
+}
+
+// subscriptRun matches Unicode subscript letters, digits and signs.
+var subscriptRun = regexp.MustCompile(`[ₜⱼ₊₋₀-₉]+`)
+
+var subscriptTeX = strings.NewReplacer("ₜ", "t", "ⱼ", "j", "₊", "+", "₋", "-",
+	"₀", "0", "₁", "1", "₂", "2", "₃", "3", "₄", "4", "₅", "5", "₆", "6", "₇", "7", "₈", "8", "₉", "9")
+
+// texEscapeText escapes text that holds no subscript run.
+func texEscapeText(s string) string {
 	s = strings.Map(func(r rune) rune {
 		if r < 0x20 && r != '\n' && r != '\t' || r == 0x7f || r >= 0x80 && r < 0xa0 {
 			return -1
@@ -741,4 +765,13 @@ func hasSpan(cells []table.Cell) bool {
 		}
 	}
 	return false
+}
+
+// texText is a text cell in LaTeX: its text escaped, and its subscript
+// (a time index such as t−1) set in math mode.
+func texText(c table.Cell) string {
+	if c.Sub == "" {
+		return texEscape(c.Text)
+	}
+	return texEscape(c.Text) + `\ensuremath{_{` + strings.NewReplacer("−", "-").Replace(c.Sub) + `}}`
 }

@@ -253,7 +253,7 @@ func mdHeader(t *table.Table, cols int) []string {
 
 func mdCell(c table.Cell) string {
 	if !c.IsNum {
-		return mdEscape(c.Text)
+		return mdEscape(c.Text) + table.UnicodeSub(c.Sub)
 	}
 	s, neg := table.NumText(c)
 	if neg {
