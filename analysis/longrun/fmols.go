@@ -125,6 +125,25 @@ func normalTable(coef []float64, cov mat.Symmetric) []ols.Coef {
 	return out
 }
 
+// ShortSampleError: N = T − 1 observations are too few for a regression
+// on Terms terms (FMOLS and CCR need N > Terms + 1).
+type ShortSampleError struct{ N, Terms int }
+
+func (e *ShortSampleError) Error() string {
+	return fmt.Sprintf("%d observations after differencing for %d terms; more than %d are needed", e.N, e.Terms, e.Terms+1)
+}
+
+// ConstantRegressorError: regressor Index (named Name) takes one value
+// over the estimation sample, so it is not an integrated series.
+type ConstantRegressorError struct {
+	Index int
+	Name  string
+}
+
+func (e *ConstantRegressorError) Error() string {
+	return fmt.Sprintf("regressor %q is constant over the sample; the regressors of a cointegrating relation must be integrated series", e.Name)
+}
+
 // relationStage is the first stage FMOLS and CCR share, on the
 // observations t = 2..T (zero-based 1..T−1, N = T − 1) for which Δx_t
 // exists: the design z_t = (d_t', x_t')', the static OLS fit of y_t on
@@ -160,7 +179,7 @@ func newRelationStage(y []float64, x [][]float64, names []string, det critical.C
 	k := len(x)
 	p := nd + k
 	if n <= p+1 {
-		return nil, fmt.Errorf("%d observations for %d regressors", max(n, 0), p)
+		return nil, &ShortSampleError{N: max(n, 0), Terms: p}
 	}
 	for kk, xc := range x {
 		constant := true
@@ -168,7 +187,7 @@ func newRelationStage(y []float64, x [][]float64, names []string, det critical.C
 			constant = xc[i] == xc[1]
 		}
 		if constant {
-			return nil, fmt.Errorf("regressor %q is constant over the sample; the regressors of a cointegrating relation must be integrated series", xn[kk])
+			return nil, &ConstantRegressorError{Index: kk, Name: xn[kk]}
 		}
 	}
 	st := &relationStage{n: n, nd: nd, k: k, p: p, xn: xn, names: append(detNames(det), xn...)}
