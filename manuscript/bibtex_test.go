@@ -101,7 +101,9 @@ func TestParseBibErrors(t *testing.T) {
 // from memory of those records and are common knowledge of the trade
 // (the same data appear in the reference lists of the textbooks); the
 // MacKinnon (2010) working paper is Queen's Economics Department Working
-// Paper No. 1227. A mistake in either place makes the test fail.
+// Paper No. 1227. Park (1992) was written down from memory and matches
+// the Econometric Society's page of the article (Econometrica 60(1),
+// January 1992, 119–143). A mistake in either place makes the test fail.
 func TestMethodReferences(t *testing.T) {
 	lib, err := MethodLibrary()
 	if err != nil {
@@ -126,6 +128,7 @@ func TestMethodReferences(t *testing.T) {
 		{"stock-watson-1993", "Stock and Watson (1993)", "Econometrica", "61", "4", "783–820"},
 		{"phillips-hansen-1990", "Phillips and Hansen (1990)", "Review of Economic Studies", "57", "1", "99–125"},
 		{"hansen-1992", "Hansen (1992)", "Journal of Business & Economic Statistics", "10", "3", "321–335"},
+		{"park-1992", "Park (1992)", "Econometrica", "60", "1", "119–143"},
 		{"newey-west-1987", "Newey and West (1987)", "Econometrica", "55", "3", "703–708"},
 		{"newey-west-1994", "Newey and West (1994)", "Review of Economic Studies", "61", "4", "631–653"},
 		{"white-1980", "White (1980)", "Econometrica", "48", "4", "817–838"},

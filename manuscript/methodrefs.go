@@ -83,6 +83,10 @@ const MethodBib = `
   author = {Hansen, Bruce E.},
   title = {Tests for Parameter Instability in Regressions with {I(1)} Processes},
   journal = {Journal of Business \& Economic Statistics}, year = {1992}, volume = {10}, number = {3}, pages = {321--335}}
+@article{park-1992,
+  author = {Park, Joon Y.},
+  title = {Canonical Cointegrating Regressions},
+  journal = {Econometrica}, year = {1992}, volume = {60}, number = {1}, pages = {119--143}}
 @article{newey-west-1987,
   author = {Newey, Whitney K. and West, Kenneth D.},
   title = {A Simple, Positive Semi-Definite, Heteroskedasticity and Autocorrelation Consistent Covariance Matrix},

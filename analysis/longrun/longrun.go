@@ -3,7 +3,8 @@
 //	y_t = d_t'δ + x_t'β + u_t,
 //
 // with x_t integrated of order one, by dynamic OLS (Stock and Watson
-// 1993) and fully modified OLS (Phillips and Hansen 1990), and tests
+// 1993), fully modified OLS (Phillips and Hansen 1990) and the canonical
+// cointegrating regression (Park 1992), and tests
 // linear restrictions on β with Wald statistics.
 //
 // The deterministic part d_t is chosen by a critical.Case: none, a

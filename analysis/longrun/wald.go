@@ -19,8 +19,8 @@ type WaldTest struct {
 //	W = (Rβ̂ − r)' (R V R')⁻¹ (Rβ̂ − r),
 //
 // V the covariance of β̂, asymptotically χ²(q) under H₀ for q rows of R
-// (valid for DOLS with a HAC covariance and for FMOLS, whose long-run
-// coefficients have mixed-normal limits). R is q×k with k = len(c.Coef);
+// (valid for DOLS with a HAC covariance and for FMOLS and CCR, whose
+// long-run coefficients have mixed-normal limits). R is q×k with k = len(c.Coef);
 // r may be nil for zeros.
 func Wald(c Coefs, R *mat.Dense, r []float64) (WaldTest, error) {
 	k := len(c.Coef)

@@ -14,7 +14,7 @@ import (
 )
 
 // ecm: a single-equation error-correction model around the long-run
-// relation of an engle-granger, dols or fmols result.
+// relation of an engle-granger, dols, fmols or ccr result.
 type ecmSpec struct {
 	engine.Common `yaml:",inline"`
 	From          string   `yaml:"from"`
@@ -29,7 +29,7 @@ type ecmSpec struct {
 }
 
 // ecmFrom are the kinds whose long-run relation an ecm can use.
-var ecmFrom = []string{"engle-granger", "dols", "fmols"}
+var ecmFrom = []string{"engle-granger", "dols", "fmols", "ccr"}
 
 func init() {
 	engine.Register(engine.Kind{
@@ -85,7 +85,7 @@ func (s *ecmSpec) lagOrders(c *engine.Context) (p, q int, err error) {
 func (s *ecmSpec) settings(c *engine.Context) (contract.LongRun, int, int, ols.CovSpec, []engine.DiagItem, error) {
 	var cov ols.CovSpec
 	if s.From == "" {
-		return contract.LongRun{}, 0, 0, cov, nil, c.Errorf("", "galley ecm: the key \"from\" is required: the id of an engle-granger, dols or fmols result")
+		return contract.LongRun{}, 0, 0, cov, nil, c.Errorf("", "galley ecm: the key \"from\" is required: the id of an engle-granger, dols, fmols or ccr result")
 	}
 	rel, err := s.source(c)
 	if err != nil {
@@ -337,6 +337,8 @@ func fromDesc(kind string) string {
 		return "the residual of the DOLS long-run relation"
 	case "fmols":
 		return "the residual of the FMOLS long-run relation"
+	case "ccr":
+		return "the residual of the CCR long-run relation"
 	}
 	return kind
 }

@@ -1,6 +1,7 @@
 package longrun
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -274,30 +275,70 @@ func (s *dolsSpec) values(st dolsSettings, r *longrun.DOLSResult, nk int, walds 
 }
 
 func (s *fmolsSpec) settings(c *engine.Context) (longrun.FMOLSSpec, error) {
-	var sp longrun.FMOLSSpec
 	det, err := engine.ParseDet(c, s.Det)
 	if err != nil {
-		return sp, err
+		return longrun.FMOLSSpec{}, err
 	}
-	sp.Det = det
-	switch strings.ToLower(s.Kernel) {
+	k, b, err := kernelBandwidth(c, s.Kernel, s.Bandwidth)
+	return longrun.FMOLSSpec{Det: det, Kernel: k, Bandwidth: b}, err
+}
+
+// kernelBandwidth reads the kernel: and bandwidth: keys fmols and ccr
+// share; bandwidth 0 means automatic (Andrews 1991).
+func kernelBandwidth(c *engine.Context, kernel, bandwidth string) (longrun.Kernel, float64, error) {
+	var k longrun.Kernel
+	switch strings.ToLower(kernel) {
 	case "", "bartlett":
-		sp.Kernel = longrun.Bartlett
+		k = longrun.Bartlett
 	case "qs", "quadratic-spectral":
-		sp.Kernel = longrun.QuadraticSpectral
+		k = longrun.QuadraticSpectral
 	default:
-		return sp, c.Errorf("kernel", "kernel: write bartlett or qs (quadratic spectral)")
+		return k, 0, c.Errorf("kernel", "kernel: write bartlett or qs (quadratic spectral)")
 	}
-	switch b := strings.ToLower(strings.TrimSpace(s.Bandwidth)); b {
+	switch b := strings.ToLower(strings.TrimSpace(bandwidth)); b {
 	case "", "auto":
 	default:
 		v, err := strconv.ParseFloat(b, 64)
 		if err != nil || !(v > 0) || math.IsInf(v, 0) {
-			return sp, c.Errorf("bandwidth", "bandwidth: write auto (Andrews 1991) or a positive number")
+			return k, 0, c.Errorf("bandwidth", "bandwidth: write auto (Andrews 1991) or a positive number")
 		}
-		sp.Bandwidth = v
+		return k, v, nil
 	}
-	return sp, nil
+	return k, 0, nil
+}
+
+// relationError places an estimation error of fmols or ccr: too few
+// observations at sample: (or the fence), a constant regressor at its
+// item of x:, anything else at x:.
+func relationError(c *engine.Context, method, y string, x []string, err error) error {
+	var short *longrun.ShortSampleError
+	var flat *longrun.ConstantRegressorError
+	switch {
+	case errors.As(err, &short):
+		key := ""
+		if c.Has("sample") {
+			key = "sample"
+		}
+		return c.Errorf(key, "%s of %s on %s: %v", method, y, strings.Join(x, ", "), short)
+	case errors.As(err, &flat):
+		return c.ItemErrorf("x", flat.Index, "%s of %s on %s: %v", method, y, strings.Join(x, ", "), flat)
+	}
+	msg := strings.TrimPrefix(err.Error(), strings.ToLower(method)+": ")
+	return c.Errorf("x", "%s of %s on %s: %s", method, y, strings.Join(x, ", "), msg)
+}
+
+// bandwidthText says which bandwidth was used and how it was set (given
+// 0 when automatic).
+func bandwidthText(used, given float64) string {
+	if given > 0 {
+		return fmt.Sprintf("bandwidth %g as given", given)
+	}
+	return fmt.Sprintf("bandwidth %.2f chosen by Andrews' (1991) AR(1) rule", used)
+}
+
+// kernelName is the kernel as the notes write it.
+func kernelName(k longrun.Kernel) string {
+	return map[longrun.Kernel]string{longrun.Bartlett: "Bartlett", longrun.QuadraticSpectral: "quadratic-spectral"}[k]
 }
 
 func (s *fmolsSpec) Check(c *engine.Context) error {
@@ -320,7 +361,7 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	restr, _ := parseRestrictions(c, s.Restrict, s.X)
 	r, err := longrun.FMOLS(d.Cols[0], d.Cols[1:], s.X, sp)
 	if err != nil {
-		return nil, c.Errorf("x", "FMOLS of %s on %s: %v", s.Y, strings.Join(s.X, ", "), err)
+		return nil, relationError(c, "FMOLS", s.Y, s.X, err)
 	}
 	nd := sp.Det.Deterministics()
 	walds, err := runWald(c, restr, r.LongRun)
@@ -341,11 +382,8 @@ func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Body = append(t.Body, lcRows...)
 	sd := &engine.Data{Dates: d.Dates[r.First:]}
-	bwText := fmt.Sprintf("bandwidth %.2f chosen by Andrews' (1991) AR(1) rule", r.Bandwidth)
-	if sp.Bandwidth > 0 {
-		bwText = fmt.Sprintf("bandwidth %g as given", sp.Bandwidth)
-	}
-	kname := map[longrun.Kernel]string{longrun.Bartlett: "Bartlett", longrun.QuadraticSpectral: "quadratic-spectral"}[sp.Kernel]
+	bwText := bandwidthText(r.Bandwidth, sp.Bandwidth)
+	kname := kernelName(sp.Kernel)
 	seDesc := fmt.Sprintf("FMOLS, from the long-run variance of the equilibrium error given the regressors' innovations (%s kernel, %s)", kname, bwText)
 	t.Notes = []string{
 		fmt.Sprintf("Fully modified OLS of %s on %s, correcting for endogeneity and serial correlation. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
