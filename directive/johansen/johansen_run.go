@@ -35,7 +35,9 @@ type sysState struct {
 	sim        *sysSim   // crit: simulate (simcrit.go)
 	ex         *sysExtra // dummies and extra regressors (dummies.go)
 	xr         *mat.Dense
-	y          *mat.Dense // the levels of the series (T×K)
+	y          *mat.Dense         // the levels of the series (T×K)
+	boot       *johansen.RankBoot // rank_bootstrap: (rankboot.go)
+	bootSeed   uint64
 }
 
 type sysTest struct {
@@ -150,6 +152,9 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	r := s.res
 	s.trace, s.max = r.Statistics(k.SmallSample)
 	if err := k.chooseRank(c, s, sim); err != nil {
+		return nil, err
+	}
+	if err := k.rankBoot(c, s); err != nil { // rankboot.go
 		return nil, err
 	}
 	s.rank = s.chosen
@@ -343,6 +348,9 @@ func (s *sysState) values() map[string]any {
 	}
 	if s.sim != nil { // crit: simulate (simcrit.go)
 		s.sim.values(v)
+	}
+	if s.boot != nil {
+		v["rank_bootstrap"] = s.bootValues()
 	}
 	if s.vecm == nil {
 		return v
