@@ -82,8 +82,8 @@ func (s *sysState) bootValues() map[string]any {
 // they choose.
 func (s *sysState) bootNote() string {
 	b := s.boot
-	n := fmt.Sprintf("Bootstrap p: the share of %d wild bootstrap trace statistics above the observed one (Cavaliere, Rahbek and Taylor 2012): for each rank r the VECM is estimated under rank r, its residuals multiplied by Rademacher weights (±1), samples built recursively from the first %d observations with the estimates (deterministic terms and dummies included) and the statistic recomputed; seed %d. Testing r = 0, 1, … in turn at %s with these p-values gives rank %d.",
-		b.Reps[0]+b.Failed[0], s.res.Lags+1, s.bootSeed, contract.Pct(s.st.Level), b.Rank(s.st.Level))
+	n := fmt.Sprintf("Bootstrap p: the share of %d wild bootstrap trace statistics above the observed one (Cavaliere, Rahbek and Taylor 2012): for each rank r the VECM is estimated under rank r, its residuals multiplied by Rademacher weights (±1), samples built recursively from the first %s with the estimates (deterministic terms and dummies included) and the statistic recomputed; seed %d. Testing r = 0, 1, … in turn at %s with these p-values gives rank %d.",
+		b.Reps[0]+b.Failed[0], firstObs(s.res.Lags+1), s.bootSeed, contract.Pct(s.st.Level), b.Rank(s.st.Level))
 	var bad []string
 	for r, ok := range b.RootsOK {
 		if !ok {
@@ -101,4 +101,12 @@ func (s *sysState) bootNote() string {
 		n += fmt.Sprintf(" %d bootstrap samples could not be analysed and are left out.", failed)
 	}
 	return n
+}
+
+// firstObs names the n starting values of a recursion.
+func firstObs(n int) string {
+	if n == 1 {
+		return "observation"
+	}
+	return fmt.Sprintf("%d observations", n)
 }
