@@ -80,3 +80,38 @@ func runErr(t *testing.T, doc string, files map[string]string) error {
 	}
 	return d.Run()
 }
+
+// TestJohansenRoots: roots are the companion roots of the VECM's VAR form
+// (analysis/johansen.CompanionRoots, checked against numpy there), the
+// first K − r of them one.
+func TestJohansenRoots(t *testing.T) {
+	doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\n")
+	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})["dk"]
+	res, err := johansen.Test(sysDenmark(t), johansen.RC, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := res.Estimate(1, []int{0})
+	if err != nil {
+		t.Fatal(err)
+	}
+	roots, err := johansen.CompanionRoots(v.VARForm())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(roots) != 8 || sysAt(t, vals, "unit_roots") != 3 {
+		t.Fatalf("%d roots, unit_roots %v", len(roots), vals["unit_roots"])
+	}
+	for i, z := range roots {
+		if got := sysAt(t, vals, "roots", i, "re"); got != real(z) {
+			t.Errorf("root %d re %g, analysis %g", i, got, real(z))
+		}
+		m := sysAt(t, vals, "roots", i, "modulus")
+		if i < 3 && !sysNear(m, 1, 1e-9) {
+			t.Errorf("root %d has modulus %.12g, want a unit root", i, m)
+		}
+		if i >= 3 && m >= 1 {
+			t.Errorf("root %d has modulus %g beyond the unit roots", i, m)
+		}
+	}
+}

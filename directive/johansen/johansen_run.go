@@ -2,6 +2,7 @@ package johansen
 
 import (
 	"fmt"
+	"math/cmplx"
 	"regexp"
 	"slices"
 	"strconv"
@@ -368,6 +369,13 @@ func (s *sysState) values() map[string]any {
 		}
 	}
 	v["beta"], v["beta_se"], v["alpha"], v["alpha_se"] = beta, betaSE, alpha, alphaSE
+	if roots, err := johansen.CompanionRoots(m.VARForm()); err == nil {
+		rs := make([]map[string]any, len(roots))
+		for i, z := range roots {
+			rs[i] = map[string]any{"re": real(z), "im": imag(z), "modulus": cmplx.Abs(z)}
+		}
+		v["roots"], v["unit_roots"] = rs, r.K-s.rank
+	}
 	rel := make([]map[string]any, 0, s.rank)
 	for _, z := range s.relations() {
 		rel = append(rel, z.ResultsForm())

@@ -82,7 +82,7 @@ type varLagsSpec struct {
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
 	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
-	"relations", "dummies", "rank_bootstrap", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+	"relations", "dummies", "rank_bootstrap", "roots", "unit_roots", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
 	engine.Register(engine.Kind{Name: "johansen", Simulate: true, Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
