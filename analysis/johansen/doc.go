@@ -8,11 +8,18 @@
 // the trace and maximum-eigenvalue rank tests with critical values, the
 // Reinsel–Ahn small-sample factor, sequential rank choice, lag-order
 // criteria, the estimated α, β, Π = αβ' and short-run coefficients with
-// standard errors, and likelihood-ratio tests of linear restrictions on β
-// and α.
+// standard errors, likelihood-ratio tests of linear restrictions on β
+// and α, wild bootstrap p-values of the trace tests and the companion
+// roots of a VAR.
 //
 // References:
 //
+//	Cavaliere, G., Rahbek, A. and Taylor, A. M. R. (2012). Bootstrap
+//	  determination of the co-integration rank in vector autoregressive
+//	  models. Econometrica 80, 1721–1740.
+//	Cavaliere, G., Rahbek, A. and Taylor, A. M. R. (2014). Bootstrap
+//	  determination of the co-integration rank in heteroskedastic VAR
+//	  models. Econometric Reviews 33, 606–650.
 //	Johansen, S. (1988). Statistical analysis of cointegration vectors.
 //	  Journal of Economic Dynamics and Control 12, 231–254.
 //	Johansen, S. (1991). Estimation and hypothesis testing of cointegration
@@ -20,6 +27,8 @@
 //	  1551–1580.
 //	Johansen, S. (1995). Likelihood-Based Inference in Cointegrated Vector
 //	  Autoregressive Models. Oxford University Press.
+//	Lütkepohl, H. (2005). New Introduction to Multiple Time Series
+//	  Analysis. Springer.
 //	Osterwald-Lenum, M. (1992). A note with quantiles of the asymptotic
 //	  distribution of the maximum likelihood cointegration rank test
 //	  statistics. Oxford Bulletin of Economics and Statistics 54, 461–472.

@@ -255,8 +255,10 @@ func (s *responsesSpec) figure(c *engine.Context, m *model, p irfPaths, ri, si [
 					series.Series{Name: fmt.Sprintf("%s band", pctText(s.coverage())), Dates: dates, Values: p.lower(i, j)},
 					series.Series{Name: "", Dates: dates, Values: p.upper(i, j)})
 			}
-			panels = append(panels, figures.Panel{Series: ss, YLabel: m.names[i] + " ← " + m.names[j]})
-			labels = append(labels, m.names[i]+" ← "+m.names[j])
+			// "RESPONSE to SHOCK": plain text, which every output font
+			// (the PDF's included) can set.
+			panels = append(panels, figures.Panel{Series: ss, YLabel: m.names[i] + " to " + m.names[j]})
+			labels = append(labels, m.names[i]+" to "+m.names[j])
 		}
 	}
 	o := figures.Options{Width: s.Width, Height: s.Height, XLabel: "Periods after the shock", PanelLabels: labels, Legend: figures.LegendNone}

@@ -116,6 +116,9 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 	if err := k.checkRank(c); err != nil {
 		return st, err
 	}
+	if err := k.checkRankBoot(c); err != nil {
+		return st, err
+	}
 	st.Coefs = slices.Clone(k.Series)
 	switch st.Case {
 	case johansen.RC:

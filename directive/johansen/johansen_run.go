@@ -2,6 +2,7 @@ package johansen
 
 import (
 	"fmt"
+	"math/cmplx"
 	"regexp"
 	"slices"
 	"strconv"
@@ -35,7 +36,9 @@ type sysState struct {
 	sim        *sysSim   // crit: simulate (simcrit.go)
 	ex         *sysExtra // dummies and extra regressors (dummies.go)
 	xr         *mat.Dense
-	y          *mat.Dense // the levels of the series (T×K)
+	y          *mat.Dense         // the levels of the series (T×K)
+	boot       *johansen.RankBoot // rank_bootstrap: (rankboot.go)
+	bootSeed   uint64
 }
 
 type sysTest struct {
@@ -150,6 +153,9 @@ func (k *SystemKeys) run(c *engine.Context) (*sysState, error) {
 	r := s.res
 	s.trace, s.max = r.Statistics(k.SmallSample)
 	if err := k.chooseRank(c, s, sim); err != nil {
+		return nil, err
+	}
+	if err := k.rankBoot(c, s); err != nil { // rankboot.go
 		return nil, err
 	}
 	s.rank = s.chosen
@@ -344,6 +350,9 @@ func (s *sysState) values() map[string]any {
 	if s.sim != nil { // crit: simulate (simcrit.go)
 		s.sim.values(v)
 	}
+	if s.boot != nil {
+		v["rank_bootstrap"] = s.bootValues()
+	}
 	if s.vecm == nil {
 		return v
 	}
@@ -360,6 +369,13 @@ func (s *sysState) values() map[string]any {
 		}
 	}
 	v["beta"], v["beta_se"], v["alpha"], v["alpha_se"] = beta, betaSE, alpha, alphaSE
+	if roots, err := johansen.CompanionRoots(m.VARForm()); err == nil {
+		rs := make([]map[string]any, len(roots))
+		for i, z := range roots {
+			rs[i] = map[string]any{"re": real(z), "im": imag(z), "modulus": cmplx.Abs(z)}
+		}
+		v["roots"], v["unit_roots"] = rs, r.K-s.rank
+	}
 	rel := make([]map[string]any, 0, s.rank)
 	for _, z := range s.relations() {
 		rel = append(rel, z.ResultsForm())

@@ -39,6 +39,7 @@ type SystemKeys struct {
 	Restrict    sysHypotheses         `yaml:"restrict"`
 	ExogTests   []manuscript.NameList `yaml:"exogeneity_tests"`
 	Decimals    *int                  `yaml:"decimals"`
+	RankBoot    *RankBootKeys         `yaml:"rank_bootstrap"`
 
 	// Dummies and conditioning regressors (dummies.go).
 	Seasonal bool                `yaml:"seasonal"`
@@ -81,7 +82,7 @@ type varLagsSpec struct {
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
 	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
-	"relations", "dummies", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+	"relations", "dummies", "rank_bootstrap", "roots", "unit_roots", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
 
 func init() {
 	engine.Register(engine.Kind{Name: "johansen", Simulate: true, Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
@@ -113,9 +114,13 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		dec = *s.Decimals
 	}
 	r := st.res
+	traceHead := []table.Cell{table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")}
+	if st.boot != nil {
+		traceHead = append(traceHead, table.T("Bootstrap p"))
+	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{
-		{table.Empty, table.Empty, table.Span("Trace", 4), table.Span("Maximum eigenvalue", 4)},
-		{table.T("Rank r"), table.T("Eigenvalue"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%"), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")},
+		{table.Empty, table.Empty, table.Span("Trace", len(traceHead)), table.Span("Maximum eigenvalue", 4)},
+		append(append([]table.Cell{table.T("Rank r"), table.T("Eigenvalue")}, traceHead...), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")),
 	}}
 	stars := func(stat float64, cv [3]float64) int {
 		n := 0
@@ -131,6 +136,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		for _, v := range st.crT[i] {
 			row = append(row, table.N(v, 2))
 		}
+		if st.boot != nil {
+			row = append(row, table.N(st.boot.PValue[i], 3))
+		}
 		row = append(row, table.Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
 		for _, v := range st.crM[i] {
 			row = append(row, table.N(v, 2))
@@ -141,6 +149,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	t.Notes = append(t.Notes, st.ex.notes...)
 	if st.sim != nil { // crit: simulate (simcrit.go)
 		t.Notes = append(t.Notes, st.sim.mcseNote())
+	}
+	if st.boot != nil {
+		t.Notes = append(t.Notes, st.bootNote())
 	}
 	if s.SmallSample {
 		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))
