@@ -37,19 +37,6 @@ type dolsSpec struct {
 	Decimals      *int     `yaml:"decimals"`
 }
 
-type fmolsSpec struct {
-	engine.Common `yaml:",inline"`
-	Data          string   `yaml:"data"`
-	Y             string   `yaml:"y"`
-	X             []string `yaml:"x"`
-	Det           string   `yaml:"det"`
-	Sample        string   `yaml:"sample"`
-	Kernel        string   `yaml:"kernel"`
-	Bandwidth     string   `yaml:"bandwidth"`
-	Restrict      []string `yaml:"restrict"`
-	Decimals      *int     `yaml:"decimals"`
-}
-
 // longrunFields are the values both estimators report; dolsFields and
 // fmolsFields add their own.
 var (
@@ -61,17 +48,10 @@ var (
 func init() {
 	engine.Register(engine.Kind{Name: "dols", Summary: "dynamic OLS estimate of a cointegrating relation, with Wald tests", Fields: dolsFields, Model: true,
 		New: func() engine.Directive { return &dolsSpec{} }})
-	engine.Register(engine.Kind{Name: "fmols", Summary: "fully modified OLS estimate of a cointegrating relation, with Wald tests", Fields: fmolsFields, Model: true,
-		New: func() engine.Directive { return &fmolsSpec{} }})
 }
 
 // Relation says where the long-run relation was estimated.
 func (s *dolsSpec) Relation() contract.LongRun {
-	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
-}
-
-// Relation says where the long-run relation was estimated.
-func (s *fmolsSpec) Relation() contract.LongRun {
 	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
 }
 
@@ -274,15 +254,6 @@ func (s *dolsSpec) values(st dolsSettings, r *longrun.DOLSResult, nk int, walds 
 	return vals
 }
 
-func (s *fmolsSpec) settings(c *engine.Context) (longrun.FMOLSSpec, error) {
-	det, err := engine.ParseDet(c, s.Det)
-	if err != nil {
-		return longrun.FMOLSSpec{}, err
-	}
-	k, b, err := kernelBandwidth(c, s.Kernel, s.Bandwidth)
-	return longrun.FMOLSSpec{Det: det, Kernel: k, Bandwidth: b}, err
-}
-
 // kernelBandwidth reads the kernel: and bandwidth: keys fmols and ccr
 // share; bandwidth 0 means automatic (Andrews 1991).
 func kernelBandwidth(c *engine.Context, kernel, bandwidth string) (longrun.Kernel, float64, error) {
@@ -339,70 +310,6 @@ func bandwidthText(used, given float64) string {
 // kernelName is the kernel as the notes write it.
 func kernelName(k longrun.Kernel) string {
 	return map[longrun.Kernel]string{longrun.Bartlett: "Bartlett", longrun.QuadraticSpectral: "quadratic-spectral"}[k]
-}
-
-func (s *fmolsSpec) Check(c *engine.Context) error {
-	if err := checkRelation(c, "fmols", s.Data, s.Y, s.X, s.Det, s.Sample, s.Restrict); err != nil {
-		return err
-	}
-	_, err := s.settings(c)
-	return err
-}
-
-func (s *fmolsSpec) Run(c *engine.Context) (*engine.Result, error) {
-	sp, err := s.settings(c)
-	if err != nil {
-		return nil, err
-	}
-	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
-	if err != nil {
-		return nil, err
-	}
-	restr, _ := parseRestrictions(c, s.Restrict, s.X)
-	r, err := longrun.FMOLS(d.Cols[0], d.Cols[1:], s.X, sp)
-	if err != nil {
-		return nil, relationError(c, "FMOLS", s.Y, s.X, err)
-	}
-	nd := sp.Det.Deterministics()
-	walds, err := runWald(c, restr, r.LongRun)
-	if err != nil {
-		return nil, err
-	}
-	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
-	t.Body = longRunRows(c, r.Names, r.Table, nd, dec)
-	t.Body = append(t.Body,
-		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.N)}, RuleAbove: true},
-		table.Row{Cells: []table.Cell{table.T("Bandwidth"), table.N(r.Bandwidth, 2)}},
-	)
-	t.Body = append(t.Body, waldRows(walds, dec)...)
-	lcRows, lcNote, lcVals, err := lcBlock(c, d.Cols[0], d.Cols[1:], sp.Det, r, dec) // lc_rows.go
-	if err != nil {
-		return nil, err
-	}
-	t.Body = append(t.Body, lcRows...)
-	sd := &engine.Data{Dates: d.Dates[r.First:]}
-	bwText := bandwidthText(r.Bandwidth, sp.Bandwidth)
-	kname := kernelName(sp.Kernel)
-	seDesc := fmt.Sprintf("FMOLS, from the long-run variance of the equilibrium error given the regressors' innovations (%s kernel, %s)", kname, bwText)
-	t.Notes = []string{
-		fmt.Sprintf("Fully modified OLS of %s on %s, correcting for endogeneity and serial correlation. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",
-			s.Y, strings.Join(s.X, ", "), contract.DetNames[sp.Det], seDesc),
-	}
-	if w := waldNote(walds); w != "" {
-		t.Notes = append(t.Notes, w)
-	}
-	t.Notes = append(t.Notes, lcNote, c.StarNote()+" "+sd.SampleNote())
-	vals := map[string]any{
-		"coef": engine.CoefValues(r.Names, r.Table), "nobs": r.N, "wald": waldValues(walds), "lc": lcVals,
-		"bandwidth": r.Bandwidth, "kernel": strings.ToLower(kname), "cov": "fmols", "se_desc": seDesc, "det": sp.Det.String(),
-		"y": s.Y, "x": append([]string(nil), s.X...),
-		"sample": engine.SampleValues(sd),
-	}
-	res := &engine.Result{Table: t, Values: vals, Cites: []string{"phillips-hansen-1990", "hansen-1992"}}
-	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], sp.Det, r.Coef)))
-	res.Model = engine.ModelOf("FMOLS", s.Y, r.Names, r.Table, vals, true, "")
-	return res, nil
 }
 
 // longRunRows shows the long-run coefficients first, then the
