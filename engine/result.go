@@ -172,3 +172,42 @@ func (r *Result) SetSeries(name string, s contract.Dated) {
 	r.Series[name] = s
 	r.Values[name] = s.ResultsForm()
 }
+
+// Renderer draws a figure in a format ("svg", "pdf", "png") at a
+// resolution in dots per inch (figures.Figure is one).
+type Renderer interface {
+	Render(format string, dpi int) ([]byte, error)
+}
+
+// DrawnFigure is the result of a figure directive: the figure's size
+// (inches) in vals and, unless this is the nested build of another
+// vintage (which compares values only and draws nothing), its SVG and PDF
+// and their files under FigureFolder, with PNG on demand.
+func DrawnFigure(c *Context, r Renderer, w, h float64, vals map[string]any, notes []string) (*Result, error) {
+	vals["width"], vals["height"] = w, h
+	if c.Nested() {
+		return &Result{Values: vals, Figure: &Figure{Width: w, Height: h, Notes: notes}}, nil
+	}
+	svg, err := r.Render("svg", 0)
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	pdf, err := r.Render("pdf", 0)
+	if err != nil {
+		return nil, c.Errorf("", "%v", err)
+	}
+	id := c.ID()
+	vals["files"] = map[string]any{"svg": FigureFolder + "/" + id + ".svg", "pdf": FigureFolder + "/" + id + ".pdf"}
+	return &Result{Values: vals, Figure: &Figure{SVG: svg, PDF: pdf, Width: w, Height: h, Notes: notes,
+		PNGAt: func(dpi int) ([]byte, error) { return r.Render("png", dpi) }}}, nil
+}
+
+// FirstSet is the first of keys the directive's YAML sets, or "".
+func (c *Context) FirstSet(keys ...string) string {
+	for _, k := range keys {
+		if c.Has(k) {
+			return k
+		}
+	}
+	return ""
+}

@@ -168,9 +168,9 @@ func (s *ardlSpec) estimateError(c *engine.Context, err error, d *engine.Data) e
 	key := "lags"
 	switch {
 	case strings.Contains(msg, "collinear"):
-		key = firstSet(c, "x", "extra")
+		key = c.FirstSet("x", "extra")
 	case strings.Contains(msg, "observations") || strings.Contains(msg, "beyond"):
-		key = firstSet(c, "lags", "sample", "x")
+		key = c.FirstSet("lags", "sample", "x")
 	}
 	if !c.Has(key) {
 		key = ""
@@ -204,16 +204,6 @@ func asymmetry(c *engine.Context, m *ardl.Model, xNames []string, pairs []ardl.P
 		out.mults = append(out.mults, contract.Multiplier{Name: p.Name, Pos: mu.Pos, Neg: mu.Neg, Asym: mu.Asym, LongPos: mu.LongPos, LongNeg: mu.LongNeg})
 	}
 	return out, nil
-}
-
-// firstSet returns the first of keys the directive sets ("" if none).
-func firstSet(c *engine.Context, keys ...string) string {
-	for _, k := range keys {
-		if c.Has(k) {
-			return k
-		}
-	}
-	return ""
 }
 
 // fValues returns the values of an F test.

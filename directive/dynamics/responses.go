@@ -276,23 +276,7 @@ func (s *responsesSpec) figure(c *engine.Context, m *model, p irfPaths, ri, si [
 // unless nested (a revision's build of another vintage, which compares
 // values only) its SVG and PDF and their files.
 func renderFigure(c *engine.Context, fig *figures.Figure, vals map[string]any, notes []string) (*engine.Result, error) {
-	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
-	vals["width"], vals["height"] = w, h
-	if c.Nested() {
-		return &engine.Result{Values: vals, Figure: &engine.Figure{Width: w, Height: h, Notes: notes}}, nil
-	}
-	svg, err := fig.Render("svg", 0)
-	if err != nil {
-		return nil, c.Errorf("", "%v", err)
-	}
-	pdf, err := fig.Render("pdf", 0)
-	if err != nil {
-		return nil, c.Errorf("", "%v", err)
-	}
-	id := c.ID()
-	vals["files"] = map[string]any{"svg": engine.FigureFolder + "/" + id + ".svg", "pdf": engine.FigureFolder + "/" + id + ".pdf"}
-	return &engine.Result{Values: vals, Figure: &engine.Figure{SVG: svg, PDF: pdf, Width: w, Height: h, Notes: notes,
-		PNGAt: func(dpi int) ([]byte, error) { return fig.Render("png", dpi) }}}, nil
+	return engine.DrawnFigure(c, fig, float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch), vals, notes)
 }
 
 // note returns the figure's note: the responses, the identification and

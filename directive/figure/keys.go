@@ -71,10 +71,10 @@ func (s *figureSpec) checkCommon(c *engine.Context, p string) error {
 // an ecm) result, or y and x written out; it returns the first error.
 func (s *figureSpec) checkRegression(c *engine.Context, p string) error {
 	if len(s.exprs()) > 0 || s.Residuals != "" || c.Has("relation") {
-		return c.Errorf(firstSet(c, "series", "panels", "residuals", "relation"), "plot %s draws a regression: give of (an ols id) or y and x, not series, panels, residuals or relation", p)
+		return c.Errorf(c.FirstSet("series", "panels", "residuals", "relation"), "plot %s draws a regression: give of (an ols id) or y and x, not series, panels, residuals or relation", p)
 	}
 	if s.Of != "" {
-		if k := firstSet(c, "y", "x", "const", "data", "sample"); k != "" {
+		if k := c.FirstSet("y", "x", "const", "data", "sample"); k != "" {
 			return c.Errorf(k, "with of, the regression (its data, y, x, const and sample) comes from %q; drop %s", s.Of, k)
 		}
 		if p == "actual-fitted" {
@@ -98,7 +98,7 @@ func (s *figureSpec) checkRegression(c *engine.Context, p string) error {
 // expressions in series or panels, or residuals naming a result; it
 // returns the first error.
 func (s *figureSpec) checkSeries(c *engine.Context, p string) error {
-	if k := firstSet(c, "of", "y", "x", "const", "coef"); k != "" {
+	if k := c.FirstSet("of", "y", "x", "const", "coef"); k != "" {
 		return c.Errorf(k, "%s belongs to the regression plots (actual-fitted, cusum, cusumsq, recursive), not to plot %s", k, p)
 	}
 	ex := s.exprs()
@@ -115,7 +115,7 @@ func (s *figureSpec) checkSeries(c *engine.Context, p string) error {
 		return c.Errorf("panels", "give either series or panels, not both")
 	}
 	if (p == "residuals" || p == "acf") && len(ex) != 1 {
-		return c.Errorf(firstSet(c, "series", "panels"), "plot %s draws one series; %d are given", p, len(ex))
+		return c.Errorf(c.FirstSet("series", "panels"), "plot %s draws one series; %d are given", p, len(ex))
 	}
 	if p == "lines" && len(s.Panels) > 0 {
 		return c.Errorf("panels", "plot lines draws one panel; use plot panels (or leave plot out) to stack panels")
@@ -131,7 +131,7 @@ func (s *figureSpec) checkSeries(c *engine.Context, p string) error {
 // ex; it returns the first error.
 func (s *figureSpec) checkResiduals(c *engine.Context, p string, ex []string) error {
 	if len(ex) > 0 {
-		return c.Errorf(firstSet(c, "series", "panels"), "give either residuals or series, not both")
+		return c.Errorf(c.FirstSet("series", "panels"), "give either residuals or series, not both")
 	}
 	if p != "residuals" && p != "acf" {
 		return c.Errorf("residuals", "residuals can be drawn with plot residuals or acf, not %s", p)
@@ -146,14 +146,4 @@ func (s *figureSpec) checkResiduals(c *engine.Context, p string, ex []string) er
 		return c.Errorf("relation", "relation %d: relations are numbered from 1", *s.Relation)
 	}
 	return nil
-}
-
-// firstSet is the first of keys the directive's YAML sets ("" if none).
-func firstSet(c *engine.Context, keys ...string) string {
-	for _, k := range keys {
-		if c.Has(k) {
-			return k
-		}
-	}
-	return ""
 }

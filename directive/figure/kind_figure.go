@@ -146,29 +146,7 @@ func (s *figureSpec) Run(c *engine.Context) (*engine.Result, error) {
 
 // finish renders the figure and fills in its size and files.
 func (s *figureSpec) finish(c *engine.Context, fig *figures.Figure, vals map[string]any) (*engine.Result, error) {
-	w, h := float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch)
-	if c.Nested() {
-		// Inside a revision report's build of another vintage only the
-		// values are compared; the drawing is skipped.
-		vals["width"], vals["height"] = w, h
-		return &engine.Result{Values: vals, Figure: &engine.Figure{Width: w, Height: h, Notes: s.notes}}, nil
-	}
-	svg, err := fig.Render("svg", 0)
-	if err != nil {
-		return nil, c.Errorf("", "%v", err)
-	}
-	pdf, err := fig.Render("pdf", 0)
-	if err != nil {
-		return nil, c.Errorf("", "%v", err)
-	}
-	vals["width"], vals["height"] = w, h
-	id := c.ID()
-	vals["files"] = map[string]any{"svg": engine.FigureFolder + "/" + id + ".svg", "pdf": engine.FigureFolder + "/" + id + ".pdf"}
-	res := &engine.Result{Values: vals, Figure: &engine.Figure{
-		SVG: svg, PDF: pdf, Width: w, Height: h, Notes: s.notes,
-		PNGAt: func(dpi int) ([]byte, error) { return fig.Render("png", dpi) },
-	}}
-	return res, nil
+	return engine.DrawnFigure(c, fig, float64(fig.Width/vg.Inch), float64(fig.Height/vg.Inch), vals, s.notes)
 }
 
 // span is the first and last date over the series and the number of

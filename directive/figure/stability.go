@@ -30,7 +30,7 @@ func (s *figureSpec) runStability(c *engine.Context, p string, o *figures.Option
 	vals["alpha"] = alpha
 	rec, err := stability.Compute(ds.y, ds.x)
 	if err != nil {
-		return nil, drawn{}, c.Errorf(firstSet(c, "of", "x"), "recursive residuals: %v", err)
+		return nil, drawn{}, c.Errorf(c.FirstSet("of", "x"), "recursive residuals: %v", err)
 	}
 	if rec.Residuals() < 3 {
 		return nil, drawn{}, c.Errorf("", "only %d recursive residuals in %s: too few to draw", rec.Residuals(), ds.d.Range())
