@@ -91,6 +91,18 @@ func ModelOf(method, dep string, terms []string, coefs []ols.Coef, vals map[stri
 			m.Stats["dw"] = d.Stat
 		}
 	}
+	// A HAC covariance is one fact, its truncation lag L, which the
+	// model's own note gives ("Bartlett kernel, 4 lags"): the model carries
+	// it as hac_lags, and not also as the Bartlett bandwidth L + 1 that
+	// some results store beside it (a model table would otherwise show 5
+	// beside a table that says 4 lags). bandwidth remains the bandwidth of
+	// a kernel estimator chosen as such (FMOLS).
+	if s, ok := vals["cov"].(string); ok {
+		if cv, err := ols.ParseCov(s); err == nil && cv.Kind == ols.HAC {
+			m.Stats["hac_lags"] = float64(cv.Lags)
+			delete(m.Stats, "bandwidth")
+		}
+	}
 	m.SE, _ = vals["se_desc"].(string)
 	if m.SE == "" {
 		if s, ok := vals["cov"].(string); ok {

@@ -6,7 +6,12 @@ import (
 	"github.com/galley-econ/galley/analysis/simulate"
 )
 
-// crit: simulate — the keys crit:, reps: and seed: and their defaults.
+// crit: simulate — the keys crit:, replications: and seed: and their
+// defaults. replications: was called reps: before; that spelling is
+// refused with an error naming the new one (the formerly tag, read by
+// manuscript.CheckKeys). crit: and seed: keep their names: "critical
+// value" and "seed" are the trade's words, shared by every program that
+// simulates.
 
 // Defaults of crit: simulate.
 //
@@ -16,7 +21,7 @@ import (
 // a table prints, and the 1% value about 0.02, while one such run takes
 // well under a second on two cores. Larger systems cost more per
 // replication (Johansen with 6 series at T = 10,000 takes minutes), and
-// their authors can lower reps: or accept the one-off cost, since the
+// their authors can lower replications: or accept the one-off cost, since the
 // table is stored.
 //
 // DefaultSimSeed = 1: a fixed seed, so that a build is reproducible and
@@ -26,12 +31,12 @@ const (
 	DefaultSimSeed = 1
 )
 
-// SimKeys are the crit:, reps: and seed: keys (exported only so that the
-// YAML decoder sees the embedded fields).
+// SimKeys are the crit:, replications: and seed: keys (exported only so
+// that the YAML decoder sees the embedded fields).
 type SimKeys struct {
-	Crit string `yaml:"crit"`
-	Reps *int   `yaml:"reps"`
-	Seed *int64 `yaml:"seed"`
+	Crit         string `yaml:"crit"`
+	Replications *int   `yaml:"replications" formerly:"reps"`
+	Seed         *int64 `yaml:"seed"`
 }
 
 // SimSettings is a validated crit: simulate.
@@ -49,8 +54,8 @@ func (k *SimKeys) simulated() bool { return strings.EqualFold(strings.TrimSpace(
 func (k *SimKeys) Settings(c *Context) (*SimSettings, error) {
 	switch strings.ToLower(strings.TrimSpace(k.Crit)) {
 	case "", "table":
-		if c.Has("reps") {
-			return nil, c.Errorf("reps", "reps applies only with crit: simulate")
+		if c.Has("replications") {
+			return nil, c.Errorf("replications", "replications applies only with crit: simulate")
 		}
 		if c.Has("seed") {
 			return nil, c.Errorf("seed", "seed applies only with crit: simulate")
@@ -70,11 +75,11 @@ func (k *SimKeys) Settings(c *Context) (*SimSettings, error) {
 		return nil, c.Errorf("crit", "crit: simulate is available for %s, not for %s", strings.Join(can, ", "), c.b.kind.Name)
 	}
 	s := &SimSettings{Reps: DefaultSimReps, Seed: DefaultSimSeed}
-	if k.Reps != nil {
-		if *k.Reps < simulate.MinReps || *k.Reps > simulate.MaxReps {
-			return nil, c.Errorf("reps", "reps must be %d..%d replications, not %d", simulate.MinReps, simulate.MaxReps, *k.Reps)
+	if k.Replications != nil {
+		if r := *k.Replications; r < simulate.MinReps || r > simulate.MaxReps {
+			return nil, c.Errorf("replications", "replications must be %d..%d, not %d", simulate.MinReps, simulate.MaxReps, r)
 		}
-		s.Reps = *k.Reps
+		s.Reps = *k.Replications
 	}
 	if k.Seed != nil {
 		if *k.Seed < 0 {

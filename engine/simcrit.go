@@ -5,9 +5,9 @@ package engine
 //
 // The adf, engle-granger, johansen, vecm and ardl directives accept
 //
-//	crit: simulate   # or table (the default: published response surfaces/tables)
-//	reps: 20000      # replications, simulate.MinReps..simulate.MaxReps
-//	seed: 1          # generator seed, 0..2^63−1
+//	crit: simulate        # or table (the default: published response surfaces/tables)
+//	replications: 20000   # simulate.MinReps..simulate.MaxReps
+//	seed: 1               # generator seed, 0..2^63−1
 //
 // The simulation is analysis/simulate.Run on every core; the engine only
 // resolves the keys (sim_keys.go), keeps simulated tables on disk beside

@@ -81,7 +81,7 @@ func TestGregoryHansenDirective(t *testing.T) {
 // simulated critical values for each statistic at the test's T, with
 // p-values, and the note says so.
 func TestGregoryHansenSimulate(t *testing.T) {
-	p := macroProject(t, fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\nsample: 1990Q1..\nlags: 0\ncrit: simulate\nreps: 300\n"))
+	p := macroProject(t, fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\nsample: 1990Q1..\nlags: 0\ncrit: simulate\nreplications: 300\n"))
 	v := valuesOf(t, p)["gh"]
 	for _, k := range []string{"adf", "zt", "za"} {
 		m := v[k].(map[string]any)
@@ -107,7 +107,7 @@ func TestGregoryHansenBadInput(t *testing.T) {
 		{"no candidate date", "id: g\ny: log(realcons)\nx: [log(realdpi)]\nshift: regime\nsample: 2004Q1..\ntrim: 0.49\nlags: 0\n", "paper.md:12: Gregory–Hansen: 23 observations leave no candidate break date"},
 		{"too few observations", "id: g\ny: log(realcons)\nx: [log(realdpi), log(realinv)]\nshift: regime\nsample: 2007Q1..\n", "paper.md:6: Gregory–Hansen: 11 observations are too few for model C/S"},
 		{"unknown shift", "id: g\ny: log(realcons)\nx: [log(realdpi)]\nshift: slope\n", "paper.md:10: shift: write level, trend"},
-		{"simulate reps", "id: g\ny: log(realcons)\nx: [log(realdpi)]\nreps: 500\n", "paper.md:10: reps applies only with crit: simulate"},
+		{"simulate replications", "id: g\ny: log(realcons)\nx: [log(realdpi)]\nreplications: 500\n", "paper.md:10: replications applies only with crit: simulate"},
 	}
 	for _, c := range cases {
 		p := macroProject(t, fence("gregory-hansen", c.body))

@@ -55,10 +55,11 @@ func TestGridADF(t *testing.T) {
 	if tab.Stub != 1 || len(tab.Head) != 2 || len(tab.Body) != 3 {
 		t.Fatalf("layout: stub %d, %d head rows, %d body rows", tab.Stub, len(tab.Head), len(tab.Body))
 	}
-	if h := tab.Head[1]; h[0].Text != "lags" || h[1].Text != "c" || h[2].Text != "ct" {
+	// Headers in words: the key's, and the deterministic cases as the notes say them.
+	if h := tab.Head[1]; h[0].Text != "Lags" || h[1].Text != "constant" || h[2].Text != "constant and trend" {
 		t.Errorf("second head row %+v", h)
 	}
-	if tab.Head[0][1].Text != "det" || tab.Head[0][1].Span != 2 {
+	if tab.Head[0][1].Text != "Deterministic terms" || tab.Head[0][1].Span != 2 {
 		t.Errorf("first head row %+v", tab.Head[0])
 	}
 	i := 0
@@ -88,7 +89,7 @@ func TestGridADF(t *testing.T) {
 		t.Fatalf("notes %q", tab.Notes)
 	}
 	note := tab.Notes[0]
-	for _, w := range []string{"separate adf directive", "the ADF statistic", "lags (1; 2; 4)", "det (c; ct)", "H0: log(realgdp) has a unit root.", "Stars:"} {
+	for _, w := range []string{"separate adf directive", "the ADF statistic", "the lags (1; 2; 4)", "the deterministic terms (constant; constant and trend)", "T = 198 to 201", "H0: log(realgdp) has a unit root.", "Stars:"} {
 		if !strings.Contains(note, w) {
 			t.Errorf("note lacks %q: %s", w, note)
 		}
@@ -123,15 +124,16 @@ func TestGridOLS(t *testing.T) {
 		t.Errorf("default show %v, want coef.log(realdpi)", g.Values["show"])
 	}
 	tab := g.Table
-	if tab.Stub != 1 || len(tab.Body) != 6 || tab.Head[0][0].Text != "se" || tab.Head[0][1].Text != "log(realdpi)" {
+	if tab.Stub != 1 || len(tab.Body) != 6 || tab.Head[0][0].Text != "Standard errors" || tab.Head[0][1].Text != "log(realdpi)" {
 		t.Fatalf("layout: stub %d, body %d rows, head %+v", tab.Stub, len(tab.Body), tab.Head)
 	}
 	var seen []float64
+	labels := []string{"conventional", "HC1", "HAC, 2 lags"}
 	for i, se := range ses {
 		m := res[fmt.Sprint("m", i)]
 		est, sec := tab.Body[2*i].Cells[1], tab.Body[2*i+1].Cells[1]
-		if tab.Body[2*i].Cells[0].Text != se {
-			t.Errorf("row %d label %q, want %q", i, tab.Body[2*i].Cells[0].Text, se)
+		if tab.Body[2*i].Cells[0].Text != labels[i] {
+			t.Errorf("row %d label %q, want %q", i, tab.Body[2*i].Cells[0].Text, labels[i])
 		}
 		// In the single table, log(realdpi) is the second term: rows 2 and 3.
 		sEst, sSE := m.Table.Body[2].Cells[1], m.Table.Body[3].Cells[1]
@@ -148,12 +150,12 @@ func TestGridOLS(t *testing.T) {
 		t.Errorf("estimates should agree and standard errors differ across se types: %v", seen)
 	}
 	note := tab.Notes[0]
-	for _, w := range []string{"coefficient on log(realdpi)", "se (ols; hc1; hac(2))", "Dependent variable: log(realcons).", "* p < 10%"} {
+	for _, w := range []string{"coefficient on log(realdpi)", "the standard errors (conventional; HC1; HAC, 2 lags)", "Dependent variable: log(realcons).", "* p < 10%"} {
 		if !strings.Contains(note, w) {
 			t.Errorf("note lacks %q: %s", w, note)
 		}
 	}
-	if strings.Contains(note, "HC1") {
+	if strings.Contains(note, "heteroskedasticity-robust") {
 		t.Errorf("note states one cell's standard errors as common: %s", note)
 	}
 }
@@ -174,7 +176,7 @@ func TestGridRegressors(t *testing.T) {
 	if got, want := tab.Body[2].Cells[2].Num, res["m"].Table.Body[4].Cells[1].Num; got != want {
 		t.Errorf("infl in 1985Q1..2009Q3: %v, single %v", got, want)
 	}
-	if tab.Body[0].Cells[0].Text != "1960Q1..1984Q4" {
+	if tab.Body[0].Cells[0].Text != "1960Q1–1984Q4" {
 		t.Errorf("row label %q", tab.Body[0].Cells[0].Text)
 	}
 	if !strings.Contains(tab.Notes[0], "A blank cell") {
@@ -271,5 +273,53 @@ func TestGridCache(t *testing.T) {
 	fresh := runDoc(t, p)["g"].Values["cells"].([]map[string]any)[1]["values"].(map[string]any)["coef"].([]map[string]any)
 	if coef[1]["est"] != fresh[1]["est"] {
 		t.Errorf("rerun grid %v, fresh build %v", coef[1]["est"], fresh[1]["est"])
+	}
+}
+
+// TestGridJohansenTrace: a grid showing a Johansen trace statistic stars
+// each cell by that statistic's own critical values (crit_trace.0: a
+// star for each of 10%, 5%, 1% whose value the statistic exceeds); the
+// headers are in words (the sample as a span of dates, the shown value
+// as "trace statistic, r = 0"), and the note names the deterministic
+// terms and T.
+func TestGridJohansenTrace(t *testing.T) {
+	body := fence("grid", "id: g\nof: johansen\nseries: [infl, tbilrate]\nlags: 1\nshow: trace.0\nover:\n  sample: [1959Q1.., ..1999Q4]\n")
+	res := runDoc(t, macroProject(t, body))
+	g := res["g"]
+	tab := g.Table
+	if h := tab.Head[0]; h[0].Text != "Sample" || h[1].Text != "trace statistic, r = 0" {
+		t.Errorf("head %+v", h)
+	}
+	if a, b := tab.Body[0].Cells[0].Text, tab.Body[1].Cells[0].Text; a != "from 1959Q1" || b != "to 1999Q4" {
+		t.Errorf("row labels %q, %q", a, b)
+	}
+	starred := 0
+	for i, cell := range g.Values["cells"].([]map[string]any) {
+		v := cell["values"].(map[string]any)
+		stat := v["trace"].([]float64)[0]
+		crit := v["crit_trace"].([]map[string]any)[0]
+		want := 0
+		for _, l := range []string{"10%", "5%", "1%"} {
+			if stat > crit[l].(float64) {
+				want++
+			}
+		}
+		got := tab.Body[i].Cells[1]
+		if got.Num != stat || got.Stars != want {
+			t.Errorf("cell %d: shows %v with %d stars, want %v with %d (crit %v)", i, got.Num, got.Stars, stat, want, crit)
+		}
+		starred += want
+	}
+	if starred == 0 {
+		t.Errorf("no cell rejects: the check of the stars is empty")
+	}
+	note := tab.Notes[0]
+	for _, w := range []string{"Shown: the trace statistic, r = 0 (trace.0).", "Varying by row: the sample (from 1959Q1; to 1999Q4).", "Deterministic terms: ", "; T = ", "Stars: the test rejects its null"} {
+		if !strings.Contains(note, w) {
+			t.Errorf("note lacks %q: %s", w, note)
+		}
+	}
+	if strings.Contains(note, "*, **, ***") {
+		t.Errorf("the cells' own star legend is repeated beside the grid's: %s", note)
 	}
 }

@@ -100,7 +100,7 @@ func TestSimADFMatchesMacKinnon(t *testing.T) {
 // lag fixed, at the regression's T, and the note says so.
 func TestSimADFChosenLag(t *testing.T) {
 	quietSim(t)
-	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: ct\nlags: {select: aic, max: 8}\ncrit: simulate\nreps: 2000\n"))
+	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: ct\nlags: {select: aic, max: 8}\ncrit: simulate\nreplications: 2000\n"))
 	v, notes := buildValues(t, p, engine.Options{})
 	a := v["a"]
 	sim := a["sim"].(map[string]any)
@@ -117,7 +117,7 @@ func TestSimADFChosenLag(t *testing.T) {
 func TestSimSeed(t *testing.T) {
 	quietSim(t)
 	body := func(seed string) string {
-		return fence("adf", "id: a\nseries: infl\ndet: c\nlags: 2\ncrit: simulate\nreps: 3000\n"+seed)
+		return fence("adf", "id: a\nseries: infl\ndet: c\nlags: 2\ncrit: simulate\nreplications: 3000\n"+seed)
 	}
 	v1, _ := buildValues(t, macroProject(t, body("seed: 42\n")), engine.Options{})
 	v2, _ := buildValues(t, macroProject(t, body("seed: 42\n")), engine.Options{})
@@ -136,7 +136,7 @@ func TestSimSeed(t *testing.T) {
 // read it instead of simulating; a corrupt file is ignored and replaced.
 func TestSimStore(t *testing.T) {
 	quietSim(t)
-	spec := "series: infl\ndet: c\nlags: 1\ncrit: simulate\nreps: 2000\n"
+	spec := "series: infl\ndet: c\nlags: 1\ncrit: simulate\nreplications: 2000\n"
 	p := macroProject(t, fence("adf", "id: a\n"+spec)+"\n"+fence("adf", "id: b\n"+spec+"caption: again\n"))
 	dir := filepath.Join(filepath.Dir(p), ".galley-cache")
 	before := engine.SimRuns()
@@ -189,7 +189,7 @@ func TestSimStore(t *testing.T) {
 func TestSimEngleGranger(t *testing.T) {
 	quietSim(t)
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(200, -0.5))}
-	p := writeProject(t, front+"\n"+fence("engle-granger", "id: e\ny: y\nx: [x]\nlags: 1\ncrit: simulate\nreps: 10000\n"), files)
+	p := writeProject(t, front+"\n"+fence("engle-granger", "id: e\ny: y\nx: [x]\nlags: 1\ncrit: simulate\nreplications: 10000\n"), files)
 	v, notes := buildValues(t, p, engine.Options{})
 	e := v["e"]
 	nobs := e["nobs"].(int)
@@ -220,7 +220,7 @@ func TestSimJohansen(t *testing.T) {
 	quietSim(t)
 	p := copyDemo(t)
 	src, _ := os.ReadFile(p)
-	doc := string(src) + "\n" + fence("johansen", "id: simsys\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ndet: rc\nlags: 1\ncrit: simulate\nreps: 2000\n") +
+	doc := string(src) + "\n" + fence("johansen", "id: simsys\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ndet: rc\nlags: 1\ncrit: simulate\nreplications: 2000\n") +
 		"\n" + fence("vecm", "id: simrel\nfrom: simsys\n")
 	if err := os.WriteFile(p, []byte(doc), 0o644); err != nil {
 		t.Fatal(err)
@@ -262,8 +262,9 @@ func TestSimJohansen(t *testing.T) {
 	}
 }
 
-// TestSimBadKeys: bad crit:, reps: and seed: values are errors at their
-// line.
+// TestSimBadKeys: bad crit:, replications: and seed: values are errors at
+// their line; the former spelling reps: is an error that names
+// replications:, in a directive and in a grid (fixed or varied).
 func TestSimBadKeys(t *testing.T) {
 	quietSim(t)
 	// Lines: 1–4 front matter, 5 blank, 6 the fence, 7 id, 8 series, 9…
@@ -271,10 +272,13 @@ func TestSimBadKeys(t *testing.T) {
 		name, kind, body string
 		want             []string
 	}{
-		{"few reps", "adf", "crit: simulate\nreps: 50\n", []string{"paper.md:10:", "reps must be 100..10000000 replications, not 50"}},
+		{"few replications", "adf", "crit: simulate\nreplications: 50\n", []string{"paper.md:10:", "replications must be 100..10000000, not 50"}},
+		{"former reps", "adf", "crit: simulate\nreps: 5000\n", []string{"paper.md:10:", `the key "reps" is now called "replications"`}},
+		{"former reps in a grid", "grid", "of: adf\ncrit: simulate\nreps: 5000\nover: {lags: [1, 2]}\n", []string{"paper.md:11:", `the key "reps" of adf is now called "replications"`}},
+		{"former reps varied", "grid", "of: adf\ncrit: simulate\nover: {reps: [500, 1000]}\n", []string{"paper.md:11:", `over: the key "reps" of adf is now called "replications"`}},
 		{"bogus crit", "adf", "crit: bogus\n", []string{"paper.md:9:", `crit: write simulate`, `not "bogus"`}},
 		{"kpss", "kpss", "crit: simulate\n", []string{"paper.md:9:", "crit: simulate is available for adf, ardl, engle-granger, gregory-hansen, johansen, vecm, not for kpss"}},
-		{"reps alone", "adf", "reps: 5000\n", []string{"paper.md:9:", "reps applies only with crit: simulate"}},
+		{"replications alone", "adf", "replications: 5000\n", []string{"paper.md:9:", "replications applies only with crit: simulate"}},
 		{"negative seed", "adf", "crit: simulate\nseed: -3\n", []string{"paper.md:10:", "seed must be zero or more"}},
 	} {
 		t.Run(c.name, func(t *testing.T) {

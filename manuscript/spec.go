@@ -48,6 +48,9 @@ func checkKeysType(n *yaml.Node, t reflect.Type, key string) error {
 			k := n.Content[i]
 			ft, ok := fields[k.Value]
 			if !ok {
+				if now, was := FormerKeys(t)[k.Value]; was {
+					return fmt.Errorf("line %d: the key %q is now called %q", k.Line, k.Value, now)
+				}
 				return fmt.Errorf("line %d: unknown key %q%s; valid keys: %s", k.Line, k.Value, DidYouMean(k.Value, names), strings.Join(names, ", "))
 			}
 			if err := checkKeysType(n.Content[i+1], ft, k.Value); err != nil {
@@ -127,6 +130,47 @@ func YamlFields(t reflect.Type) map[string]reflect.Type {
 			name = strings.ToLower(f.Name)
 		}
 		out[name] = f.Type
+	}
+	return out
+}
+
+// FormerKeys maps the retired names of a struct's YAML keys to their
+// current ones, following ",inline". A field lists its former names in a
+// formerly tag, comma-separated:
+//
+//	Replications *int `yaml:"replications" formerly:"reps"`
+//
+// CheckKeys refuses a former name with an error that names the current
+// one, as the registry does for a kind's former names.
+func FormerKeys(t reflect.Type) map[string]string {
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	out := map[string]string{}
+	if t.Kind() != reflect.Struct {
+		return out
+	}
+	for i := 0; i < t.NumField(); i++ {
+		f := t.Field(i)
+		if !f.IsExported() {
+			continue
+		}
+		tag := f.Tag.Get("yaml")
+		name, opts, _ := strings.Cut(tag, ",")
+		if strings.Contains(opts, "inline") {
+			for k, v := range FormerKeys(f.Type) {
+				out[k] = v
+			}
+			continue
+		}
+		if name == "" {
+			name = strings.ToLower(f.Name)
+		}
+		for _, old := range strings.Split(f.Tag.Get("formerly"), ",") {
+			if old = strings.TrimSpace(old); old != "" {
+				out[old] = name
+			}
+		}
 	}
 	return out
 }

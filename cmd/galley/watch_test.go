@@ -263,3 +263,57 @@ func TestWatchChromium(t *testing.T) {
 		t.Errorf("the browser reports version %d, the server is at %d", got, v)
 	}
 }
+
+// TestWatchBannerLayout lays out the last good page under an error
+// banner in headless Chromium (a window of 1200 × 800 and one of 420 ×
+// 800) and asks the browser where the title and the banner are: the
+// banner must be inside the window and must not cover the title. Skipped
+// when Chromium is not installed.
+func TestWatchBannerLayout(t *testing.T) {
+	bin := "/usr/bin/chromium"
+	if _, err := os.Stat(bin); err != nil {
+		t.Skip("chromium is not installed")
+	}
+	if testing.Short() {
+		t.Skip("starts a browser")
+	}
+	p, url, _, _ := startWatch(t, "A good draft.", false)
+	eventually(t, "the first page", func() bool { return strings.Contains(get(t, url+"/"), "A good draft.") })
+	writeFile(t, p, watchManuscript("A bad draft.")+"\n```galley ols\nid: bad\ny: north\nx: [fule]\n```\n")
+	eventually(t, "the error banner", func() bool { return strings.Contains(get(t, url+"/"), `class="build-error"`) })
+	page := get(t, url+"/")
+	// The probe writes its finding into the page, which --dump-dom prints.
+	probe := `<script>(function () {
+  var t = document.querySelector("h1.title").getBoundingClientRect();
+  var b = document.querySelector(".build-error").getBoundingClientRect();
+  var covers = !(b.bottom <= t.top || b.top >= t.bottom || b.right <= t.left || b.left >= t.right);
+  var inside = b.top >= 0 && b.bottom <= window.innerHeight + 1 && b.height > 0;
+  document.body.setAttribute("data-probe", (covers ? "covers" : "clear") + "," + (inside ? "inside" : "outside"));
+})();</script>`
+	page = strings.Replace(page, "</body>", probe+"</body>", 1)
+	file := filepath.Join(t.TempDir(), "page.html")
+	if err := os.WriteFile(file, []byte(page), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, size := range []string{"1200,800", "420,800"} {
+		ctx, cancel := context.WithTimeout(context.Background(), 60*time.Second)
+		cmd := exec.CommandContext(ctx, bin, "--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+			"--disable-component-update", "--disable-sync", "--no-first-run", "--no-default-browser-check",
+			"--disable-dev-shm-usage", "--disable-extensions", "--user-data-dir="+t.TempDir(),
+			"--window-size="+size, "--dump-dom", "file://"+file)
+		var out, errOut syncBuffer
+		cmd.Stdout, cmd.Stderr = &out, &errOut
+		err := cmd.Run()
+		cancel()
+		if err != nil {
+			t.Skipf("chromium failed: %v\n%s", err, errOut.String())
+		}
+		if dom := out.String(); !strings.Contains(dom, `data-probe="clear,inside"`) {
+			i := strings.Index(dom, "data-probe=")
+			if i < 0 {
+				t.Fatalf("window %s: the probe did not run:\n%s", size, errOut.String())
+			}
+			t.Errorf("window %s: the banner %s", size, dom[i:i+40])
+		}
+	}
+}

@@ -84,6 +84,9 @@ func (s *gridSpec) readTarget(c *engine.Context) ([]string, error) {
 		if slices.Contains(gridKeys, key.Value) || keys == nil || slices.Contains(keys, key.Value) {
 			continue
 		}
+		if now, was := formerKey(k, key.Value); was {
+			return nil, s.at(c, key, "the key %q of %s is now called %q", key.Value, k.Name, now)
+		}
 		all := append(slices.Clone(gridKeys), keys...)
 		slices.Sort(all)
 		return nil, s.at(c, key, "unknown key %q in a grid of %s%s; valid keys: %s", key.Value, k.Name, manuscript.DidYouMean(key.Value, all), strings.Join(all, ", "))
@@ -152,6 +155,13 @@ func kindKeys(k *engine.Kind) []string {
 	return out
 }
 
+// formerKey returns the current name of a retired key of kind k (see
+// manuscript.FormerKeys).
+func formerKey(k *engine.Kind, key string) (string, bool) {
+	now, was := manuscript.FormerKeys(reflect.TypeOf(k.New()))[key]
+	return now, was
+}
+
 // readOver reads the over: mapping: each key a key of the target kind,
 // each value a non-empty list.
 func (s *gridSpec) readOver(c *engine.Context, keys []string) error {
@@ -165,6 +175,9 @@ func (s *gridSpec) readOver(c *engine.Context, keys []string) error {
 	s.over = nil
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
+		if now, was := formerKey(s.kind, k.Value); was {
+			return s.at(c, k, "over: the key %q of %s is now called %q", k.Value, s.kind.Name, now)
+		}
 		if keys != nil && !slices.Contains(keys, k.Value) {
 			return s.at(c, k, "over: a %s directive has no key %q%s; its keys: %s", s.kind.Name, k.Value, manuscript.DidYouMean(k.Value, keys), strings.Join(keys, ", "))
 		}

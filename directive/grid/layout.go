@@ -25,9 +25,10 @@ func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *table.Table {
 	t := &table.Table{}
 	if k == 1 {
 		t.Stub = 1
-		t.Head = [][]table.Cell{{table.T(s.over[0].key.Value), table.T(sh.heading(shown))}}
+		a := s.over[0]
+		t.Head = [][]table.Cell{{table.T(keyHeader(a.key.Value)), table.T(sh.heading(shown))}}
 		for r := 0; r < rows; r++ {
-			t.Body = append(t.Body, sh.rows([]table.Cell{table.T(s.over[0].labels[r])}, shown[r:r+1], dec, false)...)
+			t.Body = append(t.Body, sh.rows([]table.Cell{table.T(a.label(r))}, shown[r:r+1], dec, false)...)
 		}
 		return t
 	}
@@ -37,13 +38,13 @@ func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *table.Table {
 	for i := range top {
 		top[i] = table.Empty
 	}
-	top = append(top, table.Span(last.key.Value, cols))
+	top = append(top, table.Span(keyHeader(last.key.Value), cols))
 	sub := make([]table.Cell, 0, k-1+cols)
 	for _, a := range s.over[:k-1] {
-		sub = append(sub, table.T(a.key.Value))
+		sub = append(sub, table.T(keyHeader(a.key.Value)))
 	}
-	for _, l := range last.labels {
-		sub = append(sub, table.T(l))
+	for i := range last.labels {
+		sub = append(sub, table.T(last.label(i)))
 	}
 	t.Head = [][]table.Cell{top, sub}
 	var prev []int
@@ -56,7 +57,7 @@ func (s *gridSpec) table(sh gridShow, shown []gridShown, dec int) *table.Table {
 			if same {
 				stub[a] = table.Empty // the same as the row above: left blank
 			} else {
-				stub[a] = table.T(s.over[a].labels[idx[a]])
+				stub[a] = table.T(s.over[a].label(idx[a]))
 			}
 		}
 		newBlock := k > 2 && prev != nil && prev[0] != idx[0]
@@ -98,6 +99,9 @@ func (sh gridShow) rows(stub []table.Cell, cells []gridShown, dec int, ruleAbove
 	return out
 }
 
+// label is the header of the axis's i-th value (valueLabel).
+func (a gridAxis) label(i int) string { return valueLabel(a.key.Value, a.labels[i]) }
+
 // heading is the column heading for a one-key grid.
 func (sh gridShow) heading(shown []gridShown) string {
 	switch {
@@ -108,5 +112,5 @@ func (sh gridShow) heading(shown []gridShown) string {
 	case sh.coef:
 		return engine.TermText(sh.term) + " (" + sh.field + ")"
 	}
-	return sh.path
+	return showWords(sh.parts)
 }

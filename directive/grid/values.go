@@ -30,6 +30,7 @@ type gridShown struct {
 	hasSE   bool
 	isInt   bool // an integer value such as a lag count
 	stars   int
+	byTest  bool   // stars by a test's own rule or critical values (not by a coefficient's p-value)
 	testRef string // e.g. "ADF"
 }
 
@@ -160,8 +161,34 @@ func (sh gridShow) pick(c *engine.Context, cell *gridCell, r *engine.Result) (gr
 	if sh.test {
 		out.stars = testStars(c, r)
 		out.testRef, _ = r.Values["test"].(string)
+		out.byTest = true
+	} else if crit := critOf(r.Values, sh.parts); len(crit) >= 2 && !math.IsNaN(x) {
+		lo, hi := crit[0], crit[len(crit)-1] // sorted by level
+		o := &contract.Outcome{Stat: x, PValue: math.NaN(), Crit: crit, Upper: lo.Value > hi.Value}
+		out.stars, out.byTest = o.Stars(c.Stars()), true
 	}
 	return out, nil
+}
+
+// critOf returns the critical values a result gives for the value at
+// path, sorted by level: for X.stat those of X.crit (lc.stat, lc.crit);
+// for X or X.i those of crit_X or crit_X.i (pu, crit_pu; trace.0,
+// crit_trace.0). Nil when there are none.
+func critOf(v map[string]any, path []string) []critical.Value {
+	var at []string
+	switch n := len(path); {
+	case n == 0:
+		return nil
+	case n > 1 && path[n-1] == "stat":
+		at = append(slices.Clone(path[:n-1]), "crit")
+	default:
+		at = append([]string{"crit_" + path[0]}, path[1:]...)
+	}
+	m, err := engine.Lookup(v, at)
+	if err != nil {
+		return nil
+	}
+	return critFromValues(m)
 }
 
 // testStars counts the star levels at which a test rejects, by the test's

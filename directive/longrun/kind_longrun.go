@@ -193,7 +193,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	choice := leadLagChoice(st.spec, r)
 	seNote := st.spec.Cov.Describe()
 	if st.autoHAC {
-		seNote += fmt.Sprintf(", the lag being the integer part of 4(T/100)^(2/9) with T = %d", d.N())
+		seNote += fmt.Sprintf(", the lag being the integer part of 4(T/100)^(2/9) with T = %d, the observations of the sample before the leads and lags shorten it", d.N())
 	}
 	t.Notes = []string{
 		fmt.Sprintf("Dynamic OLS of %s on %s, with leads and lags of the differenced regressors (not shown), %s. Deterministic terms: %s. Standard errors in parentheses: %s; t-ratios and Wald statistics compared with the standard normal and χ² distributions.",

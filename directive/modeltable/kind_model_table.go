@@ -27,7 +27,7 @@ type modelTableSpec struct {
 var modelStats = []struct{ key, label string }{
 	{"nobs", "N"}, {"r2", "R²"}, {"r2_adj", "Adjusted R²"}, {"sigma", "Residual standard error"},
 	{"loglik", "Log-likelihood"}, {"dw", "Durbin–Watson"}, {"alpha", "Adjustment coefficient α"},
-	{"halflife", "Half-life"}, {"leads", "Leads of Δx"}, {"lags", "Lags of Δx"}, {"bandwidth", "Bandwidth"},
+	{"halflife", "Half-life"}, {"leads", "Leads of Δx"}, {"lags", "Lags of Δx"}, {"hac_lags", "HAC lags"}, {"bandwidth", "Bandwidth"},
 }
 
 // modelDiagnostics are the residual diagnostics (contract.Model's
@@ -186,7 +186,7 @@ func (s *modelTableSpec) statRows(models []*contract.Model, dec int) ([]table.Ro
 			case !ok:
 				row.Cells = append(row.Cells, table.Empty)
 				continue
-			case st == "nobs" || st == "leads" || st == "lags" || (st == "bandwidth" && x == math.Trunc(x)):
+			case st == "nobs" || st == "leads" || st == "lags" || st == "hac_lags" || (st == "bandwidth" && x == math.Trunc(x)):
 				row.Cells = append(row.Cells, table.I(int(x)))
 			case st == "bandwidth":
 				row.Cells = append(row.Cells, table.N(x, 2))

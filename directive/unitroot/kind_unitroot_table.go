@@ -148,7 +148,21 @@ func Order(lev, dif int, diffs bool) string {
 	return "unclear"
 }
 
-var tSuffix = regexp.MustCompile(`,? ?T ?= ?\d+`)
+// sourceWithoutT is a critical-value source without the sample size the
+// values were taken at (the note gives each test's T beside its 5%
+// values): "…, interpolated in 1/T at T=203" → "…, interpolated in 1/T";
+// "simulated: …, seed 1, T=202, …" → "simulated: …, seed 1, …"; "(T=40 is
+// below the table)" → "(T is below the table)". A T that names a row of
+// a table ("T=50 row") stays.
+func sourceWithoutT(src string) string {
+	src = tAfterClause.ReplaceAllString(src, "")
+	return tInBrackets.ReplaceAllString(src, "(T ")
+}
+
+var (
+	tAfterClause = regexp.MustCompile(`(, | at )T ?= ?\d+\b`)
+	tInBrackets  = regexp.MustCompile(`\(T ?= ?\d+ `)
+)
 
 func (s *urTableSpec) Run(c *engine.Context) (*engine.Result, error) {
 	levT, difT, err := s.settings(c)
@@ -232,7 +246,7 @@ func (s *urTableSpec) seriesRow(c *engine.Context, name string, blocks [2][]urTe
 			if cv, ok := contract.CritAt(o.Crit, 0.05); ok {
 				cs := &seen[block][i]
 				cs.vals, cs.ts = append(cs.vals, cv), append(cs.ts, o.NObs)
-				cs.sources = append(cs.sources, tSuffix.ReplaceAllString(o.CritSource, ""))
+				cs.sources = append(cs.sources, sourceWithoutT(o.CritSource))
 			}
 		}
 		entry[key] = bv
@@ -264,8 +278,6 @@ func (s *urTableSpec) notes(c *engine.Context, levT, difT []urTest, seen [2][]cr
 		fmt.Sprintf("Order: I(0) when every test points to stationarity in levels at the %s level; I(1) when every test points to a unit root in levels and to stationarity in first differences; I(2) when every test points to a unit root in both; unclear when the tests disagree.", contract.Pct(s.level())),
 	}
 	var cv []string
-	sources := map[string][]string{}
-	var srcOrder []string
 	for block, label := range []string{"levels", "differences"} {
 		if block == 1 && !s.diffs() {
 			break
@@ -280,28 +292,65 @@ func (s *urTableSpec) notes(c *engine.Context, levT, difT []urTest, seen [2][]cr
 				det = "break in " + u.Break.String()
 			}
 			cv = append(cv, fmt.Sprintf("%s %s (%s) %s", title(u.Name), label, det, rangeText(cs.vals, cs.ts, dec)))
-			for _, src := range cs.sources {
-				if !slices.Contains(sources[src], title(u.Name)) {
-					if len(sources[src]) == 0 {
-						srcOrder = append(srcOrder, src)
-					}
-					sources[src] = append(sources[src], title(u.Name))
-				}
-			}
 		}
 	}
 	if len(cv) > 0 {
 		notes = append(notes, "5% critical values: "+strings.Join(cv, "; ")+".")
 	}
-	var src []string
-	for _, s := range srcOrder {
-		src = append(src, strings.Join(sources[s], ", ")+": "+s)
-	}
-	if len(src) > 0 {
-		notes = append(notes, "Critical values from "+strings.Join(src, "; ")+", each at its test regression's sample size.")
+	if src := sourcesText(levT, difT, seen, s.diffs()); src != "" {
+		notes = append(notes, "Critical values from "+src+", each at its test regression's sample size.")
 	}
 	return append(notes, fmt.Sprintf("Lags: %s. Levels: deterministic terms %s; first differences: %s.%s",
 		lagsText(levT), contract.DetNames[levT[0].Det], contract.DetNames[difT[0].Det], sampleSentence(s.Sample)))
+}
+
+// sourcesText names where each test's critical values come from, tests
+// sharing a source together ("ADF, PP: MacKinnon (2010) response
+// surface"), each test once: a test whose levels and differences take
+// their values from different sources (DF-GLS with a trend in levels and
+// a constant in differences) is named with the block each time ("DF-GLS
+// levels: …; DF-GLS differences: …").
+func sourcesText(levT, difT []urTest, seen [2][]critSeen, diffs bool) string {
+	blocks := [][]urTest{levT, difT}
+	if !diffs {
+		blocks = blocks[:1]
+	}
+	// The sources of each test over both blocks, to see which tests need
+	// the block named.
+	all := map[string][]string{}
+	for b, tests := range blocks {
+		for i, u := range tests {
+			for _, src := range seen[b][i].sources {
+				if !slices.Contains(all[u.Name], src) {
+					all[u.Name] = append(all[u.Name], src)
+				}
+			}
+		}
+	}
+	by := map[string][]string{}
+	var order []string
+	for b, tests := range blocks {
+		for i, u := range tests {
+			who := title(u.Name)
+			if len(all[u.Name]) > 1 {
+				who += " " + []string{"levels", "differences"}[b]
+			}
+			for _, src := range seen[b][i].sources {
+				if slices.Contains(by[src], who) {
+					continue
+				}
+				if len(by[src]) == 0 {
+					order = append(order, src)
+				}
+				by[src] = append(by[src], who)
+			}
+		}
+	}
+	var parts []string
+	for _, src := range order {
+		parts = append(parts, strings.Join(by[src], ", ")+": "+src)
+	}
+	return strings.Join(parts, "; ")
 }
 
 // cellNote says what the brackets hold and which null each test has,

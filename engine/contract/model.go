@@ -16,7 +16,9 @@ type Model struct {
 	Coefs []Coef
 	// Stats are the model's summary statistics by key: "nobs", "r2",
 	// "r2_adj", "sigma", "loglik", "dw", "alpha", "halflife", "leads",
-	// "lags", "bandwidth" (each only where the model has it).
+	// "lags", "hac_lags" (the truncation lag of a HAC covariance),
+	// "bandwidth" (of a kernel estimator such as FMOLS; each only where
+	// the model has it).
 	Stats map[string]float64
 	// Diagnostics are residual diagnostics by key ("bg", "lb", "jb",
 	// "arch", "bp", "reset", "dw").
