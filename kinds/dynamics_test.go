@@ -56,7 +56,7 @@ func TestDynamicsAgainstStatsmodels(t *testing.T) {
 	front := "---\ntitle: T\ndata:\n  dk: dk.csv\n  us: us.csv\n---\n"
 	doc := front +
 		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\n") +
-		"\n" + fence("responses", "id: irf\nfrom: sys\nhorizon: 10\nreps: 100\nseed: 3\n") +
+		"\n" + fence("responses", "id: irf\nfrom: sys\nhorizon: 10\nreplications: 100\nseed: 3\n") +
 		"\n" + fence("responses", "id: gi\nfrom: sys\nhorizon: 10\nidentify: generalised\nresponses: [LRM]\nshocks: [IBO, IDE]\n") +
 		"\n" + fence("causality", "id: vc\nfrom: sys\n") +
 		"\n" + fence("causality", "id: gc\ndata: us\nseries: [100*dlog(realgdp), 100*dlog(realcons), 100*dlog(realinv)]\nlags: 2\n") +
@@ -150,7 +150,7 @@ func TestDynamicsErrors(t *testing.T) {
 		{"bad identify", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nidentify: sign\n"), "identify:"},
 		{"order partial", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\norder: [LRY]\n"), "name all 4 series"},
 		{"order unknown", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\norder: [LRY, LRM, IBO, XX]\n"), `"XX" is not one of the series`},
-		{"few reps", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nreps: 5\n"), "100–100,000"},
+		{"few reps", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nreplications: 5\n"), "100–100,000"},
 		{"seed without reps", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nseed: 4\n"), "no bands"},
 		{"ty from vecm", front + jo + "\n" + fence("causality", "id: r\nfrom: sys\ntest: toda-yamamoto\n"), "toda-yamamoto fits a VAR"},
 		{"horizons decreasing", front + jo + "\n" + fence("variance-shares", "id: r\nfrom: sys\nhorizons: [4, 2]\n"), "increasing"},

@@ -72,7 +72,7 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 		fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\n") +
 		fence("ccr", "id: cc\ny: log(realcons)\nx: [log(realdpi)]\nrestrict: [\"log(realdpi) = 1\"]\n") +
 		fence("var-lags", "id: vl\nseries: [log(realcons), log(realdpi)]\nmax: 4\n") +
-		fence("responses", "id: ir\nseries: [infl, tbilrate]\nlags: 2\nhorizon: 4\nreps: 0\n") +
+		fence("responses", "id: ir\nseries: [infl, tbilrate]\nlags: 2\nhorizon: 4\nreplications: 0\n") +
 		fence("variance-shares", "id: vs\nseries: [infl, tbilrate]\nlags: 2\n") +
 		fence("causality", "id: ca\nseries: [infl, tbilrate]\nlags: 2\n")
 	res := runDoc(t, macroProject(t, body))

@@ -14,7 +14,7 @@ import (
 // numpy) in the table and the values, with the sequential bootstrap rank;
 // its keys are checked.
 func TestJohansenRankBootstrap(t *testing.T) {
-	doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank_bootstrap: {reps: 99, seed: 5}\n") +
+	doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank_bootstrap: {replications: 99, seed: 5}\n") +
 		"\nThe bootstrap p-value for rank 0 is {{dk.rank_bootstrap.pvalue.0 %.3f}}.\n"
 	all := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
 	vals := all["dk"]
@@ -60,7 +60,7 @@ func TestJohansenRankBootstrap(t *testing.T) {
 	}
 
 	for _, bad := range []struct{ keys, want string }{
-		{"rank_bootstrap: {reps: 10}\n", "99–100,000"},
+		{"rank_bootstrap: {replications: 10}\n", "99–100,000"},
 		{"rank_bootstrap: {repz: 100}\n", "repz"},
 	} {
 		doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\n"+bad.keys)

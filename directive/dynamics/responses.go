@@ -26,7 +26,7 @@ type responsesSpec struct {
 	Order         []string `yaml:"order"`
 	Responses     []string `yaml:"responses"`
 	Shocks        []string `yaml:"shocks"`
-	Reps          int      `yaml:"reps"`
+	Reps          int      `yaml:"replications" formerly:"reps"`
 	Seed          *uint64  `yaml:"seed"`
 	Coverage      *float64 `yaml:"coverage"`
 	Interval      string   `yaml:"interval"`
@@ -76,7 +76,7 @@ func (s *responsesSpec) Check(c *engine.Context) error {
 		return c.Errorf("order", "order: generalised responses do not depend on an ordering; drop order or use identify: cholesky")
 	}
 	if s.Reps != 0 && (s.Reps < 100 || s.Reps > 100000) {
-		return c.Errorf("reps", "reps: bootstrap bands need 100–100,000 replications (0 for none), not %d", s.Reps)
+		return c.Errorf("replications", "replications: bootstrap bands need 100–100,000 replications (0 for none), not %d", s.Reps)
 	}
 	if cv := s.coverage(); !(cv >= 0.5 && cv < 1) {
 		return c.Errorf("coverage", "coverage must be at least 0.5 and below 1, not %g", cv)
@@ -159,7 +159,7 @@ func (s *responsesSpec) bootstrap(c *engine.Context, m *model, resp vardyn.Respo
 		vardyn.BootSpec{Reps: s.Reps, Seed: seed, Coverage: s.coverage(), Progress: prog.update})
 	prog.finish(err)
 	if err != nil {
-		return nil, c.Errorf("reps", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+		return nil, c.Errorf("replications", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
 	}
 	return bands, nil
 }

@@ -18,7 +18,7 @@ import (
 // ownKeys lists the system keys set on a vecm directive.
 func (s *vecmSpec) ownKeys(c *engine.Context) []string {
 	var out []string
-	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogeneity_tests", "seasonal", "impulse", "shift", "extra", "crit", "reps", "seed", "rank_bootstrap"} {
+	for _, k := range []string{"data", "series", "det", "lags", "sample", "small_sample", "level", "rank", "normalize", "restrict", "exogeneity_tests", "seasonal", "impulse", "shift", "extra", "crit", "replications", "seed", "rank_bootstrap"} {
 		if c.Has(k) {
 			out = append(out, k)
 		}

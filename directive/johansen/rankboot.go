@@ -15,7 +15,7 @@ import (
 // RankBootKeys is the rank_bootstrap: mapping (exported only so that the
 // YAML decoder sees the fields).
 type RankBootKeys struct {
-	Reps *int    `yaml:"reps"`
+	Reps *int    `yaml:"replications" formerly:"reps"`
 	Seed *uint64 `yaml:"seed"`
 }
 
@@ -47,7 +47,7 @@ func (k *SystemKeys) checkRankBoot(c *engine.Context) error {
 		return nil
 	}
 	if n := k.RankBoot.reps(); n < 99 || n > 100000 {
-		return c.Errorf("rank_bootstrap", "rank_bootstrap: reps must be 99–100,000 replications, not %d", n)
+		return c.Errorf("rank_bootstrap", "rank_bootstrap: replications must be 99–100,000 replications, not %d", n)
 	}
 	return nil
 }

@@ -154,7 +154,7 @@ func mdResult(r *engine.Result, figDir string) string {
 	switch {
 	case r.Table != nil:
 		t := r.Table
-		fmt.Fprintf(&b, "**%s.** %s\n\n", r.Label(), mdEscape(t.Caption))
+		b.WriteString(mdCaption(r.Label(), t.Caption) + "\n\n")
 		cols := t.Cols()
 		head := mdHeader(t, cols)
 		b.WriteString("| " + strings.Join(head, " | ") + " |\n|")
@@ -185,7 +185,7 @@ func mdResult(r *engine.Result, figDir string) string {
 		b.WriteString("\n")
 	case r.Figure != nil:
 		fmt.Fprintf(&b, "![%s. %s](%s/%s.svg)\n\n", r.Label(), mdEscape(r.Figure.Caption), figDir, r.ID)
-		fmt.Fprintf(&b, "**%s.** %s\n", r.Label(), mdEscape(r.Figure.Caption))
+		b.WriteString(mdCaption(r.Label(), r.Figure.Caption) + "\n")
 		for _, n := range r.Figure.Notes {
 			b.WriteString("\n*" + mdEscape(n) + "*\n")
 		}
@@ -270,3 +270,12 @@ var mdReplacer = strings.NewReplacer(`\`, `\\`, "&", `\&`, "*", `\*`, "_", `\_`,
 
 // mdEscape makes literal text safe in CommonMark inline context.
 func mdEscape(s string) string { return mdReplacer.Replace(s) }
+
+// mdCaption is "**Table 3.** Caption", or "**Table 3**" alone for a table
+// or figure without a caption (no dangling period).
+func mdCaption(label, caption string) string {
+	if caption == "" {
+		return "**" + label + "**"
+	}
+	return "**" + label + ".** " + mdEscape(caption)
+}
