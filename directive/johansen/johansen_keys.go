@@ -219,6 +219,9 @@ func (k *SystemKeys) readTests(c *engine.Context, st *sysSettings) error {
 		if len(idx) == 0 {
 			return c.Errorf("exogeneity_tests", "exogeneity_tests: an empty list")
 		}
+		if len(idx) >= len(k.Series) {
+			return c.Errorf("exogeneity_tests", "exogeneity_tests: every series is named; a weak-exogeneity test leaves at least as many series adjusting as the rank, so name fewer")
+		}
 		st.Exog = append(st.Exog, idx)
 	}
 	names := map[string]bool{}

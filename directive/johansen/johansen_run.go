@@ -266,6 +266,11 @@ func (k *SystemKeys) runTests(c *engine.Context, s *sysState) error {
 		s.tests = append(s.tests, sysTest{Name: names[h], Hyp: strings.Join(texts, "; ") + " in every relation", LR: lr})
 	}
 	for i, ex := range st.Exog {
+		if len(st.Names)-len(ex) < s.rank {
+			// Zero loadings in len(ex) equations leave K − len(ex) rows of
+			// α, fewer than the rank: the restricted model does not exist.
+			return c.ItemErrorf("exogeneity_tests", i, "exogeneity_tests: zero loadings for %d of the %d series leave %d adjusting, fewer than the rank %d; test fewer series at once", len(ex), len(st.Names), len(st.Names)-len(ex), s.rank)
+		}
 		lr, err := r.WeakExogeneity(s.rank, ex...)
 		if err != nil {
 			return c.Errorf("exogeneity_tests", "exogeneity_tests at rank %d: %v", s.rank, nameSeries(err, st.Names))

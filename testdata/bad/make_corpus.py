@@ -299,3 +299,11 @@ case("inline-d-on-fraction", adfok + "The p-value is {{a.pvalue %d}}.\n", {"data
 case("inline-star-width", adfok + "{{a.stat %*d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
 case("inline-argument-index", adfok + "{{a.stat %[2]d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
 case("inline-huge-width", adfok + "{{a.stat %5000d}}\n", {"data.csv": csv(good)}, ["paper.md:", "is not a format"])
+
+# A weak-exogeneity test that names every series, or leaves fewer
+# adjusting series than the rank, is refused at its line (it used to end
+# in an internal error about a zero matrix dimension).
+three = {"y": rw(1.0), "x": rw(0.7), "z": rw(0.3)}
+jo = "```galley johansen\nid: j\ndata: d\nseries: [y, x, z]\nlags: 1\n"
+case("exogeneity-every-series", FRONT + jo + "rank: 1\nexogeneity_tests: [[y, x, z]]\n```\n", {"data.csv": csv(three, n=120)}, ["paper.md:13:", "every series is named"])
+case("exogeneity-below-rank", FRONT + jo + "rank: 2\nexogeneity_tests: [[y, x]]\n```\n", {"data.csv": csv(three, n=120)}, ["paper.md:13:", "fewer than the rank 2"])
