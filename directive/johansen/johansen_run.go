@@ -269,7 +269,7 @@ func (k *SystemKeys) runTests(c *engine.Context, s *sysState) error {
 		if len(st.Names)-len(ex) < s.rank {
 			// Zero loadings in len(ex) equations leave K − len(ex) rows of
 			// α, fewer than the rank: the restricted model does not exist.
-			return c.ItemErrorf("exogeneity_tests", i, "exogeneity_tests: zero loadings for %d of the %d series leave %d adjusting, fewer than the rank %d; test fewer series at once", len(ex), len(st.Names), len(st.Names)-len(ex), s.rank)
+			return c.ItemErrorf("exogeneity_tests", i, "exogeneity_tests at rank %d: zero loadings for %d of the %d series leave %d adjusting, fewer than the rank; test fewer series at once", s.rank, len(ex), len(st.Names), len(st.Names)-len(ex))
 		}
 		lr, err := r.WeakExogeneity(s.rank, ex...)
 		if err != nil {

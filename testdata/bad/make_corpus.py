@@ -306,4 +306,4 @@ case("inline-huge-width", adfok + "{{a.stat %5000d}}\n", {"data.csv": csv(good)}
 three = {"y": rw(1.0), "x": rw(0.7), "z": rw(0.3)}
 jo = "```galley johansen\nid: j\ndata: d\nseries: [y, x, z]\nlags: 1\n"
 case("exogeneity-every-series", FRONT + jo + "rank: 1\nexogeneity_tests: [[y, x, z]]\n```\n", {"data.csv": csv(three, n=120)}, ["paper.md:13:", "every series is named"])
-case("exogeneity-below-rank", FRONT + jo + "rank: 2\nexogeneity_tests: [[y, x]]\n```\n", {"data.csv": csv(three, n=120)}, ["paper.md:13:", "fewer than the rank 2"])
+case("exogeneity-below-rank", FRONT + jo + "rank: 2\nexogeneity_tests: [[y, x]]\n```\n", {"data.csv": csv(three, n=120)}, ["paper.md:13:", "exogeneity_tests at rank 2", "fewer than the rank"])
