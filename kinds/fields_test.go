@@ -8,6 +8,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/manuscript"
 )
 
 // TestProducedValuesAreAccepted: every top-level value a directive
@@ -22,8 +23,17 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 	}
 	seen := map[string]bool{}
 	oldNotation := regexp.MustCompile(`\([-+]\d+\)|(^|[^a-z])d\.|^(lag|lead|diff)\(`)
+	lib, err := manuscript.MethodLibrary()
+	if err != nil {
+		t.Fatal(err)
+	}
 	check := func(results []*engine.Result) {
 		for _, r := range results {
+			for _, key := range r.Cites {
+				if _, ok := lib.Entries[key]; !ok {
+					t.Errorf("%s (%s) cites %q, which galley's reference table lacks", r.ID, r.Kind, key)
+				}
+			}
 			// Row labels and headers are in galley's notation (Δ and time
 			// subscripts), never in the suffix notation "x(-1)", "d.x".
 			if r.Table != nil {

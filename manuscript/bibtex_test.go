@@ -132,6 +132,13 @@ func TestMethodReferences(t *testing.T) {
 		{"newey-west-1987", "Newey and West (1987)", "Econometrica", "55", "3", "703–708"},
 		{"newey-west-1994", "Newey and West (1994)", "Review of Economic Studies", "61", "4", "631–653"},
 		{"white-1980", "White (1980)", "Econometrica", "48", "4", "817–838"},
+		{"pss-2001", "Pesaran et al. (2001)", "Journal of Applied Econometrics", "16", "3", "289–326"},
+		{"narayan-2005", "Narayan (2005)", "Applied Economics", "37", "17", "1979–1990"},
+		{"sygn-2014", "Shin et al. (2014)", "", "", "", "281–314"},
+		{"granger-1969", "Granger (1969)", "Econometrica", "37", "3", "424–438"},
+		{"toda-yamamoto-1995", "Toda and Yamamoto (1995)", "Journal of Econometrics", "66", "1–2", "225–250"},
+		{"pesaran-shin-1998", "Pesaran and Shin (1998)", "Economics Letters", "58", "1", "17–29"},
+		{"crt-2012", "Cavaliere et al. (2012)", "Econometrica", "80", "4", "1721–1740"},
 	}
 	if len(want) != len(lib.Keys) {
 		t.Errorf("the table has %d entries, the check %d", len(lib.Keys), len(want))

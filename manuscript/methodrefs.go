@@ -83,6 +83,36 @@ const MethodBib = `
   author = {Hansen, Bruce E.},
   title = {Tests for Parameter Instability in Regressions with {I(1)} Processes},
   journal = {Journal of Business \& Economic Statistics}, year = {1992}, volume = {10}, number = {3}, pages = {321--335}}
+@article{pss-2001,
+  author = {Pesaran, M. Hashem and Shin, Yongcheol and Smith, Richard J.},
+  title = {Bounds Testing Approaches to the Analysis of Level Relationships},
+  journal = {Journal of Applied Econometrics}, year = {2001}, volume = {16}, number = {3}, pages = {289--326}}
+@article{narayan-2005,
+  author = {Narayan, Paresh Kumar},
+  title = {The Saving and Investment Nexus for China: Evidence from Cointegration Tests},
+  journal = {Applied Economics}, year = {2005}, volume = {37}, number = {17}, pages = {1979--1990}}
+@incollection{sygn-2014,
+  author = {Shin, Yongcheol and Yu, Byungchul and Greenwood-Nimmo, Matthew},
+  title = {Modelling Asymmetric Cointegration and Dynamic Multipliers in a Nonlinear {ARDL} Framework},
+  booktitle = {Festschrift in Honor of Peter Schmidt: Econometric Methods and Applications},
+  editor = {Sickles, Robin C. and Horrace, William C.}, publisher = {Springer}, address = {New York},
+  year = {2014}, pages = {281--314}}
+@article{granger-1969,
+  author = {Granger, C. W. J.},
+  title = {Investigating Causal Relations by Econometric Models and Cross-spectral Methods},
+  journal = {Econometrica}, year = {1969}, volume = {37}, number = {3}, pages = {424--438}}
+@article{toda-yamamoto-1995,
+  author = {Toda, Hiro Y. and Yamamoto, Taku},
+  title = {Statistical Inference in Vector Autoregressions with Possibly Integrated Processes},
+  journal = {Journal of Econometrics}, year = {1995}, volume = {66}, number = {1--2}, pages = {225--250}}
+@article{pesaran-shin-1998,
+  author = {Pesaran, H. Hashem and Shin, Yongcheol},
+  title = {Generalized Impulse Response Analysis in Linear Multivariate Models},
+  journal = {Economics Letters}, year = {1998}, volume = {58}, number = {1}, pages = {17--29}}
+@article{crt-2012,
+  author = {Cavaliere, Giuseppe and Rahbek, Anders and Taylor, A. M. Robert},
+  title = {Bootstrap Determination of the Co-Integration Rank in Vector Autoregressive Models},
+  journal = {Econometrica}, year = {2012}, volume = {80}, number = {4}, pages = {1721--1740}}
 @article{park-1992,
   author = {Park, Joon Y.},
   title = {Canonical Cointegrating Regressions},

@@ -127,7 +127,14 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals["symmetry"] = asym.values
 		vals["multipliers"] = contract.MultiplierValues(asym.mults)
 	}
-	res := &engine.Result{Table: t, Values: vals, Test: b.outcome()}
+	cites := []string{"pss-2001"}
+	if strings.HasPrefix(b.source, "Narayan") {
+		cites = append(cites, "narayan-2005")
+	}
+	if len(pairs) > 0 {
+		cites = append(cites, "sygn-2014")
+	}
+	res := &engine.Result{Table: t, Values: vals, Test: b.outcome(), Cites: cites}
 	res.SetSeries("resid", contract.NewDated(d.Dates, m.ECT))
 	res.Model = engine.ModelOf("ARDL", s.Y, m.Names, m.Coef, vals, false, "")
 	return res, nil

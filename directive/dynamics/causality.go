@@ -95,7 +95,11 @@ func (s *causalitySpec) Run(c *engine.Context) (*engine.Result, error) {
 	if m.vecm != nil {
 		vals["test"] = "vecm"
 	}
-	return &engine.Result{Table: t, Values: vals}, nil
+	cites := []string{"granger-1969"}
+	if s.test() == "toda-yamamoto" {
+		cites = append(cites, "toda-yamamoto-1995")
+	}
+	return &engine.Result{Table: t, Values: vals, Cites: cites}, nil
 }
 
 // causalityTable returns the table with its heading and no rows: three

@@ -133,7 +133,11 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	notes := []string{s.note(m, bands)}
-	return renderFigure(c, fig, vals, notes)
+	res, err := renderFigure(c, fig, vals, notes)
+	if err == nil && s.identify() == "generalised" {
+		res.Cites = []string{"pesaran-shin-1998"}
+	}
+	return res, err
 }
 
 // order returns the Cholesky ordering as indices into the series (nil

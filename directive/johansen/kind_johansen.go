@@ -158,6 +158,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Notes = append(t.Notes, "*, **, ***: the statistic exceeds its 10%, 5%, 1% critical value. "+st.d.SampleNote())
 	res := &engine.Result{Table: t, Values: st.values(), Cites: []string{"johansen-1991", "mhm-1999"}}
+	if st.boot != nil {
+		res.Cites = append(res.Cites, "crt-2012")
+	}
 	if st.vecm != nil {
 		res.Relations = st.relations()
 	}
