@@ -161,7 +161,8 @@ func (b *boundsResult) rows(dec int) []table.Row {
 	var rows []table.Row
 	add := func(label string, stat float64, bs []ardl.Bound, verdict string) {
 		rows = append(rows, table.Row{Cells: []table.Cell{table.T(label), table.N(stat, dec)}})
-		for _, x := range bs {
+		for i := len(bs) - 1; i >= 0; i-- { // 1% first, as every galley table lists critical values
+			x := bs[i]
 			rows = append(rows, table.Row{Cells: []table.Cell{table.T("    bounds at " + contract.Pct(x.Level)), table.T(fmt.Sprintf("%s – %s", fmtNum(x.I0, 2), fmtNum(x.I1, 2)))}})
 		}
 		rows = append(rows, table.Row{Cells: []table.Cell{table.T("    verdict at 5%"), table.T(verdict)}})
@@ -173,8 +174,10 @@ func (b *boundsResult) rows(dec int) []table.Row {
 	return rows
 }
 
+// fmtNum is v with dec decimals and a true minus sign (U+2212), for a
+// number written inside a text cell.
 func fmtNum(v float64, dec int) string {
-	return fmt.Sprintf("%.*f", dec, v)
+	return strings.Replace(table.FixNegZero(fmt.Sprintf("%.*f", dec, v)), "-", "−", 1)
 }
 
 func (b *boundsResult) note() string {

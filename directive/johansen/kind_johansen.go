@@ -114,13 +114,14 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		dec = *s.Decimals
 	}
 	r := st.res
-	traceHead := []table.Cell{table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")}
+	// Critical-value columns run 1%, 5%, 10%, as in every galley table.
+	traceHead := []table.Cell{table.T("Statistic"), table.T("1%"), table.T("5%"), table.T("10%")}
 	if st.boot != nil {
 		traceHead = append(traceHead, table.T("Bootstrap p"))
 	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{
 		{table.Empty, table.Empty, table.Span("Trace", len(traceHead)), table.Span("Maximum eigenvalue", 4)},
-		append(append([]table.Cell{table.T("Rank r"), table.T("Eigenvalue")}, traceHead...), table.T("Statistic"), table.T("10%"), table.T("5%"), table.T("1%")),
+		append(append([]table.Cell{table.T("Rank r"), table.T("Eigenvalue")}, traceHead...), table.T("Statistic"), table.T("1%"), table.T("5%"), table.T("10%")),
 	}}
 	stars := func(stat float64, cv [3]float64) int {
 		n := 0
@@ -133,15 +134,15 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	for i := 0; i < r.K; i++ {
 		row := []table.Cell{table.T(strconv.Itoa(i)), table.N(r.Eigenvalues[i], dec), table.Starred(st.trace[i], 2, stars(st.trace[i], st.crT[i]))}
-		for _, v := range st.crT[i] {
-			row = append(row, table.N(v, 2))
+		for j := 2; j >= 0; j-- { // crT holds 10%, 5%, 1%
+			row = append(row, table.N(st.crT[i][j], 2))
 		}
 		if st.boot != nil {
 			row = append(row, table.N(st.boot.PValue[i], 3))
 		}
 		row = append(row, table.Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
-		for _, v := range st.crM[i] {
-			row = append(row, table.N(v, 2))
+		for j := 2; j >= 0; j-- {
+			row = append(row, table.N(st.crM[i][j], 2))
 		}
 		t.Body = append(t.Body, table.Row{Cells: row})
 	}
