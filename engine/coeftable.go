@@ -23,7 +23,7 @@ func CoefRows(c *Context, terms []string, coefs []ols.Coef, dec int, noStars boo
 			st = c.StarsFor(coefs[i].P)
 		}
 		rows = append(rows,
-			table.Row{Cells: []table.Cell{TermCell(t), table.Starred(coefs[i].Est, dec, st)}},
+			table.Row{Cells: []table.Cell{c.TermCell(t), table.Starred(coefs[i].Est, dec, st)}},
 			table.Row{Cells: []table.Cell{table.Empty, table.SECell(coefs[i].SE, dec)}},
 		)
 	}

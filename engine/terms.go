@@ -14,17 +14,25 @@ import (
 // t+k; a column name written in backquotes (`cost #1`) is shown without
 // them. So "lag(diff(log(north)),1)" is Δlog(north) with the subscript
 // t−1, and "lag(ect,1)" is ect_{t−1}. sub is "" for an undated term.
-func TermLabel(term string) (text, sub string) {
+func TermLabel(term string) (text, sub string) { return termLabel(term, nil) }
+
+// termLabel is TermLabel with the author's display labels (the front
+// matter's labels:), which name a series or expression wherever it stands
+// alone or inside a difference, lag or lead.
+func termLabel(term string, labels map[string]string) (text, sub string) {
+	if l, ok := labels[term]; ok {
+		return l, ""
+	}
 	if inner, k, ok := call(term, "lag"); ok {
-		text, _ = TermLabel(inner)
+		text, _ = termLabel(inner, labels)
 		return text, "t−" + k
 	}
 	if inner, k, ok := call(term, "lead"); ok {
-		text, _ = TermLabel(inner)
+		text, _ = termLabel(inner, labels)
 		return text, "t+" + k
 	}
 	if inner, ok := strings.CutPrefix(term, "diff("); ok && strings.HasSuffix(inner, ")") && balanced(inner[:len(inner)-1]) {
-		text, sub = TermLabel(inner[:len(inner)-1])
+		text, sub = termLabel(inner[:len(inner)-1], labels)
 		return "Δ" + text, sub
 	}
 	return strings.ReplaceAll(term, "`", ""), ""
@@ -36,6 +44,15 @@ func TermCell(term string) table.Cell { return table.Label(TermLabel(term)) }
 // TermText is TermLabel as plain text, the subscript in Unicode
 // subscript characters (Δlog(north)ₜ₋₁), for notes and reports.
 func TermText(term string) string { return TermCell(term).Plain() }
+
+// TermCell is a stub or header cell for a term, with the document's
+// display labels.
+func (c *Context) TermCell(term string) table.Cell {
+	return table.Label(termLabel(term, c.doc.Meta.Labels))
+}
+
+// TermText is Context.TermCell as plain text, for notes.
+func (c *Context) TermText(term string) string { return c.TermCell(term).Plain() }
 
 // call splits name(inner,k) with k a whole number (lag(inner) is lag 1);
 // spaces around the comma are allowed.

@@ -1,6 +1,8 @@
 package kinds
 
 import (
+	"os"
+	"path/filepath"
 	"regexp"
 	"slices"
 	"sort"
@@ -8,6 +10,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/table"
+	"github.com/galley-econ/galley/internal/refdata"
 	"github.com/galley-econ/galley/manuscript"
 )
 
@@ -95,5 +98,37 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 		if !seen[name] {
 			t.Errorf("kind %s is not exercised by this test", name)
 		}
+	}
+}
+
+// TestDisplayLabels: the front matter's labels: name a series in table
+// stubs and headers, in the typeset differences and lags of it, and in
+// figure legends; values keep the expression.
+func TestDisplayLabels(t *testing.T) {
+	body := "---\ndata:\n  macro: macro.csv\nlabels:\n  log(realcons): Consumption (log)\n  log(realdpi): Income (log)\n---\n\n" +
+		fence("ols", "id: m\ny: diff(log(realcons))\nx: [lag(diff(log(realcons)),1), diff(log(realdpi))]\n") +
+		fence("adf", "id: a\nseries: log(realcons)\n")
+	csv, err := os.ReadFile(filepath.Join(refdata.Root(), "data", "macrodata.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := writeProject(t, body, map[string]string{"macro.csv": string(csv)})
+	res := runDoc(t, p)
+	tab := res["m"].Table
+	if h := tab.Head[0][1].Plain(); h != "ΔConsumption (log)" {
+		t.Errorf("ols header %q", h)
+	}
+	var stubs []string
+	for _, r := range tab.Body {
+		stubs = append(stubs, r.Cells[0].Plain())
+	}
+	if !slices.Contains(stubs, "ΔConsumption (log)ₜ₋₁") || !slices.Contains(stubs, "ΔIncome (log)") {
+		t.Errorf("ols stubs %q", stubs)
+	}
+	if h := res["a"].Table.Head[0][1].Plain(); h != "Consumption (log)" {
+		t.Errorf("adf header %q", h)
+	}
+	if res["m"].Values["coef"].([]map[string]any)[1]["term"] != "lag(diff(log(realcons)), 1)" { // as written (a flow list rejoined at its comma)
+		t.Error("the values do not keep the expression as the term's name")
 	}
 }

@@ -32,6 +32,10 @@ type Meta struct {
 	// CiteMethods adds the works behind each directive's method and
 	// critical values to the reference list.
 	CiteMethods bool `yaml:"cite-methods"`
+	// Labels map a series or expression ("log(north)") to the name a
+	// reader sees in tables, headers, notes and figure legends ("North
+	// price (log)"); differences and lags of it are typeset around it.
+	Labels map[string]string `yaml:"labels"`
 	// LaTeX tunes the LaTeX output: the document class and its options,
 	// and a preamble file of the author's own.
 	LaTeX LaTeXMeta `yaml:"latex"`

@@ -113,7 +113,7 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 
 	unit := engine.PeriodUnit(d.Freq)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(ecm.DiffName(s.Y, 0))}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(ecm.DiffName(s.Y, 0))}}}
 	t.Body = s.body(c, st, m, b, asym.rows, unit)
 	t.Notes = s.notes(c, st, m, b, pairs, tau, unit, sd)
 	if w := engine.CondNote(m.Fit); w != "" {
@@ -261,10 +261,10 @@ func (s *ardlSpec) notes(c *engine.Context, st *settings, m *ardl.Model, b *boun
 		z = fmt.Sprintf(" The error-correction form always holds the current difference of each regressor (the conditional model of Pesaran, Shin and Smith 2001), so %s, with q = 0, enter%s as with q = 1.", strings.Join(zero, ", "), map[bool]string{true: "s", false: ""}[len(zero) == 1])
 	}
 	if st.show == "ecm" {
-		ns = append(ns, fmt.Sprintf("Restricted error-correction model of an %s; dependent variable %s. %s is the equilibrium error %s − θ'x with the long-run coefficients of the conditional model, lagged one period; least squares with conventional standard errors, the error-correction term taken as given. Deterministic terms: case %s (%s).%s", choice, engine.TermText(ecm.DiffName(s.Y, 0)), engine.TermText(ardl.ECTName), s.Y, st.det.Roman(), st.det.Describe(), z))
+		ns = append(ns, fmt.Sprintf("Restricted error-correction model of an %s; dependent variable %s. %s is the equilibrium error %s − θ'x with the long-run coefficients of the conditional model, lagged one period; least squares with conventional standard errors, the error-correction term taken as given. Deterministic terms: case %s (%s).%s", choice, c.TermText(ecm.DiffName(s.Y, 0)), c.TermText(ardl.ECTName), s.Y, st.det.Roman(), st.det.Describe(), z))
 	} else {
 		ns = append(ns, fmt.Sprintf("Conditional error-correction form of an %s; least squares with conventional standard errors. Deterministic terms: case %s (%s).%s", choice, st.det.Roman(), st.det.Describe(), z))
-		ns = append(ns, fmt.Sprintf("Long run: θ = −π_x/π_y, the coefficients of the lagged levels of the regressors over minus that of %s, with delta-method standard errors; p-values from the standard normal. Adjustment: the coefficient α of %s in the restricted error-correction model (equal to π_y), with the half-life ln 0.5 / ln|1 + α| in %s.", engine.TermText(ardl.LevelName(s.Y)), engine.TermText(ardl.ECTName), unit))
+		ns = append(ns, fmt.Sprintf("Long run: θ = −π_x/π_y, the coefficients of the lagged levels of the regressors over minus that of %s, with delta-method standard errors; p-values from the standard normal. Adjustment: the coefficient α of %s in the restricted error-correction model (equal to π_y), with the half-life ln 0.5 / ln|1 + α| in %s.", c.TermText(ardl.LevelName(s.Y)), c.TermText(ardl.ECTName), unit))
 		ns = append(ns, b.note())
 	}
 	if len(pairs) > 0 {

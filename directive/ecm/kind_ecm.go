@@ -145,12 +145,12 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	unit := engine.PeriodUnit(d.Freq)
 	adj := m.Adjust
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(ecm.DiffName(rel.Y, 0))}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(ecm.DiffName(rel.Y, 0))}}}
 	t.Body = body(c, m, engine.DiagRows(diags, dec), dec, unit)
 	sd := estimationSample(d, m)
 	t.Notes = []string{
-		fmt.Sprintf("Dependent variable: %s, the first difference of %s. Least squares; %s in parentheses; t-ratios compared with the standard normal distribution, since every regressor is stationary when the variables cointegrate.", engine.TermText(ecm.DiffName(rel.Y, 0)), engine.TermText(rel.Y), cov.Describe()),
-		fmt.Sprintf("%s is the equilibrium error of %q (%s) lagged one period; Δvₜ₋ⱼ is the first difference of v lagged j periods. Lags of %s: %d; differences of the regressors at lags 0 to %d.", engine.TermText(ecm.ECTName), s.From, fromDesc(up.Kind), engine.TermText(ecm.DiffName(rel.Y, 0)), p, q),
+		fmt.Sprintf("Dependent variable: %s, the first difference of %s. Least squares; %s in parentheses; t-ratios compared with the standard normal distribution, since every regressor is stationary when the variables cointegrate.", c.TermText(ecm.DiffName(rel.Y, 0)), c.TermText(rel.Y), cov.Describe()),
+		fmt.Sprintf("%s is the equilibrium error of %q (%s) lagged one period; Δvₜ₋ⱼ is the first difference of v lagged j periods. Lags of %s: %d; differences of the regressors at lags 0 to %d.", c.TermText(ecm.ECTName), s.From, fromDesc(up.Kind), c.TermText(ecm.DiffName(rel.Y, 0)), p, q),
 		halfLifeNote(adj, unit),
 	}
 	if n := engine.DiagNote(diags); n != "" {

@@ -44,7 +44,7 @@ func (s *figureSpec) runLines(c *engine.Context, p string, o *figures.Options) (
 		}
 		var pn figures.Panel
 		for _, e := range g {
-			name := e
+			name := c.TermText(e) // the author's label for it, if the front matter gives one
 			if k < len(s.Names) {
 				name = s.Names[k]
 			}

@@ -152,7 +152,7 @@ func (s *kernelSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(s.Y)}}}
 	t.Body = longRunRows(c, r.Names, r.Table, det.Deterministics(), dec)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.N)}, RuleAbove: true},

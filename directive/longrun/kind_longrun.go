@@ -181,7 +181,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	dec := engine.DecimalsOr(c, s.Decimals)
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(s.Y)}}}
 	t.Body = longRunRows(c, terms, coefs, nd, dec)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(r.Fit.N)}, RuleAbove: true},

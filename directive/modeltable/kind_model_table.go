@@ -141,7 +141,7 @@ func (s *modelTableSpec) head(models []*contract.Model) [][]table.Cell {
 func coefRows(c *engine.Context, models []*contract.Model, terms []string, dec int) []table.Row {
 	var rows []table.Row
 	for _, term := range terms {
-		est := []table.Cell{engine.TermCell(term)}
+		est := []table.Cell{c.TermCell(term)}
 		se := []table.Cell{table.Empty}
 		for _, m := range models {
 			cf, ok := m.Coef(term)

@@ -75,7 +75,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if !withConst {
 		r2, r2Adj = fit.R2Uncentred(), fit.R2AdjUncentred()
 	}
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), engine.TermCell(s.Y)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(s.Y)}}}
 	t.Body = engine.CoefRows(c, terms, coefs, dec, false)
 	t.Body = append(t.Body,
 		table.Row{Cells: []table.Cell{table.T("N"), table.I(fit.N)}, RuleAbove: true},

@@ -54,7 +54,7 @@ func (s *summarySpec) Run(c *engine.Context) (*engine.Result, error) {
 			lo, hi = math.Min(lo, v), math.Max(hi, v)
 		}
 		first, last := d.Dates[0].String(), d.Dates[len(d.Dates)-1].String()
-		t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(name), table.I(len(x)), table.N(mean, dec), table.N(sd, dec), table.N(lo, dec), table.N(hi, dec), table.T(first), table.T(last)}})
+		t.Body = append(t.Body, table.Row{Cells: []table.Cell{c.TermCell(name), table.I(len(x)), table.N(mean, dec), table.N(sd, dec), table.N(lo, dec), table.N(hi, dec), table.T(first), table.T(last)}})
 		vals = append(vals, map[string]any{"name": name, "n": len(x), "mean": mean, "sd": sd, "min": lo, "max": hi, "first": first, "last": last})
 	}
 	t.Notes = []string{"Std. dev. is the sample standard deviation (divisor N − 1). First and Last are the first and last dates with data" + sampleClause(s.Sample) + "."}

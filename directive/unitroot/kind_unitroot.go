@@ -139,7 +139,7 @@ func (s *urSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if s.Decimals != nil {
 		dec = *s.Decimals
 	}
-	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), table.T(s.Series)}}}
+	t := &table.Table{Stub: 1, Head: [][]table.Cell{{table.T(""), c.TermCell(s.Series)}}}
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(o.Test + " statistic, " + o.StatName), table.Starred(o.Stat, dec, o.Stars(c.Stars()))}})
 	for _, er := range lookupTest(u.Name).Rows { // further statistics, each judged by its own critical values
 		v, _ := o.Extra[er.Key].(float64)

@@ -216,7 +216,7 @@ type critSeen struct {
 // off) in first differences: the row's cells, its values and the
 // critical values seen.
 func (s *urTableSpec) seriesRow(c *engine.Context, name string, blocks [2][]urTest, dec int, seen *[2][]critSeen) ([]table.Cell, map[string]any, error) {
-	row := []table.Cell{table.T(name)}
+	row := []table.Cell{c.TermCell(name)}
 	entry := map[string]any{"name": name}
 	var verdicts [2]int
 	for block, tests := range blocks {
