@@ -6,6 +6,7 @@ package engine
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"github.com/galley-econ/galley/analysis/critical"
 	"github.com/galley-econ/galley/analysis/ols"
@@ -129,4 +130,39 @@ func PeriodUnit(f series.Freq) string {
 		return "years"
 	}
 	return "periods"
+}
+
+// SystemCaseWords are the five deterministic cases of a cointegrated VAR
+// — and of the ARDL bounds test, whose cases I–V are the same five — in
+// the trade's words, in the usual order (Johansen 1995, §5.7; Pesaran,
+// Shin and Smith 2001): no deterministic terms, a constant restricted to
+// the cointegrating relations, an unrestricted constant, a trend
+// restricted to the relations (with an unrestricted constant), an
+// unrestricted constant and trend.
+var SystemCaseWords = [...]string{"none", "restricted constant", "constant", "restricted trend", "trend"}
+
+// formerCaseCodes are the abbreviations det: took before, in the same
+// order; a manuscript that still uses one is told the words.
+var formerCaseCodes = [...]string{"n", "rc", "c", "rt", "ct"}
+
+// SystemCase reads the det: key of a Johansen-type or ARDL directive in
+// those words (hyphens or underscores may stand for the space; case is
+// ignored); "" gives the case numbered def. It returns the case's place
+// 0..4 in the usual order.
+func SystemCase(c *Context, det string, def int) (int, error) {
+	if det == "" {
+		return def, nil
+	}
+	t := strings.ToLower(strings.Join(strings.FieldsFunc(det, func(r rune) bool { return r == ' ' || r == '-' || r == '_' }), " "))
+	for i, w := range SystemCaseWords {
+		if t == w {
+			return i, nil
+		}
+	}
+	for i, code := range formerCaseCodes {
+		if t == code {
+			return 0, c.Errorf("det", "det: %q is now written %q", det, SystemCaseWords[i])
+		}
+	}
+	return 0, c.Errorf("det", "det: %q is not a case; write %s", det, strings.Join(SystemCaseWords[:], ", "))
 }

@@ -55,7 +55,7 @@ func TestDynamicsAgainstStatsmodels(t *testing.T) {
 	}
 	front := "---\ntitle: T\ndata:\n  dk: dk.csv\n  us: us.csv\n---\n"
 	doc := front +
-		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\n") +
+		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n") +
 		"\n" + fence("responses", "id: irf\nfrom: sys\nhorizon: 10\nreplications: 100\nseed: 3\n") +
 		"\n" + fence("responses", "id: gi\nfrom: sys\nhorizon: 10\nidentify: generalised\nresponses: [LRM]\nshocks: [IBO, IDE]\n") +
 		"\n" + fence("causality", "id: vc\nfrom: sys\n") +
@@ -142,7 +142,7 @@ func TestDynamicsAgainstStatsmodels(t *testing.T) {
 func TestDynamicsErrors(t *testing.T) {
 	files := map[string]string{"dk.csv": sysRead(t, "../testdata/data/denmark.csv")}
 	front := "---\ntitle: T\ndata:\n  dk: dk.csv\n---\n"
-	jo := "\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\n")
+	jo := "\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n")
 	for _, tc := range []struct{ name, doc, want string }{
 		{"from and series", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nseries: [LRM]\n"), "cannot be set here"},
 		{"neither", front + "\n" + fence("causality", "id: r\n"), "give from:"},
@@ -177,7 +177,7 @@ func TestDynamicsErrors(t *testing.T) {
 // estimated system (engine.Context.Live).
 func TestDynamicsFromCachedSystem(t *testing.T) {
 	doc := "---\ntitle: T\ndata:\n  dk: dk.csv\n---\n" +
-		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\n") +
+		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n") +
 		"\n" + fence("causality", "id: vc\nfrom: sys\n")
 	p := writeProject(t, doc, map[string]string{"dk.csv": sysRead(t, "../testdata/data/denmark.csv")})
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}

@@ -27,10 +27,10 @@ func TestJohansenDummiesUrca(t *testing.T) {
 	}
 	base := "series: [LRM, LRY, IBO, IDE]\nlags: 1\nrank: 1\nnormalize: LRM\nseasonal: true\n"
 	docs := map[string]string{
-		"season4_const":   base + "det: rc\n",
-		"season4_none":    base + "det: c\n",
-		"dummies_none":    base + "det: c\nimpulse: [1983Q1]\nshift: [1983Q1]\nextra: [diff(LPY)]\n",
-		"restricted_step": base + "det: rc\nshift: 1983Q1\n",
+		"season4_const":   base + "det: restricted constant\n",
+		"season4_none":    base + "det: constant\n",
+		"dummies_none":    base + "det: constant\nimpulse: [1983Q1]\nshift: [1983Q1]\nextra: [diff(LPY)]\n",
+		"restricted_step": base + "det: restricted constant\nshift: 1983Q1\n",
 	}
 	doc := sysDKFront
 	for name, body := range docs {
@@ -73,7 +73,7 @@ func TestJohansenDummiesNotesAndErrors(t *testing.T) {
 	jo := func(body string) string {
 		return sysDKFront + "\n" + fence("johansen", "id: j\ndata: dk\n"+body)
 	}
-	doc, err := engine.Parse(writeProject(t, jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\nseasonal: true\nshift: 1983Q1\n")+"\n"+fence("vecm", "id: v\nfrom: j\nshow: short-run\n"), dk), engine.Options{})
+	doc, err := engine.Parse(writeProject(t, jo("series: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\nseasonal: true\nshift: 1983Q1\n")+"\n"+fence("vecm", "id: v\nfrom: j\nshow: short-run\n"), dk), engine.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -94,11 +94,11 @@ func TestJohansenDummiesNotesAndErrors(t *testing.T) {
 		want       []string
 	}{
 		{"old exogenous key", "series: [LRM, LRY]\nlags: 1\nexogenous: [LRY]\n", []string{"paper.md:12:", "exogeneity_tests"}},
-		{"shift in case n", "series: [LRM, LRY]\ndet: n\nlags: 1\nshift: 1983Q1\n", []string{"paper.md:13:", "case n"}},
+		{"shift in case n", "series: [LRM, LRY]\ndet: none\nlags: 1\nshift: 1983Q1\n", []string{"paper.md:13:", "case n"}},
 		{"shift outside the sample", "series: [LRM, LRY]\nlags: 1\nshift: 1990Q1\n", []string{"paper.md:12:", "1990Q1", "not a date of the sample"}},
 		{"impulse in the lag rows", "series: [LRM, LRY]\nlags: 1\nimpulse: [1983Q1, 1974Q2]\n", []string{"paper.md:12:", "1974Q2", "only supply lags"}},
 		{"impulse not a date", "series: [LRM, LRY]\nlags: 1\nimpulse: [soon]\n", []string{"paper.md:12:", "not a date"}},
-		{"impulse twice via shift", "series: [LRM, LRY]\ndet: rc\nlags: 1\nshift: 1983Q1\nimpulse: 1983Q2\n", []string{"1983Q2 twice"}},
+		{"impulse twice via shift", "series: [LRM, LRY]\ndet: restricted constant\nlags: 1\nshift: 1983Q1\nimpulse: 1983Q2\n", []string{"1983Q2 twice"}},
 		{"extra is a series", "series: [LRM, LRY]\nlags: 1\nextra: [LRY]\n", []string{"paper.md:12:", "one of the series"}},
 		{"simulate with dummies", "series: [LRM, LRY]\nlags: 1\nseasonal: true\ncrit: simulate\n", []string{"paper.md:13:", "crit: simulate"}},
 	}

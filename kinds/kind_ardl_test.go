@@ -90,7 +90,7 @@ func TestARDLBadInput(t *testing.T) {
 		{"no falls", "id: a\ny: y\nx: [x, z]\nsplit: [x]\n", []string{"paper.md:11:", "negative partial sum"}},
 		{"split not in x", "id: a\ny: y\nx: [z]\nsplit: [x]\n", []string{"paper.md:11:", "not one of the regressors"}},
 		{"orders count", "id: a\ny: y\nx: [z]\nlags: [1, 1, 1]\n", []string{"paper.md:11:", "3 orders given"}},
-		{"bad det", "id: a\ny: y\nx: [z]\ndet: cc\n", []string{"paper.md:11:", "unknown deterministic case"}},
+		{"bad det", "id: a\ny: y\nx: [z]\ndet: cc\n", []string{"paper.md:11:", "is not a case"}},
 	}
 	for _, c := range cases {
 		p := writeProject(t, front+"\n"+fence("ardl", c.body), data)

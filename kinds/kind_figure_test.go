@@ -335,7 +335,7 @@ func TestFigureBadInput(t *testing.T) {
 // series about the zero line. (The values themselves are checked against
 // analysis/johansen in TestJohansenRelationFigure.)
 func TestFigureJohansenRelation(t *testing.T) {
-	body := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel, south]\ndet: c\nlags: 1\nrank: 2\n") + "\n" +
+	body := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel, south]\ndet: constant\nlags: 1\nrank: 2\n") + "\n" +
 		fence("vecm", "id: v\nfrom: sys\n") + "\n" +
 		fence("figure", "id: z1\nresiduals: sys\ncaption: First relation\n") + "\n" +
 		fence("figure", "id: z2\nresiduals: v\nrelation: 2\nsample: 2005-01..\n") + "\n" +
@@ -391,8 +391,8 @@ func TestFigureJohansenRelationErrors(t *testing.T) {
 	// front matter lines 1–5; the johansen fence is line 7, its id 8, and
 	// its closing fence line 14; the figure fence is line 16, id 17,
 	// residuals 18, relation 19.
-	jo := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: c\nlags: 1\nrank: 1\n") + "\n"
-	jo0 := fence("johansen", "id: sys\ndata: grid\nseries: [south, fuel]\ndet: c\nlags: 1\nlevel: 0.01\n") + "\n"
+	jo := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: constant\nlags: 1\nrank: 1\n") + "\n"
+	jo0 := fence("johansen", "id: sys\ndata: grid\nseries: [south, fuel]\ndet: constant\nlags: 1\nlevel: 0.01\n") + "\n"
 	ols := fence("ols", "id: sys\ndata: grid\ny: north\nx: [fuel]\nsample: 2004-01..\nconst: true\n") + "\n"
 	cases := []struct {
 		name, body string
@@ -420,7 +420,7 @@ func TestFigureJohansenRelationErrors(t *testing.T) {
 // result reused from the cache (its values decoded from the cache file)
 // equals the one drawn when the johansen ran.
 func TestFigureJohansenRelationFromCache(t *testing.T) {
-	src := front + "\n" + fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: rc\nlags: 1\nrank: 1\n") + "\n" +
+	src := front + "\n" + fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: restricted constant\nlags: 1\nrank: 1\n") + "\n" +
 		fence("figure", "id: z\nresiduals: sys\n")
 	p := writeProject(t, src, map[string]string{"data.csv": figCSV()})
 	opts := engine.Options{Cache: &engine.Cache{Dir: t.TempDir(), Version: "test"}}

@@ -115,7 +115,7 @@ const sysDKFront = "---\ntitle: T\ndata:\n  dk: data.csv\n---\n"
 // The Danish money-demand system, case rc (urca's ecdet = "const"), one
 // lagged difference (urca K = 2), with the restriction tests that
 // testdata/scripts/johansen_urca.R runs.
-const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 1\nnormalize: LRM\n" +
+const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\nnormalize: LRM\n" +
 	"restrict:\n  homog: \"LRM = -LRY\"\n  homog2: [\"LRM = -LRY\", \"IBO = -IDE\"]\nexogeneity_tests: [LRY, [LRY, IBO]]\n```\n\n" +
 	"```galley vecm\nid: dkv\nfrom: dk\nshow: short-run\n```\n"
 
@@ -266,7 +266,7 @@ func TestJohansenDenmarkWiring(t *testing.T) {
 			t.Errorf("short-run term %d is %v", k, term)
 		}
 	}
-	if sv["det"] != "rc" || vals["det"] != "rc" {
+	if sv["det"] != "restricted constant" || vals["det"] != "restricted constant" {
 		t.Errorf("det = %v / %v", vals["det"], sv["det"])
 	}
 }
@@ -274,8 +274,8 @@ func TestJohansenDenmarkWiring(t *testing.T) {
 // TestJohansenSmallSampleAndLagChoice: small_sample multiplies the
 // statistics by (T − K(k+1))/T; lags: {select: …} uses LagOrder's choice.
 func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
-	doc := sysDKFront + "\n```galley johansen\nid: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: {select: hq, max: 3}\nsmall_sample: true\n```\n\n" +
-		"```galley var-lags\nid: vl\nseries: [LRM, LRY, IBO, IDE]\ndet: rc\nmax: 3\n```\n"
+	doc := sysDKFront + "\n```galley johansen\nid: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: {select: hq, max: 3}\nsmall_sample: true\n```\n\n" +
+		"```galley var-lags\nid: vl\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nmax: 3\n```\n"
 	all := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
 	y := sysDenmark(t)
 	lt, err := johansen.LagOrder(y, johansen.RC, 3)
@@ -314,7 +314,7 @@ func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
 // examples/gridlink/gen/main.go) the sequential trace tests at 5% in the
 // demo's specification (case c, lags by BIC up to 12) choose rank 2.
 func TestJohansenDemoRank(t *testing.T) {
-	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: c\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogeneity_tests: [log(fuel)]\n```\n"
+	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: constant\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogeneity_tests: [log(fuel)]\n```\n"
 	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../examples/gridlink/data/gridlink.csv")})["sys"]
 	if r := sysAt(t, vals, "rank_chosen"); r != 2 {
 		t.Fatalf("sequential rank = %v, want 2 (trace %v, 5%% critical values %v)", r, vals["trace"], vals["crit_trace"])
@@ -382,17 +382,17 @@ func TestJohansenBadInput(t *testing.T) {
 		files map[string]string
 		want  []string
 	}{
-		{"more series than tabulated", sysDKFront + "\n" + fence("johansen", "id: j\nseries: ["+strings.Join(twelve, ", ")+"]\ndet: rc\nlags: 0\n"),
+		{"more series than tabulated", sysDKFront + "\n" + fence("johansen", "id: j\nseries: ["+strings.Join(twelve, ", ")+"]\ndet: restricted constant\nlags: 0\n"),
 			map[string]string{"data.csv": walks}, []string{"paper.md:9:", "12 series", "1..11"}},
-		{"rank beyond K−1", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 1\nrank: 4\n"), dk,
+		{"rank beyond K−1", jo("series: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 4\n"), dk,
 			[]string{"paper.md:12:", "rank 4", "1..3"}},
-		{"too few observations for the lags", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: 12\n"), dk,
+		{"too few observations for the lags", jo("series: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 12\n"), dk,
 			[]string{"paper.md:11:", "too few observations"}},
-		{"too few observations for the lag search", jo("series: [LRM, LRY, IBO, IDE]\ndet: rc\nlags: {select: aic, max: 14}\n"), dk,
+		{"too few observations for the lag search", jo("series: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: {select: aic, max: 14}\n"), dk,
 			[]string{"paper.md:11:", "too few observations"}},
-		{"constant series", jo("series: [a, b, c]\ndet: rc\nlags: 1\n"), map[string]string{"data.csv": sing},
+		{"constant series", jo("series: [a, b, c]\ndet: restricted constant\nlags: 1\n"), map[string]string{"data.csv": sing},
 			[]string{"paper.md:9:", `series "b" is constant`, "singular"}},
-		{"duplicated series", jo("series: [a, c, d]\ndet: rc\nlags: 1\n"), map[string]string{"data.csv": sing},
+		{"duplicated series", jo("series: [a, c, d]\ndet: restricted constant\nlags: 1\n"), map[string]string{"data.csv": sing},
 			[]string{"paper.md:9:", `series "a" and "d" are identical`, "singular"}},
 		{"series listed twice", jo("series: [LRM, LRY, LRM]\nlags: 1\n"), dk,
 			[]string{"paper.md:9:", `"LRM" is listed twice`}},
@@ -410,15 +410,15 @@ func TestJohansenBadInput(t *testing.T) {
 			[]string{"paper.md:12:", `"LRX" is not one of the series`, "did you mean LRM?"}},
 		{"restrict unknown coefficient", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM = -LRZ\"\n"), dk,
 			[]string{"paper.md:12:", `"LRZ" is not one of the terms (LRM, LRY, IBO) (did you mean LRM?)`}},
-		{"restrict const outside rc", jo("series: [LRM, LRY, IBO]\ndet: c\nlags: 1\nrank: 1\nrestrict:\n  h: \"const = 0\"\n"), dk,
-			[]string{"paper.md:13:", "const row only in case rc"}},
+		{"restrict const outside rc", jo("series: [LRM, LRY, IBO]\ndet: constant\nlags: 1\nrank: 1\nrestrict:\n  h: \"const = 0\"\n"), dk,
+			[]string{"paper.md:13:", "const row only in the restricted constant case"}},
 		{"restrict without equals", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: \"LRM + LRY\"\n"), dk,
 			[]string{"paper.md:12:", `write one "=" per equation`}},
 		{"restrict dependent equations", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 1\nrestrict:\n  h: [\"LRM = -LRY\", \"2 LRM + 2*LRY = 0\"]\n"), dk,
 			[]string{"paper.md:12:", "not independent"}},
 		{"exogenous leaves too few", jo("series: [LRM, LRY, IBO]\nlags: 1\nrank: 2\nexogeneity_tests: [[LRM, LRY]]\n"), dk,
 			[]string{"paper.md:12:", "exogeneity_tests at rank 2"}},
-		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: rc\nlags: 1\nexogeneity_tests: [LRY]\n"), dk,
+		{"tests but rank 0 or K", jo("series: [LRM, LRY]\ndet: restricted constant\nlags: 1\nexogeneity_tests: [LRY]\n"), dk,
 			[]string{"paper.md:7:", "choose rank", "set rank:"}},
 		{"vecm with neither", sysDKFront + "\n" + fence("vecm", "id: v\n"), dk,
 			[]string{"paper.md:7:", "give from:"}},
@@ -431,7 +431,7 @@ func TestJohansenBadInput(t *testing.T) {
 	}
 	// A case without a critical-value table errors at det; once the table
 	// exists, the same manuscript must build.
-	noTable := jo("series: [LRM, LRY, IBO, IDE]\ndet: n\nlags: 1\n")
+	noTable := jo("series: [LRM, LRY, IBO, IDE]\ndet: none\nlags: 1\n")
 	if _, err := johansen.CriticalValues(johansen.N, johansen.TraceStat, 1); err != nil {
 		cases = append(cases, struct {
 			name  string
@@ -536,7 +536,7 @@ func TestJohansenRelationFigure(t *testing.T) {
 				t.Fatal(err)
 			}
 			target := "dk"
-			doc := sysDKFront + "\n" + fence("johansen", fmt.Sprintf("id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: %s\nlags: 1\nrank: %d\nnormalize: [%s]\n", tc.det, tc.rank, strings.Join([]string{"LRM", "LRY"}[:tc.rank], ", ")))
+			doc := sysDKFront + "\n" + fence("johansen", fmt.Sprintf("id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: %s\nlags: 1\nrank: %d\nnormalize: [%s]\n", engine.SystemCaseWords[tc.cs], tc.rank, strings.Join([]string{"LRM", "LRY"}[:tc.rank], ", ")))
 			if tc.from == "vecm" {
 				doc += "\n" + fence("vecm", "id: dkv\nfrom: dk\n")
 				target = "dkv"

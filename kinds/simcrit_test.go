@@ -220,7 +220,7 @@ func TestSimJohansen(t *testing.T) {
 	quietSim(t)
 	p := copyDemo(t)
 	src, _ := os.ReadFile(p)
-	doc := string(src) + "\n" + fence("johansen", "id: simsys\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ndet: rc\nlags: 1\ncrit: simulate\nreplications: 2000\n") +
+	doc := string(src) + "\n" + fence("johansen", "id: simsys\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ndet: restricted constant\nlags: 1\ncrit: simulate\nreplications: 2000\n") +
 		"\n" + fence("vecm", "id: simrel\nfrom: simsys\n")
 	if err := os.WriteFile(p, []byte(doc), 0o644); err != nil {
 		t.Fatal(err)

@@ -234,7 +234,7 @@ func (b *boundsResult) values() map[string]any {
 		return m
 	}
 	v := map[string]any{
-		"k": b.k, "nobs": b.n, "case": b.det.Roman(), "det": b.det.String(),
+		"k": b.k, "nobs": b.n, "case": b.det.Roman(), "det": engine.SystemCaseWords[b.det],
 		"f": map[string]any{"stat": b.f, "restrictions": b.restr, "crit": boundsValues(b.fb), "verdict": b.verdictF(),
 			"by_level": verdicts(b.f, b.fb, true), "crit_source": b.source},
 	}

@@ -92,16 +92,12 @@ func (s *ardlSpec) settings(c *engine.Context) (*settings, error) {
 	if err := s.checkSplit(c, st); err != nil {
 		return nil, err
 	}
-	det := s.Det
-	if det == "" {
-		det = "c"
-	}
-	d, err := ardl.ParseCase(det)
+	cs, err := engine.SystemCase(c, s.Det, int(ardl.Const))
 	if err != nil {
-		return nil, c.Errorf("det", "%v", strings.TrimPrefix(err.Error(), "ardl: "))
+		return nil, err
 	}
-	st.det = d
-	st.spec = ardl.Spec{Case: d, Crit: rules.AIC, MaxP: DefaultMaxLag, MaxQ: DefaultMaxLag}
+	st.det = ardl.Case(cs)
+	st.spec = ardl.Spec{Case: st.det, Crit: rules.AIC, MaxP: DefaultMaxLag, MaxQ: DefaultMaxLag}
 	if err := s.readLags(c, &st.spec); err != nil {
 		return nil, err
 	}

@@ -77,7 +77,7 @@ func (s *ardlSpec) values(st *settings, m *ardl.Model, b *boundsResult, sd *engi
 		"error_corrects": adj.HasHalfLife, "bounds": b.values(),
 		"lags": map[string]any{"p": m.Orders.P, "q": qv},
 		"nobs": m.Fit.N, "r2": m.Fit.R2(), "r2_adj": m.Fit.R2Adj(), "sigma": math.Sqrt(m.Fit.Sigma2()),
-		"det": st.det.String(), "case": st.det.Roman(), "y": s.Y, "x": s.X, "show": st.show,
+		"det": engine.SystemCaseWords[st.det], "case": st.det.Roman(), "y": s.Y, "x": s.X, "show": st.show,
 		"sample": engine.SampleValues(sd),
 	}
 	if adj.HasHalfLife {

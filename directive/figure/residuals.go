@@ -85,7 +85,9 @@ func (s *figureSpec) relation(c *engine.Context, r *engine.Result, vals map[stri
 	}
 	ser.Values = slices.Clone(ser.Values)
 	var mean float64
-	if det, _ := r.Values["det"].(string); det == "c" || det == "rt" || det == "ct" {
+	// An unrestricted constant (the constant, restricted-trend and trend
+	// cases) leaves the relation's level arbitrary.
+	if det, _ := r.Values["det"].(string); det == engine.SystemCaseWords[2] || det == engine.SystemCaseWords[3] || det == engine.SystemCaseWords[4] {
 		k := 0
 		for _, v := range ser.Values {
 			if !math.IsNaN(v) {

@@ -95,14 +95,11 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		return st, err
 	}
 	st.Names = k.Series
-	det := k.Det
-	if det == "" {
-		det = "c"
+	cs, err := engine.SystemCase(c, k.Det, int(johansen.C))
+	if err != nil {
+		return st, err
 	}
-	var err error
-	if st.Case, err = johansen.ParseCase(det); err != nil {
-		return st, c.Errorf("det", "det: %q is not a case; write n, rc, c, rt or ct", k.Det)
-	}
+	st.Case = johansen.Case(cs)
 	if !k.Lags.Set {
 		return st, c.Errorf("", "galley %s: the key \"lags\" is required (a number of lagged differences, or aic, bic or hq)", c.Kind())
 	}
@@ -272,7 +269,7 @@ func betaRestriction(eq string, coefs []string, cs johansen.Case) ([]float64, er
 	lin, err := engine.ParseRestriction(eq, coefs, restrict.Options{Homogeneous: true})
 	var re *restrict.Error
 	if errors.As(err, &re) && errors.Is(err, restrict.ErrUnknownTerm) && (re.Term == "const" || re.Term == "trend") {
-		return nil, fmt.Errorf("%w; β has a %s row only in case %s (this is case %s)", err, re.Term, map[string]string{"const": "rc", "trend": "rt"}[re.Term], cs)
+		return nil, fmt.Errorf("%w; β has a %s row only in the %s case (this is the %s case)", err, re.Term, map[string]string{"const": "restricted constant", "trend": "restricted trend"}[re.Term], engine.SystemCaseWords[cs])
 	}
 	if err != nil {
 		return nil, err

@@ -343,7 +343,7 @@ func (s *sysState) values() map[string]any {
 		"crit_trace": ct, "crit_maxeig": cm, "crit_source": critSource(r.Case),
 		"rank": s.rank, "rank_chosen": s.chosen, "level": s.st.Level,
 		"small_sample": s.st.SmallSample, "factor": r.SmallSampleFactor(),
-		"nobs": r.T, "lags": r.Lags, "det": r.Case.String(), "series": slices.Clone(s.st.Names),
+		"nobs": r.T, "lags": r.Lags, "det": engine.SystemCaseWords[r.Case], "series": slices.Clone(s.st.Names),
 		"sample": map[string]any{"from": s.d.Dates[r.Lags+1].String(), "to": s.d.Dates[s.d.N()-1].String(), "n": r.T},
 	}
 	if s.ex != nil && (len(s.ex.keys) > 0 || len(s.ex.restricted) > 0) {

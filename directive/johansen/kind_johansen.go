@@ -172,8 +172,8 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 func sysNote(st *sysState, sel string) string {
 	r := st.res
 	var b strings.Builder
-	fmt.Fprintf(&b, "VECM in %s with %s (case %s) and %s; T = %d observations (%s–%s). ",
-		strings.Join(st.st.Names, ", "), sysCaseText[r.Case], r.Case, st.lagPhrase(sel), r.T,
+	fmt.Fprintf(&b, "VECM in %s with %s (the %s case) and %s; T = %d observations (%s–%s). ",
+		strings.Join(st.st.Names, ", "), sysCaseText[r.Case], engine.SystemCaseWords[r.Case], st.lagPhrase(sel), r.T,
 		st.d.Dates[r.Lags+1], st.d.Dates[st.d.N()-1])
 	fmt.Fprintf(&b, "The trace statistic tests rank r against %d, the maximum-eigenvalue statistic r against r + 1; critical values: %s. ", r.K, st.critText()) // critText: simcrit.go
 	fmt.Fprintf(&b, "Testing r = 0, 1, … in turn with the trace statistic at %s gives rank %d", contract.Pct(st.st.Level), st.chosen)

@@ -87,8 +87,8 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	} else {
 		t = shortRunTable(st, dec)
 	}
-	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (case %s) and %s; T = %d.",
-		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], st.res.Case, st.lagPhrase(sel), st.res.T))
+	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (the %s case) and %s; T = %d.",
+		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], engine.SystemCaseWords[st.res.Case], st.lagPhrase(sel), st.res.T))
 	return &engine.Result{Table: t, Values: vals, Relations: st.relations(), Hidden: hidden}, nil
 }
 
@@ -214,15 +214,8 @@ func (s *varLagsSpec) Check(c *engine.Context) error {
 }
 
 func (s *varLagsSpec) cse(c *engine.Context) (johansen.Case, error) {
-	det := s.Det
-	if det == "" {
-		det = "c"
-	}
-	cs, err := johansen.ParseCase(det)
-	if err != nil {
-		return cs, c.Errorf("det", "det: %q is not a case; write n, rc, c, rt or ct", s.Det)
-	}
-	return cs, nil
+	cs, err := engine.SystemCase(c, s.Det, int(johansen.C))
+	return johansen.Case(cs), err
 }
 
 func (s *varLagsSpec) Run(c *engine.Context) (*engine.Result, error) {
@@ -262,9 +255,9 @@ func (s *varLagsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T("Minimum at"), table.Empty, table.Empty, table.I(lt.AIC), table.I(lt.BIC), table.I(lt.HQ)}, RuleAbove: true})
 	det := map[johansen.Case]string{johansen.N: "no deterministic terms", johansen.RC: "a constant", johansen.C: "a constant",
 		johansen.RT: "a constant and trend", johansen.CT: "a constant and trend"}[cs]
-	t.Notes = []string{fmt.Sprintf("VAR in the levels of %s with %s (for case %s), fitted by least squares with k + 1 lags for k = 0–%d lagged differences on the common sample of T = %d observations; Σ is the residual covariance, and the criteria are ln det Σ plus a penalty per coefficient (2/T, ln T/T, 2 ln ln T/T).",
-		strings.Join(s.Series, ", "), det, cs, maxL, lt.T), d.SampleNote()}
+	t.Notes = []string{fmt.Sprintf("VAR in the levels of %s with %s (for the %s case), fitted by least squares with k + 1 lags for k = 0–%d lagged differences on the common sample of T = %d observations; Σ is the residual covariance, and the criteria are ln det Σ plus a penalty per coefficient (2/T, ln T/T, 2 ln ln T/T).",
+		strings.Join(s.Series, ", "), det, engine.SystemCaseWords[cs], maxL, lt.T), d.SampleNote()}
 	vals := map[string]any{"rows": rows, "aic": lt.AIC, "bic": lt.BIC, "hq": lt.HQ, "nobs": lt.T, "max": maxL,
-		"det": cs.String(), "series": slices.Clone(s.Series), "sample": engine.SampleValues(d)}
+		"det": engine.SystemCaseWords[cs], "series": slices.Clone(s.Series), "sample": engine.SampleValues(d)}
 	return &engine.Result{Table: t, Values: vals}, nil
 }

@@ -75,8 +75,8 @@ func (s *sysState) critText() string {
 	if s.sim.chosenLag {
 		lag += " (the order the criterion chose, held fixed in every replication)"
 	}
-	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, case %s; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
-		engine.Group(r0.Reps), r0.Seed, r0.NObs, lag, s.res.Case)
+	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, the %s case; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
+		engine.Group(r0.Reps), r0.Seed, r0.NObs, lag, engine.SystemCaseWords[s.res.Case])
 }
 
 // mcseNote lists the Monte Carlo standard errors of the simulated
