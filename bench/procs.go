@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 )
 
@@ -96,13 +97,20 @@ func WriteProjects(dir string) ([]Project, error) {
 	return writeProjects(dir, true)
 }
 
+// WriteProject writes only the project called name (as WriteProjects
+// names them) into dir and returns its folder.
+func WriteProject(dir, name string) (string, error) {
+	_, err := writeProjects(dir, true, name)
+	return filepath.Join(dir, name), err
+}
+
 // Projects lists the projects WriteProjects wrote into dir.
 func Projects(dir string) []Project {
 	p, _ := writeProjects(dir, false)
 	return p
 }
 
-func writeProjects(dir string, write bool) ([]Project, error) {
+func writeProjects(dir string, write bool, only ...string) ([]Project, error) {
 	type spec struct {
 		name, kind, body string
 		names            []string
@@ -133,7 +141,7 @@ func writeProjects(dir string, write bool) ([]Project, error) {
 			p.Python = append(append([]string(nil), s.python...), filepath.Join(d, "data.csv"))
 		}
 		out = append(out, p)
-		if !write {
+		if !write || len(only) > 0 && !slices.Contains(only, s.name) {
 			continue
 		}
 		if err := os.MkdirAll(d, 0o755); err != nil {

@@ -136,7 +136,7 @@ func (s *dataStore) load(alias string) (*series.Frame, error) {
 		if ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
 		}
-		f, err = series.ReadCSVAs(bytes.NewReader(raw), display, ref.Freq())
+		f, err = series.ReadCSVBytesAs(raw, display, ref.Freq())
 	}
 	if err != nil {
 		return nil, err

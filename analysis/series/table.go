@@ -19,6 +19,7 @@ type table struct {
 	decided  bool     // dateCol has been chosen (at the first data row)
 	headLine int
 	want     Freq // the declared frequency; Undated: infer it
+	rowsHint int  // rows expected (0: unknown): the columns are allocated once
 }
 
 func newTable(source string, want Freq) *table {
@@ -91,6 +92,13 @@ func (t *table) decide(first []string) {
 		}
 	}
 	f.cols = make([][]float64, len(f.Names))
+	if n := t.rowsHint; n > 0 {
+		for j := range f.cols {
+			f.cols[j] = make([]float64, 0, n)
+		}
+		f.Dates = make([]Date, 0, n)
+		f.Lines = make([]int, 0, n)
+	}
 	if t.dateCol < 0 {
 		f.Freq = Undated
 	}
