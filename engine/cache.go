@@ -3,12 +3,10 @@ package engine
 import (
 	"bytes"
 	"crypto/sha256"
-	"encoding/binary"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
-	"math"
 	"os"
 	"path/filepath"
 	"sort"
@@ -183,29 +181,12 @@ func (d *Document) hashColumn(alias, col string) (string, bool) {
 		sum := sha256.Sum256(raw)
 		return hex.EncodeToString(sum[:]), true
 	}
-	f, err := d.data.frame(alias)
+	sums, err := d.data.columnSums(alias)
 	if err != nil {
 		return "", false
 	}
-	h := sha256.New()
-	if col == "" {
-		h.Write([]byte(f.Freq.String()))
-		for _, dt := range f.Dates {
-			h.Write([]byte(dt.String()))
-			h.Write([]byte{0})
-		}
-	} else {
-		v, ok := f.Column(col)
-		if !ok {
-			return "", false
-		}
-		var buf [8]byte
-		for _, x := range v {
-			binary.LittleEndian.PutUint64(buf[:], math.Float64bits(x))
-			h.Write(buf[:])
-		}
-	}
-	return hex.EncodeToString(h.Sum(nil)), true
+	h, ok := sums.Hashes[col]
+	return h, ok
 }
 
 func (c *Cache) path(specKey string) string { return filepath.Join(c.Dir, specKey[:2], specKey+".gob") }
