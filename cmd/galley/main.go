@@ -10,6 +10,7 @@ import (
 	"errors"
 	"fmt"
 	"os"
+	"runtime/pprof"
 	"strings"
 
 	"github.com/alecthomas/kong"
@@ -36,6 +37,16 @@ type exitError struct {
 func (e *exitError) Error() string { return e.err.Error() }
 
 func main() {
+	// GALLEY_CPUPROFILE=FILE writes a CPU profile of the whole command
+	// (bench/README.md: where a build's time goes).
+	if p := os.Getenv("GALLEY_CPUPROFILE"); p != "" {
+		if f, err := os.Create(p); err == nil && pprof.StartCPUProfile(f) == nil {
+			code := run(os.Args[1:])
+			pprof.StopCPUProfile()
+			f.Close()
+			os.Exit(code)
+		}
+	}
 	os.Exit(run(os.Args[1:]))
 }
 
