@@ -226,6 +226,9 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	if e.FullKey != d.fullKey(b.specKey, e.Columns, e.Upstream) {
 		return nil, "", false
 	}
+	// the directive may have moved since the entry was stored (prose
+	// added above it): its result is at its line in this build
+	e.Result.Line = b.line
 	e.Result.Values = fromGob(e.Result.Values).(map[string]any)
 	if e.Result.Spec != nil {
 		e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
@@ -292,4 +295,80 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 		return
 	}
 	_ = atomicfile.WriteUnsynced(c.path(b.specKey), buf.Bytes(), 0o644)
+}
+
+// resultsSlot is where the cache keeps the last results file of this
+// manuscript (one per manuscript, vintage and nesting, so that edits do
+// not pile up copies), and resultsKey what it must match: galley's
+// version, the inputs, and each result's full key, line and number.
+// Every result with the same full key has the same values, so equal
+// keys mean equal files.
+func (d *Document) resultsSlot(version string) (path, key string, ok bool) {
+	c := d.opts.Cache
+	if c == nil || c.Dir == "" {
+		return "", "", false
+	}
+	abs, err := filepath.Abs(d.File)
+	if err != nil {
+		return "", "", false
+	}
+	h := sha256.New()
+	write := func(s string) {
+		h.Write([]byte(s))
+		h.Write([]byte{0})
+	}
+	for _, s := range []string{cacheMagic, abs, d.opts.Vintage, fmt.Sprint(d.opts.nested)} {
+		write(s)
+	}
+	slot := hex.EncodeToString(h.Sum(nil))
+	h.Reset()
+	for _, s := range []string{cacheMagic, c.Version, version, filepath.Base(d.File), d.opts.Vintage} {
+		write(s)
+	}
+	for _, in := range d.Inputs() {
+		write(in.Path)
+		write(in.SHA256)
+	}
+	for _, b := range d.blocks {
+		if b.result == nil {
+			continue
+		}
+		if b.fullKey == "" {
+			return "", "", false
+		}
+		write(b.id)
+		write(b.fullKey)
+		write(itoa(b.result.Line))
+		write(itoa(b.result.Number))
+	}
+	return filepath.Join(c.Dir, "results", slot+".json"), hex.EncodeToString(h.Sum(nil)), true
+}
+
+// cachedResults returns the results file stored for this build's
+// results if there is one, else render()'s, storing it.
+func (d *Document) cachedResults(version string, render func() ([]byte, error)) ([]byte, error) {
+	path, key, ok := d.resultsSlot(version)
+	if !ok {
+		return render()
+	}
+	// stored as the key, the SHA-256 of the file, a line feed, the file
+	head := []byte(key + " ")
+	if !d.opts.Cache.Fresh {
+		if b, err := os.ReadFile(path); err == nil && bytes.HasPrefix(b, head) {
+			if sum, body, ok := bytes.Cut(b[len(head):], []byte("\n")); ok {
+				got := sha256.Sum256(body)
+				if hex.EncodeToString(got[:]) == string(sum) {
+					return body, nil
+				}
+			}
+		}
+	}
+	b, err := render()
+	if err != nil {
+		return nil, err
+	}
+	sum := sha256.Sum256(b)
+	out := append(append(append(head, hex.EncodeToString(sum[:])...), '\n'), b...)
+	_ = atomicfile.WriteUnsynced(path, out, 0o644) // a failure costs a render next time
+	return b, nil
 }
