@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -44,5 +45,42 @@ func TestCachedResultsFile(t *testing.T) {
 	_, plain := runCached(t, p, nil)
 	if !bytes.Equal(moved, plain) || bytes.Equal(moved, first) {
 		t.Fatal("after an edit the results file is not the one a build without the cache writes")
+	}
+}
+
+// TestCachePackKeepsUndoneEdit: the cache keeps one file of entries per
+// manuscript; an entry whose directive changed is kept beside the new
+// one, so that undoing the edit reuses it, and a build where nothing
+// ran does not rewrite the file.
+func TestCachePackKeepsUndoneEdit(t *testing.T) {
+	p := copyDemo(t)
+	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
+	runCached(t, p, c)
+	src, _ := os.ReadFile(p)
+	edited := strings.Replace(string(src), "caption: Summary statistics, logs", "caption: Summary statistics (logs)", 1)
+	if edited == string(src) {
+		t.Fatal("edit not applied")
+	}
+	os.WriteFile(p, []byte(edited), 0o644)
+	d, _ := runCached(t, p, c)
+	// the revision report reads every result, so it runs again too
+	if got := d.Ran(); !slices.Equal(got, []string{"desc", "rev"}) {
+		t.Fatalf("after the edit ran %v, want [desc rev]", got)
+	}
+	os.WriteFile(p, src, 0o644)
+	d, _ = runCached(t, p, c)
+	// desc is reused; the report (one entry per directive: the last
+	// one stored) reruns on its upstream's old results
+	if got := d.Ran(); !slices.Equal(got, []string{"rev"}) {
+		t.Fatalf("after undoing the edit ran %v, want [rev]", got)
+	}
+	packs, _ := filepath.Glob(filepath.Join(c.Dir, "pack", "*.gob"))
+	if len(packs) != 2 { // the paper's and its revision build's
+		t.Fatalf("%d pack files, want 2", len(packs))
+	}
+	st, _ := os.Stat(packs[0])
+	runCached(t, p, c)
+	if st2, _ := os.Stat(packs[0]); !st2.ModTime().Equal(st.ModTime()) || st2.Size() != st.Size() {
+		t.Error("a build where nothing ran rewrote the pack")
 	}
 }
