@@ -150,7 +150,7 @@ func hashDates(f *series.Frame) string {
 	for _, dt := range f.Dates {
 		var day int64
 		if dt.Freq == series.Daily {
-			day = dt.Day.Unix()
+			day = dt.Day().Unix()
 		}
 		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Year))
 		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Sub))
