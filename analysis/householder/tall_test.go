@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"gonum.org/v1/gonum/mat"
 )
 
 // adfLike returns the columns of a Dickey–Fuller comparison design on a
@@ -162,6 +164,27 @@ func BenchmarkNestedTall(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		if _, err := NestedTall(cols, ssr, tt); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// TestColumnsDenseAndGeneral: Columns copies a dense matrix (read in
+// place) and any other matrix (read by At) to the same columns.
+func TestColumnsDenseAndGeneral(t *testing.T) {
+	d := mat.NewDense(4, 3, []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12})
+	view := d.Slice(1, 4, 1, 3) // a dense view with stride 3
+	for _, x := range []mat.Matrix{d, d.T(), view} {
+		cols := Columns(x, 1)
+		r, c := x.Dims()
+		if len(cols) != c+1 || len(cols[c]) != r {
+			t.Fatalf("shape %d×%d", len(cols[0]), len(cols))
+		}
+		for j := 0; j < c; j++ {
+			for i := 0; i < r; i++ {
+				if cols[j][i] != x.At(i, j) {
+					t.Fatalf("(%d,%d) = %v, want %v", i, j, cols[j][i], x.At(i, j))
+				}
+			}
 		}
 	}
 }
