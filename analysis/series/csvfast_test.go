@@ -2,8 +2,10 @@ package series
 
 import (
 	"bytes"
+	"fmt"
 	"math"
 	"reflect"
+	"strings"
 	"testing"
 )
 
@@ -85,6 +87,81 @@ func TestReadCSVBytesPlainPath(t *testing.T) {
 	} {
 		if got := plainCSV([]byte(tc.in)); got != tc.plain {
 			t.Errorf("plainCSV(%q) = %v, want %v", tc.in, got, tc.plain)
+		}
+	}
+}
+
+// TestReadCSVBytesParallelSame: a file long enough to be parsed on every
+// core gives the frame and the errors of the streaming reader, with bad
+// values and dates early, late, at block boundaries and together (the
+// earlier one must win, as in a reading in order).
+func TestReadCSVBytesParallelSame(t *testing.T) {
+	const n = 2*parallelRows + 3
+	row := func(i int) []string {
+		y, m := 1000+i/12, i%12+1
+		return []string{fmt.Sprintf("%d-%02d", y, m), fmt.Sprintf("%d.5", i), fmt.Sprintf("%de-3", 2*i)}
+	}
+	build := func(edit func(i int, r []string) []string) []byte {
+		var b bytes.Buffer
+		b.WriteString("date;x;y\n")
+		for i := 0; i < n; i++ {
+			r := row(i)
+			if edit != nil {
+				r = edit(i, r)
+			}
+			b.WriteString(strings.Join(r, ";") + "\n")
+			if i == 100 {
+				b.WriteString("\n") // an empty line moves the line numbers
+			}
+		}
+		return b.Bytes()
+	}
+	cases := map[string][]byte{"clean": build(nil)}
+	for _, at := range []int{0, n/2 - 1, n / 2, n - 1} { // two blocks on two cores
+		at := at
+		cases[fmt.Sprintf("bad value at %d", at)] = build(func(i int, r []string) []string {
+			if i == at {
+				r[2] = "1,5"
+			}
+			return r
+		})
+		cases[fmt.Sprintf("bad date at %d", at)] = build(func(i int, r []string) []string {
+			if i == at {
+				r[0] = "1990-13"
+			}
+			return r
+		})
+		cases[fmt.Sprintf("short row at %d, bad value later", at)] = build(func(i int, r []string) []string {
+			if i == at {
+				r = r[:2]
+			}
+			if i == min(at+7, n-1) {
+				r[1] = "x"
+			}
+			return r
+		})
+		cases[fmt.Sprintf("bad value at %d, bad date later", at)] = build(func(i int, r []string) []string {
+			if i == at {
+				r[1] = "inf"
+			}
+			if i == min(at+5000, n-1) {
+				r[0] = "2990-01"
+			}
+			return r
+		})
+	}
+	for name, data := range cases {
+		want, werr := ReadCSV(bytes.NewReader(data), "p.csv")
+		got, gerr := ReadCSVBytes(data, "p.csv")
+		if (werr == nil) != (gerr == nil) || werr != nil && werr.Error() != gerr.Error() {
+			t.Errorf("%s: streaming: %v; in memory: %v", name, werr, gerr)
+			continue
+		}
+		if werr == nil && !sameFrame(want, got) {
+			t.Errorf("%s: frames differ", name)
+		}
+		if name == "clean" && (werr != nil || got.Len() != n || got.Freq != Monthly) {
+			t.Errorf("clean file: %v, %d rows", werr, got.Len())
 		}
 	}
 }
