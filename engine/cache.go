@@ -238,6 +238,9 @@ func (d *Document) cachePack() *cachePack {
 		return p
 	}
 	p.path = filepath.Join(c.Dir, "pack", slot+".gob")
+	if c.Fresh {
+		return p // every result is computed again and the pack rewritten
+	}
 	raw, err := os.ReadFile(p.path)
 	if err != nil {
 		return p
