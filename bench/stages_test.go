@@ -10,13 +10,14 @@ import (
 
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/version"
 )
 
 // Stage benchmarks: each step of a build on its own, so that a slowdown
-// shows up in one place. The lag search itself is benchmarked in
-// analysis/unitroot (BenchmarkNestedSelection), the hashes and the cache
-// in engine (BenchmarkColumnHash*, BenchmarkCacheLookup).
+// shows up in one place. The lag search's factorisation is benchmarked
+// in analysis/householder (BenchmarkNestedTall, BenchmarkNestedFactor),
+// the hashes of the data in engine (BenchmarkHashColumns).
 //
 //	go test -run '^$' -bench Stage -benchtime 20x ./bench/
 
@@ -129,6 +130,32 @@ func BenchmarkStageStartup(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		if out, err := exec.Command(exe, "--version").CombinedOutput(); err != nil {
 			b.Fatalf("%v: %s", err, out)
+		}
+	}
+}
+
+// BenchmarkStageCacheLoad: parsing the demo and running every directive
+// from the result cache (the pack read and decoded, the data's stored
+// sums checked), without rendering or writing.
+func BenchmarkStageCacheLoad(b *testing.B) {
+	p := demoCopy(b)
+	if _, _, err := Build(p, true); err != nil {
+		b.Fatal(err)
+	}
+	cd := filepath.Join(filepath.Dir(p), ".galley-cache")
+	opts := engine.Options{Cache: &engine.Cache{Dir: cd, Version: version.BuildID(cd)}}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		doc, err := engine.Parse(p, opts)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := doc.Run(); err != nil {
+			b.Fatal(err)
+		}
+		if len(doc.Ran()) != 0 {
+			b.Fatalf("ran %v", doc.Ran())
 		}
 	}
 }

@@ -84,7 +84,7 @@ type dataSums struct {
 // format, sheet and declared frequency, and the hash rule's version.
 func dataSumsKey(df *dataFile) string {
 	h := sha256.New()
-	for _, s := range []string{"galley-data-sums-1", df.sum, strings.ToLower(filepath.Ext(df.full)), df.ref.Sheet, df.ref.Freq().String()} {
+	for _, s := range []string{"galley-data-sums-2", df.sum, strings.ToLower(filepath.Ext(df.full)), df.ref.Sheet, df.ref.Freq().String()} {
 		h.Write([]byte(s))
 		h.Write([]byte{0})
 	}
@@ -141,20 +141,15 @@ func (s *dataStore) columnSums(alias string) (*dataSums, error) {
 	return ds, nil
 }
 
-// hashDates hashes a frame's date axis: its frequency, then each date as
-// fixed-width binary (year, period, and the day's Unix seconds).
+// hashDates hashes a frame's date axis: its frequency, then each date's
+// index on that frequency's time line (series.Date.Index, which numbers
+// the dates of one frequency one to one) as 8 bytes.
 func hashDates(f *series.Frame) string {
 	h := sha256.New()
 	h.Write([]byte(f.Freq.String()))
-	buf := make([]byte, 0, 24*len(f.Dates))
+	buf := make([]byte, 0, 8*len(f.Dates))
 	for _, dt := range f.Dates {
-		var day int64
-		if dt.Freq == series.Daily {
-			day = dt.Day().Unix()
-		}
-		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Year))
-		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Sub))
-		buf = binary.LittleEndian.AppendUint64(buf, uint64(day))
+		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Index()))
 	}
 	h.Write(buf)
 	return hex.EncodeToString(h.Sum(nil))
