@@ -6,6 +6,10 @@
 // figures.
 //
 //	go run ./bench/cmd/procbench -galley ./galley -work /tmp/pb -runs 10 [-demo examples/gridlink] [-python /usr/bin/python3] [-py1m]
+//	go run ./bench/cmd/procbench -galley ./galley -before ./galley-old -work /tmp/pb -runs 10 [-big]
+//
+// The second form times two builds of galley side by side instead
+// (after/before for each workload).
 //
 // For each command it prints the minimum and the median wall time and
 // the largest peak resident memory; then the ratios of the targets in
@@ -111,6 +115,8 @@ func main() {
 	py1m := flag.Bool("py1m", false, "also time the statsmodels script on ADF at T = 1,000,000 (slow)")
 	only := flag.String("only", "", "run only the groups whose name contains this (adf, eg, joh, demo)")
 	write := flag.String("write", "", "only write the projects into this folder")
+	base := flag.String("before", "", "another galley executable: time it and -galley side by side (before/after) instead of the targets")
+	big := flag.Bool("big", false, "with -before: also Johansen at T = 1,000,000 (slow)")
 	flag.Parse()
 	if *write != "" {
 		if _, err := bench.WriteProjects(*write); err != nil {
@@ -122,6 +128,13 @@ func main() {
 	if *galley == "" || *work == "" {
 		fmt.Fprintln(os.Stderr, "procbench: -galley and -work are required")
 		os.Exit(2)
+	}
+	if *base != "" {
+		if err := runPair(*base, *galley, *work, *runs, *demo, *big); err != nil {
+			fmt.Fprintln(os.Stderr, "procbench:", err)
+			os.Exit(1)
+		}
+		return
 	}
 	if err := run(*galley, *work, *runs, *demo, *python, *script, *py1m, *only); err != nil {
 		fmt.Fprintln(os.Stderr, "procbench:", err)
