@@ -6,9 +6,17 @@
 #
 #   bench/compare.sh [RUNS]      (from anywhere inside the repository)
 #
+# First the whole-process targets of issue 17 (bench/cmd/procbench: the
+# galley command beside statsmodels scripts, runs interleaved so that
+# each ratio compares runs taken under the same load), then the
+# in-process workloads (bench/cmd/galleybench beside
+# bench/statsmodels_bench.py).
+#
 # Each figure is the best of RUNS runs (default 10); the median is shown
-# too. The machine may be shared, so run it more than once and keep the
-# best figures. Speed is never asserted: this script only reports.
+# too. The machine may be shared: the whole-process ratios compare runs
+# taken side by side, which is what to quote. Speed is never asserted:
+# this script only reports. PROCBENCH_FLAGS passes options to procbench
+# (for example -py1m, or -only adf).
 set -eu
 RUNS=${1:-10}
 ROOT=$(cd "$(dirname "$0")/.." && pwd)
@@ -29,8 +37,14 @@ WORK=$(mktemp -d)
 trap 'rm -rf "$WORK"' EXIT
 go build -o "$WORK/galleybench" ./bench/cmd/galleybench
 go build -o "$WORK/galley" ./cmd/galley
+go build -o "$WORK/procbench" ./bench/cmd/procbench
 
 echo "== machine: $(nproc) cores, $(grep -m1 'model name' /proc/cpuinfo | cut -d: -f2 | sed 's/^ *//'), $(go version | cut -d' ' -f3-), $(date -u +%Y-%m-%d), load $(cut -d' ' -f1-3 /proc/loadavg)"
+echo "== whole processes (min and median of $RUNS interleaved runs)"
+"$WORK/procbench" -galley "$WORK/galley" -work "$WORK/procs" -runs "$RUNS" -demo examples/gridlink -python "$PY" ${PROCBENCH_FLAGS:-}
+rm -rf "$WORK/procs"
+echo
+echo "== in process"
 "$WORK/galleybench" -data "$WORK/data" -runs "$RUNS" -demo examples/gridlink -galley "$WORK/galley" >"$WORK/galley.tsv"
 "$PY" bench/statsmodels_bench.py "$WORK/data" "$RUNS" >"$WORK/statsmodels.tsv"
 
@@ -48,5 +62,5 @@ awk -F'\t' '
 			}
 		}
 		print ""
-		print "targets: adf ratio >= 20; demo_cold < 300 ms; demo_warm < 50 ms; johansen_K6_T10000 < 20 ms"
+		print "(in process; the targets of issue 17 are the whole-process table above)"
 	}' "$WORK/statsmodels.tsv" "$WORK/galley.tsv"

@@ -241,13 +241,19 @@ func (p Phases) Total() time.Duration { return p.Parse + p.Run + p.Render + p.Wr
 // figures (SVG and PDF) into out/ beside the manuscript through one
 // atomicfile.Set. It returns the document and the time of each step.
 func Build(manuscript string, cache bool) (*engine.Document, Phases, error) {
+	return BuildFresh(manuscript, cache, false)
+}
+
+// BuildFresh is Build, ignoring stored results when fresh is set (as
+// `galley build --fresh`: every directive runs and its result is stored).
+func BuildFresh(manuscript string, cache, fresh bool) (*engine.Document, Phases, error) {
 	var ph Phases
 	t0 := time.Now()
 	dir := filepath.Dir(manuscript)
 	var opts engine.Options
 	if cache {
 		cd := filepath.Join(dir, ".galley-cache")
-		opts.Cache = &engine.Cache{Dir: cd, Version: version.BuildID(cd)}
+		opts.Cache = &engine.Cache{Dir: cd, Version: version.BuildID(cd), Fresh: fresh}
 	}
 	doc, err := engine.Parse(manuscript, opts)
 	if err != nil {

@@ -1,6 +1,7 @@
 package dataio
 
 import (
+	"bytes"
 	"fmt"
 	"io"
 	"os"
@@ -86,10 +87,16 @@ func ReadFile(path string, limit int64) ([]byte, error) {
 		return nil, err
 	}
 	defer fh.Close()
-	b, err := io.ReadAll(io.LimitReader(fh, limit+1))
-	if err != nil {
+	// one buffer of the file's size (io.ReadAll would grow one by
+	// doubling, copying and clearing each time)
+	var buf bytes.Buffer
+	if fi, err := fh.Stat(); err == nil && fi.Size() <= limit {
+		buf.Grow(int(fi.Size()) + bytes.MinRead)
+	}
+	if _, err := buf.ReadFrom(io.LimitReader(fh, limit+1)); err != nil {
 		return nil, err
 	}
+	b := buf.Bytes()
 	if int64(len(b)) > limit {
 		return nil, tooLarge(path, limit)
 	}

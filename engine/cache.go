@@ -3,12 +3,10 @@ package engine
 import (
 	"bytes"
 	"crypto/sha256"
-	"encoding/binary"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
-	"math"
 	"os"
 	"path/filepath"
 	"sort"
@@ -183,32 +181,86 @@ func (d *Document) hashColumn(alias, col string) (string, bool) {
 		sum := sha256.Sum256(raw)
 		return hex.EncodeToString(sum[:]), true
 	}
-	f, err := d.data.frame(alias)
+	sums, err := d.data.columnSums(alias)
+	if err != nil {
+		return "", false
+	}
+	h, ok := sums.Hashes[col]
+	return h, ok
+}
+
+// cachePack holds the result cache's entries for one manuscript (its
+// path, vintage and nesting): one file, read with one gob decoder when
+// the first directive looks for its result and written once at the end
+// of a build in which anything ran, instead of one file and one decoder
+// per entry (a decoder compiles the types of what it reads each time).
+type cachePack struct {
+	path    string
+	entries map[string]*cacheEntry // as stored (gob form), by spec key
+	used    map[string]*cacheEntry // reused in this build (values restored)
+	stored  map[string]*cacheEntry // run and stored in this build (gob form)
+	loaded  bool                   // the file was read and is current
+}
+
+// packHeader starts a pack file; N entries follow in the same stream.
+type packHeader struct {
+	Magic, Version string
+	N              int
+}
+
+// cacheSlot names the files the cache keeps for this manuscript.
+func (d *Document) cacheSlot() (string, bool) {
+	abs, err := filepath.Abs(d.File)
 	if err != nil {
 		return "", false
 	}
 	h := sha256.New()
-	if col == "" {
-		h.Write([]byte(f.Freq.String()))
-		for _, dt := range f.Dates {
-			h.Write([]byte(dt.String()))
-			h.Write([]byte{0})
-		}
-	} else {
-		v, ok := f.Column(col)
-		if !ok {
-			return "", false
-		}
-		var buf [8]byte
-		for _, x := range v {
-			binary.LittleEndian.PutUint64(buf[:], math.Float64bits(x))
-			h.Write(buf[:])
-		}
+	for _, s := range []string{cacheMagic, abs, d.opts.Vintage, fmt.Sprint(d.opts.nested)} {
+		h.Write([]byte(s))
+		h.Write([]byte{0})
 	}
 	return hex.EncodeToString(h.Sum(nil)), true
 }
 
-func (c *Cache) path(specKey string) string { return filepath.Join(c.Dir, specKey[:2], specKey+".gob") }
+// cachePack loads this manuscript's pack (once); nil without a cache.
+func (d *Document) cachePack() *cachePack {
+	c := d.opts.Cache
+	if c == nil || c.Dir == "" {
+		return nil
+	}
+	if d.pack != nil {
+		return d.pack
+	}
+	p := &cachePack{entries: map[string]*cacheEntry{}, used: map[string]*cacheEntry{}, stored: map[string]*cacheEntry{}}
+	d.pack = p
+	slot, ok := d.cacheSlot()
+	if !ok {
+		return p
+	}
+	p.path = filepath.Join(c.Dir, "pack", slot+".gob")
+	if c.Fresh {
+		return p // every result is computed again and the pack rewritten
+	}
+	raw, err := os.ReadFile(p.path)
+	if err != nil {
+		return p
+	}
+	dec := gob.NewDecoder(bytes.NewReader(raw))
+	var h packHeader
+	if dec.Decode(&h) != nil || h.Magic != cacheMagic || h.Version != c.Version || h.N < 0 {
+		return p // corrupt, foreign or stale: rewritten at the end
+	}
+	entries := make(map[string]*cacheEntry, h.N)
+	for i := 0; i < h.N; i++ {
+		var e cacheEntry
+		if dec.Decode(&e) != nil {
+			return p // corrupt: ignore the whole pack
+		}
+		entries[e.SpecKey] = &e
+	}
+	p.entries, p.loaded = entries, true
+	return p
+}
 
 // lookup returns a stored result for b if every recorded input is unchanged.
 func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
@@ -216,13 +268,13 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	if c == nil || c.Fresh {
 		return nil, "", false
 	}
-	raw, err := os.ReadFile(c.path(b.specKey))
-	if err != nil {
+	p := d.cachePack()
+	if p == nil {
 		return nil, "", false
 	}
-	var e cacheEntry
-	if err := gob.NewDecoder(bytes.NewReader(raw)).Decode(&e); err != nil {
-		return nil, "", false // corrupt: ignore
+	e, ok := p.entries[b.specKey]
+	if !ok {
+		return nil, "", false
 	}
 	if e.Magic != cacheMagic || e.Version != c.Version || e.SpecKey != b.specKey || e.Result == nil {
 		return nil, "", false // foreign or stale
@@ -245,6 +297,13 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	if e.FullKey != d.fullKey(b.specKey, e.Columns, e.Upstream) {
 		return nil, "", false
 	}
+	// the directive may have moved since the entry was stored (prose
+	// added above it): its result is at its line in this build
+	// The entry is handed out: its gob form is rebuilt if the pack is
+	// written again (cacheFlush).
+	delete(p.entries, b.specKey)
+	p.used[b.specKey] = e
+	e.Result.Line = b.line
 	e.Result.Values = fromGob(e.Result.Values).(map[string]any)
 	if e.Result.Spec != nil {
 		e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
@@ -289,13 +348,23 @@ func (d *Document) recordDeps(b *block) ([]colDep, []upDep, string) {
 	return cols, ups, d.fullKey(b.specKey, cols, ups)
 }
 
-// cacheStore writes b's result; failures only cost a rerun next time.
+// cacheStore keeps b's result for the pack written at the end of the
+// build (cacheFlush).
 func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
-	c := d.opts.Cache
-	if c == nil {
+	p := d.cachePack()
+	if p == nil {
 		return
 	}
-	r := *b.result
+	e := gobEntry(d.opts.Cache.Version, b.specKey, b.fullKey, cols, ups, b.result)
+	delete(p.entries, b.specKey)
+	delete(p.used, b.specKey)
+	p.stored[b.specKey] = e
+}
+
+// gobEntry is a cache entry for r in the form gob can carry (copies of
+// its maps, nils replaced).
+func gobEntry(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
+	r := *res
 	r.Values = toGob(r.Values).(map[string]any)
 	if r.Spec != nil {
 		r.Spec = toGob(r.Spec).(map[string]any)
@@ -305,10 +374,121 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 		t.Extra = toGob(t.Extra).(map[string]any)
 		r.Test = &t
 	}
-	e := cacheEntry{Magic: cacheMagic, Version: c.Version, SpecKey: b.specKey, Columns: cols, Upstream: ups, FullKey: b.fullKey, Result: &r}
-	var buf bytes.Buffer
-	if err := gob.NewEncoder(&buf).Encode(&e); err != nil {
+	return &cacheEntry{Magic: cacheMagic, Version: version, SpecKey: specKey, Columns: cols, Upstream: ups, FullKey: fullKey, Result: &r}
+}
+
+// maxIdleEntries bounds the entries a pack keeps for directives that are
+// not in the current build (an edit undone finds its old result).
+const maxIdleEntries = 64
+
+// cacheFlush writes this manuscript's pack when the build stored a
+// result or the pack on disk was missing or stale: the entries reused
+// and stored in this build, and up to maxIdleEntries others it held. A
+// failure to write only costs a rerun next time.
+func (d *Document) cacheFlush() {
+	p := d.pack
+	if p == nil || p.path == "" || (p.loaded && len(p.stored) == 0) {
 		return
 	}
-	_ = atomicfile.WriteUnsynced(c.path(b.specKey), buf.Bytes(), 0o644)
+	c := d.opts.Cache
+	var all []*cacheEntry
+	for _, b := range d.blocks { // document order
+		if e, ok := p.stored[b.specKey]; ok {
+			all = append(all, e)
+		} else if e, ok := p.used[b.specKey]; ok {
+			all = append(all, gobEntry(e.Version, e.SpecKey, e.FullKey, e.Columns, e.Upstream, e.Result))
+		}
+	}
+	idle := make([]string, 0, len(p.entries))
+	for k := range p.entries {
+		idle = append(idle, k)
+	}
+	sort.Strings(idle)
+	for _, k := range idle[:min(len(idle), maxIdleEntries)] {
+		all = append(all, p.entries[k])
+	}
+	var buf bytes.Buffer
+	enc := gob.NewEncoder(&buf)
+	if enc.Encode(packHeader{Magic: cacheMagic, Version: c.Version, N: len(all)}) != nil {
+		return
+	}
+	for _, e := range all {
+		if enc.Encode(e) != nil {
+			return
+		}
+	}
+	if atomicfile.WriteUnsynced(p.path, buf.Bytes(), 0o644) == nil {
+		p.loaded = true
+	}
+}
+
+// resultsSlot is where the cache keeps the last results file of this
+// manuscript (one per manuscript, vintage and nesting, so that edits do
+// not pile up copies), and resultsKey what it must match: galley's
+// version, the inputs, and each result's full key, line and number.
+// Every result with the same full key has the same values, so equal
+// keys mean equal files.
+func (d *Document) resultsSlot(version string) (path, key string, ok bool) {
+	c := d.opts.Cache
+	if c == nil || c.Dir == "" {
+		return "", "", false
+	}
+	slot, ok := d.cacheSlot()
+	if !ok {
+		return "", "", false
+	}
+	h := sha256.New()
+	write := func(s string) {
+		h.Write([]byte(s))
+		h.Write([]byte{0})
+	}
+	for _, s := range []string{cacheMagic, c.Version, version, filepath.Base(d.File), d.opts.Vintage} {
+		write(s)
+	}
+	for _, in := range d.Inputs() {
+		write(in.Path)
+		write(in.SHA256)
+	}
+	for _, b := range d.blocks {
+		if b.result == nil {
+			continue
+		}
+		if b.fullKey == "" {
+			return "", "", false
+		}
+		write(b.id)
+		write(b.fullKey)
+		write(itoa(b.result.Line))
+		write(itoa(b.result.Number))
+	}
+	return filepath.Join(c.Dir, "results", slot+".json"), hex.EncodeToString(h.Sum(nil)), true
+}
+
+// cachedResults returns the results file stored for this build's
+// results if there is one, else render()'s, storing it.
+func (d *Document) cachedResults(version string, render func() ([]byte, error)) ([]byte, error) {
+	path, key, ok := d.resultsSlot(version)
+	if !ok {
+		return render()
+	}
+	// stored as the key, the SHA-256 of the file, a line feed, the file
+	head := []byte(key + " ")
+	if !d.opts.Cache.Fresh {
+		if b, err := os.ReadFile(path); err == nil && bytes.HasPrefix(b, head) {
+			if sum, body, ok := bytes.Cut(b[len(head):], []byte("\n")); ok {
+				got := sha256.Sum256(body)
+				if hex.EncodeToString(got[:]) == string(sum) {
+					return body, nil
+				}
+			}
+		}
+	}
+	b, err := render()
+	if err != nil {
+		return nil, err
+	}
+	sum := sha256.Sum256(b)
+	out := append(append(append(head, hex.EncodeToString(sum[:])...), '\n'), b...)
+	_ = atomicfile.WriteUnsynced(path, out, 0o644) // a failure costs a render next time
+	return b, nil
 }

@@ -3,7 +3,9 @@ package engine
 import (
 	"bytes"
 	"crypto/sha256"
+	"encoding/binary"
 	"encoding/hex"
+	"encoding/json"
 	"fmt"
 	"math"
 	"os"
@@ -13,6 +15,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/series"
 	"github.com/galley-econ/galley/dataio"
+	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/resultsfile"
 )
@@ -25,10 +28,145 @@ type dataStore struct {
 	errs   map[string]error
 	read   map[string]string // relative path → sha256
 	alias  map[string]string // relative path → the alias that named it
+	files  map[string]*dataFile
+	sums   map[string]*dataSums
 }
 
 func newDataStore(d *Document) *dataStore {
-	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{}, alias: map[string]string{}}
+	return &dataStore{doc: d, frames: map[string]*series.Frame{}, errs: map[string]error{}, read: map[string]string{},
+		alias: map[string]string{}, files: map[string]*dataFile{}, sums: map[string]*dataSums{}}
+}
+
+// dataFile is the file behind an alias as read in this build.
+type dataFile struct {
+	ref     manuscript.DataRef
+	full    string // the path opened
+	display string // the path in messages
+	raw     []byte // dropped once the frame is parsed
+	sum     string // sha256 of raw
+}
+
+// file reads the file behind alias once per build and records its hash
+// for the results file.
+func (s *dataStore) file(alias string) (*dataFile, error) {
+	if df, ok := s.files[alias]; ok {
+		return df, nil
+	}
+	ref, rel, err := s.path(alias)
+	if err != nil {
+		return nil, err
+	}
+	full, err := confine(s.doc.Dir, rel, s.doc.opts.AllowOutside)
+	if err != nil {
+		return nil, fmt.Errorf("data alias %q: %w", alias, err)
+	}
+	raw, err := dataio.ReadFile(full, dataio.MaxDataBytes)
+	if err != nil {
+		return nil, fmt.Errorf("data alias %q: %w", alias, err)
+	}
+	sum := sha256.Sum256(raw)
+	df := &dataFile{ref: ref, full: full, display: filepath.Join(s.doc.Dir, rel), raw: raw, sum: hex.EncodeToString(sum[:])}
+	s.read[filepath.ToSlash(rel)] = df.sum
+	if a, ok := s.alias[filepath.ToSlash(rel)]; !ok || alias < a {
+		s.alias[filepath.ToSlash(rel)] = alias
+	}
+	s.files[alias] = df
+	return df, nil
+}
+
+// dataSums are what the cache and the checks need of a parsed file: its
+// column names and the hash of each column and of its date axis (key
+// ""). They are stored under the cache folder, keyed by the file's
+// content hash and how it is read (dataSumsKey), so that a build whose
+// results all come from the cache never parses the file.
+type dataSums struct {
+	Names  []string          `json:"names"`
+	Hashes map[string]string `json:"hashes"`
+}
+
+// dataSumsKey names the stored sums of a file: its content hash, its
+// format, sheet and declared frequency, and the hash rule's version.
+func dataSumsKey(df *dataFile) string {
+	h := sha256.New()
+	for _, s := range []string{"galley-data-sums-2", df.sum, strings.ToLower(filepath.Ext(df.full)), df.ref.Sheet, df.ref.Freq().String()} {
+		h.Write([]byte(s))
+		h.Write([]byte{0})
+	}
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+func (s *dataStore) sumsPath(df *dataFile) string {
+	c := s.doc.opts.Cache
+	if c == nil || c.Dir == "" {
+		return ""
+	}
+	k := dataSumsKey(df)
+	return filepath.Join(c.Dir, "data", k[:2], k+".json")
+}
+
+// columnSums returns the names and hashes of the data behind alias: from
+// the frame if it is parsed, else from the stored sums of the same file,
+// else by parsing it (and storing the sums).
+func (s *dataStore) columnSums(alias string) (*dataSums, error) {
+	if ds, ok := s.sums[alias]; ok {
+		return ds, nil
+	}
+	if _, parsed := s.frames[alias]; !parsed {
+		df, err := s.file(alias)
+		if err != nil {
+			return nil, err
+		}
+		if p := s.sumsPath(df); p != "" {
+			if b, err := os.ReadFile(p); err == nil {
+				var ds dataSums
+				if json.Unmarshal(b, &ds) == nil && ds.Hashes != nil {
+					s.sums[alias] = &ds
+					return &ds, nil
+				}
+			}
+		}
+	}
+	f, err := s.frame(alias)
+	if err != nil {
+		return nil, err
+	}
+	ds := &dataSums{Names: f.Names, Hashes: make(map[string]string, len(f.Names)+1)}
+	ds.Hashes[""] = hashDates(f)
+	for _, n := range f.Names {
+		v, _ := f.Column(n)
+		ds.Hashes[n] = hashValues(v)
+	}
+	s.sums[alias] = ds
+	if p := s.sumsPath(s.files[alias]); p != "" {
+		if b, err := json.Marshal(ds); err == nil {
+			_ = atomicfile.WriteUnsynced(p, b, 0o644) // a failure costs a parse next time
+		}
+	}
+	return ds, nil
+}
+
+// hashDates hashes a frame's date axis: its frequency, then each date's
+// index on that frequency's time line (series.Date.Index, which numbers
+// the dates of one frequency one to one) as 8 bytes.
+func hashDates(f *series.Frame) string {
+	h := sha256.New()
+	h.Write([]byte(f.Freq.String()))
+	buf := make([]byte, 0, 8*len(f.Dates))
+	for _, dt := range f.Dates {
+		buf = binary.LittleEndian.AppendUint64(buf, uint64(dt.Index()))
+	}
+	h.Write(buf)
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+// hashValues hashes a column's values as their IEEE 754 bits.
+func hashValues(v []float64) string {
+	buf := make([]byte, 0, 8*len(v))
+	for _, x := range v {
+		buf = binary.LittleEndian.AppendUint64(buf, math.Float64bits(x))
+	}
+	sum := sha256.Sum256(buf)
+	return hex.EncodeToString(sum[:])
 }
 
 func (s *dataStore) inputs() []resultsfile.Input {
@@ -114,33 +252,21 @@ func (s *dataStore) frame(alias string) (*series.Frame, error) {
 }
 
 func (s *dataStore) load(alias string) (*series.Frame, error) {
-	ref, rel, err := s.path(alias)
+	df, err := s.file(alias)
 	if err != nil {
 		return nil, err
 	}
-	full, err := confine(s.doc.Dir, rel, s.doc.opts.AllowOutside)
-	if err != nil {
-		return nil, fmt.Errorf("data alias %q: %w", alias, err)
-	}
-	raw, err := dataio.ReadFile(full, dataio.MaxDataBytes)
-	if err != nil {
-		return nil, fmt.Errorf("data alias %q: %w", alias, err)
-	}
-	sum := sha256.Sum256(raw)
-	s.read[filepath.ToSlash(rel)] = hex.EncodeToString(sum[:])
-	if a, ok := s.alias[filepath.ToSlash(rel)]; !ok || alias < a {
-		s.alias[filepath.ToSlash(rel)] = alias
-	}
-	display := filepath.Join(s.doc.Dir, rel)
+	raw := df.raw
+	df.raw = nil // the frame holds what is needed from here on
 	var f *series.Frame
-	switch strings.ToLower(filepath.Ext(full)) {
+	switch strings.ToLower(filepath.Ext(df.full)) {
 	case ".xlsx":
-		f, err = dataio.ReadXLSXAs(bytes.NewReader(raw), display, ref.Sheet, ref.Freq())
+		f, err = dataio.ReadXLSXAs(bytes.NewReader(raw), df.display, df.ref.Sheet, df.ref.Freq())
 	default:
-		if ref.Sheet != "" {
+		if df.ref.Sheet != "" {
 			return nil, fmt.Errorf("data alias %q: sheet is only for .xlsx files", alias)
 		}
-		f, err = series.ReadCSVAs(bytes.NewReader(raw), display, ref.Freq())
+		f, err = series.ReadCSVBytesAs(raw, df.display, df.ref.Freq())
 	}
 	if err != nil {
 		return nil, err
@@ -318,22 +444,25 @@ func (c *Context) CheckData(alias string, exprs []string, sample string) error {
 		}
 		return c.Errorf("", "galley %s: the key \"data\" is required", c.b.kind.Name)
 	}
-	f, err := c.doc.data.frame(alias)
+	// The column names only: from the stored sums of the same file when
+	// there are some, so that a check does not parse the data.
+	sums, err := c.doc.data.columnSums(alias)
 	if err != nil {
 		return c.Wrap("data", err)
 	}
+	names := &series.Frame{Names: sums.Names}
 	for _, s := range exprs {
 		e, err := series.ParseExpr(s)
 		if err != nil {
 			return c.Errorf(c.exprKey(s), "%v", err)
 		}
 		for _, col := range e.Columns() {
-			if !f.Has(col) {
+			if !names.Has(col) {
 				hint := ""
-				if cl := f.Closest(col); cl != "" {
+				if cl := names.Closest(col); cl != "" {
 					hint = " (did you mean " + cl + "?)"
 				}
-				return c.Errorf(c.exprKey(s), "series %q: %s has no column %q%s", s, f.Source, col, hint)
+				return c.Errorf(c.exprKey(s), "series %q: %s has no column %q%s", s, c.doc.data.files[alias].display, col, hint)
 			}
 		}
 	}

@@ -58,6 +58,7 @@ type Document struct {
 	src    []byte                  // the manuscript as read (normalised line ends)
 	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
 	hashes map[[2]string]string    // data column hashes, by (alias, column)
+	pack   *cachePack              // the result cache's entries for this manuscript (cache.go)
 	blocks []*block
 	byID   map[string]*block
 	refs   []*manuscript.RefNode
@@ -326,6 +327,7 @@ func (d *Document) Run() error {
 			errs = append(errs, err)
 		}
 	}
+	d.cacheFlush()
 	if len(errs) > 0 {
 		return errors.Join(errs...)
 	}

@@ -23,8 +23,13 @@ func (d *Document) ResultsFile(version, label string) (*resultsfile.File, error)
 	return resultsfile.Parse(b, label)
 }
 
-// ResultsJSON renders the results file.
+// ResultsJSON renders the results file (or takes it from the cache when
+// the same results were rendered before: see cachedResults).
 func (d *Document) ResultsJSON(version string) ([]byte, error) {
+	return d.cachedResults(version, func() ([]byte, error) { return d.resultsJSON(version) })
+}
+
+func (d *Document) resultsJSON(version string) ([]byte, error) {
 	rf := resultsfile.File{Galley: version, Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage, Inputs: d.Inputs()}
 	if rf.Inputs == nil {
 		rf.Inputs = []resultsfile.Input{}

@@ -108,8 +108,30 @@ func wrap(kind string, err error) error {
 // cp1252Canvas writes text through a PDF canvas whose fonts are encoded
 // in cp1252, which has no U+2212: the typographic minus becomes the
 // hyphen-minus there (SVG and PNG keep the true minus).
+//
+// It also sets every string in one size, pdfFontSize, scaled by the
+// canvas to the size asked for: vgpdf converts a TrueType font for PDF
+// (parsing and compressing the whole font file) once per process for
+// each font face *and size*, and embeds it in a document once per size,
+// so text in three sizes cost three conversions and three copies of
+// the font in every PDF. Drawn in one size, a face is converted once
+// per process and embedded once per file; the page looks the same.
 type cp1252Canvas struct{ vg.CanvasSizer }
 
+// pdfFontSize is the one size cp1252Canvas sets text in.
+const pdfFontSize = vg.Length(10)
+
 func (c cp1252Canvas) FillString(f font.Face, pt vg.Point, s string) {
-	c.CanvasSizer.FillString(f, pt, strings.ReplaceAll(s, minus, "-"))
+	s = strings.ReplaceAll(s, minus, "-")
+	if f.Font.Size <= 0 || f.Font.Size == pdfFontSize {
+		c.CanvasSizer.FillString(f, pt, s)
+		return
+	}
+	k := f.Font.Size / pdfFontSize
+	f.Font.Size = pdfFontSize
+	c.Push()
+	c.Translate(pt)
+	c.Scale(float64(k), float64(k))
+	c.CanvasSizer.FillString(f, vg.Point{}, s)
+	c.Pop()
 }

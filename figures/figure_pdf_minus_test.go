@@ -57,3 +57,30 @@ func pdfText(t *testing.T, pdf []byte) []byte {
 	}
 	return out.Bytes()
 }
+
+// TestPDFOneFontSize: every string of a PDF is set in the one size
+// pdfFontSize (scaled by the page's transformation to the size asked
+// for), so that vgpdf converts the font once per face, not once per size.
+func TestPDFOneFontSize(t *testing.T) {
+	var s series.Series
+	for i := 0; i < 24; i++ {
+		s.Dates = append(s.Dates, series.Date{Freq: series.Monthly, Year: 2004 + i/12, Sub: i%12 + 1})
+		s.Values = append(s.Values, float64(i%5))
+	}
+	s.Name = "x"
+	f, err := Lines([]series.Series{s}, Options{Title: "T", YLabel: "y"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := f.Render("pdf", 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sizes := map[string]bool{}
+	for _, m := range regexp.MustCompile(`/F\S+ ([0-9.]+) Tf`).FindAllSubmatch(pdfText(t, b), -1) {
+		sizes[string(m[1])] = true
+	}
+	if len(sizes) != 1 || !sizes["10.00"] {
+		t.Errorf("font sizes in the PDF: %v, want only 10.00", sizes)
+	}
+}

@@ -260,6 +260,18 @@ func Columns(x mat.Matrix, extra int) [][]float64 {
 	for j := range cols {
 		cols[j] = buf[j*r : (j+1)*r : (j+1)*r]
 	}
+	if rm, ok := x.(mat.RawMatrixer); ok {
+		// a dense matrix: read its rows in place (At checks bounds
+		// and goes through an interface at every entry)
+		raw := rm.RawMatrix()
+		for i := 0; i < r; i++ {
+			row := raw.Data[i*raw.Stride : i*raw.Stride+c]
+			for j, v := range row {
+				cols[j][i] = v
+			}
+		}
+		return cols
+	}
 	for j := 0; j < c; j++ {
 		for i := 0; i < r; i++ {
 			cols[j][i] = x.At(i, j)

@@ -50,11 +50,14 @@ func AlignWith(ss []*Series, opts AlignOptions) (Aligned, error) {
 			return Aligned{}, fmt.Errorf("series %s is %s but %s is %s", s.Name, s.Dates[0].Freq, ss[0].Name, ss[0].Dates[0].Freq)
 		}
 	}
-	dates, rows := commonDates(ss)
 	names := make([]string, len(ss))
 	for j, s := range ss {
 		names[j] = s.Name
 	}
+	if out, ok := alignShared(ss, names); ok {
+		return out, nil
+	}
+	dates, rows := commonDates(ss)
 	complete := func(i int) bool {
 		for j, s := range ss {
 			if math.IsNaN(s.Values[rows[j][i]]) {
@@ -101,6 +104,48 @@ func AlignWith(ss []*Series, opts AlignOptions) (Aligned, error) {
 		out.Values[j] = v
 	}
 	return out, nil
+}
+
+// alignShared is AlignWith for the common case of series on one date
+// axis with no missing value between the first and the last complete
+// date: the result is a window of the axis, found without index lists,
+// and its Dates share the series' (read-only) date slice. ok is false
+// in every other case, which AlignWith's general path then handles.
+func alignShared(ss []*Series, names []string) (Aligned, bool) {
+	if !sameDates(ss) {
+		return Aligned{}, false
+	}
+	n := len(ss[0].Dates)
+	complete := func(i int) bool {
+		for _, s := range ss {
+			if math.IsNaN(s.Values[i]) {
+				return false
+			}
+		}
+		return true
+	}
+	lo, hi := 0, n
+	for lo < hi && !complete(lo) {
+		lo++
+	}
+	for hi > lo && !complete(hi-1) {
+		hi--
+	}
+	if lo == hi {
+		return Aligned{}, false
+	}
+	for _, s := range ss {
+		for _, v := range s.Values[lo:hi] {
+			if math.IsNaN(v) {
+				return Aligned{}, false
+			}
+		}
+	}
+	out := Aligned{Names: names, Dates: ss[0].Dates[lo:hi:hi], Values: make([][]float64, len(ss))}
+	for j, s := range ss {
+		out.Values[j] = append([]float64(nil), s.Values[lo:hi]...)
+	}
+	return out, true
 }
 
 // Contiguous returns the values and dates of one series after the

@@ -1,6 +1,8 @@
 package series
 
 import (
+	"math"
+	"strings"
 	"testing"
 )
 
@@ -104,5 +106,40 @@ func TestContiguous(t *testing.T) {
 	s = mkSeries(t, "s", "2000-01", 1, nan, 3)
 	if _, _, err := Contiguous(s); err == nil || err.Error() != "s has no value on 2000-02, inside the common sample 2000-01 to 2000-03 (fill the gap, or shorten the sample)" {
 		t.Errorf("got %v", err)
+	}
+}
+
+// TestAlignSharedWindow: series on one date axis with missing values
+// only at the ends come back as the window of complete dates (the
+// shared-axis path), and with an interior gap as before (an error, or
+// the date dropped).
+func TestAlignSharedWindow(t *testing.T) {
+	nan := math.NaN()
+	dates := make([]Date, 6)
+	for i := range dates {
+		dates[i] = Date{Freq: Annual, Year: 2000 + i, Sub: 1}
+	}
+	other := append([]Date(nil), dates...) // equal, not the same slice
+	a := &Series{Name: "a", Dates: dates, Values: []float64{nan, 1, 2, 3, 4, nan}}
+	b := &Series{Name: "b", Dates: other, Values: []float64{0, nan, 5, 6, 7, 8}}
+	al, err := Align([]*Series{a, b})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(al.Dates) != 3 || al.Dates[0].Year != 2002 || al.Dates[2].Year != 2004 ||
+		!equalFloats(al.Values[0], []float64{2, 3, 4}) || !equalFloats(al.Values[1], []float64{5, 6, 7}) || al.Dropped != nil {
+		t.Fatalf("got %+v", al)
+	}
+	al.Values[0][0] = 99
+	if a.Values[2] != 2 {
+		t.Error("the aligned values share the series' storage")
+	}
+	b.Values[3] = nan
+	if _, err := Align([]*Series{a, b}); err == nil || !strings.Contains(err.Error(), "2003") {
+		t.Errorf("interior gap: err = %v", err)
+	}
+	al, err = AlignWith([]*Series{a, b}, AlignOptions{DropMissing: true})
+	if err != nil || len(al.Dates) != 2 || len(al.Dropped) != 1 || al.Dropped[0].Year != 2003 {
+		t.Errorf("dropped: %+v, %v", al, err)
 	}
 }

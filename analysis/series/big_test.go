@@ -44,7 +44,7 @@ func TestReadCSVMillionRows(t *testing.T) {
 	if i[n-1] != n-1 || h[n-1] != float64(n-1)/2 {
 		t.Errorf("last row %v %v", i[n-1], h[n-1])
 	}
-	if want := time.Date(1700, 1, 1, 0, 0, 0, 0, time.UTC).AddDate(0, 0, n-1); !f.Dates[n-1].Day.Equal(want) {
+	if want := time.Date(1700, 1, 1, 0, 0, 0, 0, time.UTC).AddDate(0, 0, n-1); !f.Dates[n-1].Day().Equal(want) {
 		t.Errorf("last date %v, want %v", f.Dates[n-1], want)
 	}
 	// Allocations: the columns grow by doubling (a few dozen

@@ -22,8 +22,8 @@ func TestParseDate(t *testing.T) {
 		{"1990M01", Date{Freq: Monthly, Year: 1990, Sub: 1}},
 		{"1990m1", Date{Freq: Monthly, Year: 1990, Sub: 1}},
 		{"1990M12", Date{Freq: Monthly, Year: 1990, Sub: 12}},
-		{"1990-01-31", Date{Freq: Daily, Day: day("1990-01-31")}},
-		{"2000-02-29", Date{Freq: Daily, Day: day("2000-02-29")}},
+		{"1990-01-31", DailyDate(day("1990-01-31"))},
+		{"2000-02-29", DailyDate(day("2000-02-29"))},
 	}
 	for _, tc := range good {
 		got, err := ParseDate(tc.in)
@@ -98,5 +98,23 @@ func TestDateArithmetic(t *testing.T) {
 	u := Date{Freq: Undated, Sub: 3}
 	if u.Add(2).Sub != 5 {
 		t.Error("undated Add")
+	}
+}
+
+// TestDailyDateDay: a daily date keeps its calendar day whatever the
+// time of day or location it was made from, and Day gives it back at
+// midnight UTC; equal days give equal (==) dates.
+func TestDailyDateDay(t *testing.T) {
+	loc := time.FixedZone("x", -11*3600)
+	a := DailyDate(time.Date(1700, 3, 1, 23, 30, 0, 0, loc))
+	b := DailyDate(time.Date(1700, 3, 1, 0, 0, 0, 0, time.UTC))
+	if a != b || !a.Day().Equal(time.Date(1700, 3, 1, 0, 0, 0, 0, time.UTC)) || a.String() != "1700-03-01" {
+		t.Errorf("DailyDate: %v %v, Day %v", a, b, a.Day())
+	}
+	if d := b.Add(365); d.String() != "1701-03-01" || d.Index()-b.Index() != 365 {
+		t.Errorf("Add: %v", d)
+	}
+	if !(Date{Freq: Monthly, Year: 1990, Sub: 1}).Day().IsZero() {
+		t.Error("a monthly date has a day")
 	}
 }

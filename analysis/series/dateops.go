@@ -1,10 +1,5 @@
 package series
 
-import "time"
-
-// epochDay is the reference day for the index of daily dates.
-var epochDay = time.Date(1970, 1, 1, 0, 0, 0, 0, time.UTC)
-
 // Index is the position of the date on its frequency's time line:
 // Year·PerYear + Sub − 1 for annual, quarterly and monthly dates, the
 // day number since 1970-01-01 for daily dates, and the observation
@@ -14,7 +9,7 @@ func (d Date) Index() int {
 	case Annual, Quarterly, Monthly:
 		return d.Year*d.Freq.PerYear() + d.Sub - 1
 	case Daily:
-		return int(d.Day.Unix() / 86400) // midnight UTC: exact
+		return int(d.day)
 	default:
 		return d.Sub
 	}
@@ -32,7 +27,7 @@ func dateAt(f Freq, i int) Date {
 		sub := s + 1
 		return Date{Freq: f, Year: y, Sub: sub}
 	case Daily:
-		return Date{Freq: Daily, Day: epochDay.AddDate(0, 0, i)}
+		return Date{Freq: Daily, day: int32(i)}
 	default:
 		return Date{Freq: Undated, Sub: i}
 	}

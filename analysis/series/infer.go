@@ -44,10 +44,10 @@ func position(t time.Time, f Freq) (month, day int, last bool) {
 // first day of each period, the last day, or the same day inside each
 // period. ok is false when the days follow none of them.
 func convention(days []Date, f Freq) (string, bool) {
-	m0, d0, _ := position(days[0].Day, f)
+	m0, d0, _ := position(days[0].Day(), f)
 	same, last := true, true
 	for _, d := range days {
-		m, dd, l := position(d.Day, f)
+		m, dd, l := position(d.Day(), f)
 		same = same && m == m0 && dd == d0
 		last = last && l
 		if !same && !last {
@@ -85,7 +85,7 @@ func inferFreq(days []Date) (Freq, string) {
 		}
 		consecutive := false
 		for i := 1; i < len(days); i++ {
-			if periodOf(days[i].Day, f).Index()-periodOf(days[i-1].Day, f).Index() == 1 {
+			if periodOf(days[i].Day(), f).Index()-periodOf(days[i-1].Day(), f).Index() == 1 {
 				consecutive = true
 				break
 			}
@@ -103,7 +103,7 @@ func inferFreq(days []Date) (Freq, string) {
 func toPeriods(days []Date, lines []int, f Freq, source, col, hint string) ([]Date, error) {
 	out := make([]Date, len(days))
 	for i, d := range days {
-		out[i] = periodOf(d.Day, f)
+		out[i] = periodOf(d.Day(), f)
 		if i == 0 {
 			continue
 		}

@@ -107,7 +107,7 @@ func parseDate(s string) (Date, bool) {
 	if t.Day() != day || int(t.Month()) != m {
 		return Date{}, false // 1990-02-30
 	}
-	return Date{Freq: Daily, Day: t}, true
+	return DailyDate(t), true
 }
 
 // digits parses a non-empty string of ASCII digits (at most 9).

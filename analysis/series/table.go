@@ -19,6 +19,7 @@ type table struct {
 	decided  bool     // dateCol has been chosen (at the first data row)
 	headLine int
 	want     Freq // the declared frequency; Undated: infer it
+	rowsHint int  // rows expected (0: unknown): the columns are allocated once
 }
 
 func newTable(source string, want Freq) *table {
@@ -91,6 +92,13 @@ func (t *table) decide(first []string) {
 		}
 	}
 	f.cols = make([][]float64, len(f.Names))
+	if n := t.rowsHint; n > 0 {
+		for j := range f.cols {
+			f.cols[j] = make([]float64, 0, n)
+		}
+		f.Dates = make([]Date, 0, n)
+		f.Lines = make([]int, 0, n)
+	}
 	if t.dateCol < 0 {
 		f.Freq = Undated
 	}
@@ -105,6 +113,30 @@ func (t *table) dateName() string {
 
 // addRow appends one data row read from line.
 func (t *table) addRow(fields []string, line int) error {
+	if err := t.addRowHead(fields, line); err != nil {
+		return err
+	}
+	f := t.f
+	k := 0
+	for j, s := range fields {
+		if j == t.dateCol {
+			continue
+		}
+		v, err := parseValue(s)
+		if err != nil {
+			return t.errf(line, f.Names[k], "%v", err)
+		}
+		f.cols[k] = append(f.cols[k], v)
+		k++
+	}
+	return nil
+}
+
+// addRowHead checks the width and the date of a data row read from line
+// and appends its date and line; the values are left to the caller
+// (addRow, or parseValuesAt). An error here comes before any error in
+// the row's values, as addRow reports them.
+func (t *table) addRowHead(fields []string, line int) error {
 	if !t.decided {
 		t.decide(fields)
 	}
@@ -121,6 +153,15 @@ func (t *table) addRow(fields []string, line int) error {
 	} else {
 		d = Date{Freq: Undated, Sub: len(f.Dates) + 1}
 	}
+	f.Dates = append(f.Dates, d)
+	f.Lines = append(f.Lines, line)
+	return nil
+}
+
+// parseValuesAt parses the values of data row i (read from line) into
+// the columns, which must already hold that row.
+func (t *table) parseValuesAt(fields []string, line, i int) error {
+	f := t.f
 	k := 0
 	for j, s := range fields {
 		if j == t.dateCol {
@@ -130,11 +171,9 @@ func (t *table) addRow(fields []string, line int) error {
 		if err != nil {
 			return t.errf(line, f.Names[k], "%v", err)
 		}
-		f.cols[k] = append(f.cols[k], v)
+		f.cols[k][i] = v
 		k++
 	}
-	f.Dates = append(f.Dates, d)
-	f.Lines = append(f.Lines, line)
 	return nil
 }
 

@@ -28,8 +28,10 @@ type nestedLS struct {
 }
 
 // nested factorises the columns cols[0..m−1] of X and the response
-// cols[m] (each of length n > m, contiguous: column-major storage) in
-// place.
+// cols[m] (each of length n > m, contiguous: column-major storage), in
+// place, or for a design larger than tallBytes in blocks of rows
+// (householder.NestedTall; the same R to rounding, so the criteria agree
+// to about 1e-15 relative).
 func nested(cols [][]float64) nestedLS {
 	m := len(cols) - 1
 	n := len(cols[0])
@@ -39,10 +41,18 @@ func nested(cols [][]float64) nestedLS {
 		}
 	}
 	out := nestedLS{n: n, ssr: make([]float64, m), t: make([]float64, m), ok: make([]bool, m)}
-	var f householder.QR
-	err := f.Factor(cols, m)
-	if err == nil {
-		err = f.Nested(m, out.ssr, out.t)
+	var indep int
+	var err error
+	if n*len(cols)*8 > tallBytes {
+		// a design larger than the cache: the same factorisation in
+		// blocks of rows (equal to rounding)
+		indep, err = householder.NestedTall(cols, out.ssr, out.t)
+	} else {
+		var f householder.QR
+		if err = f.Factor(cols, m); err == nil {
+			err = f.Nested(m, out.ssr, out.t)
+		}
+		indep = f.Indep()
 	}
 	if err != nil { // shape or non-finite data: no sub-design is usable
 		for j := range out.t {
@@ -51,7 +61,13 @@ func nested(cols [][]float64) nestedLS {
 		return out
 	}
 	for j := 1; j <= m; j++ {
-		out.ok[j-1] = j <= f.Indep()
+		out.ok[j-1] = j <= indep
 	}
 	return out
 }
+
+// tallBytes is the size of [X | y] above which nested factorises it in
+// blocks of rows (householder.NestedTall) rather than sweeping whole
+// columns: below it the design stays in cache and one QR is as fast,
+// and gives the figures of every published check bit for bit.
+const tallBytes = 8 * householder.TallBlockBytes

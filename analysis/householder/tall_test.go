@@ -1,0 +1,190 @@
+package householder
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+)
+
+// adfLike returns the columns of a Dickey–Fuller comparison design on a
+// random walk of length n+13 (constant, level, 12 lagged differences,
+// then the response Δy), each column scaled to unit length as nested
+// least squares scales them.
+func adfLike(n int, seed uint64) [][]float64 {
+	r := rand.New(rand.NewPCG(seed, 7))
+	y := make([]float64, n+13)
+	for i := 1; i < len(y); i++ {
+		y[i] = y[i-1] + r.NormFloat64()
+	}
+	cols := make([][]float64, 15)
+	for j := range cols {
+		cols[j] = make([]float64, n)
+	}
+	for i := 0; i < n; i++ {
+		t := i + 13
+		cols[0][i] = 1
+		cols[1][i] = y[t-1]
+		for l := 1; l <= 12; l++ {
+			cols[1+l][i] = y[t-l] - y[t-l-1]
+		}
+		cols[14][i] = y[t] - y[t-1]
+	}
+	for _, c := range cols[:14] {
+		s := 0.0
+		for _, v := range c {
+			s += v * v
+		}
+		s = math.Sqrt(s)
+		for i := range c {
+			c[i] /= s
+		}
+	}
+	return cols
+}
+
+func clone(cols [][]float64) [][]float64 {
+	out := make([][]float64, len(cols))
+	for j, c := range cols {
+		out[j] = append([]float64(nil), c...)
+	}
+	return out
+}
+
+// reference: one Householder QR over whole columns.
+func nestedRef(t *testing.T, cols [][]float64) (ssr, tt []float64, indep int) {
+	m := len(cols) - 1
+	var f QR
+	if err := f.Factor(clone(cols), m); err != nil {
+		t.Fatal(err)
+	}
+	ssr, tt = make([]float64, m), make([]float64, m)
+	if err := f.Nested(m, ssr, tt); err != nil {
+		t.Fatal(err)
+	}
+	return ssr, tt, f.Indep()
+}
+
+func relDiff(a, b float64) float64 {
+	if a == b || math.IsNaN(a) && math.IsNaN(b) {
+		return 0
+	}
+	return math.Abs(a-b) / math.Max(math.Abs(a), math.Abs(b))
+}
+
+// TestNestedTallMatchesFactor: the row-blocked factorisation gives the
+// SSR and t-ratios of one QR over whole columns to 1e-12 relative, for
+// blocks of many sizes (one block, blocks that do not divide n, the
+// smallest block), and leaves the columns unchanged.
+func TestNestedTallMatchesFactor(t *testing.T) {
+	cols := adfLike(5000, 1)
+	ssr0, t0, ind0 := nestedRef(t, cols)
+	keep := clone(cols)
+	for _, block := range []int{15, 16, 97, 1000, 2500, 4999, 5000, 100000} {
+		ssr, tt := make([]float64, 14), make([]float64, 14)
+		ind, err := nestedTall(cols, ssr, tt, block)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if ind != ind0 {
+			t.Errorf("block %d: Indep %d, want %d", block, ind, ind0)
+		}
+		for j := range ssr {
+			if d := relDiff(ssr[j], ssr0[j]); d > 1e-12 {
+				t.Errorf("block %d: SSR_%d %v, one QR %v (rel. %.1e)", block, j+1, ssr[j], ssr0[j], d)
+			}
+			if d := relDiff(tt[j], t0[j]); d > 1e-12 {
+				t.Errorf("block %d: t_%d %v, one QR %v (rel. %.1e)", block, j+1, tt[j], t0[j], d)
+			}
+		}
+	}
+	for j := range cols {
+		for i := range cols[j] {
+			if cols[j][i] != keep[j][i] {
+				t.Fatal("NestedTall changed its input")
+			}
+		}
+	}
+}
+
+// TestNestedTallRank: a column that repeats an earlier one is found by
+// the rank rule as by Factor; a non-finite entry and bad shapes are
+// errors.
+func TestNestedTallRank(t *testing.T) {
+	cols := adfLike(3000, 2)
+	copy(cols[5], cols[3])
+	_, _, ind0 := nestedRef(t, cols)
+	ssr, tt := make([]float64, 14), make([]float64, 14)
+	ind, err := nestedTall(cols, ssr, tt, 100)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ind != 5 || ind0 != 5 {
+		t.Errorf("Indep %d (one QR: %d), want 5", ind, ind0)
+	}
+	if !math.IsNaN(tt[5]) || math.IsNaN(tt[4]) {
+		t.Errorf("t = %v: want NaN from the sixth sub-design on", tt)
+	}
+	cols[2][2500] = math.Inf(1)
+	if _, err := nestedTall(cols, ssr, tt, 100); err == nil {
+		t.Error("an infinite entry gave no error")
+	}
+	if _, err := NestedTall(cols[:1], nil, nil); err == nil {
+		t.Error("one column gave no error")
+	}
+	if _, err := NestedTall([][]float64{{1, 2}, {3, 4}, {5, 6}}, make([]float64, 2), make([]float64, 2)); err == nil {
+		t.Error("fewer rows than columns gave no error")
+	}
+}
+
+// BenchmarkNestedFactor and BenchmarkNestedTall: nested least squares
+// for the ADF lag search (13 sub-designs, T = 100,000) by one QR over
+// whole columns and by row blocks.
+func BenchmarkNestedFactor(b *testing.B) {
+	cols := adfLike(100_000, 3)
+	work := clone(cols)
+	ssr, tt := make([]float64, 14), make([]float64, 14)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		for j := range cols {
+			copy(work[j], cols[j])
+		}
+		var f QR
+		f.Factor(work, 14)
+		f.Nested(14, ssr, tt)
+	}
+}
+
+func BenchmarkNestedTall(b *testing.B) {
+	cols := adfLike(100_000, 3)
+	ssr, tt := make([]float64, 14), make([]float64, 14)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := NestedTall(cols, ssr, tt); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// TestColumnsDenseAndGeneral: Columns copies a dense matrix (read in
+// place) and any other matrix (read by At) to the same columns.
+func TestColumnsDenseAndGeneral(t *testing.T) {
+	d := mat.NewDense(4, 3, []float64{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12})
+	view := d.Slice(1, 4, 1, 3) // a dense view with stride 3
+	for _, x := range []mat.Matrix{d, d.T(), view} {
+		cols := Columns(x, 1)
+		r, c := x.Dims()
+		if len(cols) != c+1 || len(cols[c]) != r {
+			t.Fatalf("shape %d×%d", len(cols[0]), len(cols))
+		}
+		for j := 0; j < c; j++ {
+			for i := 0; i < r; i++ {
+				if cols[j][i] != x.At(i, j) {
+					t.Fatalf("(%d,%d) = %v, want %v", i, j, cols[j][i], x.At(i, j))
+				}
+			}
+		}
+	}
+}

@@ -1,0 +1,161 @@
+package bench
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/ols"
+	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/internal/version"
+)
+
+// Stage benchmarks: each step of a build on its own, so that a slowdown
+// shows up in one place. The lag search's factorisation is benchmarked
+// in analysis/householder (BenchmarkNestedTall, BenchmarkNestedFactor),
+// the hashes of the data in engine (BenchmarkHashColumns).
+//
+//	go test -run '^$' -bench Stage -benchtime 20x ./bench/
+
+// project writes one of the whole-process projects (WriteProjects) into
+// a temporary folder and returns the project's folder.
+func project(b *testing.B, name string) string {
+	d, err := WriteProject(b.TempDir(), name)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return d
+}
+
+func readCSVBench(b *testing.B, proj string) {
+	raw, err := os.ReadFile(filepath.Join(project(b, proj), "data.csv"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(int64(len(raw)))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := series.ReadCSVBytes(raw, "data.csv"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageParseCSV: reading the ADF workload's file (one column,
+// T = 100,000, 17 digits) into a Frame.
+func BenchmarkStageParseCSV(b *testing.B) { readCSVBench(b, "adf_T100k") }
+
+// BenchmarkStageParseCSVWide: the Johansen file, six columns × 100,000.
+func BenchmarkStageParseCSVWide(b *testing.B) { readCSVBench(b, "joh_T100k") }
+
+// BenchmarkStageRegression: the final Dickey–Fuller regression of the
+// ADF workload (Δy on 1, y_{t−1} and 12 lagged differences, T ≈ 100,000)
+// through ols.Regress.
+func BenchmarkStageRegression(b *testing.B) {
+	y := data.ADF
+	p := ADFMaxLag
+	n := len(y) - 1 - p
+	x := mat.NewDense(n, p+2, nil)
+	dy := make([]float64, n)
+	for i := 0; i < n; i++ {
+		t := p + 1 + i
+		dy[i] = y[t] - y[t-1]
+		x.Set(i, 0, 1)
+		x.Set(i, 1, y[t-1])
+		for l := 1; l <= p; l++ {
+			x.Set(i, 1+l, y[t-l]-y[t-l-1])
+		}
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := ols.Regress(dy, x); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func procBuild(b *testing.B, proj string, fresh bool) {
+	p := filepath.Join(project(b, proj), "paper.md")
+	if _, _, err := BuildFresh(p, true, true); err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, _, err := BuildFresh(p, true, fresh); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageADFFresh: the whole ADF project (T = 100,000) built in
+// process with --fresh: read and parse the file, hash it for the cache,
+// select the lag, regress, store, render, write.
+func BenchmarkStageADFFresh(b *testing.B) { procBuild(b, "adf_T100k", true) }
+
+// BenchmarkStageADFWarm: the same project rebuilt from the cache.
+func BenchmarkStageADFWarm(b *testing.B) { procBuild(b, "adf_T100k", false) }
+
+// BenchmarkStageResultsFile: writing the demo's results file from a
+// built document.
+func BenchmarkStageResultsFile(b *testing.B) {
+	p := demoCopy(b)
+	doc, _, err := Build(p, true)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := doc.ResultsJSON(version.Version); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageStartup: `galley --version` as a new process (the
+// executable is built once, through the Go build cache).
+func BenchmarkStageStartup(b *testing.B) {
+	exe := filepath.Join(b.TempDir(), "galley")
+	if out, err := exec.Command("go", "build", "-o", exe, "../cmd/galley").CombinedOutput(); err != nil {
+		b.Fatalf("%v: %s", err, out)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if out, err := exec.Command(exe, "--version").CombinedOutput(); err != nil {
+			b.Fatalf("%v: %s", err, out)
+		}
+	}
+}
+
+// BenchmarkStageCacheLoad: parsing the demo and running every directive
+// from the result cache (the pack read and decoded, the data's stored
+// sums checked), without rendering or writing.
+func BenchmarkStageCacheLoad(b *testing.B) {
+	p := demoCopy(b)
+	if _, _, err := Build(p, true); err != nil {
+		b.Fatal(err)
+	}
+	cd := filepath.Join(filepath.Dir(p), ".galley-cache")
+	opts := engine.Options{Cache: &engine.Cache{Dir: cd, Version: version.BuildID(cd)}}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		doc, err := engine.Parse(p, opts)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := doc.Run(); err != nil {
+			b.Fatal(err)
+		}
+		if len(doc.Ran()) != 0 {
+			b.Fatalf("ran %v", doc.Ran())
+		}
+	}
+}
