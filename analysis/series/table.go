@@ -116,20 +116,10 @@ func (t *table) addRow(fields []string, line int) error {
 	if err := t.addRowHead(fields, line); err != nil {
 		return err
 	}
-	f := t.f
-	k := 0
-	for j, s := range fields {
-		if j == t.dateCol {
-			continue
-		}
-		v, err := parseValue(s)
-		if err != nil {
-			return t.errf(line, f.Names[k], "%v", err)
-		}
-		f.cols[k] = append(f.cols[k], v)
-		k++
+	for k := range t.f.cols {
+		t.f.cols[k] = append(t.f.cols[k], 0)
 	}
-	return nil
+	return t.parseValuesAt(fields, line, len(t.f.Dates)-1)
 }
 
 // addRowHead checks the width and the date of a data row read from line
