@@ -31,7 +31,7 @@ func termLabel(term string, labels map[string]string) (text, sub string) {
 		text, _ = termLabel(inner, labels)
 		return text, "t+" + k
 	}
-	if inner, ok := strings.CutPrefix(term, "diff("); ok && strings.HasSuffix(inner, ")") && balanced(inner[:len(inner)-1]) {
+	if inner, ok := strings.CutPrefix(term, "diff("); ok && strings.HasSuffix(inner, ")") && termname.Balanced(inner[:len(inner)-1]) {
 		text, sub = termLabel(inner[:len(inner)-1], labels)
 		return "Δ" + text, sub
 	}
@@ -63,8 +63,8 @@ func call(term, name string) (inner, k string, ok bool) {
 	}
 	body = body[:len(body)-1]
 	i := strings.LastIndexByte(body, ',')
-	if i < 0 || !balanced(body[:i]) {
-		if balanced(body) && name == "lag" { // lag(x) is lag(x, 1)
+	if i < 0 || !termname.Balanced(body[:i]) {
+		if termname.Balanced(body) && name == "lag" { // lag(x) is lag(x, 1)
 			return strings.TrimSpace(body), "1", true
 		}
 		return "", "", false
@@ -74,23 +74,6 @@ func call(term, name string) (inner, k string, ok bool) {
 		return "", "", false
 	}
 	return strings.TrimSpace(body[:i]), k, true
-}
-
-// balanced reports whether s opens as many parentheses as it closes,
-// never closing more than it has opened.
-func balanced(s string) bool {
-	d := 0
-	for _, r := range s {
-		switch r {
-		case '(':
-			d++
-		case ')':
-			if d--; d < 0 {
-				return false
-			}
-		}
-	}
-	return d == 0
 }
 
 // TermHint is a suggestion for a term written in the suffix notation

@@ -84,21 +84,7 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 		x := mat.NewDense(t, nx+k, nil)
 		for i := 0; i < t; i++ {
 			s := i + pmax
-			col := 0
-			if d >= 1 {
-				x.Set(i, col, 1)
-				col++
-			}
-			if d == 2 {
-				x.Set(i, col, float64(s))
-				col++
-			}
-			for l := 1; l <= p; l++ {
-				for j := 0; j < k; j++ {
-					x.Set(i, col, y.At(s-l, j))
-					col++
-				}
-			}
+			LevelsRow(x, i, s, d, p, y)
 			for j := 0; j < k; j++ {
 				x.Set(i, nx+j, y.At(s, j))
 			}
@@ -143,4 +129,28 @@ func LagOrder(y *mat.Dense, c Case, maxLags int) (*LagTable, error) {
 		row.HQ += shift
 	}
 	return tab, nil
+}
+
+// LevelsRow fills row i of the design of a VAR(p) in levels observed at
+// time s: the d deterministic columns (d = 1: a constant; d = 2: a
+// constant and the trend s) followed by y(s-1), …, y(s-p), each a row of
+// y's k columns. It is the one layout shared by the lag table here and
+// the VAR of package vardyn.
+func LevelsRow(x *mat.Dense, i, s, d, p int, y mat.Matrix) {
+	_, k := y.Dims()
+	col := 0
+	if d >= 1 {
+		x.Set(i, col, 1)
+		col++
+	}
+	if d == 2 {
+		x.Set(i, col, float64(s))
+		col++
+	}
+	for l := 1; l <= p; l++ {
+		for j := 0; j < k; j++ {
+			x.Set(i, col, y.At(s-l, j))
+			col++
+		}
+	}
 }

@@ -7,6 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/ols"
 )
 
@@ -80,22 +81,7 @@ func Fit(y *mat.Dense, p int, det Det) (*VAR, error) {
 	}
 	x := mat.NewDense(t, m, nil)
 	for i := 0; i < t; i++ {
-		s := i + p
-		c := 0
-		if nd >= 1 {
-			x.Set(i, c, 1)
-			c++
-		}
-		if nd == 2 {
-			x.Set(i, c, float64(s))
-			c++
-		}
-		for l := 1; l <= p; l++ {
-			for j := 0; j < k; j++ {
-				x.Set(i, c, y.At(s-l, j))
-				c++
-			}
-		}
+		johansen.LevelsRow(x, i, i+p, nd, p, y)
 	}
 	v := &VAR{K: k, P: p, T: t, Det: det, Resid: mat.NewDense(t, k, nil)}
 	for l := 0; l < p; l++ {

@@ -6,6 +6,7 @@
 package equation
 
 import (
+	"github.com/galley-econ/galley/internal/termname"
 	"math"
 	"regexp"
 	"slices"
@@ -182,7 +183,7 @@ func (s *equationSpec) symbol(term string) string {
 func ExprTeX(expr string) string {
 	src := strings.ReplaceAll(expr, " ", "")
 	shift := 0
-	if m := lagSuffix.FindStringSubmatch(src); m != nil && balanced(m[1]) {
+	if m := lagSuffix.FindStringSubmatch(src); m != nil && termname.Balanced(m[1]) {
 		src = m[1]
 		shift, _ = strconv.Atoi(m[2])
 	}
@@ -356,22 +357,6 @@ func texText(s string) string {
 }
 
 var lagSuffix = regexp.MustCompile(`^(.+)\((-\d+)\)$`)
-
-func balanced(s string) bool {
-	depth := 0
-	for _, r := range s {
-		switch r {
-		case '(':
-			depth++
-		case ')':
-			depth--
-			if depth < 0 {
-				return false
-			}
-		}
-	}
-	return depth == 0
-}
 
 // hint suggests the term meant: its new spelling when written in the old
 // suffix notation, else the closest name.

@@ -38,3 +38,20 @@ func FromSuffix(s string) (name string, ok bool) {
 }
 
 var suffix = regexp.MustCompile(`^(.*)\(([-+]\d+)\)$`)
+
+// Balanced reports whether s opens as many parentheses as it closes,
+// never closing more than it has opened.
+func Balanced(s string) bool {
+	d := 0
+	for _, r := range s {
+		switch r {
+		case '(':
+			d++
+		case ')':
+			if d--; d < 0 {
+				return false
+			}
+		}
+	}
+	return d == 0
+}

@@ -13,3 +13,11 @@ func TestFromSuffix(t *testing.T) {
 		}
 	}
 }
+
+func TestBalanced(t *testing.T) {
+	for s, want := range map[string]bool{"": true, "x": true, "diff(x)": true, "lag(diff(x), 2)": true, "(": false, ")(": false, "a)": false, "((a)": false} {
+		if got := Balanced(s); got != want {
+			t.Errorf("Balanced(%q) = %v, want %v", s, got, want)
+		}
+	}
+}
