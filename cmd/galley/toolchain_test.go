@@ -114,7 +114,7 @@ func TestTableFragmentCompiles(t *testing.T) {
 	for _, f := range frags {
 		inputs.WriteString("\\input{tables/" + filepath.Base(f) + "}\n")
 	}
-	doc := "\\documentclass{article}\n\\usepackage{booktabs,dcolumn,graphicx,amsmath,longtable,pdflscape}\n\\newcolumntype{d}{D{.}{.}{-1}}\n\\begin{document}\n" + inputs.String() + "\\end{document}\n"
+	doc := "\\documentclass{article}\n\\usepackage{booktabs,dcolumn,graphicx,amsmath,longtable,caption,pdflscape}\n\\newcolumntype{d}{D{.}{.}{-1}}\n\\begin{document}\n" + inputs.String() + "\\end{document}\n"
 	if err := os.WriteFile(filepath.Join(out, "host.tex"), []byte(doc), 0o644); err != nil {
 		t.Fatal(err)
 	}

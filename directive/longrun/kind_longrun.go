@@ -19,7 +19,7 @@ import (
 	"github.com/galley-econ/galley/manuscript"
 )
 
-// dols and fmols: estimates of a cointegrating relation with valid
+// dols: estimates of a cointegrating relation with valid
 // standard errors, and Wald tests of restrictions on it.
 type dolsSpec struct {
 	engine.Common `yaml:",inline"`

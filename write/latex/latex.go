@@ -81,7 +81,8 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 func Fragment(r *engine.Result) []byte {
 	var b bytes.Buffer
 	b.WriteString("% galley table fragment: needs \\usepackage{booktabs,dcolumn,graphicx,amsmath} (and longtable\n")
-	b.WriteString("% for a table longer than a page, pdflscape for one wider than the text) and\n")
+	b.WriteString("% for a table longer than a page, pdflscape for one wider than the text, caption\n")
+	b.WriteString("% for a table without a caption) and\n")
 	b.WriteString("% \\newcolumntype{d}{D{.}{.}{-1}} in the preamble.\n")
 	b.WriteString("\\providecommand{\\galleyfit}[1]{\\resizebox{\\ifdim\\width>\\linewidth\\linewidth\\else\\width\\fi}{!}{#1}}\n")
 	writeTeXTable(&b, r)
