@@ -1,7 +1,9 @@
 package main
 
 import (
+	"html"
 	"os"
+	"strconv"
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/write/latex"
@@ -138,5 +140,74 @@ func TestPDFErrors(t *testing.T) {
 	t.Setenv("PATH", t.TempDir())
 	if _, err := compilePDF(doc, tex); err == nil || !strings.Contains(err.Error(), "needs pdflatex on the PATH") {
 		t.Fatalf("without pdflatex: %v", err)
+	}
+}
+
+var (
+	htmlTable = regexp.MustCompile(`(?s)<table.*?</table>`)
+	htmlRow   = regexp.MustCompile(`(?s)<tr.*?</tr>`)
+	htmlCell  = regexp.MustCompile(`(?s)<t[hd][^>]*>(.*?)</t[hd]>`)
+	htmlTag   = regexp.MustCompile(`<[^>]+>`)
+	spaces    = regexp.MustCompile(`\s+`)
+)
+
+// TestHTMLPrintKeepsColumns: the demo's HTML printed to PDF by headless
+// Chromium (its print stylesheet, US Letter) keeps every table column on
+// the page: the text of the last cell of every row of every table is in
+// the printed text as often as the tables hold it (a cut-off column
+// loses it; a table forced wider than the page fails this check), and no
+// word of the print lies beyond the page's right edge.
+func TestHTMLPrintKeepsColumns(t *testing.T) {
+	bin := need(t, "chromium")
+	out := buildDemoTo(t, "html")
+	page, err := os.ReadFile(filepath.Join(out, "paper.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	pdf := filepath.Join(out, "print.pdf")
+	cmd := exec.Command(bin, "--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+		"--disable-component-update", "--disable-sync", "--no-first-run", "--user-data-dir="+t.TempDir(),
+		"--no-pdf-header-footer", "--print-to-pdf="+pdf, "file://"+filepath.Join(out, "paper.html"))
+	if b, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("chromium print: %v\n%s", err, b)
+	}
+	text, err := exec.Command(need(t, "pdftotext"), pdf, "-").Output()
+	if err != nil {
+		t.Fatalf("pdftotext: %v", err)
+	}
+	printed := spaces.ReplaceAllString(string(text), "")
+	want := map[string]int{}
+	for _, tab := range htmlTable.FindAllString(string(page), -1) {
+		for _, row := range htmlRow.FindAllString(tab, -1) {
+			cells := htmlCell.FindAllStringSubmatch(row, -1)
+			if len(cells) == 0 {
+				continue
+			}
+			if s := spaces.ReplaceAllString(html.UnescapeString(htmlTag.ReplaceAllString(cells[len(cells)-1][1], "")), ""); s != "" {
+				want[s]++
+			}
+		}
+	}
+	if len(want) < 50 {
+		t.Fatalf("found %d distinct last-column cells in the HTML's tables", len(want))
+	}
+	for s, n := range want {
+		if got := strings.Count(printed, s); got < n {
+			t.Errorf("last-column text %q: %d times in the tables, %d in the printed page", s, n, got)
+		}
+	}
+	bbox, err := exec.Command(need(t, "pdftotext"), "-bbox", pdf, "-").Output()
+	if err != nil {
+		t.Fatalf("pdftotext -bbox: %v", err)
+	}
+	pageW := regexp.MustCompile(`<page width="([0-9.]+)"`).FindSubmatch(bbox)
+	if pageW == nil {
+		t.Fatal("no page size in pdftotext -bbox output")
+	}
+	w, _ := strconv.ParseFloat(string(pageW[1]), 64)
+	for _, m := range regexp.MustCompile(`xMax="([0-9.]+)"[^>]*>([^<]*)<`).FindAllSubmatch(bbox, -1) {
+		if x, _ := strconv.ParseFloat(string(m[1]), 64); x > w {
+			t.Errorf("printed word %q ends at x = %.0f, beyond the page width %.0f", m[2], x, w)
+		}
 	}
 }
