@@ -20,6 +20,7 @@ import (
 // and each table or figure is set at most two pages after its first
 // reference (the page breaks are pdftotext's form feeds).
 func TestDemoPDF(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	need(t, "pdflatex")
 	out := buildDemoTo(t, "pdf")
 	cmd := exec.Command(need(t, "pdftotext"), "-layout", "paper.pdf", "paper.txt")
@@ -77,6 +78,7 @@ func TestDemoPDF(t *testing.T) {
 // (MathML rendered natively; nothing is fetched, as TestHTMLInChromium
 // checks for the page as a whole).
 func TestEquationsInChromium(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
 	out := buildDemoTo(t, "html")
 	html, err := os.ReadFile(filepath.Join(out, "paper.html"))
@@ -158,6 +160,7 @@ var (
 // loses it; a table forced wider than the page fails this check), and no
 // word of the print lies beyond the page's right edge.
 func TestHTMLPrintKeepsColumns(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
 	out := buildDemoTo(t, "html")
 	page, err := os.ReadFile(filepath.Join(out, "paper.html"))

@@ -85,6 +85,7 @@ func inkFraction(t *testing.T, path string) float64 {
 // TestLaTeXCompiles: the demo paper's LaTeX compiles with pdflatex and its
 // first page, rendered by pdftoppm, is not blank.
 func TestLaTeXCompiles(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	out := buildDemoTo(t, "latex")
 	pdflatex(t, out, "paper.tex")
 	cmd := exec.Command(need(t, "pdftoppm"), "-png", "-r", "40", "-f", "1", "-l", "1", "paper.pdf", "page")
@@ -105,6 +106,7 @@ func TestLaTeXCompiles(t *testing.T) {
 // into a minimal article with the packages its header names (longtable
 // and pdflscape included, for the long and the wide).
 func TestTableFragmentCompiles(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	out := buildDemoTo(t, "latex")
 	frags, _ := filepath.Glob(filepath.Join(out, "tables", "*.tex"))
 	if len(frags) == 0 {
@@ -126,6 +128,7 @@ func TestTableFragmentCompiles(t *testing.T) {
 // empty, and no src, href or url() in it points anywhere), every table
 // and figure is in the DOM, and the screenshot is not blank.
 func TestHTMLInChromium(t *testing.T) {
+	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
 	out := buildDemoTo(t, "html")
 	page := filepath.Join(out, "paper.html")
