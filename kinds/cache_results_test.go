@@ -15,6 +15,7 @@ import (
 // only for the same results — after an edit that moves the directives'
 // lines it is rendered again — and a damaged copy is never served.
 func TestCachedResultsFile(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
 	_, first := runCached(t, p, c)
@@ -53,6 +54,7 @@ func TestCachedResultsFile(t *testing.T) {
 // one, so that undoing the edit reuses it, and a build where nothing
 // ran does not rewrite the file.
 func TestCachePackKeepsUndoneEdit(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
 	runCached(t, p, c)

@@ -60,6 +60,7 @@ func runCached(t *testing.T, path string, c *engine.Cache) (*engine.Document, []
 // TestCacheReuse: a second build reuses every result and gives a
 // byte-identical results file; a fresh build reruns everything.
 func TestCacheReuse(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
 	d1, r1 := runCached(t, p, c)
@@ -91,6 +92,7 @@ func TestCacheReuse(t *testing.T) {
 
 // TestCacheCorruptEntry: a damaged entry is ignored and rebuilt.
 func TestCacheCorruptEntry(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
 	_, want := runCached(t, p, c)
@@ -122,6 +124,7 @@ func TestCacheCorruptEntry(t *testing.T) {
 // level of log(south) look mean-reverting, so the ADF test in levels now
 // rejects a unit root and the order-of-integration verdict is no longer I(1).
 func TestRevisionOfOneValue(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	dir := filepath.Dir(p)
 	c := &engine.Cache{Dir: filepath.Join(dir, ".cache"), Version: "test"}
@@ -234,6 +237,7 @@ func loadResults(t *testing.T, b []byte, name string) *resultsfile.File {
 // whole build, so adding a directive makes it run again even though its
 // own spec and the results it read before are unchanged.
 func TestRevisionRerunsWhenDirectivesChange(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	c := &engine.Cache{Dir: filepath.Join(filepath.Dir(p), ".cache"), Version: "test"}
 	runCached(t, p, c)

@@ -17,6 +17,7 @@ const citeBib = `@article{EG87,
 // commands with a thebibliography in LaTeX; two works of one author and
 // year get a and b; cite-methods adds the works behind the directives.
 func TestCitations(t *testing.T) {
+	t.Parallel()
 	body := "---\ntitle: T\nbibliography: refs.bib\ncite-methods: true\ndata:\n  grid: data.csv\n---\n\n" +
 		"As \\citet{EG87} show, and \\citep[see][p.~3]{J91a,J91b}; \\citeauthor{EG87} in \\citeyear{EG87}.\n\n" +
 		fence("engle-granger", "id: eg\ndata: grid\ny: north\nx: [fuel]\nlags: 0\n")
@@ -34,6 +35,7 @@ func TestCitations(t *testing.T) {
 // TestCitationErrors: an unknown key (with the closest), a missing .bib
 // and a malformed entry are errors naming the line.
 func TestCitationErrors(t *testing.T) {
+	t.Parallel()
 	head := "---\ntitle: T\nbibliography: refs.bib\n---\n\n"
 	runBad(t, head+"Text \\citep{EG78}.\n", map[string]string{"refs.bib": citeBib},
 		`paper.md:6: \citep{EG78}: no work in refs.bib has the key "EG78" (did you mean EG87?)`)

@@ -27,6 +27,7 @@ import (
 // among them costs no observation that the lags of Δy do not already
 // cost (before the fix, adding one cut the levels and lost a quarter).
 func TestFirstUsableDate(t *testing.T) {
+	t.Parallel()
 	const T = 203
 	cases := []struct {
 		name, kind, body string
@@ -121,6 +122,7 @@ func isoMacro(t *testing.T, end bool) string {
 // quarterly defaults, dates and samples; a quarterly sample window
 // applies, and the half-life is in quarters (issue 14, item 1).
 func TestCalendarDatedQuarters(t *testing.T) {
+	t.Parallel()
 	body := fence("adf", "id: a\nseries: log(realgdp)\nlags: {select: aic}\nsample: 1975Q1..\n") +
 		fence("engle-granger", "id: eg\ny: log(realcons)\nx: [log(realdpi)]\n") +
 		fence("ecm", "id: e\nfrom: eg\n") +
@@ -192,6 +194,7 @@ func buildErr(t *testing.T, p string, opts engine.Options) (*engine.Document, er
 // directive's, and --vintage); a window with nothing left is an error
 // naming the vintage (issue 14, item 4).
 func TestVintageWindows(t *testing.T) {
+	t.Parallel()
 	body := fence("figure", "id: f\nplot: lines\nseries: [log(north)]\nshade:\n  - {from: 2008-09, to: 2009-06}\n  - {from: 2013-06, to: 2014-06}\n  - {from: 2020-03, to: 2020-12}\n") +
 		fence("grid", "id: g\nof: adf\nseries: log(north)\nlags: 1\nover: {sample: [2004-01..2012-12, 2010-01..2019-12]}\n") +
 		fence("ols", "id: m\ny: log(north)\nx: [log(fuel)]\nsample: 2005-01..2016-12\n")

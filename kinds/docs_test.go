@@ -13,6 +13,7 @@ import (
 // docs/directives.md (or docs/figures.md), so the reference and the code
 // cannot drift apart.
 func TestEveryKindDocumented(t *testing.T) {
+	t.Parallel()
 	var docs []byte
 	for _, f := range []string{"directives.md", "figures.md"} {
 		b, err := os.ReadFile(filepath.Join("..", "docs", f))

@@ -15,6 +15,7 @@ import (
 // TestProducedValuesAreAccepted (every value produced is accepted) this
 // keeps the reference, the check before a build and the results in step.
 func TestFieldsDocumented(t *testing.T) {
+	t.Parallel()
 	heading := regexp.MustCompile(`(?m)^#{2,3} (.*)$`)
 	sections := map[string]string{} // kind → its section's text
 	for _, f := range []string{"../docs/directives.md", "../docs/figures.md"} {

@@ -49,6 +49,7 @@ type dynFixture struct {
 }
 
 func TestDynamicsAgainstStatsmodels(t *testing.T) {
+	t.Parallel()
 	var fx dynFixture
 	if err := json.Unmarshal([]byte(sysRead(t, "../testdata/fixtures/vardyn_statsmodels.json")), &fx); err != nil {
 		t.Fatal(err)
@@ -140,6 +141,7 @@ func TestDynamicsAgainstStatsmodels(t *testing.T) {
 }
 
 func TestDynamicsErrors(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"dk.csv": sysRead(t, "../testdata/data/denmark.csv")}
 	front := "---\ntitle: T\ndata:\n  dk: dk.csv\n---\n"
 	jo := "\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n")
@@ -176,6 +178,7 @@ func TestDynamicsErrors(t *testing.T) {
 // gets the same numbers: the engine runs the upstream once more for its
 // estimated system (engine.Context.Live).
 func TestDynamicsFromCachedSystem(t *testing.T) {
+	t.Parallel()
 	head := "---\ntitle: T\ndata:\n  dk: dk.csv\n---\n" +
 		"\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n")
 	doc := head + "\n" + fence("causality", "id: vc\nfrom: sys\n")

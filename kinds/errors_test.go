@@ -39,6 +39,7 @@ func fence(kind, body string) string { return "```galley " + kind + "\n" + body 
 
 // TestBadInput: every bad input gives an error naming the file and line.
 func TestBadInput(t *testing.T) {
+	t.Parallel()
 	olsBlock := fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\n")
 	cases := []struct {
 		name  string

@@ -12,6 +12,7 @@ import (
 // as the ecm's own values give them, and is numbered with the display
 // equations around it.
 func TestEstimatedEquation(t *testing.T) {
+	t.Parallel()
 	csv, err := os.ReadFile("../examples/gridlink/data/gridlink.csv")
 	if err != nil {
 		t.Fatal(err)
@@ -55,6 +56,7 @@ func abs(x float64) float64 {
 
 // TestEstimatedEquationBadInput: errors name the line and the key.
 func TestEstimatedEquationBadInput(t *testing.T) {
+	t.Parallel()
 	base := fence("summary-stats", "id: d\ndata: grid\nseries: [north]\n") + fence("ols", "id: o\ndata: grid\ny: north\nx: [fuel]\n")
 	cases := []struct{ body, want string }{
 		{fence("estimated-equation", "id: e\nof: d\n"), `paper.md:20: "d" is a summary-stats result`},

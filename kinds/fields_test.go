@@ -20,6 +20,7 @@ import (
 // `galley check` uses before anything runs) names it. Run on the demo
 // paper and on a manuscript with the kinds the demo lacks.
 func TestProducedValuesAreAccepted(t *testing.T) {
+	t.Parallel()
 	kinds := map[string]*engine.Kind{}
 	for _, k := range engine.Kinds() {
 		kinds[k.Name] = k
@@ -105,6 +106,7 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 // stubs and headers, in the typeset differences and lags of it, and in
 // figure legends; values keep the expression.
 func TestDisplayLabels(t *testing.T) {
+	t.Parallel()
 	body := "---\ndata:\n  macro: macro.csv\nlabels:\n  log(realcons): Consumption (log)\n  log(realdpi): Income (log)\n---\n\n" +
 		fence("ols", "id: m\ny: diff(log(realcons))\nx: [lag(diff(log(realcons)),1), diff(log(realdpi))]\n") +
 		fence("adf", "id: a\nseries: log(realcons)\n")

@@ -10,6 +10,7 @@ import (
 // TestECMActualFitted: an actual-vs-fitted figure of an ecm result draws
 // the model's own dependent variable and fitted values.
 func TestECMActualFitted(t *testing.T) {
+	t.Parallel()
 	p := copyDemo(t)
 	doc, err := engine.Parse(p, engine.Options{})
 	if err != nil {

@@ -16,6 +16,7 @@ import (
 // (testdata/fixtures/johansen_dummies_urca.json, written by
 // testdata/scripts/johansen_dummies_urca.R) to 1e-6 relative.
 func TestJohansenDummiesUrca(t *testing.T) {
+	t.Parallel()
 	var fx struct {
 		Runs []struct {
 			Name                        string
@@ -69,6 +70,7 @@ func TestJohansenDummiesUrca(t *testing.T) {
 
 // The step's notes, the short-run labels of the dummies, and the errors.
 func TestJohansenDummiesNotesAndErrors(t *testing.T) {
+	t.Parallel()
 	dk := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
 	jo := func(body string) string {
 		return sysDKFront + "\n" + fence("johansen", "id: j\ndata: dk\n"+body)

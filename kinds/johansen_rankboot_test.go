@@ -14,6 +14,7 @@ import (
 // numpy) in the table and the values, with the sequential bootstrap rank;
 // its keys are checked.
 func TestJohansenRankBootstrap(t *testing.T) {
+	t.Parallel()
 	doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank_bootstrap: {replications: 99, seed: 5}\n") +
 		"\nThe bootstrap p-value for rank 0 is {{dk.rank_bootstrap.pvalue.0 %.3f}}.\n"
 	all := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
@@ -85,6 +86,7 @@ func runErr(t *testing.T, doc string, files map[string]string) error {
 // (analysis/johansen.CompanionRoots, checked against numpy there), the
 // first K − r of them one.
 func TestJohansenRoots(t *testing.T) {
+	t.Parallel()
 	doc := sysDKFront + "\n" + fence("johansen", "id: dk\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n")
 	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})["dk"]
 	res, err := johansen.Test(sysDenmark(t), johansen.RC, 1)

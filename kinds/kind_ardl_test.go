@@ -15,6 +15,7 @@ import (
 // are statsmodels 0.13.5's (fixture testdata/fixtures/ardl_statsmodels.json,
 // case macro_c) to 1e-6 relative.
 func TestARDLWiring(t *testing.T) {
+	t.Parallel()
 	p := macroProject(t, fence("ardl", "id: b\ny: log(realcons)\nx: [log(realdpi), tbilrate]\nlags: [3, 2, 1]\n")+
 		fence("ardl", "id: s\ny: log(realcons)\nx: [log(realdpi), tbilrate]\nsplit: [tbilrate]\nlags: [2, 1, 2]\nhorizon: 12\n")+
 		fence("figure", "id: f\nplot: multipliers\nof: s\n"))
@@ -75,6 +76,7 @@ func TestARDLWiring(t *testing.T) {
 
 // TestARDLBadInput: bad input gives an error at the manuscript line.
 func TestARDLBadInput(t *testing.T) {
+	t.Parallel()
 	var b strings.Builder
 	b.WriteString("date,y,x,z\n")
 	for i := 0; i < 40; i++ {

@@ -20,6 +20,7 @@ import (
 // that model-table and estimated-equation take it, and that with
 // cite-methods the reference list has Park (1992), in all three formats.
 func TestCCRManuscript(t *testing.T) {
+	t.Parallel()
 	var fx struct {
 		CCR []struct {
 			Name          string
@@ -89,6 +90,7 @@ func TestCCRManuscript(t *testing.T) {
 // TestCCRBadInput: errors of a ccr directive name the line of the key at
 // fault.
 func TestCCRBadInput(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))}
 	flat := strings.Builder{}
 	flat.WriteString("date,y,x,k\n")

@@ -68,6 +68,7 @@ func checkDiag(t *testing.T, id, name string, v map[string]any, want diag.Test, 
 }
 
 func TestECMWiring(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	g := readGridlink(t)
 
@@ -183,6 +184,7 @@ func TestECMWiring(t *testing.T) {
 // TestECMHalfLifeFlag: with α ≥ 0 or α ≤ −2 the table and the values say
 // that the model does not error-correct instead of giving a half-life.
 func TestECMHalfLifeFlag(t *testing.T) {
+	t.Parallel()
 	for _, tc := range []struct {
 		name  string
 		n     int
@@ -232,6 +234,7 @@ func TestECMHalfLifeFlag(t *testing.T) {
 }
 
 func TestECMBadInput(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))}
 	up := front + "\n" + fence("engle-granger", "id: eg\ny: y\nx: [x]\n") + "\n" + fence("ols", "id: o\ny: y\nx: [x]\n") + "\n"
 	// The ecm fence is on line 19.

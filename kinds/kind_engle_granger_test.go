@@ -177,6 +177,7 @@ func checkEG(t *testing.T, what string, v map[string]any, r *coint.EGResult, nam
 }
 
 func TestEngleGrangerWiring(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	g := readGridlink(t)
 
@@ -245,6 +246,7 @@ func TestEngleGrangerWiring(t *testing.T) {
 // errors, the statistic has stars by the critical values, and the notes
 // name the source with N, the case and T.
 func TestEngleGrangerTable(t *testing.T) {
+	t.Parallel()
 	res := resultByID(t, cointResults(t), "eg")
 	tab := res.Table
 	row := tab.Body[0].Cells
@@ -271,6 +273,7 @@ func TestEngleGrangerTable(t *testing.T) {
 // TestEngleGrangerOddNames: series names with characters special to
 // Markdown, HTML and LaTeX are escaped in every output.
 func TestEngleGrangerOddNames(t *testing.T) {
+	t.Parallel()
 	csvText := syntheticCSV("price_a&b", "cost #1 <x>", gridlinkSynthetic(60, -0.5))
 	doc := front + "\n" + fence("engle-granger", "id: odd\ny: \"`price_a&b`\"\nx: [\"`cost #1 <x>`\"]\nlags: 0\n")
 	p := writeProject(t, doc, map[string]string{"data.csv": csvText})
@@ -351,6 +354,7 @@ func syntheticCSV(yname, xname string, s synthetic) string {
 }
 
 func TestEngleGrangerBadInput(t *testing.T) {
+	t.Parallel()
 	csvText := syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))
 	files := map[string]string{"data.csv": csvText}
 	eg := func(body string) string { return front + "\n" + fence("engle-granger", body) }

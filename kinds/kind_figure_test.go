@@ -132,6 +132,7 @@ func checkPDF(t *testing.T, pdf []byte) {
 }
 
 func TestFigureLinesPanels(t *testing.T) {
+	t.Parallel()
 	body := "See {{lv.label}} and {{pn.label}}.\n\n" +
 		fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\n") + "\n" +
 		fence("figure", "id: lv\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ncaption: Levels\nshade: [{from: 2008-09, to: 2009-06}]\n") + "\n" +
@@ -202,6 +203,7 @@ func TestFigureLinesPanels(t *testing.T) {
 }
 
 func TestFigureResidualsAndACF(t *testing.T) {
+	t.Parallel()
 	body := fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\nsample: 2004-03..\n") + "\n" +
 		fence("figure", "id: e\nresiduals: m\n") + "\n" +
 		fence("figure", "id: ex\ndata: grid\nseries: [north - 0.5*fuel]\nplot: residuals\n") + "\n" +
@@ -239,6 +241,7 @@ func TestFigureResidualsAndACF(t *testing.T) {
 // (their published constant, given to three decimals; hence the
 // tolerance of half a unit in the third decimal of a).
 func TestFigureCUSUMBand(t *testing.T) {
+	t.Parallel()
 	body := fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel, south]\n") + "\n" +
 		fence("figure", "id: cs\nplot: cusum\ndata: grid\ny: north\nx: [fuel, south]\n") + "\n" +
 		fence("figure", "id: cs2\nplot: cusum\nof: m\n") + "\n" +
@@ -295,6 +298,7 @@ func TestFigureCUSUMBand(t *testing.T) {
 
 // TestFigureBadInput: each bad figure gives an error at the right line.
 func TestFigureBadInput(t *testing.T) {
+	t.Parallel()
 	ols := fence("ols", "id: m\ndata: grid\ny: north\nx: [fuel]\n") + "\n" // lines 7–12
 	desc := fence("summary-stats", "id: d\ndata: grid\nseries: [north]\n") + "\n"
 	cases := []struct {
@@ -335,6 +339,7 @@ func TestFigureBadInput(t *testing.T) {
 // series about the zero line. (The values themselves are checked against
 // analysis/johansen in TestJohansenRelationFigure.)
 func TestFigureJohansenRelation(t *testing.T) {
+	t.Parallel()
 	body := fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel, south]\ndet: constant\nlags: 1\nrank: 2\n") + "\n" +
 		fence("vecm", "id: v\nfrom: sys\n") + "\n" +
 		fence("figure", "id: z1\nresiduals: sys\ncaption: First relation\n") + "\n" +
@@ -388,6 +393,7 @@ func TestFigureJohansenRelation(t *testing.T) {
 // without relations, and relation where it does not belong are errors at
 // the line of the key at fault.
 func TestFigureJohansenRelationErrors(t *testing.T) {
+	t.Parallel()
 	// front matter lines 1–5; the johansen fence is line 7, its id 8, and
 	// its closing fence line 14; the figure fence is line 16, id 17,
 	// residuals 18, relation 19.
@@ -420,6 +426,7 @@ func TestFigureJohansenRelationErrors(t *testing.T) {
 // result reused from the cache (its values decoded from the cache file)
 // equals the one drawn when the johansen ran.
 func TestFigureJohansenRelationFromCache(t *testing.T) {
+	t.Parallel()
 	src := front + "\n" + fence("johansen", "id: sys\ndata: grid\nseries: [north, fuel]\ndet: restricted constant\nlags: 1\nrank: 1\n") + "\n" +
 		fence("figure", "id: z\nresiduals: sys\n")
 	p := writeProject(t, src, map[string]string{"data.csv": figCSV()})

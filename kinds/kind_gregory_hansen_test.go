@@ -22,6 +22,7 @@ import (
 // The result's contract carries the ADF* outcome and the three breaks,
 // and prose can quote them.
 func TestGregoryHansenDirective(t *testing.T) {
+	t.Parallel()
 	body := "ADF* is {{gh.stat %.2f}}, break {{gh.adf.break}}; Zα* {{gh.za.stat %.1f}}.\n\n" +
 		fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\nshift: regime\nlags: 1\nbandwidth: 6\n")
 	p := macroProject(t, body)
@@ -81,6 +82,7 @@ func TestGregoryHansenDirective(t *testing.T) {
 // simulated critical values for each statistic at the test's T, with
 // p-values, and the note says so.
 func TestGregoryHansenSimulate(t *testing.T) {
+	t.Parallel()
 	p := macroProject(t, fence("gregory-hansen", "id: gh\ny: log(realcons)\nx: [log(realdpi)]\nsample: 1990Q1..\nlags: 0\ncrit: simulate\nreplications: 300\n"))
 	v := valuesOf(t, p)["gh"]
 	for _, k := range []string{"adf", "zt", "za"} {
@@ -102,6 +104,7 @@ func TestGregoryHansenSimulate(t *testing.T) {
 
 // TestGregoryHansenBadInput: clear errors naming the manuscript line.
 func TestGregoryHansenBadInput(t *testing.T) {
+	t.Parallel()
 	cases := []struct{ name, body, want string }{
 		{"trim out of range", "id: g\ny: log(realcons)\nx: [log(realdpi)]\ntrim: 0.6\n", "paper.md:10: trim: the share cut at each end must lie strictly between 0 and 0.5"},
 		{"no candidate date", "id: g\ny: log(realcons)\nx: [log(realdpi)]\nshift: regime\nsample: 2004Q1..\ntrim: 0.49\nlags: 0\n", "paper.md:12: Gregory–Hansen: 23 observations leave no candidate break date"},

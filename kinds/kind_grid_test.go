@@ -32,6 +32,7 @@ func runDoc(t *testing.T, path string) map[string]*engine.Result {
 // adf directive with the same keys (values, and the stars of its
 // statistic), and the cells are laid out rows = lags, columns = det.
 func TestGridADF(t *testing.T) {
+	t.Parallel()
 	lags := []string{"1", "2", "4"}
 	dets := []string{"c", "ct"}
 	body := fence("grid", "id: g\ncaption: ADF by lag order and case\nof: adf\nseries: log(realgdp)\nover: {lags: [1, 2, 4], det: [c, ct]}\n")
@@ -113,6 +114,7 @@ func mustAtoi(s string) int {
 // the estimate with stars over its standard error; the same estimate in
 // every row and the single ols directives' standard errors and stars.
 func TestGridOLS(t *testing.T) {
+	t.Parallel()
 	ses := []string{"ols", "hc1", "hac(2)"}
 	body := fence("grid", "id: g\nof: ols\ny: log(realcons)\nx: [log(realdpi), infl]\nover:\n  se: [ols, hc1, hac(2)]\n")
 	for i, se := range ses {
@@ -163,6 +165,7 @@ func TestGridOLS(t *testing.T) {
 // TestGridRegressors: x varies over lists; a term absent from a
 // specification leaves its cell blank; sample varies in a two-key grid.
 func TestGridRegressors(t *testing.T) {
+	t.Parallel()
 	body := fence("grid", "id: g\nof: ols\ny: log(realcons)\nshow: coef.infl\nover:\n  sample: [1960Q1..1984Q4, 1985Q1..2009Q3]\n  x: [[log(realdpi)], [log(realdpi), infl]]\n") +
 		"\n" + fence("ols", "id: m\ny: log(realcons)\nx: [log(realdpi), infl]\nsample: 1985Q1..2009Q3\n")
 	res := runDoc(t, macroProject(t, body))
@@ -188,6 +191,7 @@ func TestGridRegressors(t *testing.T) {
 // macroProject puts the fence on line 6 and the id on line 7, so the
 // first line of each body below is file line 8.
 func TestGridBadInput(t *testing.T) {
+	t.Parallel()
 	for _, tc := range []struct {
 		name, body string
 		want       []string
@@ -241,6 +245,7 @@ func TestGridBadInput(t *testing.T) {
 // its cells read are unchanged and rerun when they change (the cells'
 // reads count as the grid's own).
 func TestGridCache(t *testing.T) {
+	t.Parallel()
 	p := writeProject(t, front+"\n"+fence("grid", "id: g\nof: ols\ny: north\nover: {x: [[fuel], [south]]}\nshow: nobs\n"),
 		map[string]string{"data.csv": testCSV})
 	cache := &engine.Cache{Dir: t.TempDir(), Version: "test"}
@@ -283,6 +288,7 @@ func TestGridCache(t *testing.T) {
 // as "trace statistic, r = 0"), and the note names the deterministic
 // terms and T.
 func TestGridJohansenTrace(t *testing.T) {
+	t.Parallel()
 	body := fence("grid", "id: g\nof: johansen\nseries: [infl, tbilrate]\nlags: 1\nshow: trace.0\nover:\n  sample: [1959Q1.., ..1999Q4]\n")
 	res := runDoc(t, macroProject(t, body))
 	g := res["g"]

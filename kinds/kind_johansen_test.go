@@ -124,6 +124,7 @@ const sysDKDoc = sysDKFront + "\n```galley johansen\nid: dk\ndata: dk\nseries: [
 // testdata/scripts/johansen_urca.R): ca.jo eigenvalues and statistics,
 // cajorls β normalised on LRM, blrtest and alrtest. Tolerance 1e-6 relative.
 func TestJohansenDenmarkUrca(t *testing.T) {
+	t.Parallel()
 	var fx struct {
 		Cajo []struct {
 			Ecdet                 string
@@ -211,6 +212,7 @@ func TestJohansenDenmarkUrca(t *testing.T) {
 // the analysis package returns for the same system (names, orders and
 // normalisation carried through unchanged).
 func TestJohansenDenmarkWiring(t *testing.T) {
+	t.Parallel()
 	all := sysBuild(t, sysDKDoc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
 	vals, sv := all["dk"], all["dkv"]
 	res, err := johansen.Test(sysDenmark(t), johansen.RC, 1)
@@ -274,6 +276,7 @@ func TestJohansenDenmarkWiring(t *testing.T) {
 // TestJohansenSmallSampleAndLagChoice: small_sample multiplies the
 // statistics by (T − K(k+1))/T; lags: {select: …} uses LagOrder's choice.
 func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
+	t.Parallel()
 	doc := sysDKFront + "\n```galley johansen\nid: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: {select: hq, max: 3}\nsmall_sample: true\n```\n\n" +
 		"```galley var-lags\nid: vl\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nmax: 3\n```\n"
 	all := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")})
@@ -314,6 +317,7 @@ func TestJohansenSmallSampleAndLagChoice(t *testing.T) {
 // examples/gridlink/gen/main.go) the sequential trace tests at 5% in the
 // demo's specification (case c, lags by BIC up to 12) choose rank 2.
 func TestJohansenDemoRank(t *testing.T) {
+	t.Parallel()
 	doc := "---\ntitle: T\ndata:\n  grid: data.csv\n---\n\n```galley johansen\nid: sys\nseries: [log(north), log(south), log(fuel)]\ndet: constant\nlags: {select: bic, max: 12}\nnormalize: [log(north), log(south)]\nexogeneity_tests: [log(fuel)]\n```\n"
 	vals := sysBuild(t, doc, map[string]string{"data.csv": sysRead(t, "../examples/gridlink/data/gridlink.csv")})["sys"]
 	if r := sysAt(t, vals, "rank_chosen"); r != 2 {
@@ -351,6 +355,7 @@ func sysWalks(k, n int) string {
 // TestJohansenBadInput: each bad input gives an error at the line of the
 // key responsible.
 func TestJohansenBadInput(t *testing.T) {
+	t.Parallel()
 	dk := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
 	jo := func(body string) string { return sysDKFront + "\n" + fence("johansen", "id: j\n"+body) }
 	// Line numbers: the front matter is lines 1–5, the fence line 7, id 8.
@@ -463,6 +468,7 @@ func TestJohansenBadInput(t *testing.T) {
 // TestJohansenVecmAfterCache: a vecm whose johansen result is reused from
 // the cache (so that directive did not run) still reports the same model.
 func TestJohansenVecmAfterCache(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}
 	p := writeProject(t, sysDKDoc, files)
 	opts := engine.Options{Cache: &engine.Cache{Dir: t.TempDir(), Version: "test"}}
@@ -511,6 +517,7 @@ func TestJohansenVecmAfterCache(t *testing.T) {
 // tolerance 1e-8 relative), which fails if a relation is shifted by a
 // period, or in case rc if its restricted constant is left out.
 func TestJohansenRelationFigure(t *testing.T) {
+	t.Parallel()
 	y := sysDenmark(t)
 	n, k := y.Dims()
 	files := map[string]string{"data.csv": sysRead(t, "../testdata/data/denmark.csv")}

@@ -44,6 +44,7 @@ func checkWald(t *testing.T, id string, v map[string]any, i int, lr longrun.Coef
 }
 
 func TestDOLSWiring(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	g := readGridlink(t)
 	r, err := longrun.DOLS(g.north, [][]float64{g.fuel}, []string{"log(fuel)"},
@@ -84,6 +85,7 @@ func TestDOLSWiring(t *testing.T) {
 }
 
 func TestFMOLSWiring(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	g := readGridlink(t)
 	r, err := longrun.FMOLS(g.north, [][]float64{g.fuel}, []string{"log(fuel)"}, longrun.FMOLSSpec{Det: critical.Const, Kernel: longrun.Bartlett})
@@ -121,6 +123,7 @@ func TestFMOLSWiring(t *testing.T) {
 // in the wiring biases the estimates, not a property that holds for
 // every draw.)
 func TestLongRunDemoCoverage(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	covers := func(what string, est, se, truth float64) {
 		lo, hi := est-1.959963984540054*se, est+1.959963984540054*se
@@ -144,6 +147,7 @@ func TestLongRunDemoCoverage(t *testing.T) {
 }
 
 func TestLongRunBadInput(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))}
 	dols := func(body string) string { return front + "\n" + fence("dols", body) }
 	fm := func(body string) string { return front + "\n" + fence("fmols", body) }

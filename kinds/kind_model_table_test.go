@@ -12,6 +12,7 @@ import (
 // order, the lower block from the models' values, and one note each for
 // standard errors and samples.
 func TestModelTableWiring(t *testing.T) {
+	t.Parallel()
 	doc := cointResults(t)
 	mt := resultByID(t, doc, "mt")
 	models := []*engine.Result{resultByID(t, doc, "ecm_north"), resultByID(t, doc, "dols"), resultByID(t, doc, "fmols")}
@@ -109,6 +110,7 @@ func starsFor(p float64) int {
 }
 
 func TestModelTableBadInput(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))}
 	up := front + "\n" + fence("ols", "id: o\ny: y\nx: [x]\n") + "\n" + fence("engle-granger", "id: eg\ny: y\nx: [x]\n") + "\n"
 	// The model-table fence is on line 19.

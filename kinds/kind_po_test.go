@@ -11,6 +11,7 @@ import (
 )
 
 func TestPOWiring(t *testing.T) {
+	t.Parallel()
 	g := readGridlink(t)
 	// det ct, bandwidth 6 as written in the manuscript.
 	r, err := coint.PhillipsOuliaris(g.north, [][]float64{g.fuel}, critical.ConstTrend, 6)
@@ -43,6 +44,7 @@ func TestPOWiring(t *testing.T) {
 // TestPODefaultBandwidth: without bandwidth the rule rule4, ⌊4(N/100)^¼⌋
 // with N = T − 1 is used.
 func TestPODefaultBandwidth(t *testing.T) {
+	t.Parallel()
 	csvText := syntheticCSV("y", "x", gridlinkSynthetic(120, -0.5))
 	p := writeProject(t, front+"\n"+fence("po", "id: p\ny: y\nx: [x]\n"), map[string]string{"data.csv": csvText})
 	d, err := engine.Parse(p, engine.Options{})
@@ -64,6 +66,7 @@ func TestPODefaultBandwidth(t *testing.T) {
 }
 
 func TestPOBadInput(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))}
 	po := func(body string) string { return front + "\n" + fence("po", body) }
 	t.Run("ctt", func(t *testing.T) {

@@ -45,6 +45,7 @@ func macroProject(t *testing.T, body string) string {
 // analysis functions (themselves checked against statsmodels and urca in
 // analysis/unitroot) on the same series, lags and case.
 func TestUnitRootWiring(t *testing.T) {
+	t.Parallel()
 	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: ct\nlags: {select: aic, max: 8}\n")+
 		fence("pp", "id: p\nseries: log(realgdp)\ndet: c\nbandwidth: rule12\n")+
 		fence("kpss", "id: k\nseries: infl\ndet: c\nbandwidth: 3\n")+
@@ -97,6 +98,7 @@ func refDateAt(t *testing.T, i int) string {
 
 // TestUnitRootBadInput: the bad inputs of a unit-root directive name the line.
 func TestUnitRootBadInput(t *testing.T) {
+	t.Parallel()
 	short := "date,x,k,g\n" + func() string {
 		var b strings.Builder
 		for i := 0; i < 10; i++ {
@@ -140,6 +142,7 @@ func TestUnitRootBadInput(t *testing.T) {
 }
 
 func TestOrderVerdict(t *testing.T) {
+	t.Parallel()
 	unit := &contract.Outcome{Stat: -1, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
 	stat := &contract.Outcome{Stat: -5, Crit: []critical.Value{{Level: 0.05, Value: -2.9}}}
 	kpssRej := &contract.Outcome{Stat: 1, Upper: true, Crit: []critical.Value{{Level: 0.05, Value: 0.463}}}
@@ -163,6 +166,7 @@ func TestOrderVerdict(t *testing.T) {
 // TestDemoIsI1: the demo's generated series are I(1) by construction, and
 // the order-of-integration table says so.
 func TestDemoIsI1(t *testing.T) {
+	t.Parallel()
 	v := valuesOf(t, filepath.Join("..", "examples", "gridlink", "paper.md"))
 	oi, ok := v["oi"]
 	if !ok {

@@ -19,6 +19,7 @@ const module = "github.com/galley-econ/galley/"
 // frequencies and samples, from analysis/series), and analysis imports
 // nothing of galley's but analysis.
 func TestDirectivePackagesStandAlone(t *testing.T) {
+	t.Parallel()
 	root := ".."
 	rules := []struct {
 		dir    string

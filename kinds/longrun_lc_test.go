@@ -15,6 +15,7 @@ import (
 // 1e-7 relative; 0.767 exceeds the 5% critical value 0.572 (m = 1, case
 // c), so it carries stars and reject_5.
 func TestFMOLSLc(t *testing.T) {
+	t.Parallel()
 	p := macroProject(t, "Lc is {{fm.lc.stat %.3f}}.\n\n"+fence("fmols", "id: fm\ny: log(realcons)\nx: [log(realdpi)]\n"))
 	doc, err := engine.Parse(p, engine.Options{})
 	if err != nil {

@@ -10,6 +10,7 @@ import (
 // TestMissingDrop: an interior gap is an error unless the directive says
 // missing: drop; then the observation is left out and the note says so.
 func TestMissingDrop(t *testing.T) {
+	t.Parallel()
 	csv := strings.Replace(testCSV, "2004-04,62,72,102,124", "2004-04,,72,102,124", 1)
 	body := "id: m\ndata: grid\ny: north\nx: [fuel]\n"
 	p := writeProject(t, front+"\n"+fence("ols", body), map[string]string{"data.csv": csv})
@@ -43,6 +44,7 @@ func TestMissingDrop(t *testing.T) {
 // an ols, with missing: drop sees the observations it was estimated on
 // (it used to re-read them with its own rule and fail at the gap).
 func TestMissingDropDownstream(t *testing.T) {
+	t.Parallel()
 	csv := syntheticCSV("y", "x", gridlinkSynthetic(80, -0.5))
 	lines := strings.Split(csv, "\n")
 	lines[30] = strings.Split(lines[30], ",")[0] + ",," + strings.Split(lines[30], ",")[2] // y missing in 2003-06

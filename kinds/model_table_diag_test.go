@@ -9,6 +9,7 @@ import (
 // TestModelTableDiagnostics: a model table's lower block can show the
 // residual diagnostics of ecm results, as their p-values.
 func TestModelTableDiagnostics(t *testing.T) {
+	t.Parallel()
 	p := writeProject(t, front+"\n"+
 		fence("engle-granger", "id: eg\ndata: grid\ny: north\nx: [fuel]\nlags: 0\n")+
 		fence("ecm", "id: e0\nfrom: eg\nlags: 0\ndiagnostics: [jb, dw]\n")+
@@ -31,6 +32,7 @@ func TestModelTableDiagnostics(t *testing.T) {
 // bandwidth (fmols), so a DOLS column never shows L + 1 beside a DOLS
 // table that says L lags.
 func TestModelTableHACLags(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(200, -0.3))}
 	p := writeProject(t, front+"\n"+
 		fence("ols", "id: o\ny: y\nx: [x]\nse: hac(3)\n")+

@@ -8,6 +8,7 @@ import (
 // grid cell, refuses the former spellings short and long with an error
 // at the key's line that names rule4 or rule12; the new spellings run.
 func TestFormerBandwidthSpellings(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(120, -0.5))}
 	cases := []struct {
 		name, kind, body, line, now string
@@ -36,6 +37,7 @@ func TestFormerBandwidthSpellings(t *testing.T) {
 // TestFormerKindName: a kind's former name is an error at the fence's
 // line naming the current one, in a block and as a grid's kind.
 func TestFormerKindName(t *testing.T) {
+	t.Parallel()
 	files := map[string]string{"data.csv": testCSV}
 	runBad(t, front+"\n"+fence("descriptives", "id: d\nseries: [north]\n"), files,
 		"paper.md:7:", `directive kind "descriptives" is now called "summary-stats"`)

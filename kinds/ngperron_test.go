@@ -17,6 +17,7 @@ import (
 // relative, with the same lag order; unitroot-table and grid read it
 // through the test contract with no code of their own.
 func TestNgPerronDirective(t *testing.T) {
+	t.Parallel()
 	raw, err := os.ReadFile(filepath.Join(refdata.Root(), "fixtures", "unitroot_ngperron.json"))
 	if err != nil {
 		t.Fatal(err)

@@ -79,6 +79,7 @@ func checkNotes(t *testing.T, results []*engine.Result) {
 
 // TestNoteDefects: the checker finds what it is meant to find.
 func TestNoteDefects(t *testing.T) {
+	t.Parallel()
 	for _, c := range []struct {
 		note string
 		bad  bool
@@ -105,6 +106,7 @@ var bareLabel = regexp.MustCompile(`(?m)^\*\*(Table|Figure) [A-Z0-9.]+\.\*\*\s*$
 // free of repeated sentences and empty clauses, and every table and figure
 // of its Markdown has a caption after its label.
 func TestDemoNotes(t *testing.T) {
+	t.Parallel()
 	doc, err := engine.Parse("../examples/gridlink/paper.md", engine.Options{})
 	if err != nil {
 		t.Fatal(err)
@@ -127,6 +129,7 @@ func TestDemoNotes(t *testing.T) {
 // values from two sources) has notes without empty clauses or repeats;
 // the sources name each test once per source, DF-GLS by block.
 func TestUnitRootTableNotes(t *testing.T) {
+	t.Parallel()
 	body := fence("unitroot-table", "id: u\nseries: [log(realgdp), infl]\ndet: ct\ntests: [adf, pp, kpss, dfgls, za, ngperron]\n")
 	res := runDoc(t, macroProject(t, body))
 	u := res["u"]
@@ -146,6 +149,7 @@ func TestUnitRootTableNotes(t *testing.T) {
 // with a trend, a model table with HAC lags and bandwidths, a grid of
 // Johansen statistics), every note free of repeats and empty clauses.
 func TestKindsNotes(t *testing.T) {
+	t.Parallel()
 	body := fence("adf", "id: a\nseries: log(realgdp)\n") + fence("pp", "id: p\nseries: log(realgdp)\n") +
 		fence("kpss", "id: k\nseries: infl\n") + fence("dfgls", "id: g\nseries: log(realgdp)\ndet: ct\n") +
 		fence("za", "id: z\nseries: log(realgdp)\nlags: 1\n") + fence("ngperron", "id: n\nseries: log(realgdp)\n") +

@@ -14,6 +14,7 @@ import (
 // testdata/fixtures/ols_macrodata.json by testdata/scripts/ols_macrodata.py),
 // checked to 1e-8 relative; the note says so and both forms are values.
 func TestOLSR2Convention(t *testing.T) {
+	t.Parallel()
 	var fx struct {
 		Cases []struct {
 			Name        string  `json:"name"`

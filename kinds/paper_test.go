@@ -88,6 +88,7 @@ Text.
 // "Appendix A:" are not repeated), appendix tables A.1, and every format
 // refers to them with the same numbers.
 func TestEquationsSectionsAppendix(t *testing.T) {
+	t.Parallel()
 	p := writeProject(t, front+paperBody, map[string]string{"data.csv": testCSV})
 	_, h, tex, md := renderAll(t, p)
 	wantIn(t, "HTML", h,
@@ -113,6 +114,7 @@ func TestEquationsSectionsAppendix(t *testing.T) {
 // TestManuscriptTextErrors: mistakes in the manuscript's own text are
 // errors that name the line, before anything runs.
 func TestManuscriptTextErrors(t *testing.T) {
+	t.Parallel()
 	cases := []struct{ name, body, want string }{
 		{"equation id twice", "$$ a \\label{e} $$\n\n$$ b \\label{e} $$\n", `paper.md:9: duplicate id "e" (first used on line 7)`},
 		{"equation id of a directive", fence("summary-stats", "id: d\ndata: grid\nseries: [north]\n") + "\n$$ a \\label{d} $$\n", `paper.md:13: duplicate id "d" (a directive on line 7 has it)`},

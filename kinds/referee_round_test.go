@@ -62,6 +62,7 @@ func refereeRound(t *testing.T) (old, new *resultsfile.File) {
 // them; the renamed data file is a changed input of its alias; the
 // published reports name results by label and caption, not by id or path.
 func TestRefereeRound(t *testing.T) {
+	t.Parallel()
 	old, new := refereeRound(t)
 	rep := revision.Compare(old, new, revision.Options{})
 	lines := strings.Split(strings.TrimSpace(rep.Summary()), "\n")
@@ -146,6 +147,7 @@ func TestRefereeRound(t *testing.T) {
 // TestNewValueIsNoFlip: a value present in one build only is listed, not
 // counted as a flipped conclusion.
 func TestNewValueIsNoFlip(t *testing.T) {
+	t.Parallel()
 	rec := func(v map[string]any) resultsfile.Record {
 		return resultsfile.Record{ID: "a", Kind: "adf", Label: "Table 1", Values: v}
 	}
@@ -160,6 +162,7 @@ func TestNewValueIsNoFlip(t *testing.T) {
 // TestRevisionOnly: the revision directive's only: limits the report to
 // the chosen results; an unknown id is an error at its list item.
 func TestRevisionOnly(t *testing.T) {
+	t.Parallel()
 	csvOld := syntheticCSV("y", "x", gridlinkSynthetic(120, -0.5))
 	csvNew := syntheticCSV("y", "x", gridlinkSynthetic(126, -0.5))
 	fm := "---\ntitle: T\ndata:\n  grid:\n    path: new.csv\n    vintage:\n      first: old.csv\n---\n\n"

@@ -13,6 +13,7 @@ import (
 // analysis scales each series internally and maps its results back
 // (analysis/johansen/scale.go).
 func TestPoorScaling(t *testing.T) {
+	t.Parallel()
 	csv, err := os.ReadFile(filepath.Join("..", "examples", "gridlink", "data", "gridlink.csv"))
 	if err != nil {
 		t.Fatal(err)

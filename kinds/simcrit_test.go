@@ -53,7 +53,7 @@ func buildValues(t *testing.T, p string, opts engine.Options) (map[string]map[st
 // the published table); the simulated p-value is close to MacKinnon's
 // (1994) approximation, which is asymptotic (so a looser 0.02).
 func TestSimADFMatchesMacKinnon(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: c\nlags: 0\ncrit: simulate\n"))
 	v, notes := buildValues(t, p, engine.Options{})
 	a := v["a"]
@@ -99,7 +99,7 @@ func TestSimADFMatchesMacKinnon(t *testing.T) {
 // TestSimADFChosenLag: with a criterion, the simulation holds the chosen
 // lag fixed, at the regression's T, and the note says so.
 func TestSimADFChosenLag(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	p := macroProject(t, fence("adf", "id: a\nseries: log(realgdp)\ndet: ct\nlags: {select: aic, max: 8}\ncrit: simulate\nreplications: 2000\n"))
 	v, notes := buildValues(t, p, engine.Options{})
 	a := v["a"]
@@ -115,7 +115,7 @@ func TestSimADFChosenLag(t *testing.T) {
 // TestSimSeed: the same seed gives identical values in separate builds;
 // another seed gives other values.
 func TestSimSeed(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	body := func(seed string) string {
 		return fence("adf", "id: a\nseries: infl\ndet: c\nlags: 2\ncrit: simulate\nreplications: 3000\n"+seed)
 	}
@@ -135,7 +135,7 @@ func TestSimSeed(t *testing.T) {
 // result cache misses) and a second directive with the same experiment
 // read it instead of simulating; a corrupt file is ignored and replaced.
 func TestSimStore(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	spec := "series: infl\ndet: c\nlags: 1\ncrit: simulate\nreplications: 2000\n"
 	p := macroProject(t, fence("adf", "id: a\n"+spec)+"\n"+fence("adf", "id: b\n"+spec+"caption: again\n"))
 	dir := filepath.Join(filepath.Dir(p), ".galley-cache")
@@ -187,7 +187,7 @@ func TestSimStore(t *testing.T) {
 // τ (N = 2, case c) lie within 4 MCSE of MacKinnon's (2010) response
 // surface at the row's T; the values and the note say they are simulated.
 func TestSimEngleGranger(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	files := map[string]string{"data.csv": syntheticCSV("y", "x", gridlinkSynthetic(200, -0.5))}
 	p := writeProject(t, front+"\n"+fence("engle-granger", "id: e\ny: y\nx: [x]\nlags: 1\ncrit: simulate\nreplications: 10000\n"), files)
 	v, notes := buildValues(t, p, engine.Options{})
@@ -217,7 +217,7 @@ func TestSimEngleGranger(t *testing.T) {
 // somewhat larger); the chosen rank follows from them; a vecm from: it
 // uses the same rank, also when the johansen result came from the cache.
 func TestSimJohansen(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	p := copyDemo(t)
 	src, _ := os.ReadFile(p)
 	doc := string(src) + "\n" + fence("johansen", "id: simsys\ndata: grid\nseries: [log(north), log(south), log(fuel)]\ndet: restricted constant\nlags: 1\ncrit: simulate\nreplications: 2000\n") +
@@ -266,7 +266,7 @@ func TestSimJohansen(t *testing.T) {
 // their line; the former spelling reps: is an error that names
 // replications:, in a directive and in a grid (fixed or varied).
 func TestSimBadKeys(t *testing.T) {
-	quietSim(t)
+	quietSim(t) // sets the engine's progress writer: not in parallel
 	// Lines: 1–4 front matter, 5 blank, 6 the fence, 7 id, 8 series, 9…
 	for _, c := range []struct {
 		name, kind, body string

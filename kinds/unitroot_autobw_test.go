@@ -18,6 +18,7 @@ import (
 // choice and the lag chosen. pp and kpss with bandwidth: auto (Newey–West
 // 1994) run end to end and say so.
 func TestKPSSAutoBandwidthDirective(t *testing.T) {
+	t.Parallel()
 	var fx struct {
 		KPSSAuto []struct {
 			Series, Case string

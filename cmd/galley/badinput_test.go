@@ -225,6 +225,9 @@ func TestMain(m *testing.M) {
 	if binPath != "" {
 		os.RemoveAll(filepath.Dir(binPath))
 	}
+	if sharedDir != "" {
+		os.RemoveAll(sharedDir)
+	}
 	os.Exit(code)
 }
 

@@ -11,6 +11,15 @@ import (
 func demoCopy(t *testing.T) string {
 	t.Helper()
 	dir := t.TempDir()
+	if err := copyDemo(dir); err != nil {
+		t.Fatal(err)
+	}
+	return dir
+}
+
+// copyDemo copies the demo's manuscript, bibliography and data (not its
+// cache or outputs) into dir.
+func copyDemo(dir string) error {
 	data, _ := filepath.Glob(filepath.Join("..", "..", "examples", "gridlink", "data", "*.csv"))
 	files := []string{"paper.md", "references.bib"}
 	for _, p := range data {
@@ -19,15 +28,15 @@ func demoCopy(t *testing.T) string {
 	for _, f := range files {
 		b, err := os.ReadFile(filepath.Join("..", "..", "examples", "gridlink", f))
 		if err != nil {
-			t.Fatal(err)
+			return err
 		}
 		p := filepath.Join(dir, f)
 		os.MkdirAll(filepath.Dir(p), 0o755)
 		if err := os.WriteFile(p, b, 0o644); err != nil {
-			t.Fatal(err)
+			return err
 		}
 	}
-	return dir
+	return nil
 }
 
 // TestBuildDemo builds the demo paper in all three formats and checks the

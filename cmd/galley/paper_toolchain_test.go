@@ -18,11 +18,14 @@ import (
 // shows numbered equations, author-year citations, the reference list,
 // appendix tables, footnote text and no TeX or Markdown leaking through;
 // and each table or figure is set at most two pages after its first
-// reference (the page breaks are pdftotext's form feeds).
+// reference (the page breaks are pdftotext's form feeds). pdflatex
+// compiles the LaTeX galley writes (--to pdf runs it on paper.tex and its
+// figures in a temporary folder) and the first page is not blank.
 func TestDemoPDF(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
 	need(t, "pdflatex")
 	out := buildDemoTo(t, "pdf")
+	firstPageInked(t, out, "paper.pdf")
 	cmd := exec.Command(need(t, "pdftotext"), "-layout", "paper.pdf", "paper.txt")
 	cmd.Dir = out
 	if b, err := cmd.CombinedOutput(); err != nil {
@@ -80,7 +83,7 @@ func TestDemoPDF(t *testing.T) {
 func TestEquationsInChromium(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
-	out := buildDemoTo(t, "html")
+	out := sharedDemo(t)
 	html, err := os.ReadFile(filepath.Join(out, "paper.html"))
 	if err != nil {
 		t.Fatal(err)
@@ -162,7 +165,7 @@ var (
 func TestHTMLPrintKeepsColumns(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
-	out := buildDemoTo(t, "html")
+	out := sharedDemo(t)
 	page, err := os.ReadFile(filepath.Join(out, "paper.html"))
 	if err != nil {
 		t.Fatal(err)

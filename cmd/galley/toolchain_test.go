@@ -2,12 +2,14 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"image/png"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"regexp"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 )
@@ -34,6 +36,34 @@ func buildDemoTo(t *testing.T, format string) string {
 		t.Fatalf("build: exit %d", code)
 	}
 	return out
+}
+
+// The demo built once to HTML and LaTeX for the toolchain checks, which
+// only read it and add files of their own names beside it; TestMain
+// removes it.
+var (
+	sharedOnce sync.Once
+	sharedDir  string
+	sharedErr  error
+)
+
+func sharedDemo(t *testing.T) string {
+	t.Helper()
+	sharedOnce.Do(func() {
+		if sharedDir, sharedErr = os.MkdirTemp("", "galley-demo-"); sharedErr != nil {
+			return
+		}
+		if sharedErr = copyDemo(filepath.Join(sharedDir, "src")); sharedErr != nil {
+			return
+		}
+		if code := run([]string{"build", filepath.Join(sharedDir, "src", "paper.md"), "--to", "html", "--to", "latex", "--out", filepath.Join(sharedDir, "out"), "--no-cache"}); code != 0 {
+			sharedErr = fmt.Errorf("build: exit %d", code)
+		}
+	})
+	if sharedErr != nil {
+		t.Fatal(sharedErr)
+	}
+	return filepath.Join(sharedDir, "out")
 }
 
 var texErrorLine = regexp.MustCompile(`(?m)^! .*$`)
@@ -82,18 +112,16 @@ func inkFraction(t *testing.T, path string) float64 {
 	return float64(dark) / float64(all)
 }
 
-// TestLaTeXCompiles: the demo paper's LaTeX compiles with pdflatex and its
-// first page, rendered by pdftoppm, is not blank.
-func TestLaTeXCompiles(t *testing.T) {
-	t.Parallel() // external programs; run alongside the other toolchain checks
-	out := buildDemoTo(t, "latex")
-	pdflatex(t, out, "paper.tex")
-	cmd := exec.Command(need(t, "pdftoppm"), "-png", "-r", "40", "-f", "1", "-l", "1", "paper.pdf", "page")
-	cmd.Dir = out
+// firstPageInked renders page 1 of dir/pdf with pdftoppm and fails the
+// test if it is blank.
+func firstPageInked(t *testing.T, dir, pdf string) {
+	t.Helper()
+	cmd := exec.Command(need(t, "pdftoppm"), "-png", "-r", "40", "-f", "1", "-l", "1", pdf, "page")
+	cmd.Dir = dir
 	if b, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("pdftoppm: %v\n%s", err, b)
 	}
-	pages, _ := filepath.Glob(filepath.Join(out, "page*.png"))
+	pages, _ := filepath.Glob(filepath.Join(dir, "page*.png"))
 	if len(pages) != 1 {
 		t.Fatalf("pdftoppm pages: %v", pages)
 	}
@@ -107,7 +135,7 @@ func TestLaTeXCompiles(t *testing.T) {
 // and pdflscape included, for the long and the wide).
 func TestTableFragmentCompiles(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
-	out := buildDemoTo(t, "latex")
+	out := sharedDemo(t)
 	frags, _ := filepath.Glob(filepath.Join(out, "tables", "*.tex"))
 	if len(frags) == 0 {
 		t.Fatal("no table fragments written")
@@ -130,7 +158,7 @@ func TestTableFragmentCompiles(t *testing.T) {
 func TestHTMLInChromium(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
-	out := buildDemoTo(t, "html")
+	out := sharedDemo(t)
 	page := filepath.Join(out, "paper.html")
 	html, err := os.ReadFile(page)
 	if err != nil {
