@@ -154,7 +154,8 @@ func TestTableFragmentCompiles(t *testing.T) {
 // TestHTMLInChromium: the demo HTML opens in headless Chromium, the page
 // fetches nothing (its resource-timing list, read back from the DOM, is
 // empty, and no src, href or url() in it points anywhere), every table
-// and figure is in the DOM, and the screenshot is not blank.
+// and figure is in the DOM, every display equation has a laid-out box
+// (checkEquationBoxes), and the screenshot is not blank.
 func TestHTMLInChromium(t *testing.T) {
 	t.Parallel() // external programs; run alongside the other toolchain checks
 	bin := need(t, "chromium")
@@ -169,7 +170,7 @@ func TestHTMLInChromium(t *testing.T) {
 	}
 	// A copy of the page that records what it fetched into the DOM.
 	probe := filepath.Join(out, "probe.html")
-	rec := `<script>window.addEventListener("load",function(){var r=performance.getEntriesByType("resource").map(function(e){return e.name});document.body.setAttribute("data-fetched",String(r.length));document.body.setAttribute("data-urls",r.join(" "))})</script></body>`
+	rec := `<script>window.addEventListener("load",function(){var r=performance.getEntriesByType("resource").map(function(e){return e.name});document.body.setAttribute("data-fetched",String(r.length));document.body.setAttribute("data-urls",r.join(" "));var q=[];document.querySelectorAll(".equation math").forEach(function(m){var b=m.getBoundingClientRect();q.push(Math.round(b.width)+"x"+Math.round(b.height))});document.body.setAttribute("data-eq",q.join(" "))})</script></body>`
 	os.WriteFile(probe, bytes.Replace(html, []byte("</body>"), []byte(rec), 1), 0o644)
 
 	chrome := func(target string, extra ...string) []byte {
@@ -210,6 +211,7 @@ func TestHTMLInChromium(t *testing.T) {
 	if got := strings.Count(dom, `<figure class="result"`); got != wantFigures {
 		t.Errorf("figures in the DOM: %d, want %d", got, wantFigures)
 	}
+	checkEquationBoxes(t, string(html), dom)
 	shot := filepath.Join(out, "shot.png")
 	chrome(page, "--screenshot="+shot)
 	if ink := inkFraction(t, shot); ink < 0.002 {
