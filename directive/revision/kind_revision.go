@@ -103,10 +103,10 @@ func (s *revisionSpec) table(c *engine.Context, rep *revision.Report) *engine.Re
 	t := &table.Table{Stub: 2, Head: [][]table.Cell{{table.T("Result"), table.T("What"), table.T("Before"), table.T("After")}}}
 	var specs, flipped, samples []map[string]any
 	if s.shows("specs") {
-		specs = s.specs(t, rep)
+		specs = changes(t, rep, "Specifications that changed", func(it *revision.Item) []revision.Change { return it.Specs })
 	}
 	if s.shows("conclusions") {
-		flipped = s.conclusions(t, rep)
+		flipped = changes(t, rep, "Conclusions that changed", func(it *revision.Item) []revision.Change { return it.Flips })
 	}
 	if s.shows("samples") {
 		samples = s.samples(t, rep)
@@ -176,12 +176,14 @@ func none(t *table.Table) {
 	t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.Span("none", 4)}})
 }
 
-// specs lists the settings of each result that changed.
-func (s *revisionSpec) specs(t *table.Table, rep *revision.Report) []map[string]any {
-	block(t, "Specifications that changed")
+// changes lists, under title, the changes pick takes from each result
+// (its spec keys or its conclusions), one row and one value each.
+func changes(t *table.Table, rep *revision.Report, title string, pick func(*revision.Item) []revision.Change) []map[string]any {
+	block(t, title)
 	var out []map[string]any
-	for _, it := range rep.Items {
-		for _, ch := range it.Specs {
+	for i := range rep.Items {
+		it := &rep.Items[i]
+		for _, ch := range pick(it) {
 			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.Short), table.T(ch.What), table.T(ch.Old), table.T(ch.New)}})
 			out = append(out, map[string]any{"id": it.ID, "label": it.Short, "what": ch.What, "old": ch.Old, "new": ch.New})
 		}
@@ -190,22 +192,6 @@ func (s *revisionSpec) specs(t *table.Table, rep *revision.Report) []map[string]
 		none(t)
 	}
 	return out
-}
-
-// conclusions lists the conclusions that changed.
-func (s *revisionSpec) conclusions(t *table.Table, rep *revision.Report) []map[string]any {
-	block(t, "Conclusions that changed")
-	var flipped []map[string]any
-	for _, it := range rep.Items {
-		for _, f := range it.Flips {
-			t.Body = append(t.Body, table.Row{Cells: []table.Cell{table.T(it.Short), table.T(f.What), table.T(f.Old), table.T(f.New)}})
-			flipped = append(flipped, map[string]any{"id": it.ID, "label": it.Short, "what": f.What, "old": f.Old, "new": f.New})
-		}
-	}
-	if len(flipped) == 0 {
-		none(t)
-	}
-	return flipped
 }
 
 // samples lists the results whose samples changed.
