@@ -545,17 +545,9 @@ func writeTeXTable(b *bytes.Buffer, r *engine.Result) {
 			b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
 		}
 		// the largest size at which the table fits the line (galleyfit)
-		b.WriteString("\\galleyfit{%\n\\begin{tabular}{" + spec + "}\n\\toprule\n")
-		for _, row := range t.Head {
-			writeTeXRow(b, row, t.Stub, true)
-		}
-		b.WriteString("\\midrule\n")
-		for _, row := range t.Body {
-			if row.RuleAbove {
-				b.WriteString("\\midrule\n")
-			}
-			writeTeXRow(b, row.Cells, t.Stub, false)
-		}
+		b.WriteString("\\galleyfit{%\n\\begin{tabular}{" + spec + "}\n")
+		writeTeXHead(b, t)
+		writeTeXBody(b, t)
 		b.WriteString("\\bottomrule\n\\end{tabular}}\n")
 		writeTeXNotes(b, t.Notes)
 		b.WriteString("\\end{table}\n")
@@ -565,36 +557,45 @@ func writeTeXTable(b *bytes.Buffer, r *engine.Result) {
 	}
 }
 
-// writeLongTable sets a table that breaks across pages: the header
-// repeats on each page, "continued" lines say where it goes on, and the
-// notes follow its last row in the text block.
-func writeLongTable(b *bytes.Buffer, r *engine.Result, spec string) {
-	t := r.Table
-	cols := t.Cols()
-	head := func() {
-		b.WriteString("\\toprule\n")
-		for _, row := range t.Head {
-			writeTeXRow(b, row, t.Stub, true)
-		}
-		b.WriteString("\\midrule\n")
+// writeTeXHead writes a table's header rows between its top rule and
+// the rule under them.
+func writeTeXHead(b *bytes.Buffer, t *table.Table) {
+	b.WriteString("\\toprule\n")
+	for _, row := range t.Head {
+		writeTeXRow(b, row, t.Stub, true)
 	}
-	b.WriteString("\\begingroup\\small\n")
-	if cols > 7 {
-		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
-	}
-	fmt.Fprintf(b, "\\begin{longtable}{%s}\n\\caption{%s}\\label{%s}\\\\\n", spec, texEscape(t.Caption), texLabel(r))
-	head()
-	b.WriteString("\\endfirsthead\n")
-	fmt.Fprintf(b, "\\multicolumn{%d}{l}{\\emph{\\tablename~\\thetable, continued}}\\\\\n", cols)
-	head()
-	b.WriteString("\\endhead\n")
-	fmt.Fprintf(b, "\\midrule\n\\multicolumn{%d}{r}{\\emph{continued on the next page}}\\\\\n\\endfoot\n\\bottomrule\n\\endlastfoot\n", cols)
+	b.WriteString("\\midrule\n")
+}
+
+// writeTeXBody writes a table's body rows, with a rule above those that
+// open a block.
+func writeTeXBody(b *bytes.Buffer, t *table.Table) {
 	for _, row := range t.Body {
 		if row.RuleAbove {
 			b.WriteString("\\midrule\n")
 		}
 		writeTeXRow(b, row.Cells, t.Stub, false)
 	}
+}
+
+// writeLongTable sets a table that breaks across pages: the header
+// repeats on each page, "continued" lines say where it goes on, and the
+// notes follow its last row in the text block.
+func writeLongTable(b *bytes.Buffer, r *engine.Result, spec string) {
+	t := r.Table
+	cols := t.Cols()
+	b.WriteString("\\begingroup\\small\n")
+	if cols > 7 {
+		b.WriteString("\\setlength{\\tabcolsep}{3.5pt}\n")
+	}
+	fmt.Fprintf(b, "\\begin{longtable}{%s}\n\\caption{%s}\\label{%s}\\\\\n", spec, texEscape(t.Caption), texLabel(r))
+	writeTeXHead(b, t)
+	b.WriteString("\\endfirsthead\n")
+	fmt.Fprintf(b, "\\multicolumn{%d}{l}{\\emph{\\tablename~\\thetable, continued}}\\\\\n", cols)
+	writeTeXHead(b, t)
+	b.WriteString("\\endhead\n")
+	fmt.Fprintf(b, "\\midrule\n\\multicolumn{%d}{r}{\\emph{continued on the next page}}\\\\\n\\endfoot\n\\bottomrule\n\\endlastfoot\n", cols)
+	writeTeXBody(b, t)
 	b.WriteString("\\end{longtable}\n")
 	writeTeXNotes(b, t.Notes)
 	b.WriteString("\\endgroup\n")
