@@ -107,9 +107,17 @@ func checkScalar(n *yaml.Node, t reflect.Type, key string) error {
 	return nil
 }
 
-// YamlFields maps YAML keys to field types, following ",inline".
-func YamlFields(t reflect.Type) map[string]reflect.Type {
-	out := map[string]reflect.Type{}
+// eachYAMLField calls visit with the YAML key of each exported field of
+// the struct type t (or of what t points to), following ",inline" and
+// skipping fields tagged "-"; a field without a name in its tag has its
+// lower-cased Go name, as yaml.v3 gives it.
+func eachYAMLField(t reflect.Type, visit func(key string, f reflect.StructField)) {
+	for t.Kind() == reflect.Pointer {
+		t = t.Elem()
+	}
+	if t.Kind() != reflect.Struct {
+		return
+	}
 	for i := 0; i < t.NumField(); i++ {
 		f := t.Field(i)
 		if !f.IsExported() {
@@ -121,16 +129,20 @@ func YamlFields(t reflect.Type) map[string]reflect.Type {
 		}
 		name, opts, _ := strings.Cut(tag, ",")
 		if strings.Contains(opts, "inline") {
-			for k, v := range YamlFields(f.Type) {
-				out[k] = v
-			}
+			eachYAMLField(f.Type, visit)
 			continue
 		}
 		if name == "" {
 			name = strings.ToLower(f.Name)
 		}
-		out[name] = f.Type
+		visit(name, f)
 	}
+}
+
+// YamlFields maps YAML keys to field types, following ",inline".
+func YamlFields(t reflect.Type) map[string]reflect.Type {
+	out := map[string]reflect.Type{}
+	eachYAMLField(t, func(key string, f reflect.StructField) { out[key] = f.Type })
 	return out
 }
 
@@ -143,35 +155,14 @@ func YamlFields(t reflect.Type) map[string]reflect.Type {
 // CheckKeys refuses a former name with an error that names the current
 // one, as the registry does for a kind's former names.
 func FormerKeys(t reflect.Type) map[string]string {
-	for t.Kind() == reflect.Pointer {
-		t = t.Elem()
-	}
 	out := map[string]string{}
-	if t.Kind() != reflect.Struct {
-		return out
-	}
-	for i := 0; i < t.NumField(); i++ {
-		f := t.Field(i)
-		if !f.IsExported() {
-			continue
-		}
-		tag := f.Tag.Get("yaml")
-		name, opts, _ := strings.Cut(tag, ",")
-		if strings.Contains(opts, "inline") {
-			for k, v := range FormerKeys(f.Type) {
-				out[k] = v
-			}
-			continue
-		}
-		if name == "" {
-			name = strings.ToLower(f.Name)
-		}
+	eachYAMLField(t, func(key string, f reflect.StructField) {
 		for _, old := range strings.Split(f.Tag.Get("formerly"), ",") {
 			if old = strings.TrimSpace(old); old != "" {
-				out[old] = name
+				out[old] = key
 			}
 		}
-	}
+	})
 	return out
 }
 
