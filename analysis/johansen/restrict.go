@@ -106,25 +106,9 @@ func (r *Result) restrictedBeta(q *mat.Dense) ([]float64, *mat.Dense, error) {
 	var aq, b mat.Dense
 	aq.Mul(r.a, q1)
 	b.Mul(q1.T(), &aq)
-	var es mat.EigenSym
-	if !es.Factorize(symOf(&b), true) {
+	lam, ws, ok := eigenDesc(symOf(&b))
+	if !ok {
 		return nil, nil, fmt.Errorf("the symmetric eigenproblem did not converge")
-	}
-	vals := es.Values(nil)
-	var w mat.Dense
-	es.VectorsTo(&w)
-	order := make([]int, s)
-	for i := range order {
-		order[i] = i
-	}
-	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
-	lam := make([]float64, s)
-	ws := mat.NewDense(s, s, nil)
-	for j, o := range order {
-		lam[j] = math.Max(vals[o], 0)
-		for i := 0; i < s; i++ {
-			ws.Set(i, j, w.At(i, o))
-		}
 	}
 	var phi mat.Dense
 	if err := phi.Solve(qr.R(), ws); err != nil {
@@ -304,33 +288,44 @@ func reducedRank(s00 *mat.SymDense, s01 *mat.Dense, s11 *mat.SymDense) ([]float6
 	}
 	var m mat.Dense
 	m.Mul(&x, &y)
-	sm := symOf(&m)
-	var es mat.EigenSym
-	if !es.Factorize(sm, true) {
+	lam, ws, ok := eigenDesc(symOf(&m))
+	if !ok {
 		return nil, nil, fmt.Errorf("the symmetric eigenproblem did not converge")
-	}
-	vals := es.Values(nil)
-	var w mat.Dense
-	es.VectorsTo(&w)
-	n := len(vals)
-	order := make([]int, n)
-	for i := range order {
-		order[i] = i
-	}
-	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
-	lam := make([]float64, n)
-	ws := mat.NewDense(n, n, nil)
-	for j, o := range order {
-		lam[j] = math.Max(vals[o], 0)
-		for i := 0; i < n; i++ {
-			ws.Set(i, j, w.At(i, o))
-		}
 	}
 	var v mat.Dense
 	if err := v.Solve(l.T(), ws); err != nil {
 		return nil, nil, err
 	}
 	return lam, &v, nil
+}
+
+// eigenDesc factorises the symmetric matrix a and returns its eigenvalues
+// in decreasing order (stable among ties), any below zero — the rounding
+// of an exact zero — set to zero, with the eigenvectors as the columns of
+// w in the same order; ok is false if the eigenproblem did not converge.
+func eigenDesc(a mat.Symmetric) (lam []float64, w *mat.Dense, ok bool) {
+	var es mat.EigenSym
+	if !es.Factorize(a, true) {
+		return nil, nil, false
+	}
+	vals := es.Values(nil)
+	var vecs mat.Dense
+	es.VectorsTo(&vecs)
+	n := len(vals)
+	order := make([]int, n)
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
+	lam = make([]float64, n)
+	w = mat.NewDense(n, n, nil)
+	for j, o := range order {
+		lam[j] = math.Max(vals[o], 0)
+		for i := 0; i < n; i++ {
+			w.Set(i, j, vecs.At(i, o))
+		}
+	}
+	return lam, w, true
 }
 
 // symOf returns the symmetric part of a square matrix.

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"sort"
 
 	"gonum.org/v1/gonum/mat"
 
@@ -345,31 +344,13 @@ func (r *Result) reduce(d *mat.Dense) error {
 			a.SetSym(i, j, (prod.At(i, j)+prod.At(j, i))/(2*ft))
 		}
 	}
-	var es mat.EigenSym
-	if !es.Factorize(a, true) {
+	lam, w, ok := eigenDesc(a)
+	if !ok {
 		return errors.New("johansen: the symmetric eigenproblem did not converge")
 	}
-	vals := es.Values(nil)
-	var w mat.Dense
-	es.VectorsTo(&w)
-	order := make([]int, p1)
-	for i := range order {
-		order[i] = i
-	}
-	sort.SliceStable(order, func(a, b int) bool { return vals[order[a]] > vals[order[b]] })
 	// v = √T R11⁻¹ w for the K largest.
-	wk := mat.NewDense(p1, k, nil)
-	r.Eigenvalues = make([]float64, k)
-	for j := 0; j < k; j++ {
-		lam := vals[order[j]]
-		if lam < 0 {
-			lam = 0 // rounding below an exact zero
-		}
-		r.Eigenvalues[j] = lam
-		for i := 0; i < p1; i++ {
-			wk.Set(i, j, w.At(i, order[j]))
-		}
-	}
+	r.Eigenvalues = lam[:k:k]
+	wk := w.Slice(0, p1, 0, k)
 	u := mat.NewTriDense(p1, mat.Upper, nil)
 	u.Copy(r11)
 	var v mat.Dense
