@@ -31,12 +31,18 @@ const gridDefaultMax = 50
 // against that kind (see gridSpec.prepare).
 type gridDirective []*gridSpec
 
-type gridSpec struct {
+// ownKeys are the grid's own keys that it decodes (over: is read from the
+// node); the rest of its block belongs to the kind it repeats.
+type ownKeys struct {
 	engine.Common `yaml:",inline"`
 	Of            string `yaml:"of"`
 	Show          string `yaml:"show"`
 	Max           *int   `yaml:"max"`
 	Decimals      *int   `yaml:"decimals"`
+}
+
+type gridSpec struct {
+	ownKeys
 
 	node  *yaml.Node // the block's YAML mapping
 	over  []gridAxis
@@ -80,17 +86,11 @@ func (g *gridDirective) Base() *engine.Common { return &g.spec().Common }
 // kind's keys are checked when the cells are built.
 func (g *gridDirective) UnmarshalYAML(n *yaml.Node) error {
 	s := g.spec()
-	var own struct {
-		engine.Common `yaml:",inline"`
-		Of            string `yaml:"of"`
-		Show          string `yaml:"show"`
-		Max           *int   `yaml:"max"`
-		Decimals      *int   `yaml:"decimals"`
-	}
+	var own ownKeys
 	if err := n.Decode(&own); err != nil {
 		return err
 	}
-	s.Common, s.Of, s.Show, s.Max, s.Decimals = own.Common, own.Of, own.Show, own.Max, own.Decimals
+	s.ownKeys = own
 	s.node = n
 	return nil
 }
