@@ -17,16 +17,9 @@ import (
 // (Phillips and Hansen 1990) and ccr (Park 1992). They share their keys,
 // their table and their values; method says which one a block is.
 type kernelSpec struct {
-	engine.Common `yaml:",inline"`
-	Data          string   `yaml:"data"`
-	Y             string   `yaml:"y"`
-	X             []string `yaml:"x"`
-	Det           string   `yaml:"det"`
-	Sample        string   `yaml:"sample"`
-	Kernel        string   `yaml:"kernel"`
-	Bandwidth     string   `yaml:"bandwidth"`
-	Restrict      []string `yaml:"restrict"`
-	Decimals      *int     `yaml:"decimals"`
+	RelationKeys `yaml:",inline"`
+	Kernel       string `yaml:"kernel"`
+	Bandwidth    string `yaml:"bandwidth"`
 
 	method *kernelMethod
 }
@@ -108,11 +101,6 @@ func init() {
 	}
 }
 
-// Relation says where the long-run relation was estimated.
-func (s *kernelSpec) Relation() contract.LongRun {
-	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
-}
-
 func (s *kernelSpec) settings(c *engine.Context) (critical.Case, longrun.Kernel, float64, error) {
 	det, err := engine.ParseDet(c, s.Det)
 	if err != nil {
@@ -123,7 +111,7 @@ func (s *kernelSpec) settings(c *engine.Context) (critical.Case, longrun.Kernel,
 }
 
 func (s *kernelSpec) Check(c *engine.Context) error {
-	if err := checkRelation(c, s.method.Name, s.Data, s.Y, s.X, s.Det, s.Sample, s.Restrict); err != nil {
+	if err := s.checkRelation(c, s.method.Name); err != nil {
 		return err
 	}
 	_, _, _, err := s.settings(c)
@@ -138,7 +126,7 @@ func (s *kernelSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	d, err := s.data(c)
 	if err != nil {
 		return nil, err
 	}

@@ -19,22 +19,29 @@ import (
 	"github.com/galley-econ/galley/manuscript"
 )
 
-// dols: estimates of a cointegrating relation with valid
-// standard errors, and Wald tests of restrictions on it.
-type dolsSpec struct {
+// RelationKeys are the keys every long-run estimator of this package
+// shares: where the relation is (data, y, x, sample), its deterministic
+// terms, the Wald restrictions to test and the decimals.
+type RelationKeys struct {
 	engine.Common `yaml:",inline"`
 	Data          string   `yaml:"data"`
 	Y             string   `yaml:"y"`
 	X             []string `yaml:"x"`
 	Det           string   `yaml:"det"`
 	Sample        string   `yaml:"sample"`
-	SE            string   `yaml:"se"`
-	Leads         *int     `yaml:"leads"`
-	Lags          *int     `yaml:"lags"`
-	Select        string   `yaml:"select"`
-	Max           *int     `yaml:"max"`
 	Restrict      []string `yaml:"restrict"`
 	Decimals      *int     `yaml:"decimals"`
+}
+
+// dols: estimates of a cointegrating relation with valid
+// standard errors, and Wald tests of restrictions on it.
+type dolsSpec struct {
+	RelationKeys `yaml:",inline"`
+	SE           string `yaml:"se"`
+	Leads        *int   `yaml:"leads"`
+	Lags         *int   `yaml:"lags"`
+	Select       string `yaml:"select"`
+	Max          *int   `yaml:"max"`
 }
 
 // longrunFields are the values both estimators report; dolsFields and
@@ -51,25 +58,33 @@ func init() {
 }
 
 // Relation says where the long-run relation was estimated.
-func (s *dolsSpec) Relation() contract.LongRun {
-	return contract.LongRun{Data: s.Data, Y: s.Y, X: s.X, Sample: s.Sample, Missing: s.Missing}
+func (k *RelationKeys) Relation() contract.LongRun {
+	return contract.LongRun{Data: k.Data, Y: k.Y, X: k.X, Sample: k.Sample, Missing: k.Missing}
 }
 
-// checkRelation checks the keys both estimators share.
-func checkRelation(c *engine.Context, kind, data, y string, x []string, det, sample string, restrict []string) error {
-	if err := c.Require("y", y == ""); err != nil {
+// checkRelation checks the shared keys of a block of the named kind.
+func (k *RelationKeys) checkRelation(c *engine.Context, kind string) error {
+	if err := c.Require("y", k.Y == ""); err != nil {
 		return err
 	}
-	if len(x) == 0 {
+	if len(k.X) == 0 {
 		return c.Errorf("", "galley %s: the key \"x\" is required (one or more regressors)", kind)
 	}
-	if _, err := engine.ParseDet(c, det); err != nil {
+	if _, err := engine.ParseDet(c, k.Det); err != nil {
 		return err
 	}
-	if _, err := parseRestrictions(c, restrict, x); err != nil {
+	if _, err := parseRestrictions(c, k.Restrict, k.X); err != nil {
 		return err
 	}
-	return c.CheckData(c.DataAlias(data), append([]string{y}, x...), sample)
+	return c.CheckData(c.DataAlias(k.Data), k.columns(), k.Sample)
+}
+
+// columns are y and then the regressors.
+func (k *RelationKeys) columns() []string { return append([]string{k.Y}, k.X...) }
+
+// data reads y and the regressors over the sample.
+func (k *RelationKeys) data(c *engine.Context) (*engine.Data, error) {
+	return c.Data(c.DataAlias(k.Data), k.columns(), k.Sample)
 }
 
 // dolsSettings are the lead/lag choice and the covariance of a dols spec;
@@ -144,7 +159,7 @@ func (s *dolsSpec) settings(c *engine.Context, T int) (dolsSettings, error) {
 }
 
 func (s *dolsSpec) Check(c *engine.Context) error {
-	if err := checkRelation(c, "dols", s.Data, s.Y, s.X, s.Det, s.Sample, s.Restrict); err != nil {
+	if err := s.checkRelation(c, "dols"); err != nil {
 		return err
 	}
 	_, err := s.settings(c, 0)
@@ -155,7 +170,7 @@ func (s *dolsSpec) Check(c *engine.Context) error {
 // coefficients, N, leads and lags, Wald tests), values, relation residuals
 // and model.
 func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
-	d, err := c.Data(c.DataAlias(s.Data), append([]string{s.Y}, s.X...), s.Sample)
+	d, err := s.data(c)
 	if err != nil {
 		return nil, err
 	}
