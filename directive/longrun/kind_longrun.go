@@ -21,7 +21,8 @@ import (
 
 // RelationKeys are the keys every long-run estimator of this package
 // shares: where the relation is (data, y, x, sample), its deterministic
-// terms, the Wald restrictions to test and the decimals.
+// terms, the Wald restrictions to test and the decimals. It is exported
+// because the key checks (manuscript.YamlFields) read exported fields.
 type RelationKeys struct {
 	engine.Common `yaml:",inline"`
 	Data          string   `yaml:"data"`
