@@ -6,6 +6,7 @@ import (
 	"regexp"
 	"slices"
 	"sort"
+	"strings"
 	"testing"
 
 	"github.com/galley-econ/galley/engine"
@@ -103,8 +104,9 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 }
 
 // TestDisplayLabels: the front matter's labels: name a series in table
-// stubs and headers, in the typeset differences and lags of it, and in
-// figure legends; values keep the expression.
+// stubs, headers and the dependent variable of a note, in the typeset
+// differences and lags of it, and in figure legends; values keep the
+// expression.
 func TestDisplayLabels(t *testing.T) {
 	t.Parallel()
 	body := "---\ndata:\n  macro: macro.csv\nlabels:\n  log(realcons): Consumption (log)\n  log(realdpi): Income (log)\n---\n\n" +
@@ -126,6 +128,9 @@ func TestDisplayLabels(t *testing.T) {
 	}
 	if !slices.Contains(stubs, "ΔConsumption (log)ₜ₋₁") || !slices.Contains(stubs, "ΔIncome (log)") {
 		t.Errorf("ols stubs %q", stubs)
+	}
+	if n := tab.Notes[0]; !strings.HasPrefix(n, "Dependent variable: ΔConsumption (log).") {
+		t.Errorf("ols note %q", n)
 	}
 	if h := res["a"].Table.Head[0][1].Plain(); h != "Consumption (log)" {
 		t.Errorf("adf header %q", h)

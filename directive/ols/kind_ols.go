@@ -84,7 +84,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		table.Row{Cells: []table.Cell{table.T("Durbin–Watson"), table.N(fit.DW(), dec)}},
 	)
 	t.Notes = []string{
-		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", s.Y, cov.Describe(), fit.DF()),
+		fmt.Sprintf("Dependent variable: %s. Least squares; %s in parentheses; p-values from Student's t with %d degrees of freedom.", c.TermText(s.Y), cov.Describe(), fit.DF()),
 		c.StarNote() + " " + d.SampleNote(),
 	}
 	if !withConst {
