@@ -164,6 +164,9 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 			errs = append(errs, manuscript.ErrAt(p, line, "the preamble contains the control character U+%04X", r))
 		}
 	}
+	if _, err := meta.LaTeX.FloatMode(); err != nil {
+		errs = append(errs, manuscript.ErrAt(path, meta.Lines["latex"], "%v", err))
+	}
 	d.placeReferences()
 	if len(errs) > 0 {
 		return nil, errors.Join(errs...)

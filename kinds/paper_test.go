@@ -143,3 +143,43 @@ func TestManuscriptTextErrors(t *testing.T) {
 		})
 	}
 }
+
+// TestLaTeXFloatPlacement: latex: floats: section (the default) sets a
+// section's floats before the next section starts; free leaves them to
+// LaTeX; end moves the body's tables after the text (the appendix keeps
+// its own); an unknown value is an error naming the front matter's line.
+func TestLaTeXFloatPlacement(t *testing.T) {
+	t.Parallel()
+	frontWith := func(floats string) string {
+		return "---\ntitle: T\ndata:\n  grid: data.csv\nlatex:\n  floats: " + floats + "\n---\n"
+	}
+	flush := "\\galleyflushfloats\n\\section{Results}"
+	for _, c := range []struct{ mode, front string }{{"default", front}, {"section", frontWith("section")}} {
+		p := writeProject(t, c.front+paperBody, map[string]string{"data.csv": testCSV})
+		_, _, tex, _ := renderAll(t, p)
+		wantIn(t, "LaTeX ("+c.mode+")", tex, flush)
+	}
+	p := writeProject(t, frontWith("free")+paperBody, map[string]string{"data.csv": testCSV})
+	_, _, tex, _ := renderAll(t, p)
+	wantNotIn(t, "LaTeX (free)", tex, flush)
+
+	p = writeProject(t, frontWith("end")+paperBody, map[string]string{"data.csv": testCSV})
+	_, _, tex, _ = renderAll(t, p)
+	wantNotIn(t, "LaTeX (end)", tex, flush)
+	body, apx, ok := strings.Cut(tex, "\n\\galleyappendix\n")
+	if !ok {
+		t.Fatal("no appendix in the LaTeX")
+	}
+	tab1, text := strings.Index(body, `\label{tab:tab1}`), strings.Index(body, `\section{Results}`)
+	if tab1 < 0 || text < 0 || tab1 < text || !strings.Contains(body[text:tab1], "\\clearpage\n") {
+		t.Errorf("floats: end: table 1 (at %d) is not held until after the body's text (Results at %d)", tab1, text)
+	}
+	if !strings.Contains(apx, `\label{tab:tab2}`) {
+		t.Error("floats: end: the appendix's table left the appendix")
+	}
+
+	p = writeProject(t, frontWith("bottom")+paperBody, map[string]string{"data.csv": testCSV})
+	if _, err := engine.Parse(p, engine.Options{}); err == nil || !strings.Contains(err.Error(), "paper.md:5:") || !strings.Contains(err.Error(), `latex: floats: write section`) {
+		t.Fatalf("floats: bottom: %v", err)
+	}
+}

@@ -48,6 +48,34 @@ type LaTeXMeta struct {
 	Class    string   `yaml:"class"`
 	Options  []string `yaml:"options"`
 	Preamble string   `yaml:"preamble"`
+	// Floats says where tables and figures are set: FloatsSection
+	// (default), FloatsFree or FloatsEnd.
+	Floats string `yaml:"floats"`
+}
+
+// The values of latex: floats:.
+const (
+	// FloatsSection: LaTeX places each float near its first reference,
+	// and every float of a section is set before the next section starts.
+	FloatsSection = "section"
+	// FloatsFree: LaTeX places the floats; only the reference list and
+	// the appendix hold them back.
+	FloatsFree = "free"
+	// FloatsEnd: the body's tables and figures follow the reference
+	// list, as journals often ask of a submission.
+	FloatsEnd = "end"
+)
+
+// FloatMode is latex: floats:, FloatsSection when unset; an unknown
+// value is an error.
+func (l LaTeXMeta) FloatMode() (string, error) {
+	switch l.Floats {
+	case "":
+		return FloatsSection, nil
+	case FloatsSection, FloatsFree, FloatsEnd:
+		return l.Floats, nil
+	}
+	return "", fmt.Errorf("latex: floats: write %s (the default: near the first reference, within its section), %s (wherever LaTeX finds room) or %s (after the references), not %q", FloatsSection, FloatsFree, FloatsEnd, l.Floats)
 }
 
 // AllAuthors lists the authors' names (author and authors together).

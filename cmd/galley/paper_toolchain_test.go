@@ -18,7 +18,8 @@ import (
 // shows numbered equations, author-year citations, the reference list,
 // appendix tables, footnote text and no TeX or Markdown leaking through;
 // and each table or figure is set at most two pages after its first
-// reference (the page breaks are pdftotext's form feeds). pdflatex
+// reference, with no page of running text between them (the page breaks
+// are pdftotext's form feeds). pdflatex
 // compiles the LaTeX galley writes (--to pdf runs it on paper.tex and its
 // figures in a temporary folder) and the first page is not blank.
 func TestDemoPDF(t *testing.T) {
@@ -69,11 +70,55 @@ func TestDemoPDF(t *testing.T) {
 	if len(placed) < 20 {
 		t.Fatalf("found %d captions in the PDF text, expected every table and figure", len(placed))
 	}
+	prose := proseLines(t, filepath.Join(out, "paper.pdf"))
 	for key, at := range placed {
-		if r, ok := first[key]; ok && at-r > 2 {
+		r, ok := first[key]
+		if !ok {
+			continue
+		}
+		if at-r > 2 {
 			t.Errorf("%s is set on page %d, %d pages after its first reference (page %d)", key, at+1, at-r, r+1)
 		}
+		for p := r + 1; p < at; p++ {
+			if p < len(prose) && prose[p] >= 3 {
+				t.Errorf("%s is set on page %d after page %d of running text (%d lines); its first reference is on page %d", key, at+1, p+1, prose[p], r+1)
+			}
+		}
 	}
+}
+
+// proseLines counts, page by page, the lines of running text in a PDF
+// (pdftotext -bbox-layout): lines at least 400pt wide (the text block is
+// 468pt) and at least 9.5pt high (body type; table notes are set smaller),
+// other than captions. A page of floats has none, or one or two from a
+// caption or note set at body size.
+func proseLines(t *testing.T, pdf string) []int {
+	t.Helper()
+	b, err := exec.Command(need(t, "pdftotext"), "-bbox-layout", pdf, "-").Output()
+	if err != nil {
+		t.Fatalf("pdftotext -bbox-layout: %v", err)
+	}
+	line := regexp.MustCompile(`(?s)<line xMin="([0-9.]+)" yMin="([0-9.]+)" xMax="([0-9.]+)" yMax="([0-9.]+)">(.*?)</line>`)
+	word := regexp.MustCompile(`>([^<]*)</word>`)
+	var counts []int
+	for _, page := range strings.Split(string(b), "<page ")[1:] {
+		n := 0
+		for _, m := range line.FindAllStringSubmatch(page, -1) {
+			x0, _ := strconv.ParseFloat(m[1], 64)
+			y0, _ := strconv.ParseFloat(m[2], 64)
+			x1, _ := strconv.ParseFloat(m[3], 64)
+			y1, _ := strconv.ParseFloat(m[4], 64)
+			first := ""
+			if w := word.FindStringSubmatch(m[5]); w != nil {
+				first = w[1]
+			}
+			if x1-x0 >= 400 && y1-y0 >= 9.5 && first != "Table" && first != "Figure" {
+				n++
+			}
+		}
+		counts = append(counts, n)
+	}
+	return counts
 }
 
 // checkEquationBoxes: every display equation of the page has a laid-out

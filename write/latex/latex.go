@@ -67,10 +67,15 @@ func Write(d *engine.Document, o Options) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root), notes: footnotes(d.Root)}
+	mode, err := m.LaTeX.FloatMode()
+	if err != nil {
+		return nil, err
+	}
+	w := &texWriter{doc: d, out: &out, figDir: o.FigureDir, top: topHeading(d.Root), notes: footnotes(d.Root), floats: mode}
 	if err := w.blocks(d.Root); err != nil {
 		return nil, err
 	}
+	w.releaseFloats()
 	out.WriteString("\n\\end{document}\n")
 	return out.Bytes(), nil
 }
@@ -95,7 +100,9 @@ type texWriter struct {
 	figDir   string
 	top      int // the highest heading level used, typeset as \section
 	notes    map[int]*east.Footnote
-	appendix bool // \appendix has been written
+	appendix bool         // \appendix has been written
+	floats   string       // latex: floats: (manuscript.FloatsSection, …)
+	held     bytes.Buffer // with floats: end, the body's floats, set after the references
 }
 
 // footnotes maps each footnote's index to its text.
@@ -143,6 +150,7 @@ func texAuthors(people []manuscript.Author) string {
 func (w *texWriter) blocks(parent ast.Node) error {
 	for n := parent.FirstChild(); n != nil; n = n.NextSibling() {
 		if parent == w.doc.Root && !w.appendix && w.doc.Outline.AppendixAt >= 0 && startOf(n) >= w.doc.Outline.AppendixAt {
+			w.releaseFloats()
 			w.appendix = true
 			w.out.WriteString("\n\\galleyappendix\n")
 		}
@@ -165,6 +173,10 @@ func (w *texWriter) block(n ast.Node) error {
 	case *ast.Heading:
 		sec := w.doc.Section(n)
 		level := min(max(n.Level-w.top, 0), 5)
+		if level == 0 && w.floats == manuscript.FloatsSection {
+			// the floats of a section are set before the next one starts
+			o.WriteString("\n\\galleyflushfloats")
+		}
 		o.WriteString("\n\\" + texSections[level])
 		if sec == nil || sec.Number == "" {
 			o.WriteString("*")
@@ -414,7 +426,7 @@ func (w *texWriter) bibliography() {
 	if len(refs) == 0 {
 		return
 	}
-	fmt.Fprintf(w.out, "\n\\begin{thebibliography}{%d}\n", len(refs))
+	fmt.Fprintf(w.out, "\n\\galleyflushfloats\n\\begin{thebibliography}{%d}\n", len(refs))
 	for _, e := range refs {
 		fmt.Fprintf(w.out, "\\bibitem[%s(%s)]{%s}\n", strings.ReplaceAll(texEscape(e.AuthorText()), "et al.", "et~al."), texEscape(e.YearText()), e.Key)
 		for _, sp := range e.Reference() {
@@ -427,6 +439,18 @@ func (w *texWriter) bibliography() {
 		w.out.WriteString("\n")
 	}
 	w.out.WriteString("\\end{thebibliography}\n")
+	w.releaseFloats()
+}
+
+// releaseFloats writes the floats held back by floats: end, after the
+// reference list (or, without one, at the end of the body), each set on
+// a page of floats.
+func (w *texWriter) releaseFloats() {
+	if w.held.Len() == 0 {
+		return
+	}
+	w.out.WriteString("\n\\clearpage\n")
+	w.held.WriteTo(w.out)
 }
 
 // startOf is the body offset where a block starts (-1 if unknown).
@@ -458,26 +482,35 @@ func texNumber(s string) string {
 }
 
 func (w *texWriter) result(r *engine.Result) {
+	dst := w.out
+	if w.floats == manuscript.FloatsEnd && !w.appendix && (r.Table != nil || r.Figure != nil) {
+		dst = &w.held
+	}
 	switch {
 	case r.Table != nil:
-		w.out.WriteString("\n")
-		writeTeXTable(w.out, r)
+		dst.WriteString("\n")
+		writeTeXTable(dst, r)
 	case r.Figure != nil:
-		fmt.Fprintf(w.out, "\n\\begin{figure}[!tbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
-		fmt.Fprintf(w.out, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
-		writeTeXNotes(w.out, r.Figure.Notes)
-		w.out.WriteString("\\end{figure}\n")
+		fmt.Fprintf(dst, "\n\\begin{figure}[!tbp]\n\\centering\n\\includegraphics[width=%.2fin]{%s/%s.pdf}\n", r.Figure.Width, w.figDir, r.ID)
+		fmt.Fprintf(dst, "\\caption{%s}\\label{%s}\n", texEscape(r.Figure.Caption), texLabel(r))
+		writeTeXNotes(dst, r.Figure.Notes)
+		dst.WriteString("\\end{figure}\n")
 	case r.Equation != nil:
+		below := r.Equation.Stats != "" || len(r.Equation.Notes) > 0
+		if below {
+			// no page break between the equation and its statistics line
+			w.out.WriteString("\\begingroup\\postdisplaypenalty=10000\n")
+		}
 		fmt.Fprintf(w.out, "\\begin{equation}\\label{%s}\n%s\n\\end{equation}\n", texLabel(r), r.Equation.TeX())
-		if r.Equation.Stats != "" || len(r.Equation.Notes) > 0 {
-			w.out.WriteString("\\begin{center}\\footnotesize ")
+		if below {
+			w.out.WriteString("{\\centering\\footnotesize ")
 			if r.Equation.Stats != "" {
 				w.out.WriteString("$" + r.Equation.Stats + "$")
 			}
 			for _, n := range r.Equation.Notes {
 				w.out.WriteString("\\\\\n" + texEscape(n))
 			}
-			w.out.WriteString("\n\\end{center}\n")
+			w.out.WriteString("\\par}\\endgroup\n")
 		}
 	case r.Text != "":
 		w.out.WriteString("\n" + texEscape(r.Text) + "\n")
