@@ -106,8 +106,10 @@ func wrap(kind string, err error) error {
 }
 
 // cp1252Canvas writes text through a PDF canvas whose fonts are encoded
-// in cp1252, which has no U+2212: the typographic minus becomes the
-// hyphen-minus there (SVG and PNG keep the true minus).
+// in cp1252, which has no U+2212 and no Greek: the typographic minus
+// becomes the hyphen-minus there (SVG and PNG keep the true minus), and
+// the difference sign Δ of a typeset term (Δlog(north)) is drawn as an
+// outlined triangle in the glyph's place and width.
 //
 // It also sets every string in one size, pdfFontSize, scaled by the
 // canvas to the size asked for: vgpdf converts a TrueType font for PDF
@@ -121,8 +123,26 @@ type cp1252Canvas struct{ vg.CanvasSizer }
 // pdfFontSize is the one size cp1252Canvas sets text in.
 const pdfFontSize = vg.Length(10)
 
+// delta is the difference sign of typeset terms.
+const delta = "Δ"
+
 func (c cp1252Canvas) FillString(f font.Face, pt vg.Point, s string) {
 	s = strings.ReplaceAll(s, minus, "-")
+	for i, part := range strings.Split(s, delta) {
+		if i > 0 {
+			w := f.Width(delta)
+			c.drawDelta(f.Font.Size, pt, w)
+			pt.X += w
+		}
+		if part != "" {
+			c.fill(f, pt, part)
+			pt.X += f.Width(part)
+		}
+	}
+}
+
+// fill draws s at pdfFontSize, scaled to f's size.
+func (c cp1252Canvas) fill(f font.Face, pt vg.Point, s string) {
 	if f.Font.Size <= 0 || f.Font.Size == pdfFontSize {
 		c.CanvasSizer.FillString(f, pt, s)
 		return
@@ -133,5 +153,23 @@ func (c cp1252Canvas) FillString(f font.Face, pt vg.Point, s string) {
 	c.Translate(pt)
 	c.Scale(float64(k), float64(k))
 	c.CanvasSizer.FillString(f, vg.Point{}, s)
+	c.Pop()
+}
+
+// drawDelta strokes an upright triangle, the shape of a sans-serif Δ, on
+// the baseline at pt in an advance of w for type of size em: the height
+// of a capital (0.70 em) and a stem of 0.07 em, in the current colour.
+func (c cp1252Canvas) drawDelta(em vg.Length, pt vg.Point, w vg.Length) {
+	lw := 0.07 * em
+	side := 0.04*em + lw/2
+	var p vg.Path
+	p.Move(vg.Point{X: pt.X + side, Y: pt.Y + lw/2})
+	p.Line(vg.Point{X: pt.X + w/2, Y: pt.Y + 0.70*em - lw/2})
+	p.Line(vg.Point{X: pt.X + w - side, Y: pt.Y + lw/2})
+	p.Close()
+	c.Push()
+	c.SetLineWidth(lw)
+	c.SetLineDash(nil, 0)
+	c.Stroke(p)
 	c.Pop()
 }

@@ -84,3 +84,40 @@ func TestPDFOneFontSize(t *testing.T) {
 		t.Errorf("font sizes in the PDF: %v, want only 10.00", sizes)
 	}
 }
+
+// TestPDFDelta: a typeset difference (Δlog(x)) in a PDF axis label is
+// drawn as the text after the Δ plus a stroked triangle, never as the
+// UTF-8 bytes of U+0394, which the PDF's cp1252 fonts would show as two
+// wrong glyphs; SVG keeps the Δ as text.
+func TestPDFDelta(t *testing.T) {
+	var s series.Series
+	for i := 0; i < 24; i++ {
+		s.Dates = append(s.Dates, series.Date{Freq: series.Monthly, Year: 2004 + i/12, Sub: i%12 + 1})
+		s.Values = append(s.Values, float64(i%5))
+	}
+	s.Name = "x"
+	f, err := Lines([]series.Series{s}, Options{YLabel: "Δlog(x)"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := f.Render("pdf", 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := pdfText(t, b)
+	for _, m := range regexp.MustCompile(`\(((?:[^()\\]|\\.)*)\)\s*Tj`).FindAllSubmatch(text, -1) {
+		if bytes.Contains(m[1], []byte("\xce\x94")) {
+			t.Fatalf("a label carries the UTF-8 bytes of Δ: %q", m[1])
+		}
+	}
+	if !regexp.MustCompile(`\(log\\\(x\\\)\)\s*Tj`).Match(text) {
+		t.Fatal("the text after the Δ is not drawn")
+	}
+	svg, err := f.Render("svg", 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Contains(svg, []byte("Δlog(x)")) {
+		t.Fatal("the SVG lost the Δ")
+	}
+}

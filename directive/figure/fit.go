@@ -58,7 +58,7 @@ func (s *figureSpec) drawActualFitted(c *engine.Context, a, f series.Series, yla
 	}
 	dr := drawn{names: []string{a.Name, f.Name}, panel: []int{1, 1}, series: []series.Series{a, f}}
 	if o.YLabel == "" {
-		o.YLabel = ylabel
+		o.YLabel = c.TermText(ylabel)
 	}
 	if err := s.shade(c, dr.series, o); err != nil {
 		return nil, dr, err
