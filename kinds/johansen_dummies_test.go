@@ -102,7 +102,6 @@ func TestJohansenDummiesNotesAndErrors(t *testing.T) {
 		{"impulse not a date", "series: [LRM, LRY]\nlags: 1\nimpulse: [soon]\n", []string{"paper.md:12:", "not a date"}},
 		{"impulse twice via shift", "series: [LRM, LRY]\ndet: restricted constant\nlags: 1\nshift: 1983Q1\nimpulse: 1983Q2\n", []string{"1983Q2 twice"}},
 		{"extra is a series", "series: [LRM, LRY]\nlags: 1\nextra: [LRY]\n", []string{"paper.md:12:", "one of the series"}},
-		{"simulate with dummies", "series: [LRM, LRY]\nlags: 1\nseasonal: true\ncrit: simulate\n", []string{"paper.md:13:", "crit: simulate"}},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

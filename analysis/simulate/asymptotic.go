@@ -75,10 +75,10 @@ type asymWorker struct {
 }
 
 func newAsymWorker(s AsymptoticSpec) *asymWorker {
-	w := &asymWorker{spec: s, full: newJohKernel(s.MaxDim, 0, s.T)}
+	w := &asymWorker{spec: s, full: newJohKernel(s.MaxDim, 0, s.T, nil)}
 	w.width = 5 * 2 * s.MaxDim
 	if s.Extrapolate {
-		w.half = newJohKernel(s.MaxDim, 0, s.T/2)
+		w.half = newJohKernel(s.MaxDim, 0, s.T/2, nil)
 		w.hy = columns(s.MaxDim, s.T/2)
 		w.width *= 2
 	}

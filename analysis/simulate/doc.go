@@ -15,6 +15,12 @@
 //     (Johansen 1995, ch. 6). In cases c and ct the last walk carries a
 //     dominating linear (c) or quadratic (ct) trend, the assumption under
 //     which those cases' null distributions are tabulated (see johKernel).
+//     With a Design (Spec.Design) the regressions also hold the model's
+//     dummies and conditioning regressors, unrestricted or restricted to
+//     the relations as estimated, held fixed in every replication: the
+//     null distribution for that design at that T (step dummies in the
+//     relations shift it even asymptotically; Johansen, Mosconi and
+//     Nielsen 2000).
 //
 // Replications are split into blocks of BlockSize; block b draws from its
 // own PCG generator seeded from (Seed, b) (see streamSeed), blocks are
@@ -40,6 +46,9 @@
 //	  packages. The American Statistician 50, 361–365.
 //	Johansen, S. (1995). Likelihood-Based Inference in Cointegrated Vector
 //	  Autoregressive Models. Oxford University Press.
+//	Johansen, S., Mosconi, R. and Nielsen, B. (2000). Cointegration
+//	  analysis in the presence of structural breaks in the deterministic
+//	  trend. Econometrics Journal 3, 216–249.
 //	Koenker, R. (2005). Quantile Regression. Cambridge University Press.
 //	MacKinnon, J. G. (2010). Critical values for cointegration tests.
 //	  Queen's Economics Department Working Paper 1227.

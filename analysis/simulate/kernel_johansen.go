@@ -39,10 +39,20 @@ import (
 // linear transformation of y, so the drift's direction does not matter.
 // Cases N and RC assume no drift and case RT's statistics do not depend
 // on it; they use the driftless walks as they are.
+//
+// Design. With a Design (spec.go) z_t continues with its unrestricted
+// columns w_t (at the row s of Δy_t) and its restricted columns x_{s−1},
+// z_t = [1, τ_t, τ_t², Δy_{t−1}, …, Δy_{t−L}, Δy_t, y_{t−1}, w_t, x_{t−1}];
+// w joins U after the lagged differences and x joins R1 after the
+// restricted deterministic term, as in johansen.TestExtra. In cases C and
+// CT the drift limit keeps its trend without a break: the steps' effects
+// are zero in the simulated systems. Without a design z_t, M and every
+// statistic are those of the kernel before designs existed, bit for bit.
 type johKernel struct {
 	driftLimit bool
 	k, lags, t int // series, lagged differences, series length
 	nz         int // columns of z
+	design     *Design
 	y          [][]float64
 	z          []float64
 	m          []float64 // nz×nz moments, upper triangle
@@ -53,16 +63,20 @@ type johKernel struct {
 	idx        []int
 }
 
-func newJohKernel(k, lags, t int) *johKernel {
-	nz := 3 + k*(lags+2)
+func newJohKernel(k, lags, t int, d *Design) *johKernel {
+	nu, nr := d.counts()
+	nz := 3 + k*(lags+2) + nu + nr
 	n := nz + 1
+	if nu+nr == 0 {
+		d = nil
+	}
 	return &johKernel{
-		k: k, lags: lags, t: t, nz: nz, driftLimit: true,
+		k: k, lags: lags, t: t, nz: nz, driftLimit: true, design: d,
 		y:    columns(k, t),
 		z:    make([]float64, nz),
 		m:    make([]float64, nz*nz),
 		work: make([]float64, n*n),
-		b:    make([]float64, (k+1)*k),
+		b:    make([]float64, (k+1+nr)*k),
 		g:    make([]float64, k*k),
 		eig:  make([]float64, k),
 		idx:  make([]int, 0, n),
@@ -95,6 +109,16 @@ func (j *johKernel) moments(y [][]float64, rows int) (nobs int) {
 			z[o0+h] = y[h][s] - y[h][s-1]
 			z[o1+h] = y[h][s-1]
 		}
+		if d := j.design; d != nil {
+			o := o1 + k
+			for h, w := range d.Unrestricted {
+				z[o+h] = w[s]
+			}
+			o += len(d.Unrestricted)
+			for h, x := range d.Restricted {
+				z[o+h] = x[s-1]
+			}
+		}
 		for a := 0; a < nz; a++ { // upper triangle
 			za := z[a]
 			axpy(za, z[a:], m[a*nz+a:a*nz+nz])
@@ -119,6 +143,10 @@ func (j *johKernel) layout(c johansen.Case, dim int) (idx []int, nu, p1 int) {
 			idx = append(idx, 3+(l-1)*k+h)
 		}
 	}
+	dnu, dnr := j.design.counts()
+	for h := 0; h < dnu; h++ {
+		idx = append(idx, 3+k*(L+2)+h)
+	}
 	nu = len(idx)
 	for h := 0; h < dim; h++ {
 		idx = append(idx, 3+k*L+h)
@@ -139,6 +167,9 @@ func (j *johKernel) layout(c johansen.Case, dim int) (idx []int, nu, p1 int) {
 		idx = append(idx, 0)
 	case johansen.RT:
 		idx = append(idx, 1)
+	}
+	for h := 0; h < dnr; h++ {
+		idx = append(idx, 3+k*(L+2)+dnu+h)
 	}
 	return idx, nu, len(idx) - nu - dim
 }

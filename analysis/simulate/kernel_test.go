@@ -64,7 +64,7 @@ func TestJohansenKernelMatchesTest(t *testing.T) {
 	r := rand.New(rand.NewPCG(5, 6))
 	for c := johansen.N; c <= johansen.CT; c++ {
 		for _, tt := range []struct{ T, lags, k int }{{40, 0, 1}, {200, 0, 3}, {200, 2, 4}, {1000, 0, 11}} {
-			k := newJohKernel(tt.k, tt.lags, tt.T)
+			k := newJohKernel(tt.k, tt.lags, tt.T, nil)
 			k.driftLimit = false
 			k.draw(r)
 			nobs := k.moments(k.y, tt.T)
@@ -108,7 +108,7 @@ func TestJohansenDriftLimit(t *testing.T) {
 	r := rand.New(rand.NewPCG(9, 10))
 	for _, c := range []johansen.Case{johansen.C, johansen.CT} {
 		for _, tt := range []struct{ T, lags, k int }{{100, 0, 1}, {200, 1, 3}} {
-			k := newJohKernel(tt.k, tt.lags, tt.T)
+			k := newJohKernel(tt.k, tt.lags, tt.T, nil)
 			k.draw(r)
 			tr, mx, ok := k.stats(c, tt.k, k.moments(k.y, tt.T))
 			if !ok {
@@ -144,7 +144,7 @@ func TestKernelsDoNotAllocate(t *testing.T) {
 	r := rand.New(rand.NewPCG(7, 8))
 	eg := newEGKernel(200, 1, 1, 3)
 	adf := newADFKernel(200, 1, 2)
-	jk := newJohKernel(4, 1, 200)
+	jk := newJohKernel(4, 1, 200, nil)
 	for name, f := range map[string]func(){
 		"adf": func() { adf.adf(r) },
 		"eg":  func() { eg.eg(r) },

@@ -72,7 +72,7 @@ func (s Spec) newStat(p plan) statFunc {
 	if isARDL(p.test) {
 		return newARDLKernel(p.test, p.ardlCase, s.N, s.T, s.Lags).stat
 	}
-	k := newJohKernel(s.N, s.Lags, s.T)
+	k := newJohKernel(s.N, s.Lags, s.T, s.Design)
 	maxeig := p.test == JohansenMaxEig
 	return func(r *rand.Rand) float64 {
 		k.draw(r)

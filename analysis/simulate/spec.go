@@ -1,7 +1,11 @@
 package simulate
 
 import (
+	"crypto/sha256"
+	"encoding/binary"
+	"encoding/hex"
 	"fmt"
+	"math"
 	"runtime"
 	"strings"
 
@@ -56,6 +60,80 @@ type Spec struct {
 	// Workers is the number of goroutines; 0 means runtime.NumCPU(). It
 	// does not affect the result.
 	Workers int
+	// Design holds regressors beyond the case's deterministic terms for
+	// the Johansen tests (nil: none); the other tests refuse one.
+	Design *Design
+}
+
+// Design is the deterministic design of an estimated VECM beyond its
+// case: dummies and conditioning regressors, held fixed in every
+// replication. Each column has one value per row of the simulated levels
+// (Spec.T values), in the layout of johansen.Extra:
+//
+//   - Unrestricted columns w_t enter every short-run regression at the row
+//     of Δy_t (centred seasonals, impulses, unrestricted steps, stationary
+//     regressors given as data);
+//   - Restricted columns x enter the relations lagged once, beside y_{t−1}
+//     (step dummies whose level shift lies in the relations; Johansen,
+//     Mosconi and Nielsen 2000, §2).
+//
+// With a design, the statistic of a replication is that of
+// johansen.TestExtra on the simulated walks with these columns; under the
+// null the walks carry no dummy effects, and the statistics are invariant
+// to any effect that lies in the space of the regressors the model
+// includes.
+type Design struct {
+	Unrestricted, Restricted [][]float64
+}
+
+// counts returns the numbers of unrestricted and restricted columns.
+func (d *Design) counts() (nu, nr int) {
+	if d == nil {
+		return 0, 0
+	}
+	return len(d.Unrestricted), len(d.Restricted)
+}
+
+// check returns an error unless every column has t finite values.
+func (d *Design) check(t int) error {
+	for _, g := range []struct {
+		what string
+		cols [][]float64
+	}{{"unrestricted", d.Unrestricted}, {"restricted", d.Restricted}} {
+		for j, c := range g.cols {
+			if len(c) != t {
+				return fmt.Errorf("simulate: %s design column %d has %d values; the series have T = %d", g.what, j, len(c), t)
+			}
+			for i, v := range c {
+				if math.IsNaN(v) || math.IsInf(v, 0) {
+					return fmt.Errorf("simulate: %s design column %d has a missing or infinite value at row %d", g.what, j, i)
+				}
+			}
+		}
+	}
+	return nil
+}
+
+// hash identifies the design's numbers for Key: SHA-256 over the column
+// counts and the IEEE bits of every value, first 16 bytes in hex.
+func (d *Design) hash() string {
+	h := sha256.New()
+	var b [8]byte
+	put := func(u uint64) {
+		binary.LittleEndian.PutUint64(b[:], u)
+		h.Write(b[:])
+	}
+	put(uint64(len(d.Unrestricted)))
+	put(uint64(len(d.Restricted)))
+	for _, cols := range [][][]float64{d.Unrestricted, d.Restricted} {
+		for _, c := range cols {
+			put(uint64(len(c)))
+			for _, v := range c {
+				put(math.Float64bits(v))
+			}
+		}
+	}
+	return hex.EncodeToString(h.Sum(nil)[:16])
 }
 
 // plan is a validated Spec.
@@ -86,6 +164,9 @@ func (s Spec) check() (plan, error) {
 	}
 	if s.T > MaxT {
 		return p, fmt.Errorf("simulate: series length %d exceeds %d", s.T, MaxT)
+	}
+	if nu, nr := s.Design.counts(); nu+nr > 0 && p.test != JohansenTrace && p.test != JohansenMaxEig {
+		return p, fmt.Errorf("simulate: %s takes no design of dummies (only the Johansen tests do)", p.test)
 	}
 	p.workers = s.Workers
 	if p.workers == 0 {
@@ -129,8 +210,14 @@ func (s Spec) check() (plan, error) {
 		}
 		// As johansen.Test: T−L−1 observations must exceed the number of
 		// regressors of all three blocks.
-		nu := map[johansen.Case]int{johansen.C: 1, johansen.RT: 1, johansen.CT: 2}[c] + s.N*s.Lags
-		p1 := s.N + map[johansen.Case]int{johansen.RC: 1, johansen.RT: 1}[c]
+		dnu, dnr := s.Design.counts()
+		if dnu+dnr > 0 {
+			if err := s.Design.check(s.T); err != nil {
+				return p, err
+			}
+		}
+		nu := map[johansen.Case]int{johansen.C: 1, johansen.RT: 1, johansen.CT: 2}[c] + s.N*s.Lags + dnu
+		p1 := s.N + map[johansen.Case]int{johansen.RC: 1, johansen.RT: 1}[c] + dnr
 		p.nobs = s.T - s.Lags - 1
 		if need := nu + p1 + s.N; p.nobs <= need {
 			return p, fmt.Errorf("simulate: T = %d is too short for %d lagged differences: %d observations for %d regressors in case %s with %d series", s.T, s.Lags, max(p.nobs, 0), need, c, s.N)
@@ -164,7 +251,9 @@ func (s Spec) check() (plan, error) {
 
 // Key is a stable string identifying the numbers Run returns for s: the
 // algorithm version, the test, the canonical case, N, T, lags,
-// replications and seed (not Workers, which does not change them). It
+// replications and seed (not Workers, which does not change them), and
+// with a design of dummies its column counts and the hash of its values
+// (a Spec without one keeps the key it had before designs existed). It
 // returns "" for an invalid Spec.
 func (s Spec) Key() string {
 	p, err := s.check()
@@ -175,6 +264,9 @@ func (s Spec) Key() string {
 		keyVersion, p.test, p.caseStr, s.N, s.T, s.Lags, s.Reps, s.Seed)
 	if p.trim > 0 {
 		k += fmt.Sprintf("|trim=%g", p.trim)
+	}
+	if nu, nr := s.Design.counts(); nu+nr > 0 {
+		k += fmt.Sprintf("|design=u%d,r%d,%s", nu, nr, s.Design.hash())
 	}
 	return k
 }

@@ -30,11 +30,6 @@ import (
 //     has no level to shift.
 //   - extra: stationary series entering each equation at time t.
 
-// hasExtra says whether any dummy or extra regressor is asked for.
-func (k *SystemKeys) hasExtra() bool {
-	return k.Seasonal || len(k.Impulse) > 0 || len(k.Shift) > 0 || len(k.Extra) > 0
-}
-
 // shiftRestricted says whether step dummies lie in the relations.
 func shiftRestricted(cs johansen.Case) bool { return cs == johansen.RC || cs == johansen.RT }
 
@@ -81,7 +76,12 @@ type sysExtra struct {
 	keys       []string // unrestricted columns, for values
 	restricted []string // restricted columns (as in sysSettings.Coefs)
 	notes      []string
+	parts      []string // what the model includes, in words (dummyParts)
 }
+
+// simText says what the simulated systems of crit: simulate include
+// beyond the case ("" when nothing).
+func (x *sysExtra) simText() string { return strings.Join(x.parts, ", ") }
 
 // buildExtra makes the dummy and extra columns over the rows of d (whose
 // first len(k.Series) columns are the series and the rest the extra
@@ -114,7 +114,8 @@ func (k *SystemKeys) buildExtra(c *engine.Context, d *engine.Data, cs johansen.C
 		dup[key] = true
 	}
 	out.x = johansen.Extra{Unrestricted: b.dense(b.ucols), Restricted: b.dense(b.rcols)}
-	out.notes = k.dummyNotes(cs)
+	out.parts = k.dummyParts(cs)
+	out.notes = k.dummyNotes(cs, out.parts)
 	return out, nil
 }
 
@@ -230,8 +231,8 @@ func (k *SystemKeys) addShifts(c *engine.Context, b *extraBuilder, cs johansen.C
 	return nil
 }
 
-// dummyNotes say what the dummies do to the rank tests.
-func (k *SystemKeys) dummyNotes(cs johansen.Case) []string {
+// dummyParts names the model's dummies and extra regressors in words.
+func (k *SystemKeys) dummyParts(cs johansen.Case) []string {
 	var parts []string
 	if k.Seasonal {
 		parts = append(parts, "centred seasonal dummies")
@@ -249,10 +250,31 @@ func (k *SystemKeys) dummyNotes(cs johansen.Case) []string {
 	if len(k.Extra) > 0 {
 		parts = append(parts, "stationary regressors ("+strings.Join(k.Extra, ", ")+")")
 	}
+	return parts
+}
+
+// dummyNotes say what the dummies do to the rank tests: with the tables,
+// how far the tables hold; with crit: simulate, that the critical values
+// are simulated for this design.
+func (k *SystemKeys) dummyNotes(cs johansen.Case, parts []string) []string {
 	if len(parts) == 0 {
 		return nil
 	}
 	n := "The model includes " + strings.Join(parts, ", ") + ". "
+	if strings.EqualFold(strings.TrimSpace(k.Crit), "simulate") {
+		n += "The critical values are simulated for this design: the simulated systems carry the same dummies at the same observations, restricted or unrestricted as here"
+		if len(k.Extra) > 0 {
+			n += ", and the stationary regressors at their observed values, held fixed in every replication"
+		}
+		n += ", so they follow the model's null distribution at this sample size"
+		if len(k.Shift) > 0 {
+			n += ", including the shift that step dummies cause in it (Johansen, Mosconi and Nielsen 2000)"
+			if !shiftRestricted(cs) {
+				n += "; in the simulated walks the steps' effects are zero, so the drift has no break"
+			}
+		}
+		return []string{n + "."}
+	}
 	if len(k.Shift) > 0 {
 		n += "Step dummies change the asymptotic distribution of the rank statistics (it depends on where the breaks fall; Johansen, Mosconi and Nielsen 2000), so the tabulated critical values, which assume no breaks, are only a guide."
 	} else {

@@ -135,8 +135,6 @@ func (k *SystemKeys) settings(c *engine.Context) (sysSettings, error) {
 		return st, err
 	} else if sim != nil && k.SmallSample {
 		return st, c.Errorf("crit", "crit: simulate already gives critical values at this sample size; drop small_sample (the Reinsel–Ahn factor) or use the tables")
-	} else if sim != nil && k.hasExtra() {
-		return st, c.Errorf("crit", "crit: simulate draws systems without dummies or extra regressors, so its critical values would not be those of this model; use the tables (the note says how the dummies affect them)")
 	}
 	return st, nil
 }

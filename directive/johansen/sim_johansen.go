@@ -6,6 +6,8 @@ import (
 	"strconv"
 	"strings"
 
+	"gonum.org/v1/gonum/mat"
+
 	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/simulate"
 	"github.com/galley-econ/galley/engine"
@@ -16,11 +18,40 @@ import (
 // (row r) the null distributions of the trace and maximum-eigenvalue
 // statistics for H(0) in a system of K−r independent Gaussian random
 // walks, with the same case, lags and T (asymptotically the null
-// distribution of the test of rank r in K series; Johansen 1995, ch. 11).
+// distribution of the test of rank r in K series; Johansen 1995, ch. 11),
+// and the model's dummies and extra regressors at the same observations,
+// restricted or unrestricted as estimated (design).
 type sysSim struct {
 	trace, maxeig []*simulate.Result
 	pT, pM        []float64 // simulated p-values of the statistics
 	chosenLag     bool
+	design        string // what the simulated systems include beyond the case ("" for nothing)
+}
+
+// simDesign returns the model's dummies and extra regressors as the
+// columns of a simulation design (nil when there are none): each column
+// has one value per observation of the levels, the restricted ones
+// entering lagged once, as johansen.TestExtra takes them. Extra
+// regressors are held fixed at their observed values in every
+// replication: the simulated systems are conditioned on them as the
+// estimated one is.
+func simDesign(x johansen.Extra) *simulate.Design {
+	cols := func(m *mat.Dense) [][]float64 {
+		if m == nil {
+			return nil
+		}
+		_, n := m.Dims()
+		out := make([][]float64, n)
+		for j := range out {
+			out[j] = mat.Col(nil, j, m)
+		}
+		return out
+	}
+	d := &simulate.Design{Unrestricted: cols(x.Unrestricted), Restricted: cols(x.Restricted)}
+	if len(d.Unrestricted)+len(d.Restricted) == 0 {
+		return nil
+	}
+	return d
 }
 
 // simJohansen fills the critical values of s from simulations and
@@ -30,10 +61,16 @@ type sysSim struct {
 func simJohansen(c *engine.Context, set *engine.SimSettings, s *sysState) (*sysSim, error) {
 	r := s.res
 	out := &sysSim{chosenLag: s.lags != nil}
+	var design *simulate.Design
+	if s.ex != nil {
+		design = simDesign(s.ex.x)
+		out.design = s.ex.simText()
+	}
 	s.crT, s.crM = make([][3]float64, r.K), make([][3]float64, r.K)
 	for i := 0; i < r.K; i++ {
 		for _, stat := range []string{simulate.JohansenTrace, simulate.JohansenMaxEig} {
 			sp := set.Spec(stat, r.Case.String(), r.K-i, r.T+r.Lags+1, r.Lags)
+			sp.Design = design
 			sr, err := engine.SimCrit(c, "crit", sp)
 			if err != nil {
 				return nil, err
@@ -75,8 +112,12 @@ func (s *sysState) critText() string {
 	if s.sim.chosenLag {
 		lag += " (the order the criterion chose, held fixed in every replication)"
 	}
-	return fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, the %s case; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
+	txt := fmt.Sprintf("simulated: %s replications, seed %d, T=%d, %s, the %s case; for rank r the statistics for rank 0 in K − r independent Gaussian random walks",
 		engine.Group(r0.Reps), r0.Seed, r0.NObs, lag, engine.SystemCaseWords[s.res.Case])
+	if s.sim.design != "" {
+		txt += ", with the model's dummies at the same observations, entering as estimated"
+	}
+	return txt
 }
 
 // mcseNote lists the Monte Carlo standard errors of the simulated
@@ -122,4 +163,7 @@ func (s *sysSim) values(v map[string]any) {
 	v["pvalue_trace"], v["pvalue_maxeig"] = slices.Clone(s.pT), slices.Clone(s.pM)
 	v["sim_key"] = map[string]any{"trace": keys(s.trace), "maxeig": keys(s.maxeig)}
 	v["sim"] = map[string]any{"reps": r0.Reps, "seed": int(r0.Seed), "t": r0.NObs, "lags": r0.Spec.Lags}
+	if s.design != "" {
+		v["sim"].(map[string]any)["design"] = s.design
+	}
 }
