@@ -156,6 +156,7 @@ func TestMillionRows(t *testing.T) {
 // previous good output intact: outputs are staged beside their targets
 // and renamed into place only when all of them are written.
 func TestKilledBuildKeepsOutput(t *testing.T) {
+	t.Parallel()
 	bin := galleyBinary(t)
 	dir := demoCopy(t)
 	paper := filepath.Join(dir, "paper.md")
@@ -259,6 +260,7 @@ func runBounded(t *testing.T, args ...string) (int, string) {
 // message that says what it is; nothing blocks and nothing is read
 // without bound (issue 14, items 6 and 7).
 func TestSpecialFiles(t *testing.T) {
+	t.Parallel()
 	dir := t.TempDir()
 	fifo := filepath.Join(dir, "pipe.csv")
 	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
@@ -322,6 +324,7 @@ func TestSpecialFiles(t *testing.T) {
 // the process with exit 0 (issue 14, item 7). Before, the build blocked
 // on the pipe and the signal was never acted on.
 func TestWatchStopsOnSIGTERM(t *testing.T) {
+	t.Parallel()
 	dir := t.TempDir()
 	if err := syscall.Mkfifo(filepath.Join(dir, "pipe.csv"), 0o644); err != nil {
 		t.Skipf("no named pipes here: %v", err)

@@ -42,6 +42,7 @@ func copyDemo(dir string) error {
 // TestBuildDemo builds the demo paper in all three formats and checks the
 // outputs exist and the results file carries full-precision values.
 func TestBuildDemo(t *testing.T) {
+	t.Parallel()
 	dir := demoCopy(t)
 	out := filepath.Join(dir, "out")
 	if code := run([]string{"build", filepath.Join(dir, "paper.md"), "--to", "html", "--to", "latex", "--to", "markdown", "--out", out}); code != 0 {
@@ -85,6 +86,7 @@ func jsonNum(f float64) string { b, _ := json.Marshal(f); return string(b) + ".0
 // TestFailedBuildKeepsOutput: a failing build exits 1 and leaves the
 // previous good output untouched; usage errors exit 2.
 func TestFailedBuildKeepsOutput(t *testing.T) {
+	t.Parallel()
 	dir := demoCopy(t)
 	out := filepath.Join(dir, "out")
 	paper := filepath.Join(dir, "paper.md")
@@ -117,6 +119,7 @@ func TestFailedBuildKeepsOutput(t *testing.T) {
 }
 
 func TestCheckAndInspect(t *testing.T) {
+	t.Parallel()
 	dir := demoCopy(t)
 	if code := run([]string{"check", filepath.Join(dir, "paper.md")}); code != 0 {
 		t.Fatalf("check: exit %d", code)
@@ -130,6 +133,7 @@ func TestCheckAndInspect(t *testing.T) {
 // value is mistyped a million times too large, a conclusion flips and
 // compare (and build --against) exit 3 and write the report.
 func TestCompareExitCodes(t *testing.T) {
+	t.Parallel()
 	dir := demoCopy(t)
 	paper := filepath.Join(dir, "paper.md")
 	out1, out2 := filepath.Join(dir, "out1"), filepath.Join(dir, "out2")
@@ -169,6 +173,7 @@ func TestCompareExitCodes(t *testing.T) {
 
 // TestPNGFromCache: PNG figures survive the result cache.
 func TestPNGFromCache(t *testing.T) {
+	t.Parallel()
 	dir := demoCopy(t)
 	paper := filepath.Join(dir, "paper.md")
 	for i := 0; i < 2; i++ {

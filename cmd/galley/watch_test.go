@@ -117,6 +117,7 @@ func writeFile(t *testing.T, p, s string) {
 // bad edit keeps the last good page under a banner and is reported on
 // the log; --out files are rewritten only by good builds.
 func TestWatchRebuilds(t *testing.T) {
+	t.Parallel()
 	p, url, _, log := startWatch(t, "First draft.", true)
 	outFile := filepath.Join(filepath.Dir(p), "out", "paper.html")
 	eventually(t, "the first page", func() bool { return strings.Contains(get(t, url+"/"), "First draft.") })
@@ -163,6 +164,7 @@ func TestWatchRebuilds(t *testing.T) {
 // last good page stays; when it returns, with new rows, the page is
 // rebuilt from it.
 func TestWatchDataFile(t *testing.T) {
+	t.Parallel()
 	p, url, w, log := startWatch(t, "Draft.", false)
 	data := filepath.Join(filepath.Dir(p), "data.csv")
 	eventually(t, "the first page", func() bool { return strings.Contains(get(t, url+"/"), "The sample has 8 months.") })
@@ -193,6 +195,7 @@ func TestWatchDataFile(t *testing.T) {
 // TestWatchFirstBuildFails: with no good build yet the page shows the
 // error alone, and the first good build replaces it.
 func TestWatchFirstBuildFails(t *testing.T) {
+	t.Parallel()
 	p, url, _, _ := startWatch(t, "Draft {{nosuch.value}}.", false)
 	eventually(t, "the error page", func() bool { return strings.Contains(get(t, url+"/"), `class="build-error"`) })
 	if page := get(t, url+"/"); !strings.Contains(page, "nosuch") || !strings.Contains(page, versionPath) {
@@ -207,6 +210,7 @@ func TestWatchFirstBuildFails(t *testing.T) {
 // hook reports each version it shows (seenPath), and the page served for
 // that version carries the edit. Skipped when Chromium is not installed.
 func TestWatchChromium(t *testing.T) {
+	t.Parallel()
 	bin := "/usr/bin/chromium"
 	if _, err := os.Stat(bin); err != nil {
 		t.Skip("chromium is not installed")
@@ -270,6 +274,7 @@ func TestWatchChromium(t *testing.T) {
 // banner must be inside the window and must not cover the title. Skipped
 // when Chromium is not installed.
 func TestWatchBannerLayout(t *testing.T) {
+	t.Parallel()
 	bin := "/usr/bin/chromium"
 	if _, err := os.Stat(bin); err != nil {
 		t.Skip("chromium is not installed")
