@@ -129,6 +129,17 @@ func TestVECMDiagnosticsTableAndErrors(t *testing.T) {
 	if _, ok := res["w"].Values["diagnostics"]; ok {
 		t.Error("diagnostics without the key")
 	}
+	// With seasonal, impulse and restricted step dummies the regressors
+	// include them (analysis/sysdiag checks them against johansen's own
+	// residuals in every case); here the directive passes them through.
+	dum := runDoc(t, writeProject(t, front+fence("vecm", "id: d\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n"+
+		"seasonal: true\nimpulse: 1976Q1\nshift: 1983Q1\ndiagnostics: [bg(1), arch(1)]\n"), files))["d"]
+	for _, name := range []string{"bg", "bg_f", "arch"} {
+		e := dum.Values["diagnostics"].(map[string]any)[name].(map[string]any)
+		if st, p := e["stat"].(float64), e["pvalue"].(float64); !(st > 0) || !(p > 0 && p < 1) {
+			t.Errorf("with dummies, %s: stat %v, p %v", name, st, p)
+		}
+	}
 	for _, c := range []struct{ list, want string }{
 		{"[bg, lb(4)]", "single-equation test"},
 		{"[bgg]", "did you mean"},
