@@ -182,7 +182,7 @@ func sysDiagNote(ds []sysDiagTest, k int) string {
 	for _, d := range ds {
 		switch d.key {
 		case "bg":
-			parts = append(parts, fmt.Sprintf("the Breusch–Godfrey LM test of autocorrelation up to order %d, T(K − tr(Σ̃_R⁻¹Σ̃_e)) from the regression of the residuals on the model's regressors given β̂ and their own lags 1–%d with pre-sample residuals set to zero (Lütkepohl 2005, §4.4.4 and §8.4), χ²(%d)", d.order, d.order, d.t.DF))
+			parts = append(parts, fmt.Sprintf("the Breusch–Godfrey LM test of autocorrelation up to order %d, from the regression of the residuals on the model's regressors given β̂ and on their own lags 1–%d, pre-sample residuals set to zero (Lütkepohl 2005, §4.4.4 and §8.4), χ²(%d)", d.order, d.order, d.t.DF))
 		case "bg_f":
 			parts = append(parts, "its F form, Rao's approximation for systems (Edgerton and Shukur 1999), which keeps closer to its nominal size than the χ² form when the system is large relative to T")
 		case "jb":
@@ -190,10 +190,10 @@ func sysDiagNote(ds []sysDiagTest, k int) string {
 		case "dh":
 			parts = append(parts, fmt.Sprintf("the Doornik–Hansen omnibus test of normality, on residuals orthogonalised by their correlation matrix so that the order of the series does not matter, with transformed skewness and kurtosis, χ²(%d) (Doornik and Hansen 2008)", 2*k))
 		case "arch":
-			parts = append(parts, fmt.Sprintf("the multivariate ARCH-LM test, ½T K(K+1)R²_m of the regression of the squares and cross-products of the residuals, vech(ε̂_t ε̂_t'), on a constant and %s of themselves (Lütkepohl 2005, §16.3), χ²(%d)", lagWord(d.order), d.t.DF))
+			parts = append(parts, fmt.Sprintf("the multivariate ARCH-LM test, from the regression of the squares and cross-products of the residuals on a constant and %s of themselves (Lütkepohl 2005, §16.3), χ²(%d)", lagWord(d.order), d.t.DF))
 		}
 	}
-	return "System residual diagnostics of the VECM residuals ε̂_t (the statistic, with its p-value beneath): " + strings.Join(parts, "; ") + "."
+	return "System residual diagnostics of the VECM residuals ε̂ₜ (the statistic, with its p-value beneath): " + strings.Join(parts, "; ") + "."
 }
 
 // addSysDiag computes the vecm's diagnostics and adds their rows, note and
