@@ -80,13 +80,13 @@ func parseSysDiag(c *engine.Context, list []string) ([]sysDiagItem, error) {
 	return out, nil
 }
 
-// sysDiagTest is one computed row pair: a label, its reference
-// distribution, the test, and its name and order in the values.
+// sysDiagTest is one computed row: a label, the test, and its name, order
+// and further values in the results.
 type sysDiagTest struct {
-	key, label, dist string
-	order            int
-	t                sysdiag.Test
-	extra            map[string]any
+	key, label string
+	order      int
+	t          sysdiag.Test
+	extra      map[string]any
 }
 
 // runSysDiag computes the listed diagnostics on the residuals of the
@@ -110,48 +110,51 @@ func runSysDiag(st *sysState, items []sysDiagItem) ([]sysDiagTest, error) {
 				return nil, err
 			}
 			out = append(out,
-				sysDiagTest{key: "bg", label: fmt.Sprintf("System Breusch–Godfrey LM(%d)", h), dist: chiText(s.LM.DF), order: h, t: s.LM},
-				sysDiagTest{key: "bg_f", label: fmt.Sprintf("Edgerton–Shukur F(%d)", h), dist: fmt.Sprintf("F(%d, %s)", s.F.DF, strconv.FormatFloat(s.F.DF2, 'f', 1, 64)), order: h, t: s.F})
+				sysDiagTest{key: "bg", label: fmt.Sprintf("System Breusch–Godfrey LM(%d)", h), order: h, t: s.LM},
+				sysDiagTest{key: "bg_f", label: fmt.Sprintf("Edgerton–Shukur F(%d)", h), order: h, t: s.F})
 		case "jb":
 			n, err := sysdiag.JarqueBera(u)
 			if err != nil {
 				return nil, err
 			}
 			out = append(out,
-				sysDiagTest{key: "jb_skew", label: "System Jarque–Bera, skewness", dist: chiText(n.Skew.DF), t: n.Skew},
-				sysDiagTest{key: "jb_kurt", label: "System Jarque–Bera, kurtosis", dist: chiText(n.Kurt.DF), t: n.Kurt},
-				sysDiagTest{key: "jb", label: "System Jarque–Bera, joint", dist: chiText(n.Joint.DF), t: n.Joint})
+				sysDiagTest{key: "jb_skew", label: "System Jarque–Bera, skewness", t: n.Skew},
+				sysDiagTest{key: "jb_kurt", label: "System Jarque–Bera, kurtosis", t: n.Kurt},
+				sysDiagTest{key: "jb", label: "System Jarque–Bera, joint", t: n.Joint})
 		case "dh":
 			o, err := sysdiag.DoornikHansen(u)
 			if err != nil {
 				return nil, err
 			}
-			out = append(out, sysDiagTest{key: "dh", label: "Doornik–Hansen", dist: chiText(o.Test.DF), t: o.Test,
+			out = append(out, sysDiagTest{key: "dh", label: "Doornik–Hansen", t: o.Test,
 				extra: map[string]any{"z1": o.Z1, "z2": o.Z2}})
 		case "arch":
 			a, err := sysdiag.ARCH(u, h)
 			if err != nil {
 				return nil, err
 			}
-			out = append(out, sysDiagTest{key: "arch", label: fmt.Sprintf("System ARCH-LM(%d)", h), dist: chiText(a.DF), order: h, t: a})
+			out = append(out, sysDiagTest{key: "arch", label: fmt.Sprintf("System ARCH-LM(%d)", h), order: h, t: a})
 		}
 	}
 	return out, nil
 }
 
-func chiText(df int) string { return fmt.Sprintf("χ²(%d)", df) }
-
-// sysDiagRows lays the tests out as every block of tests is shown (the
-// statistic, its p-value beneath), padded to the table's width.
+// sysDiagRows lays the tests out as the vecm table's likelihood-ratio rows
+// are: the statistic with its degrees of freedom in brackets, then its
+// p-value, padded to the table's width.
 func sysDiagRows(ds []sysDiagTest, cols, dec int) []table.Row {
 	var rows []table.Row
 	for i, d := range ds {
-		for _, r := range engine.TestRows(d.label+", "+d.dist, d.t.Stat, d.t.P, dec, i == 0) {
-			for len(r.Cells) < cols {
-				r.Cells = append(r.Cells, table.Empty)
-			}
-			rows = append(rows, r)
+		stat := table.N(d.t.Stat, dec)
+		stat.Suffix = fmt.Sprintf(" [%d]", d.t.DF)
+		if d.t.DF2 > 0 {
+			stat.Suffix = fmt.Sprintf(" [%d, %s]", d.t.DF, strconv.FormatFloat(d.t.DF2, 'f', 1, 64))
 		}
+		row := []table.Cell{table.T(d.label), stat, table.N(d.t.P, dec)}
+		for len(row) < cols {
+			row = append(row, table.Empty)
+		}
+		rows = append(rows, table.Row{Cells: row, RuleAbove: i == 0})
 	}
 	return rows
 }
@@ -193,7 +196,7 @@ func sysDiagNote(ds []sysDiagTest, k int) string {
 			parts = append(parts, fmt.Sprintf("the multivariate ARCH-LM test, from the regression of the squares and cross-products of the residuals on a constant and %s of themselves (Lütkepohl 2005, §16.3), χ²(%d)", lagWord(d.order), d.t.DF))
 		}
 	}
-	return "System residual diagnostics of the VECM residuals ε̂ₜ (the statistic, with its p-value beneath): " + strings.Join(parts, "; ") + "."
+	return "System residual diagnostics of the VECM residuals ε̂ₜ (each row: the statistic with its degrees of freedom in brackets, then its p-value): " + strings.Join(parts, "; ") + "."
 }
 
 // addSysDiag computes the vecm's diagnostics and adds their rows, note and
