@@ -208,7 +208,7 @@ func (s *vecmSpec) addSysDiag(c *engine.Context, st *sysState, t *table.Table, v
 	}
 	ds, err := runSysDiag(st, items)
 	if err != nil {
-		return c.Errorf("diagnostics", "%d observations of %d series: %v", st.res.T, st.res.K, err)
+		return c.Errorf("diagnostics", "%d observations of %d series: %s", st.res.T, st.res.K, strings.TrimPrefix(err.Error(), "sysdiag: "))
 	}
 	cols := 0
 	for _, r := range t.Body {
