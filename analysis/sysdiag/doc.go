@@ -25,7 +25,7 @@
 //	Lütkepohl, H. (2005). New Introduction to Multiple Time Series
 //	  Analysis. Springer. §4.4.4 (LM test for residual autocorrelation and
 //	  its F form), §4.5 (tests for nonnormality), §8.4 (the same tests for
-//	  a VECM), §16.3 (multivariate ARCH-LM test).
+//	  a VECM), ch. 16 (multivariate ARCH-LM test).
 //	Rao, C. R. (1951). An asymptotic expansion of the distribution of
 //	  Wilks' criterion. Bulletin of the International Statistical Institute
 //	  33, 177–180.

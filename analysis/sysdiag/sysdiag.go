@@ -141,9 +141,10 @@ type Serial struct {
 //
 //	LMF_h = [(1 − R²_r)^{−1/s} − 1] (Ns − q)/(Km),  approximately F(hK², Ns − q).
 //
-// For K = 1 LM_h is T·R² of the single-equation Breusch–Godfrey regression
-// and LMF_h its F statistic with (h, T − n − h) degrees of freedom. x may
-// be nil (no regressors); its columns must not be collinear.
+// For K = 1 (and a constant among the regressors) LM_h is T·R² of the
+// single-equation Breusch–Godfrey regression and LMF_h its F statistic
+// with (h, T − n − h) degrees of freedom. x may be nil (no regressors);
+// its columns must not be collinear.
 func SerialLM(u, x *mat.Dense, h int) (*Serial, error) {
 	t, k, err := checkResid(u)
 	if err != nil {
@@ -324,7 +325,7 @@ type Omnibus struct {
 //	z2 = ((χ/(2α))^{1/3} − 1 + 1/(9α)) (9α)^{1/2}.
 //
 // The statistic E = Σ_k (z1_k² + z2_k²) is approximately χ²(2K) under
-// normality (Doornik and Hansen 2008, eqs. (1)–(3) and §3). Needs T ≥ 8.
+// normality (Doornik and Hansen 2008). Needs T ≥ 8.
 func DoornikHansen(u *mat.Dense) (*Omnibus, error) {
 	t, k, err := checkResid(u)
 	if err != nil {
@@ -429,9 +430,8 @@ func kurtZ(b1, b2, n float64) float64 {
 }
 
 // ARCH is the multivariate ARCH-LM test of order q (Lütkepohl 2005,
-// §16.3). With v_t = vech(û_t û_t'), the
-// K(K+1)/2 distinct squares and cross-products of the residuals, the
-// auxiliary regression
+// ch. 16). With v_t = vech(û_t û_t'), the K(K+1)/2 distinct squares and
+// cross-products of the residuals, the auxiliary regression
 //
 //	v_t = b_0 + B_1 v_{t−1} + … + B_q v_{t−q} + e_t,  t = q+1 … T,
 //

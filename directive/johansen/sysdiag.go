@@ -193,7 +193,7 @@ func sysDiagNote(ds []sysDiagTest, k int) string {
 		case "dh":
 			parts = append(parts, fmt.Sprintf("the Doornik–Hansen omnibus test of normality, on residuals orthogonalised by their correlation matrix so that the order of the series does not matter, with transformed skewness and kurtosis, χ²(%d) (Doornik and Hansen 2008)", 2*k))
 		case "arch":
-			parts = append(parts, fmt.Sprintf("the multivariate ARCH-LM test, from the regression of the squares and cross-products of the residuals on a constant and %s of themselves (Lütkepohl 2005, §16.3), χ²(%d)", lagWord(d.order), d.t.DF))
+			parts = append(parts, fmt.Sprintf("the multivariate ARCH-LM test, from the regression of the squares and cross-products of the residuals on a constant and %s of themselves (Lütkepohl 2005, ch. 16), χ²(%d)", lagWord(d.order), d.t.DF))
 		}
 	}
 	return "System residual diagnostics of the VECM residuals ε̂ₜ (each row: the statistic with its degrees of freedom in brackets, then its p-value): " + strings.Join(parts, "; ") + "."

@@ -25,7 +25,7 @@ estimation. Sources of each value:
         F = ((1 - R2)^(-1/s) - 1) (N s - q)/(K m),  F(K m, N s - q).
     For K = 1 they are checked here against statsmodels'
     acorr_breusch_godfrey (lm, fval) and stored under "single".
-  * arch (q = 1, 2): numpy from Lütkepohl (2005, §16.3):
+  * arch (q = 1, 2): numpy from Lütkepohl (2005, ch. 16):
         v_t = vech(u_t u_t'), regression on [1, v_{t-1} .. v_{t-q}], t > q,
         R2m = 1 - 2/(K(K+1)) tr(Omega Omega0^{-1}), stat = T_q K(K+1) R2m/2,
         chi2(q K^2 (K+1)^2 / 4), T_q = T - q.
