@@ -66,6 +66,9 @@ type vecmSpec struct {
 	From          string `yaml:"from"`
 	Show          string `yaml:"show"`
 
+	// System residual diagnostics (sysdiag.go).
+	Diagnostics []string `yaml:"diagnostics"`
+
 	state *sysState     // its own system (without from:), set by Run
 	from  *johansenSpec // the johansen directive named in from:, set by Run
 }
@@ -88,7 +91,7 @@ func init() {
 	engine.Register(engine.Kind{Name: "johansen", Simulate: true, Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
 		New: func() engine.Directive { return &johansenSpec{} }, Fields: sysFields})
 	engine.Register(engine.Kind{Name: "vecm", Simulate: true, Summary: "vector error-correction model: cointegrating relations, loadings, restriction tests or short-run coefficients",
-		New: func() engine.Directive { return &vecmSpec{} }, Fields: append(slices.Clone(sysFields), "short", "show")})
+		New: func() engine.Directive { return &vecmSpec{} }, Fields: append(slices.Clone(sysFields), "short", "show", "diagnostics")})
 	engine.Register(engine.Kind{Name: "var-lags", Summary: "lag-order criteria (AIC, BIC, HQ) of the VAR in levels behind a VECM",
 		New: func() engine.Directive { return &varLagsSpec{} }, Fields: []string{"rows", "aic", "bic", "hq", "nobs", "max", "det", "series", "sample"}})
 }

@@ -37,6 +37,9 @@ func (s *vecmSpec) Check(c *engine.Context) error {
 	if sh := s.show(); sh != "relations" && sh != "short-run" {
 		return c.Errorf("show", "show: write relations (β, α and the restriction tests) or short-run (Γ and the deterministic terms), not %q", s.Show)
 	}
+	if _, err := parseSysDiag(c, s.Diagnostics); err != nil {
+		return err
+	}
 	if s.From != "" {
 		if own := s.ownKeys(c); len(own) > 0 {
 			return c.Errorf(own[0], "with from: the system is that of %q; %s cannot be set here as well", s.From, own[0])
@@ -89,6 +92,9 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (the %s case) and %s; T = %d.",
 		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], engine.SystemCaseWords[st.res.Case], st.lagPhrase(sel), st.res.T))
+	if err := s.addSysDiag(c, st, t, vals, dec); err != nil {
+		return nil, err
+	}
 	return &engine.Result{Table: t, Values: vals, Relations: st.relations(), Hidden: hidden}, nil
 }
 
