@@ -27,6 +27,7 @@ type buildCmd struct {
 	Fresh        bool     `help:"Ignore the result cache and run every directive."`
 	NoCache      bool     `help:"Neither read nor write the result cache."`
 	Against      string   `help:"Compare the new results with an earlier results file; exit 3 if a conclusion flipped." type:"existingfile" placeholder:"OLD.results.json"`
+	Verbose      bool     `short:"v" help:"Say how many results were reused from the cache (a build is otherwise silent when it succeeds)."`
 }
 
 func (b *buildCmd) Run() error {
@@ -41,7 +42,7 @@ func (b *buildCmd) Run() error {
 	if err := doc.Run(); err != nil {
 		return err
 	}
-	if n := len(doc.Reused()); n > 0 {
+	if n := len(doc.Reused()); n > 0 && b.Verbose {
 		fmt.Fprintf(os.Stderr, "galley: %d of %d results reused from the cache\n", n, doc.Directives())
 	}
 	out := b.Out
