@@ -4,6 +4,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/series"
 )
 
 // System is an estimated cointegrated VAR (a VECM at a rank in 1..K−1), in
@@ -14,6 +15,9 @@ import (
 type System struct {
 	Names  []string   // the series as written, in the model's order
 	Levels *mat.Dense // T₀×K levels over the sample, rows in time
+	// Dates are the dates of the rows of Levels (the first Lags + 1 only
+	// supply lags; row Lags + 1 is the first of the estimation sample).
+	Dates []series.Date
 	Case   johansen.Case
 	Lags   int // lagged differences k
 	Rank   int
