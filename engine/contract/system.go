@@ -15,20 +15,20 @@ import (
 type System struct {
 	Names  []string   // the series as written, in the model's order
 	Levels *mat.Dense // T₀×K levels over the sample, rows in time
+	Case   johansen.Case
+	Lags   int // lagged differences k
+	Rank   int
+	Norm   []int          // normalisation series of β, one per relation
+	Extra  johansen.Extra // dummies and conditioning regressors, rows as Levels
+	VECM   *johansen.VECM
+	From   string // first date of the estimation sample
+	To     string // last date
+	NObs   int    // T, the observations the VECM was estimated on
+	// Missing is the upstream's missing-value rule ("error" or "drop").
+	Missing string
 	// Dates are the dates of the rows of Levels (the first Lags + 1 only
 	// supply lags; row Lags + 1 is the first of the estimation sample).
 	Dates []series.Date
-	Case  johansen.Case
-	Lags  int // lagged differences k
-	Rank  int
-	Norm  []int          // normalisation series of β, one per relation
-	Extra johansen.Extra // dummies and conditioning regressors, rows as Levels
-	VECM  *johansen.VECM
-	From  string // first date of the estimation sample
-	To    string // last date
-	NObs  int    // T, the observations the VECM was estimated on
-	// Missing is the upstream's missing-value rule ("error" or "drop").
-	Missing string
 }
 
 // SystemSource is implemented by the directives that estimate a VECM
