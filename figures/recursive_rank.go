@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 
+	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -83,7 +84,22 @@ func RecursiveRank(dates []series.Date, eig, ratio []Path, o Options) (*Figure, 
 		if p.Y.Min > 0 {
 			p.Y.Min = 0 // eigenvalues and ratios are measured from zero
 		}
+		if len(ps) >= 2 && p.Legend.Top && o.Legend != LegendNone {
+			legendRoom(p, len(ps), h/2)
+		}
 		fig.panels = append(fig.panels, p)
 	}
 	return fig, nil
+}
+
+// legendRoom raises the top of panel p, about panelHeight high, so that a
+// legend of n entries at its top sits above the data rather than over it.
+func legendRoom(p *plot.Plot, n int, panelHeight vg.Length) {
+	data := float64(panelHeight) - float64(vg.Points(24)) // less the axis and padding
+	need := float64(n)*float64(vg.Points(legendFontSize+1.5)) + float64(vg.Points(4))
+	if data <= 2*need {
+		return
+	}
+	f := need / data
+	p.Y.Max += f / (1 - f) * (p.Y.Max - p.Y.Min)
 }

@@ -41,7 +41,8 @@ func TestSystemFigures(t *testing.T) {
 	// denmark.csv starts 1974Q1; with one lagged difference the estimation
 	// sample starts 1974Q3, and its first 20 observations end 1979Q2.
 	doc := "---\ntitle: T\ndata:\n  dk: dk.csv\n---\n\n" +
-		"The largest other root has modulus {{rt.largest_other %.3f}}; {{rx.label}} ends at {{rx.sample.to}}.\n\n" +
+		"The largest other root has modulus {{rt.largest_other %.3f}}; {{rx.label}} ends at {{rx.sample.to}}, " +
+		"the first eigenvalue there is {{rx.recursion.eigenvalues.0.values.33 %.3f}} and the trace ratio for rank 1 {{rx.recursion.trace.1.ratio.33 %.2f}}.\n\n" +
 		fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: constant\nlags: 1\nrank: 1\n") +
 		"\n" + fence("figure", "id: rt\nplot: roots\nof: sys\ncaption: Roots\n") +
 		"\n" + fence("figure", "id: rx\nplot: recursive-rank\nof: sys\nfirst: 1979Q2\ncaption: X-form\n") +
@@ -106,26 +107,30 @@ func TestSystemFigures(t *testing.T) {
 		if len(dates) != len(eig) || dates[0] != "1979Q2" || dates[len(dates)-1] != "1987Q3" {
 			t.Fatalf("%s: %d dates from %v, want %d from 1979Q2 to 1987Q3", id, len(dates), dates[0], len(eig))
 		}
-		ge, gt, gr := rec["eigenvalues"].([]any), rec["trace"].([]any), rec["ratio"].([]any)
-		crit := rec["crit"].([]any)
+		ge, gt := rec["eigenvalues"].([]any), rec["trace"].([]any)
 		if len(ge) != nEig || len(gt) != 4 {
 			t.Fatalf("%s: %d eigenvalue paths and %d trace paths, want %d and 4", id, len(ge), len(gt), nEig)
 		}
 		for i := range eig {
 			for j := 0; j < nEig; j++ {
 				n++
-				if got := ge[j].([]any)[i].(float64); !sysNear(got, eig[i][j], 1e-6) {
-					t.Errorf("%s: eigenvalue %d at %v = %.12g, reference %.12g", id, j+1, dates[i], got, eig[i][j])
+				e := ge[j].(map[string]any)
+				if v := e["values"].([]any)[i].(float64); v < e["min"].(float64) || v > e["max"].(float64) {
+					t.Errorf("%s: eigenvalue %v at %v = %v lies outside its min and max", id, e["number"], dates[i], v)
+				}
+				if got := e["values"].([]any)[i].(float64); !sysNear(got, eig[i][j], 1e-6) || e["number"] != float64(j+1) {
+					t.Errorf("%s: eigenvalue %v at %v = %.12g, reference %.12g", id, e["number"], dates[i], got, eig[i][j])
 				}
 			}
 			for r := 0; r < 4; r++ {
 				n++
-				got := gt[r].([]any)[i].(float64)
-				if !sysNear(got, trace[i][r], 1e-6) {
-					t.Errorf("%s: trace r=%d at %v = %.12g, reference %.12g", id, r, dates[i], got, trace[i][r])
+				e := gt[r].(map[string]any)
+				got := e["values"].([]any)[i].(float64)
+				if !sysNear(got, trace[i][r], 1e-6) || e["rank"] != float64(r) {
+					t.Errorf("%s: trace r=%v at %v = %.12g, reference %.12g", id, e["rank"], dates[i], got, trace[i][r])
 				}
-				if ratio := gr[r].([]any)[i].(float64); ratio != got/crit[r].(float64) {
-					t.Errorf("%s: ratio r=%d at %v = %v, want trace / %v", id, r, dates[i], ratio, crit[r])
+				if ratio := e["ratio"].([]any)[i].(float64); ratio != got/e["crit"].(float64) {
+					t.Errorf("%s: ratio r=%d at %v = %v, want trace / %v", id, r, dates[i], ratio, e["crit"])
 				}
 			}
 		}
@@ -150,15 +155,26 @@ func TestSystemFigures(t *testing.T) {
 	}
 	// rejects_from: the first date from which every later sample rejects.
 	rec := vals["rx"]["recursion"].(map[string]any)
-	dates, ratio, from := rec["dates"].([]any), rec["ratio"].([]any), rec["rejects_from"].([]any)
-	for r := range from {
-		path := ratio[r].([]any)
-		want := any(nil)
+	dates := rec["dates"].([]any)
+	for r, e := range rec["trace"].([]any) {
+		e := e.(map[string]any)
+		path := e["ratio"].([]any)
+		var rejects, accepts any
 		for i := len(path) - 1; i >= 0 && path[i].(float64) > 1; i-- {
-			want = dates[i]
+			rejects = dates[i]
 		}
-		if from[r] != want {
-			t.Errorf("rejects_from %d = %v, want %v", r, from[r], want)
+		for i := len(path) - 1; i >= 0 && path[i].(float64) <= 1; i-- {
+			accepts = dates[i]
+		}
+		if e["rejects_from"] != rejects || e["accepts_from"] != accepts {
+			t.Errorf("rank %d: rejects_from %v, accepts_from %v; want %v, %v", r, e["rejects_from"], e["accepts_from"], rejects, accepts)
+		}
+	}
+	// The divisors are the 5% critical values of the johansen table.
+	for r, e := range rec["trace"].([]any) {
+		want := vals["sys"]["crit_trace"].([]any)[r].(map[string]any)["5%"]
+		if got := e.(map[string]any)["crit"]; got != want {
+			t.Errorf("crit %d = %v, the johansen table's 5%% value is %v", r, got, want)
 		}
 	}
 	// The default first window is a third of the T = 53 observations.

@@ -173,33 +173,38 @@ func (s *figureSpec) runRecursiveRank(c *engine.Context, o *figures.Options, val
 		return out
 	}
 	var eigPaths, ratioPaths []figures.Path
-	eigVals := make([][]float64, nEig)
+	eigList := make([]map[string]any, nEig)
 	for j := 0; j < nEig; j++ {
-		eigVals[j] = column(rec.Eigenvalues, j)
+		v := column(rec.Eigenvalues, j)
+		eigList[j] = map[string]any{"number": j + 1, "values": v, "min": slices.Min(v), "max": slices.Max(v)}
 		if j < figures.MaxSeries {
-			eigPaths = append(eigPaths, figures.Path{Name: fmt.Sprintf("eigenvalue %d", j+1), Values: eigVals[j]})
+			eigPaths = append(eigPaths, figures.Path{Name: fmt.Sprintf("eigenvalue %d", j+1), Values: v})
 		}
 	}
-	traceVals, ratioVals := make([][]float64, k), make([][]float64, k)
-	rejectsFrom := make([]any, k)
+	traceList := make([]map[string]any, k)
 	for r := 0; r < k; r++ {
-		traceVals[r], ratioVals[r] = column(rec.Trace, r), column(ratio, r)
+		ratioR := column(ratio, r)
 		if r < figures.MaxSeries {
-			ratioPaths = append(ratioPaths, figures.Path{Name: fmt.Sprintf("r = %d", r), Values: ratioVals[r]})
+			ratioPaths = append(ratioPaths, figures.Path{Name: fmt.Sprintf("r = %d", r), Values: ratioR})
 		}
 		// the first end date from which every later sample rejects H(r)
+		// (or, when the full sample does not, from which none does)
 		i := len(dates)
-		for i > 0 && ratioVals[r][i-1] > 1 {
+		last := ratioR[i-1] > 1
+		for i > 0 && (ratioR[i-1] > 1) == last {
 			i--
 		}
-		if i < len(dates) {
-			rejectsFrom[r] = texts[i]
+		var rejects, accepts any = texts[i], nil
+		if !last {
+			rejects, accepts = nil, texts[i]
 		}
+		traceList[r] = map[string]any{"rank": r, "values": column(rec.Trace, r), "ratio": ratioR, "crit": crit[r],
+			"rejects_from": rejects, "accepts_from": accepts}
 	}
 	if k > figures.MaxSeries || nEig > figures.MaxSeries {
 		s.notes = append(s.notes, fmt.Sprintf("Only the first %d paths of a panel are drawn; the values hold all of them.", figures.MaxSeries))
 	}
-	ser := []series.Series{{Name: "recursion", Dates: dates, Values: ratioVals[0]}}
+	ser := []series.Series{{Name: "recursion", Dates: dates, Values: ratioPaths[0].Values}}
 	if err := s.shade(c, ser, o); err != nil {
 		return nil, err
 	}
@@ -214,8 +219,7 @@ func (s *figureSpec) runRecursiveRank(c *engine.Context, o *figures.Options, val
 	vals["sample"] = map[string]any{"from": texts[0], "to": texts[len(texts)-1], "n": len(texts)}
 	vals["recursion"] = map[string]any{
 		"form": strings.ToLower(form.String()), "start": sys.Dates[sys.Lags+1].String(), "first": texts[0],
-		"dates": texts, "nobs": slices.Clone(rec.End), "eigenvalues": eigVals, "trace": traceVals,
-		"ratio": ratioVals, "crit": crit, "rejects_from": rejectsFrom,
+		"dates": texts, "nobs": slices.Clone(rec.End), "eigenvalues": eigList, "trace": traceList,
 	}
 	return s.finish(c, fig, vals)
 }
