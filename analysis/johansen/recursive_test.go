@@ -33,6 +33,7 @@ type recursiveFixture struct {
 		First      int
 		Form       string
 		ImpulseRow *int `json:"impulse_row"`
+		StepRow    *int `json:"step_row"`
 		End        []int
 		Eig        [][]float64
 		Trace      [][]float64
@@ -89,14 +90,15 @@ func TestRecursiveXFormStatsmodels(t *testing.T) {
 	}
 }
 
-// TestRecursiveNumpy: the R-form (and the X-form in case RC and with an
-// impulse dummy that is zero on the early subsamples) against the numpy
+// TestRecursiveNumpy: the R-form (and the X-form in case RC, with an
+// unrestricted impulse dummy and with a step dummy restricted to the
+// relations, both zero on the early subsamples) against the numpy
 // 1.24.2 / scipy 1.10.1 implementation of the published equations in
 // testdata/scripts/johansen_recursive.py, 1e-6 relative.
 func TestRecursiveNumpy(t *testing.T) {
 	f := loadRecursive(t)
 	for _, c := range f.NumpyRecursive {
-		name := fmt.Sprintf("%s/%s/k=%d/%s-form/dummy=%v", c.Data, c.Case, c.Lags, c.Form, c.ImpulseRow != nil)
+		name := fmt.Sprintf("%s/%s/k=%d/%s-form/impulse=%v/step=%v", c.Data, c.Case, c.Lags, c.Form, c.ImpulseRow != nil, c.StepRow != nil)
 		t.Run(name, func(t *testing.T) {
 			y := fixtureData(t, c.Data)
 			cs, err := ParseCase(c.Case)
@@ -108,6 +110,13 @@ func TestRecursiveNumpy(t *testing.T) {
 				rows, _ := y.Dims()
 				x.Unrestricted = mat.NewDense(rows, 1, nil)
 				x.Unrestricted.Set(*c.ImpulseRow, 0, 1)
+			}
+			if c.StepRow != nil {
+				rows, _ := y.Dims()
+				x.Restricted = mat.NewDense(rows, 1, nil)
+				for i := *c.StepRow; i < rows; i++ {
+					x.Restricted.Set(i, 0, 1)
+				}
 			}
 			form := map[string]Form{"X": XForm, "R": RForm}[c.Form]
 			rec, err := Recursive(y, cs, c.Lags, x, c.First, form, 0)

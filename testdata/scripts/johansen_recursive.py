@@ -15,7 +15,8 @@ Writes testdata/fixtures/johansen_recursive.json with
 
   * "numpy": written here with numpy and scipy from the published
     equations (Hansen and Johansen 1999, Econometrics Journal 2, §3):
-        Z0t = Δy_t,  Z1t = ỹ_{t-1} (y_{t-1}, with 1 appended in case rc),
+        Z0t = Δy_t,  Z1t = ỹ_{t-1} (y_{t-1}, with 1 appended in case rc and a
+              step dummy lagged once where given),
         Z2t = the short-run regressors (1 in case c, Δy_{t-1..t-k},
               an impulse dummy where given),
         R_it = Z_it - M_i2 M_22^{-1} Z_2t  (least-squares residuals),
@@ -25,7 +26,7 @@ Writes testdata/fixtures/johansen_recursive.json with
     In the R-form the residuals R_it come from the regression on the full
     sample, once; in the X-form from the regression on the first t
     observations (a dummy column that is zero on the first t observations
-    is left out of that subsample's Z2).
+    is left out of that subsample's Z2 or Z1).
 
   * "roots": the eigenvalues of the companion matrix of the VAR form
     (statsmodels VECMResults.var_rep) of statsmodels' VECM fitted with
@@ -45,14 +46,17 @@ mac = np.log(pd.read_csv("testdata/data/macrodata.csv")[["realgdp", "realcons", 
 DATA = {"denmark": den, "macrodata": mac}
 
 
-def design(y, case, k, dummy=None):
-    """Z0, Z1, Z2 for the rows s = k+1 .. T0-1 of y (Z2 None if empty)."""
+def design(y, case, k, dummy=None, step=None):
+    """Z0, Z1, Z2 for the rows s = k+1 .. T0-1 of y (Z2 None if empty);
+    dummy enters Z2 at s, step enters Z1 lagged (at s-1)."""
     T0, K = y.shape
     rows = range(k + 1, T0)
     z0 = np.array([y[s] - y[s - 1] for s in rows])
     z1 = np.array([y[s - 1] for s in rows])
     if case == "rc":
         z1 = np.column_stack([z1, np.ones(len(z0))])
+    if step is not None:
+        z1 = np.column_stack([z1, np.array([step[s - 1] for s in rows])])
     z2 = []
     if case == "c":
         z2.append(np.ones((len(z0), 1)))
@@ -74,6 +78,12 @@ def resid(a, x):
     return a - x @ np.linalg.lstsq(x, a, rcond=None)[0]
 
 
+def drop_zero(x, cols):
+    """x without those of the columns cols that are zero throughout."""
+    keep = [j for j in range(x.shape[1]) if j not in cols or np.any(x[:, j] != 0)]
+    return x[:, keep]
+
+
 def eig_trace(r0, r1, K):
     t = len(r0)
     s00, s11, s01 = r0.T @ r0 / t, r1.T @ r1 / t, r0.T @ r1 / t
@@ -83,9 +93,10 @@ def eig_trace(r0, r1, K):
     return [float(v) for v in lam], trace
 
 
-def numpy_recursive(y, case, k, first, form, dummy=None):
+def numpy_recursive(y, case, k, first, form, dummy=None, step=None):
     K = y.shape[1]
-    z0, z1, z2 = design(y, case, k, dummy)
+    z0, z1, z2 = design(y, case, k, dummy, step)
+    stepcol = [z1.shape[1] - 1] if step is not None else []
     T = len(z0)
     if form == "R":
         r0, r1 = resid(z0, z2), resid(z1, z2)
@@ -95,7 +106,7 @@ def numpy_recursive(y, case, k, first, form, dummy=None):
             e, tr = eig_trace(r0[:n], r1[:n], K)
         else:
             x = None if z2 is None else z2[:n]
-            e, tr = eig_trace(resid(z0[:n], x), resid(z1[:n], x), K)
+            e, tr = eig_trace(resid(z0[:n], x), resid(drop_zero(z1[:n], stepcol), x), K)
         out["end"].append(n)
         out["eig"].append(e)
         out["trace"].append(tr)
@@ -119,20 +130,26 @@ for name, det, k, first in (("denmark", -1, 1, 20), ("denmark", 0, 1, 20),
         rec["trace"].append(r.lr1.tolist())
     out["statsmodels"].append(rec)
 
-impulse_row = 40  # a row of y: the dummy is 1 there, 0 elsewhere
+impulse_row = 40  # a row of y: the impulse dummy is 1 there, 0 elsewhere
+step_row = 35     # a row of y: the step dummy is 0 before it, 1 from it
 for name, case, k, first, form, dummy in (
-        ("denmark", "c", 1, 20, "R", False), ("denmark", "c", 2, 25, "R", False),
-        ("denmark", "rc", 1, 20, "R", False), ("macrodata", "c", 2, 60, "R", False),
-        ("denmark", "rc", 1, 20, "X", False), ("denmark", "c", 1, 20, "X", True),
-        ("denmark", "c", 1, 20, "R", True)):
+        ("denmark", "c", 1, 20, "R", None), ("denmark", "c", 2, 25, "R", None),
+        ("denmark", "rc", 1, 20, "R", None), ("macrodata", "c", 2, 60, "R", None),
+        ("denmark", "rc", 1, 20, "X", None), ("denmark", "c", 1, 20, "X", "impulse"),
+        ("denmark", "c", 1, 20, "R", "impulse"), ("denmark", "rc", 1, 20, "X", "step"),
+        ("denmark", "rc", 1, 20, "R", "step")):
     y = DATA[name]
-    dv = None
-    if dummy:
+    dv = sv = None
+    if dummy == "impulse":
         dv = np.zeros(len(y))
         dv[impulse_row] = 1.0
-    rec = numpy_recursive(y, case, k, first, form, dv)
+    if dummy == "step":
+        sv = np.zeros(len(y))
+        sv[step_row:] = 1.0
+    rec = numpy_recursive(y, case, k, first, form, dv, sv)
     rec.update({"data": name, "case": case, "lags": k, "first": first, "form": form,
-                "impulse_row": impulse_row if dummy else None})
+                "impulse_row": impulse_row if dummy == "impulse" else None,
+                "step_row": step_row if dummy == "step" else None})
     out["numpy_recursive"].append(rec)
 
 for rank in (1, 2, 3):
