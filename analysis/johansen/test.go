@@ -303,7 +303,19 @@ func (r *Result) reduce(d *mat.Dense) error {
 	if j := qr.Indep(); j < n {
 		return r.singular(j, ns, p1)
 	}
-	rr := qr.R()
+	return r.solveR(qr.R(), t, ns, p1)
+}
+
+// solveR sets the scaled moment matrices, the eigenvalues, eigenvectors
+// and statistics of the reduced-rank problem from R, the triangular factor
+// of the QR of a design [short-run regressors (ns columns) | ỹ_{t−1} (p1) |
+// Δy_t (K)] of t rows: the blocks of R after the first ns rows are
+// Cholesky factors of T times the moments of the residuals of ỹ_{t−1} and
+// Δy_t on the short-run regressors (Golub and Van Loan 2013, §5.3), so the
+// rest follows from R alone. The signs of R's rows do not matter. The
+// recursive estimates (recursive.go) call it with R of each subsample.
+func (r *Result) solveR(rr mat.Matrix, t, ns, p1 int) error {
+	k := r.K
 	ft := float64(t)
 	r11 := mat.NewDense(p1, p1, nil)
 	r10 := mat.NewDense(p1, k, nil)

@@ -22,6 +22,9 @@ func (s *figureSpec) Check(c *engine.Context) error {
 	if p == "multipliers" {
 		return s.checkMultipliers(c) // multipliers.go
 	}
+	if isSystemPlot(p) {
+		return s.checkSystem(c, p) // system.go
+	}
 	if isRegressionPlot(p) {
 		return s.checkRegression(c, p)
 	}
@@ -46,6 +49,9 @@ func (s *figureSpec) checkCommon(c *engine.Context, p string) error {
 		if c.Has(k.key) && !(k.v > 0.5 && k.v <= 40) {
 			return c.Errorf(k.key, "%s %g in: give a size in inches between 0.5 and 40", k.key, k.v)
 		}
+	}
+	if k := c.FirstSet(systemOnlyKeys...); k != "" && !isSystemPlot(p) {
+		return c.Errorf(k, "%s belongs to plot recursive-rank, not to plot %s", k, p)
 	}
 	if c.Has("lags") && s.Lags < 1 {
 		return c.Errorf("lags", "lags must be at least 1")

@@ -38,6 +38,9 @@ type figureSpec struct {
 	Height        float64     `yaml:"height"`
 	Lags          int         `yaml:"lags"`
 	Alpha         float64     `yaml:"alpha"`
+	Form          string      `yaml:"form"`        // recursive-rank (system.go)
+	First         string      `yaml:"first"`       // recursive-rank
+	Eigenvalues   string      `yaml:"eigenvalues"` // recursive-rank
 
 	notes []string // about shaded windows cut to the data
 }
@@ -48,7 +51,7 @@ type shadeSpec struct {
 }
 
 // The plot kinds, in the order the documentation gives them.
-var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive", "multipliers"}
+var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive", "multipliers", "roots", "recursive-rank"}
 
 var legendPlaces = map[string]figures.LegendPos{
 	"top-left": figures.LegendTopLeft, "top-right": figures.LegendTopRight,
@@ -59,9 +62,10 @@ var legendPlaces = map[string]figures.LegendPos{
 func init() {
 	engine.Register(engine.Kind{
 		Name:    "figure",
-		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient",
+		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient, multipliers, a system's companion roots and recursive rank statistics",
 		New:     func() engine.Directive { return &figureSpec{} },
-		Fields:  []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "of", "coef", "horizon"},
+		Fields: []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "of", "coef", "horizon",
+			"roots", "unit_roots", "largest_other", "recursion"}, // the last four: system.go
 	})
 }
 
@@ -111,8 +115,13 @@ func (s *figureSpec) Run(c *engine.Context) (*engine.Result, error) {
 		o.Legend = legendPlaces[s.Legend]
 	}
 	vals := map[string]any{"plot": p}
-	if p == "multipliers" {
+	switch p {
+	case "multipliers":
 		return s.runMultipliers(c, &o, vals) // multipliers.go
+	case "roots":
+		return s.runRoots(c, &o, vals) // system.go
+	case "recursive-rank":
+		return s.runRecursiveRank(c, &o, vals) // system.go
 	}
 	var fig *figures.Figure
 	var dr drawn

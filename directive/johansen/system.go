@@ -16,7 +16,7 @@ func (s *sysState) system(missing string) (*contract.System, error) {
 		return nil, fmt.Errorf("the sequential trace tests at %s choose rank %d, so there is no VECM; set rank: (1..%d) there", contract.Pct(s.st.Level), s.chosen, s.res.K-1)
 	}
 	return &contract.System{
-		Names: slices.Clone(s.st.Names), Levels: s.y, Case: s.res.Case, Lags: s.res.Lags, Rank: s.rank,
+		Names: slices.Clone(s.st.Names), Levels: s.y, Dates: slices.Clone(s.d.Dates), Case: s.res.Case, Lags: s.res.Lags, Rank: s.rank,
 		Norm: slices.Clone(s.norm), Extra: s.ex.x, VECM: s.vecm,
 		From: s.d.Dates[s.res.Lags+1].String(), To: s.d.Dates[s.d.N()-1].String(), NObs: s.res.T, Missing: missing,
 	}, nil

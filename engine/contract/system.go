@@ -4,6 +4,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/series"
 )
 
 // System is an estimated cointegrated VAR (a VECM at a rank in 1..K−1), in
@@ -25,6 +26,9 @@ type System struct {
 	NObs   int    // T, the observations the VECM was estimated on
 	// Missing is the upstream's missing-value rule ("error" or "drop").
 	Missing string
+	// Dates are the dates of the rows of Levels (the first Lags + 1 only
+	// supply lags; row Lags + 1 is the first of the estimation sample).
+	Dates []series.Date
 }
 
 // SystemSource is implemented by the directives that estimate a VECM
