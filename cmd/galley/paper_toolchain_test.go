@@ -18,8 +18,8 @@ import (
 // shows numbered equations, author-year citations, the reference list,
 // appendix tables, footnote text and no TeX or Markdown leaking through;
 // and each table or figure is set at most two pages after its first
-// reference, with no page of running text between them (the page breaks
-// are pdftotext's form feeds). pdflatex
+// reference and never after the start of the next section (the page
+// breaks are pdftotext's form feeds). pdflatex
 // compiles the LaTeX galley writes (--to pdf runs it on paper.tex and its
 // figures in a temporary folder) and the first page is not blank.
 func TestDemoPDF(t *testing.T) {
@@ -52,73 +52,100 @@ func TestDemoPDF(t *testing.T) {
 			t.Errorf("the PDF's text contains %q", bad)
 		}
 	}
-	pages := strings.Split(text, "\f")
+	// The text as one stream of words, with the page of every offset.
+	var flatText strings.Builder
+	var pageAt []int // pageAt[i]: the page of the i-th page's start offset
+	for i, p := range strings.Split(text, "\f") {
+		pageAt = append(pageAt, flatText.Len())
+		_ = i
+		flatText.WriteString(strings.Join(strings.Fields(p), " ") + " ")
+	}
+	stream := flatText.String()
+	pageOf := func(off int) int {
+		pg := 0
+		for i, start := range pageAt {
+			if start <= off {
+				pg = i
+			}
+		}
+		return pg
+	}
 	first, placed := map[string]int{}, map[string]int{}
 	ref := regexp.MustCompile(`(Table|Figure) ([0-9]+|[A-Z]\.[0-9]+)(:?)`)
-	for i, p := range pages {
-		for _, m := range ref.FindAllStringSubmatch(strings.Join(strings.Fields(p), " "), -1) {
-			key := m[1] + " " + m[2]
-			if m[3] == ":" {
-				if _, ok := placed[key]; !ok {
-					placed[key] = i
-				}
-			} else if _, ok := first[key]; !ok {
-				first[key] = i
+	for _, m := range ref.FindAllStringSubmatchIndex(stream, -1) {
+		key := stream[m[2]:m[3]] + " " + stream[m[4]:m[5]]
+		if m[7] > m[6] {
+			if _, ok := placed[key]; !ok {
+				placed[key] = m[0]
 			}
+		} else if _, ok := first[key]; !ok {
+			first[key] = m[0]
 		}
 	}
 	if len(placed) < 20 {
 		t.Fatalf("found %d captions in the PDF text, expected every table and figure", len(placed))
 	}
-	prose := proseLines(t, filepath.Join(out, "paper.pdf"))
+	heads := sectionStarts(t, stream)
 	for key, at := range placed {
 		r, ok := first[key]
 		if !ok {
 			continue
 		}
-		if at-r > 2 {
-			t.Errorf("%s is set on page %d, %d pages after its first reference (page %d)", key, at+1, at-r, r+1)
+		if d := pageOf(at) - pageOf(r); d > 2 {
+			t.Errorf("%s is set on page %d, %d pages after its first reference (page %d)", key, pageOf(at)+1, d, pageOf(r)+1)
 		}
-		for p := r + 1; p < at; p++ {
-			if p < len(prose) && prose[p] >= 3 {
-				t.Errorf("%s is set on page %d after page %d of running text (%d lines); its first reference is on page %d", key, at+1, p+1, prose[p], r+1)
+		for _, h := range heads {
+			if h.at > r && at > h.at && pageOf(at) != pageOf(h.at) {
+				t.Errorf("%s, first referred to on page %d, is set on page %d, after section %q starts (page %d)", key, pageOf(r)+1, pageOf(at)+1, h.title, pageOf(h.at)+1)
+				break
 			}
 		}
 	}
 }
 
-// proseLines counts, page by page, the lines of running text in a PDF
-// (pdftotext -bbox-layout): lines at least 400pt wide (the text block is
-// 468pt) and at least 9.5pt high (body type; table notes are set smaller),
-// other than captions. A page of floats has none, or one or two from a
-// caption or note set at body size.
-func proseLines(t *testing.T, pdf string) []int {
+type sectionStart struct {
+	title string
+	at    int // offset in the PDF's text stream
+}
+
+// sectionStarts finds the demo's top-level section headings in the PDF's
+// text stream, in order, as galley numbers them (1, 2, … in the body; A,
+// B, … after \appendix).
+func sectionStarts(t *testing.T, stream string) []sectionStart {
 	t.Helper()
-	b, err := exec.Command(need(t, "pdftotext"), "-bbox-layout", pdf, "-").Output()
+	src, err := os.ReadFile(filepath.Join("..", "..", "examples", "gridlink", "paper.md"))
 	if err != nil {
-		t.Fatalf("pdftotext -bbox-layout: %v", err)
+		t.Fatal(err)
 	}
-	line := regexp.MustCompile(`(?s)<line xMin="([0-9.]+)" yMin="([0-9.]+)" xMax="([0-9.]+)" yMax="([0-9.]+)">(.*?)</line>`)
-	word := regexp.MustCompile(`>([^<]*)</word>`)
-	var counts []int
-	for _, page := range strings.Split(string(b), "<page ")[1:] {
-		n := 0
-		for _, m := range line.FindAllStringSubmatch(page, -1) {
-			x0, _ := strconv.ParseFloat(m[1], 64)
-			y0, _ := strconv.ParseFloat(m[2], 64)
-			x1, _ := strconv.ParseFloat(m[3], 64)
-			y1, _ := strconv.ParseFloat(m[4], 64)
-			first := ""
-			if w := word.FindStringSubmatch(m[5]); w != nil {
-				first = w[1]
-			}
-			if x1-x0 >= 400 && y1-y0 >= 9.5 && first != "Table" && first != "Figure" {
-				n++
-			}
+	var out []sectionStart
+	n, apx, from := 0, false, 0
+	for _, line := range strings.Split(string(src), "\n") {
+		if strings.TrimSpace(line) == `\appendix` {
+			apx, n = true, 0
+			continue
 		}
-		counts = append(counts, n)
+		title, ok := strings.CutPrefix(line, "## ")
+		if !ok {
+			continue
+		}
+		title = strings.TrimSpace(regexp.MustCompile(`\{#[^}]*\}`).ReplaceAllString(title, ""))
+		n++
+		num := strconv.Itoa(n)
+		if apx {
+			num = string(rune('A' + n - 1))
+		}
+		words := strings.Fields(title) // a long heading may break, hyphenated, across lines
+		i := strings.Index(stream[from:], num+" "+strings.Join(words[:min(3, len(words))], " "))
+		if i < 0 {
+			t.Fatalf("section %q (%s) not found in the PDF's text", title, num)
+		}
+		from += i
+		out = append(out, sectionStart{title: title, at: from})
 	}
-	return counts
+	if len(out) < 8 {
+		t.Fatalf("found %d sections in the demo", len(out))
+	}
+	return out
 }
 
 // checkEquationBoxes: every display equation of the page has a laid-out
