@@ -2,9 +2,12 @@ package johansen
 
 import (
 	"math"
+	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/internal/longtest"
 )
 
 type bartlettFixture struct {
@@ -179,5 +182,70 @@ func TestBartlettMeanFromBootstrap(t *testing.T) {
 	}
 	for r := range bt.Trace {
 		wantRel(t, "corrected trace", bt.Trace[r], res.Trace[r]*bt.Asymptotic[r]/a.Mean[r], 1e-14)
+	}
+}
+
+// TestBartlettSize is a Monte Carlo check of the size of the bootstrap
+// Bartlett-corrected trace test of H(0) at 5% in a small sample where the
+// asymptotic test over-rejects: K = 2 independent I(1) series (rank 0),
+// T = 50 differences, Δy_t = Γ Δy_{t−1} + ε_t with Γ = [0.7 0.1; 0.1 0.4]
+// and ε_t ~ N(0, I), y_0 = 0, analysed in case rc with one lagged
+// difference; B = 199 wild bootstrap replications per sample, 1,000
+// samples. Both statistics are compared with the asymptotic 5% critical
+// value (Osterwald-Lenum 1992, K − r = 2). The corrected test's rejection
+// rate must be closer to 5% than the asymptotic test's, and the asymptotic
+// test must over-reject by more than three standard errors (else the
+// design shows nothing). Measured (seeds fixed; about 8 s on two busy
+// cores): asymptotic 0.109 (s.e. 0.010), Bartlett-corrected 0.035 (s.e.
+// 0.006); the s.e. of a rate of 0.05 is 0.0069. The correction removes
+// most of the over-rejection but leaves the test somewhat conservative
+// here (about two standard errors below 5%).
+func TestBartlettSize(t *testing.T) {
+	longtest.Skip(t, "bootstrap Bartlett size")
+	const n, T, reps = 1000, 50, 199
+	g := [2][2]float64{{0.7, 0.1}, {0.1, 0.4}}
+	cv, err := CriticalValues(RC, TraceStat, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(21, 22))
+	var rejA, rejB int
+	for i := 0; i < n; i++ {
+		y := mat.NewDense(T+1, 2, nil)
+		var d [2]float64
+		for s := 1; s <= T; s++ {
+			e0, e1 := rng.NormFloat64(), rng.NormFloat64()
+			d = [2]float64{g[0][0]*d[0] + g[0][1]*d[1] + e0, g[1][0]*d[0] + g[1][1]*d[1] + e1}
+			y.Set(s, 0, y.At(s-1, 0)+d[0])
+			y.Set(s, 1, y.At(s-1, 1)+d[1])
+		}
+		res, err := Test(y, RC, 1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := res.WildBootstrapRank(y, Extra{}, RankBootSpec{Reps: reps, Seed: uint64(i)})
+		if err != nil {
+			t.Fatal(err)
+		}
+		bt, err := BartlettTrace(res.Trace, b.Mean, RC)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if res.Trace[0] > cv[1] {
+			rejA++
+		}
+		if bt.Trace[0] > cv[1] {
+			rejB++
+		}
+	}
+	rateA, rateB := float64(rejA)/n, float64(rejB)/n
+	se := math.Sqrt(0.05 * 0.95 / n)
+	seA, seB := math.Sqrt(rateA*(1-rateA)/n), math.Sqrt(rateB*(1-rateB)/n)
+	t.Logf("rejection at 5%%: asymptotic %.3f (s.e. %.3f), Bartlett-corrected %.3f (s.e. %.3f); s.e. at 0.05: %.4f", rateA, seA, rateB, seB, se)
+	if math.Abs(rateB-0.05) >= math.Abs(rateA-0.05) {
+		t.Errorf("the corrected rate %.3f is not closer to 0.05 than the asymptotic %.3f", rateB, rateA)
+	}
+	if rateA-0.05 < 3*se {
+		t.Errorf("the asymptotic test's rate %.3f does not over-reject: the design checks nothing", rateA)
 	}
 }
