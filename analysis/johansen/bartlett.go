@@ -30,7 +30,8 @@ import (
 //	  70(5), 1929–1961.
 //	Rocke, D. M. (1989). Bootstrap Bartlett adjustment in seemingly
 //	  unrelated regression. Journal of the American Statistical
-//	  Association 84 (the issue and pages are given from memory: 598–601).
+//	  Association 84, 598–601 (title and journal confirmed; year, volume
+//	  and pages from memory).
 
 // doornikMean holds, by case, the coefficients (a, b, c, e₁, e₂) of
 // Doornik's (1998, Table 7) response surface for the mean of the

@@ -94,7 +94,10 @@ type nullModel struct {
 //  4. the trace statistic Q*_{r,b} for H(r) against H(K) is computed on
 //     y* with the same case, lags and extra regressors.
 //
-// The p-value is p*_r = #{b : Q*_{r,b} > Q_r} / B, Q_r = Trace[r]; the
+// The p-value is p*_r = #{b : Q*_{r,b} > Q_r} / B, Q_r = Trace[r], and
+// the same statistics give m̂_T(r) = (1/B) Σ_b Q*_{r,b} (RankBoot.Mean, for
+// the Bartlett correction BartlettTrace; failed replications are left out
+// of both); the
 // sequential procedure (RankBoot.Rank) takes the first r with p*_r above
 // the level. Replication b of rank r draws from its own PCG generator
 // seeded with (Seed, r·2³² + b), so the result does not depend on the
