@@ -42,6 +42,11 @@ type RankBoot struct {
 	RootsOK []bool
 	// MaxRoot[r] is the largest modulus among those other roots.
 	MaxRoot []float64
+	// Mean[r] is the mean of the Reps[r] bootstrap statistics Q*_{r,b}
+	// (BootMean): the bootstrap estimate of the finite-sample mean of the
+	// trace statistic under H(r), used by the Bartlett correction
+	// (BartlettTrace).
+	Mean []float64
 }
 
 // Rank is the sequential bootstrap choice of rank at level: the first r
@@ -89,7 +94,10 @@ type nullModel struct {
 //  4. the trace statistic Q*_{r,b} for H(r) against H(K) is computed on
 //     y* with the same case, lags and extra regressors.
 //
-// The p-value is p*_r = #{b : Q*_{r,b} > Q_r} / B, Q_r = Trace[r]; the
+// The p-value is p*_r = #{b : Q*_{r,b} > Q_r} / B, Q_r = Trace[r], and
+// the same statistics give m̂_T(r) = (1/B) Σ_b Q*_{r,b} (RankBoot.Mean, for
+// the Bartlett correction BartlettTrace; failed replications are left out
+// of both); the
 // sequential procedure (RankBoot.Rank) takes the first r with p*_r above
 // the level. Replication b of rank r draws from its own PCG generator
 // seeded with (Seed, r·2³² + b), so the result does not depend on the
@@ -108,7 +116,7 @@ func (r *Result) WildBootstrapRank(y *mat.Dense, x Extra, spec RankBootSpec) (*R
 	ys := scaleColumns(y, r.scale)
 	nulls := make([]*nullModel, r.K)
 	out := &RankBoot{PValue: make([]float64, r.K), Reps: make([]int, r.K), Failed: make([]int, r.K),
-		RootsOK: make([]bool, r.K), MaxRoot: make([]float64, r.K)}
+		RootsOK: make([]bool, r.K), MaxRoot: make([]float64, r.K), Mean: make([]float64, r.K)}
 	for rank := 0; rank < r.K; rank++ {
 		m, err := r.nullModel(ys, rank)
 		if err != nil {
@@ -181,6 +189,7 @@ func (r *Result) WildBootstrapRank(y *mat.Dense, x Extra, spec RankBootSpec) (*R
 			return nil, fmt.Errorf("johansen: %d of %d bootstrap samples for rank %d could not be analysed", out.Failed[rank], spec.Reps, rank)
 		}
 		out.PValue[rank] = float64(exceed) / float64(out.Reps[rank])
+		out.Mean[rank], _ = BootMean(stats[rank*spec.Reps : (rank+1)*spec.Reps])
 	}
 	return out, nil
 }

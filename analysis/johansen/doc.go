@@ -9,17 +9,22 @@
 // Reinsel–Ahn small-sample factor, sequential rank choice, lag-order
 // criteria, the estimated α, β, Π = αβ' and short-run coefficients with
 // standard errors, likelihood-ratio tests of linear restrictions on β
-// and α, wild bootstrap p-values of the trace tests and the companion
+// and α, wild bootstrap p-values of the trace tests, the trace statistic
+// with a bootstrap Bartlett correction (bartlett.go) and the companion
 // roots of a VAR.
 //
 // References:
 //
+//	Bartlett, M. S. (1937). Properties of sufficiency and statistical
+//	  tests. Proceedings of the Royal Society of London A 160, 268–282.
 //	Cavaliere, G., Rahbek, A. and Taylor, A. M. R. (2012). Bootstrap
 //	  determination of the co-integration rank in vector autoregressive
 //	  models. Econometrica 80, 1721–1740.
 //	Cavaliere, G., Rahbek, A. and Taylor, A. M. R. (2014). Bootstrap
 //	  determination of the co-integration rank in heteroskedastic VAR
 //	  models. Econometric Reviews 33, 606–650.
+//	Doornik, J. A. (1998). Approximations to the asymptotic distributions
+//	  of cointegration tests. Journal of Economic Surveys 12(5), 573–593.
 //	Johansen, S. (1988). Statistical analysis of cointegration vectors.
 //	  Journal of Economic Dynamics and Control 12, 231–254.
 //	Johansen, S. (1991). Estimation and hypothesis testing of cointegration
@@ -35,6 +40,9 @@
 //	Reinsel, G. C. and Ahn, S. K. (1992). Vector autoregressive models with
 //	  unit roots and reduced rank structure: estimation, likelihood ratio
 //	  test, and forecasting. Journal of Time Series Analysis 13, 353–375.
+//	Rocke, D. M. (1989). Bootstrap Bartlett adjustment in seemingly
+//	  unrelated regression. Journal of the American Statistical
+//	  Association 84, 598–601 (year, volume and pages from memory).
 //
 // The package does no I/O and no formatting.
 package johansen

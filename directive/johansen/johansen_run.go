@@ -38,6 +38,7 @@ type sysState struct {
 	xr         *mat.Dense
 	y          *mat.Dense         // the levels of the series (T×K)
 	boot       *johansen.RankBoot // rank_bootstrap: (rankboot.go)
+	bart       *johansen.Bartlett // rank_bootstrap: {bartlett: true} (bartlett.go)
 	bootSeed   uint64
 }
 
@@ -357,6 +358,9 @@ func (s *sysState) values() map[string]any {
 	}
 	if s.boot != nil {
 		v["rank_bootstrap"] = s.bootValues()
+	}
+	if s.bart != nil {
+		v["bartlett"] = s.bartlettValues()
 	}
 	if s.vecm == nil {
 		return v

@@ -85,7 +85,8 @@ type varLagsSpec struct {
 
 var sysFields = []string{"eig", "trace", "maxeig", "crit_trace", "crit_maxeig", "crit_source", "rank", "rank_chosen", "level",
 	"small_sample", "factor", "beta", "beta_se", "alpha", "alpha_se", "tests", "nobs", "lags", "lag_choice", "det", "series", "sample",
-	"relations", "dummies", "rank_bootstrap", "roots", "unit_roots", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim"} // the last six with crit: simulate (simcrit.go)
+	"relations", "dummies", "rank_bootstrap", "roots", "unit_roots", "crit_mcse_trace", "crit_mcse_maxeig", "pvalue_trace", "pvalue_maxeig", "sim_key", "sim", // these six with crit: simulate (simcrit.go)
+	"bartlett"} // with rank_bootstrap: {bartlett: true} (bartlett.go)
 
 func init() {
 	engine.Register(engine.Kind{Name: "johansen", Simulate: true, Summary: "Johansen trace and maximum-eigenvalue tests of the cointegrating rank of a VECM",
@@ -122,6 +123,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if st.boot != nil {
 		traceHead = append(traceHead, table.T("Bootstrap p"))
 	}
+	if st.bart != nil {
+		traceHead = append(traceHead, table.T("Bartlett-corrected"))
+	}
 	t := &table.Table{Stub: 1, Head: [][]table.Cell{
 		{table.Empty, table.Empty, table.Span("Trace", len(traceHead)), table.Span("Maximum eigenvalue", 4)},
 		append(append([]table.Cell{table.T("Rank r"), table.T("Eigenvalue")}, traceHead...), table.T("Statistic"), table.T("1%"), table.T("5%"), table.T("10%")),
@@ -143,6 +147,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if st.boot != nil {
 			row = append(row, table.N(st.boot.PValue[i], 3))
 		}
+		if st.bart != nil {
+			row = append(row, st.bartlettCell(i, stars))
+		}
 		row = append(row, table.Starred(st.max[i], 2, stars(st.max[i], st.crM[i])))
 		for j := 2; j >= 0; j-- {
 			row = append(row, table.N(st.crM[i][j], 2))
@@ -156,6 +163,9 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	if st.boot != nil {
 		t.Notes = append(t.Notes, st.bootNote())
+	}
+	if st.bart != nil {
+		t.Notes = append(t.Notes, st.bartlettNote())
 	}
 	if s.SmallSample {
 		t.Notes = append(t.Notes, fmt.Sprintf("Statistics are multiplied by the Reinsel–Ahn small-sample factor (T − K(k+1))/T = %.3f.", r.SmallSampleFactor()))

@@ -15,8 +15,9 @@ import (
 // RankBootKeys is the rank_bootstrap: mapping (exported only so that the
 // YAML decoder sees the fields).
 type RankBootKeys struct {
-	Reps *int    `yaml:"replications" formerly:"reps"`
-	Seed *uint64 `yaml:"seed"`
+	Reps     *int    `yaml:"replications" formerly:"reps"`
+	Seed     *uint64 `yaml:"seed"`
+	Bartlett bool    `yaml:"bartlett"` // the Bartlett-corrected trace column (bartlett.go)
 }
 
 // Defaults of rank_bootstrap: 999 replications (B + 1 a multiple of 20 and
@@ -49,7 +50,7 @@ func (k *SystemKeys) checkRankBoot(c *engine.Context) error {
 	if n := k.RankBoot.reps(); n < 99 || n > 100000 {
 		return c.Errorf("rank_bootstrap", "rank_bootstrap: replications must be 99–100,000 replications, not %d", n)
 	}
-	return nil
+	return k.checkBartlett(c)
 }
 
 // rankBoot runs the wild bootstrap of the rank tests when rank_bootstrap:
@@ -64,7 +65,7 @@ func (k *SystemKeys) rankBoot(c *engine.Context, s *sysState) error {
 		return c.Errorf("rank_bootstrap", "%v", nameSeries(err, s.st.Names))
 	}
 	s.bootSeed = k.RankBoot.seed()
-	return nil
+	return k.bartlett(c, s)
 }
 
 // bootValues is the results-file form of the bootstrap: p-values,
