@@ -103,7 +103,16 @@ func TestParseBibErrors(t *testing.T) {
 // MacKinnon (2010) working paper is Queen's Economics Department Working
 // Paper No. 1227. Park (1992) was written down from memory and matches
 // the Econometric Society's page of the article (Econometrica 60(1),
-// January 1992, 119–143). A mistake in either place makes the test fail.
+// January 1992, 119–143). Of the entries added with the system
+// diagnostics and figures, Hansen and Johansen (1999) matches the record
+// on the University of Copenhagen's research portal (Econometrics Journal
+// 2(2), 306–333), Doornik (1998) the RePEc record (Journal of Economic
+// Surveys 12(5), 573–593) and Doornik and Hansen (2008) a journal's
+// reference list (Oxford Bulletin of Economics and Statistics 70,
+// 927–939; the issue "s1" is from memory); Edgerton and Shukur (1999),
+// Johansen, Mosconi and Nielsen (2000), Bartlett (1937) and Rocke (1989)
+// were written down from memory. A mistake in either place makes the
+// test fail.
 func TestMethodReferences(t *testing.T) {
 	lib, err := MethodLibrary()
 	if err != nil {
@@ -139,6 +148,14 @@ func TestMethodReferences(t *testing.T) {
 		{"toda-yamamoto-1995", "Toda and Yamamoto (1995)", "Journal of Econometrics", "66", "1–2", "225–250"},
 		{"pesaran-shin-1998", "Pesaran and Shin (1998)", "Economics Letters", "58", "1", "17–29"},
 		{"crt-2012", "Cavaliere et al. (2012)", "Econometrica", "80", "4", "1721–1740"},
+		{"hansen-johansen-1999", "Hansen and Johansen (1999)", "Econometrics Journal", "2", "2", "306–333"},
+		{"jmn-2000", "Johansen et al. (2000)", "Econometrics Journal", "3", "2", "216–249"},
+		{"doornik-1998", "Doornik (1998)", "Journal of Economic Surveys", "12", "5", "573–593"},
+		{"doornik-hansen-2008", "Doornik and Hansen (2008)", "Oxford Bulletin of Economics and Statistics", "70", "s1", "927–939"},
+		{"edgerton-shukur-1999", "Edgerton and Shukur (1999)", "Econometric Reviews", "18", "4", "343–386"},
+		{"lutkepohl-2005", "Lütkepohl (2005)", "", "", "", ""},
+		{"bartlett-1937", "Bartlett (1937)", "Proceedings of the Royal Society of London, Series A", "160", "901", "268–282"},
+		{"rocke-1989", "Rocke (1989)", "Journal of the American Statistical Association", "84", "406", "598–601"},
 	}
 	if len(want) != len(lib.Keys) {
 		t.Errorf("the table has %d entries, the check %d", len(lib.Keys), len(want))

@@ -129,6 +129,38 @@ const MethodBib = `
   author = {White, Halbert},
   title = {A Heteroskedasticity-Consistent Covariance Matrix Estimator and a Direct Test for Heteroskedasticity},
   journal = {Econometrica}, year = {1980}, volume = {48}, number = {4}, pages = {817--838}}
+@article{hansen-johansen-1999,
+  author = {Hansen, Henrik and Johansen, Søren},
+  title = {Some Tests for Parameter Constancy in Cointegrated VAR-Models},
+  journal = {Econometrics Journal}, year = {1999}, volume = {2}, number = {2}, pages = {306--333}}
+@article{jmn-2000,
+  author = {Johansen, Søren and Mosconi, Rocco and Nielsen, Bent},
+  title = {Cointegration Analysis in the Presence of Structural Breaks in the Deterministic Trend},
+  journal = {Econometrics Journal}, year = {2000}, volume = {3}, number = {2}, pages = {216--249}}
+@article{doornik-1998,
+  author = {Doornik, Jurgen A.},
+  title = {Approximations to the Asymptotic Distributions of Cointegration Tests},
+  journal = {Journal of Economic Surveys}, year = {1998}, volume = {12}, number = {5}, pages = {573--593}}
+@article{doornik-hansen-2008,
+  author = {Doornik, Jurgen A. and Hansen, Henrik},
+  title = {An Omnibus Test for Univariate and Multivariate Normality},
+  journal = {Oxford Bulletin of Economics and Statistics}, year = {2008}, volume = {70}, number = {s1}, pages = {927--939}}
+@article{edgerton-shukur-1999,
+  author = {Edgerton, David and Shukur, Ghazi},
+  title = {Testing Autocorrelation in a System Perspective},
+  journal = {Econometric Reviews}, year = {1999}, volume = {18}, number = {4}, pages = {343--386}}
+@book{lutkepohl-2005,
+  author = {Lütkepohl, Helmut},
+  title = {New Introduction to Multiple Time Series Analysis},
+  publisher = {Springer}, address = {Berlin}, year = {2005}}
+@article{bartlett-1937,
+  author = {Bartlett, M. S.},
+  title = {Properties of Sufficiency and Statistical Tests},
+  journal = {Proceedings of the Royal Society of London, Series A}, year = {1937}, volume = {160}, number = {901}, pages = {268--282}}
+@article{rocke-1989,
+  author = {Rocke, David M.},
+  title = {Bootstrap Bartlett Adjustment in Seemingly Unrelated Regression},
+  journal = {Journal of the American Statistical Association}, year = {1989}, volume = {84}, number = {406}, pages = {598--601}}
 `
 
 var (

@@ -215,13 +215,24 @@ func (s *figureSpec) runRecursiveRank(c *engine.Context, o *figures.Options, val
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}
+	how := "every parameter re-estimated on each sample (X-form)"
+	if form == johansen.RForm {
+		how = "the short-run dynamics and unrestricted deterministic terms concentrated out once on the full sample, only the long-run problem re-solved on each sample (R-form)"
+	}
+	s.notes = append(s.notes, fmt.Sprintf("Recursive estimates as in Hansen and Johansen (1999): samples from %s ending %s to %s, %s; the trace statistic for each rank r is divided by its 5%% asymptotic critical value, so that it rejects above 1.",
+		sys.Dates[sys.Lags+1], texts[0], texts[len(texts)-1], how))
 	vals["of"] = s.Of
 	vals["sample"] = map[string]any{"from": texts[0], "to": texts[len(texts)-1], "n": len(texts)}
 	vals["recursion"] = map[string]any{
 		"form": strings.ToLower(form.String()), "start": sys.Dates[sys.Lags+1].String(), "first": texts[0],
 		"dates": texts, "nobs": slices.Clone(rec.End), "eigenvalues": eigList, "trace": traceList,
 	}
-	return s.finish(c, fig, vals)
+	res, err := s.finish(c, fig, vals)
+	if err != nil {
+		return nil, err
+	}
+	res.Cites = append(res.Cites, "hansen-johansen-1999")
+	return res, nil
 }
 
 // firstWindow is the number of observations of the first sample: up to

@@ -175,6 +175,12 @@ func (s *johansenSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if st.boot != nil {
 		res.Cites = append(res.Cites, "crt-2012")
 	}
+	if st.bart != nil {
+		res.Cites = append(res.Cites, "bartlett-1937", "rocke-1989", "doornik-1998")
+	}
+	if len(s.Shift) > 0 {
+		res.Cites = append(res.Cites, "jmn-2000")
+	}
 	if st.vecm != nil {
 		res.Relations = st.relations()
 	}

@@ -92,10 +92,11 @@ func (s *vecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Notes = append(t.Notes, fmt.Sprintf("VECM of rank %d in %s with %s (the %s case) and %s; T = %d.",
 		st.rank, strings.Join(st.st.Names, ", "), sysCaseText[st.res.Case], engine.SystemCaseWords[st.res.Case], st.lagPhrase(sel), st.res.T))
-	if err := s.addSysDiag(c, st, t, vals, dec); err != nil {
+	cites, err := s.addSysDiag(c, st, t, vals, dec)
+	if err != nil {
 		return nil, err
 	}
-	return &engine.Result{Table: t, Values: vals, Relations: st.relations(), Hidden: hidden}, nil
+	return &engine.Result{Table: t, Values: vals, Relations: st.relations(), Hidden: hidden, Cites: cites}, nil
 }
 
 // relationsTable shows β and α side by side for each relation, then the

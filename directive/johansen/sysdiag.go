@@ -2,6 +2,7 @@ package johansen
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -200,15 +201,16 @@ func sysDiagNote(ds []sysDiagTest, k int) string {
 }
 
 // addSysDiag computes the vecm's diagnostics and adds their rows, note and
-// values to its table and values; an error names the diagnostics key.
-func (s *vecmSpec) addSysDiag(c *engine.Context, st *sysState, t *table.Table, vals map[string]any, dec int) error {
+// values to its table and values; it returns the keys of the works its
+// note cites. An error names the diagnostics key.
+func (s *vecmSpec) addSysDiag(c *engine.Context, st *sysState, t *table.Table, vals map[string]any, dec int) ([]string, error) {
 	items, err := parseSysDiag(c, s.Diagnostics)
 	if err != nil || len(items) == 0 {
-		return err
+		return nil, err
 	}
 	ds, err := runSysDiag(st, items)
 	if err != nil {
-		return c.Errorf("diagnostics", "%d observations of %d series: %s", st.res.T, st.res.K, strings.TrimPrefix(err.Error(), "sysdiag: "))
+		return nil, c.Errorf("diagnostics", "%d observations of %d series: %s", st.res.T, st.res.K, strings.TrimPrefix(err.Error(), "sysdiag: "))
 	}
 	cols := 0
 	for _, r := range t.Body {
@@ -224,7 +226,29 @@ func (s *vecmSpec) addSysDiag(c *engine.Context, st *sysState, t *table.Table, v
 	t.Body = append(t.Body, sysDiagRows(ds, cols, dec)...)
 	t.Notes = append(t.Notes, sysDiagNote(ds, st.res.K))
 	vals["diagnostics"] = sysDiagValues(ds)
-	return nil
+	return sysDiagCites(ds), nil
+}
+
+// sysDiagCites are the works sysDiagNote cites, in the method reference
+// table's keys.
+func sysDiagCites(ds []sysDiagTest) []string {
+	var out []string
+	add := func(k string) {
+		if !slices.Contains(out, k) {
+			out = append(out, k)
+		}
+	}
+	for _, d := range ds {
+		switch d.key {
+		case "bg", "jb_skew", "jb_kurt", "jb", "arch":
+			add("lutkepohl-2005")
+		case "bg_f":
+			add("edgerton-shukur-1999")
+		case "dh":
+			add("doornik-hansen-2008")
+		}
+	}
+	return out
 }
 
 // lagWord is "1 lag" or "n lags".
