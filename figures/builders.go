@@ -28,12 +28,19 @@ func Lines(ss []series.Series, o Options) (*Figure, error) {
 }
 
 // Panels stacks panels vertically with one shared date axis (tick labels
-// and XLabel on the bottom panel only), for series on different scales.
+// and XLabel on the bottom panel only), for series on different scales,
+// or sets them in a grid of o.Columns columns. In a panel, each named
+// series has its own house style; an unnamed one after the first is drawn
+// like the series before it (the upper edge of a band after its lower).
 // Every panel gets the same date range, the union of all series' dates,
 // and the shaded windows of o.
 func Panels(panels []Panel, o Options) (*Figure, error) {
 	if len(panels) == 0 {
 		return nil, fmt.Errorf("%w: no panels", ErrNoData)
+	}
+	cols := max(o.Columns, 1)
+	if len(panels)%cols != 0 {
+		return nil, fmt.Errorf("figures: %d panels do not fill a grid of %d columns", len(panels), cols)
 	}
 	w, h, err := o.size(len(panels))
 	if err != nil {
@@ -68,7 +75,7 @@ func Panels(panels []Panel, o Options) (*Figure, error) {
 	if hi == lo {
 		hi = lo + 1/math.Max(1, float64(freq.PerYear()))
 	}
-	fig := &Figure{Width: w, Height: h}
+	fig := &Figure{Width: w, Height: h, cols: cols}
 	for i, pn := range panels {
 		p := newPlot()
 		if err := addShade(p, o.Shade); err != nil {
@@ -80,25 +87,38 @@ func Panels(panels []Panel, o Options) (*Figure, error) {
 				named++
 			}
 		}
+		style := -1
 		for j, s := range pn.Series {
-			c := &curve{x: prep[i].x[j], y: prep[i].y[j], style: SeriesStyle(j)}
+			if s.Name != "" || j == 0 {
+				style++ // an unnamed series after the first continues the style before it (a band's second edge)
+			}
+			c := &curve{x: prep[i].x[j], y: prep[i].y[j], style: SeriesStyle(style)}
 			p.Add(c)
 			if named >= 2 && o.Legend != LegendNone {
 				p.Legend.Add(s.Name, c)
 			}
 		}
 		placeLegend(p, o.Legend)
-		p.Y.Label.Text = pn.YLabel
+		label := pn.YLabel
 		if i < len(o.PanelLabels) && o.PanelLabels[i] != "" {
-			p.Y.Label.Text = o.PanelLabels[i]
+			label = o.PanelLabels[i]
 		}
-		last := i == len(panels)-1
+		last := i >= len(panels)-cols // on the bottom row
 		dateAxis(p, freq, lo, hi, o, last)
 		if last {
 			p.X.Label.Text = o.XLabel
 		}
-		if i == 0 {
-			p.Title.Text = o.Title
+		switch {
+		case cols > 1: // a grid: each panel titled, the title smaller than a figure's
+			p.Title.Text = label
+			p.Title.TextStyle = textStyle(labelFontSize, labelColor)
+			p.Title.TextStyle.XAlign = draw.XCenter
+			p.Title.TextStyle.YAlign = draw.YTop
+		default:
+			p.Y.Label.Text = label
+			if i == 0 {
+				p.Title.Text = o.Title
+			}
 		}
 		finishY(p)
 		fig.panels = append(fig.panels, p)

@@ -20,6 +20,7 @@ import (
 type Figure struct {
 	Width, Height vg.Length
 	panels        []*plot.Plot
+	cols          int // panels per row (0 or 1: one column)
 }
 
 // Panels returns the number of panels.
@@ -33,15 +34,16 @@ func (f *Figure) draw(c vg.CanvasSizer) {
 		f.panels[0].Draw(draw.Crop(dc, margin, -margin, margin, -margin))
 		return
 	}
-	rows := make([][]*plot.Plot, len(f.panels))
+	cols := max(f.cols, 1)
+	rows := make([][]*plot.Plot, (len(f.panels)+cols-1)/cols)
 	for i, p := range f.panels {
-		rows[i] = []*plot.Plot{p}
+		rows[i/cols] = append(rows[i/cols], p)
 	}
-	tiles := draw.Tiles{Rows: len(f.panels), Cols: 1,
-		PadTop: margin, PadBottom: margin, PadLeft: margin, PadRight: margin, PadY: vg.Points(6)}
+	tiles := draw.Tiles{Rows: len(rows), Cols: cols,
+		PadTop: margin, PadBottom: margin, PadLeft: margin, PadRight: margin, PadX: vg.Points(8), PadY: vg.Points(6)}
 	cs := plot.Align(rows, tiles, dc)
 	for i, p := range f.panels {
-		p.Draw(cs[i][0])
+		p.Draw(cs[i/cols][i%cols])
 	}
 }
 

@@ -2,6 +2,7 @@ package figures
 
 import (
 	"bytes"
+	"fmt"
 	"image/png"
 	"math"
 	"regexp"
@@ -381,5 +382,50 @@ func TestBadInput(t *testing.T) {
 	}
 	if err := fig.WritePNG(&bytes.Buffer{}, 100000); err == nil {
 		t.Error("absurd dpi: no error")
+	}
+}
+
+// TestPanelGrid: Columns sets panels in a grid, each titled by its label,
+// with date labels only under the bottom row; a band's unnamed second edge
+// is drawn in its first edge's style; panels that do not fill the grid are
+// an error.
+func TestPanelGrid(t *testing.T) {
+	ss := macro(t, "realgdp", "realcons", "realinv")
+	n := len(ss[0].Values)
+	band := func(s series.Series, k float64) []series.Series {
+		lo, hi := s, s
+		lo.Name, lo.Values, hi.Name, hi.Values = "band", make([]float64, n), "", make([]float64, n)
+		for i, v := range s.Values {
+			lo.Values[i], hi.Values[i] = v*(1-k), v*(1+k)
+		}
+		return []series.Series{s, lo, hi}
+	}
+	var panels []Panel
+	var labels []string
+	for i := 0; i < 4; i++ {
+		panels = append(panels, Panel{Series: band(ss[i%3], 0.1)})
+		labels = append(labels, fmt.Sprintf("panel %d", i+1))
+	}
+	fig, err := Panels(panels, Options{Columns: 2, PanelLabels: labels, XLabel: "quarter"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := parseSVG(t, save(t, fig, "grid")["svg"])
+	for _, l := range labels {
+		if !slices.ContainsFunc(doc.texts, func(x svgText) bool { return x.text == l }) {
+			t.Errorf("no title %q", l)
+		}
+	}
+	if got := len(doc.xLabels()); got == 0 || got%2 != 0 {
+		t.Errorf("%d date labels: want those of the two bottom panels", got)
+	}
+	if got := doc.strokes(SeriesStyle(1), n); got != 8 {
+		t.Errorf("%d band edges in the band's style, want 8 (2 in each of 4 panels)", got)
+	}
+	if got := doc.strokes(SeriesStyle(2), n); got != 0 {
+		t.Errorf("%d paths in a third style, want 0", got)
+	}
+	if _, err := Panels(panels[:3], Options{Columns: 2}); err == nil {
+		t.Error("3 panels in 2 columns accepted")
 	}
 }

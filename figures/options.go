@@ -24,6 +24,11 @@ type Options struct {
 	Shade         []Window  // date windows shaded in every panel
 	Legend        LegendPos // where the legend goes
 	MaxDateLabels int       // labelled date ticks at most; 0 for 6
+	// Columns sets Panels out as a grid of this many columns, filled row
+	// by row, each panel titled by its PanelLabels entry (the horizontal
+	// axis labelled on the bottom row only); 0 or 1 stacks them in one
+	// column. The number of panels must be a multiple of Columns.
+	Columns int
 }
 
 // Window is a span of dates to shade, From and To inclusive (the shading
@@ -34,6 +39,9 @@ type Window struct{ From, To series.Date }
 var ErrNoData = errors.New("figures: no finite data to draw")
 
 func (o Options) size(panels int) (w, h vg.Length, err error) {
+	if o.Columns > 1 {
+		panels = (panels + o.Columns - 1) / o.Columns // rows of the grid
+	}
 	wi, hi := o.Width, o.Height
 	if wi == 0 {
 		wi = DefaultWidth

@@ -266,8 +266,16 @@ func (s *responsesSpec) figure(c *engine.Context, m *model, p irfPaths, ri, si [
 		}
 	}
 	o := figures.Options{Width: s.Width, Height: s.Height, XLabel: "Periods after the shock", PanelLabels: labels, Legend: figures.LegendNone}
+	rows := len(panels)
+	if len(ri) > 1 && len(si) > 1 {
+		// a grid: a row per response, a column per shock
+		o.Columns, rows = len(si), len(ri)
+		if s.Width == 0 {
+			o.Width = min(max(2.2*float64(len(si)), 3.4), 6.5)
+		}
+	}
 	if s.Height == 0 {
-		o.Height = min(1.3*float64(len(panels)), 39)
+		o.Height = min(1.3*float64(rows)+0.2*float64(o.Columns), 39)
 	}
 	fig, err := figures.Panels(panels, o)
 	if err != nil {
