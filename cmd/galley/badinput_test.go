@@ -200,20 +200,27 @@ var (
 	binErr  error
 )
 
-// galleyBinary builds the command once for the tests that run it as a
-// process (signals, kills).
+// galleyBinary returns a command that runs galley as its own process, for
+// the tests that need one (to kill it, or to let it block): a two-line
+// script that re-executes this test binary with GALLEY_TEST_AS_MAIN=1, so
+// that TestMain hands it to galley's run as main does (without a second
+// build and link of the command).
 func galleyBinary(t *testing.T) string {
 	t.Helper()
 	binOnce.Do(func() {
+		self, err := os.Executable()
+		if err != nil {
+			binErr = err
+			return
+		}
 		dir, err := os.MkdirTemp("", "galley-bin")
 		if err != nil {
 			binErr = err
 			return
 		}
 		binPath = filepath.Join(dir, "galley")
-		if b, err := exec.Command("go", "build", "-o", binPath, ".").CombinedOutput(); err != nil {
-			binErr = fmt.Errorf("go build: %v\n%s", err, b)
-		}
+		script := "#!/bin/sh\nGALLEY_TEST_AS_MAIN=1 exec '" + strings.ReplaceAll(self, "'", `'\''`) + "' \"$@\"\n"
+		binErr = os.WriteFile(binPath, []byte(script), 0o755)
 	})
 	if binErr != nil {
 		t.Fatal(binErr)
@@ -222,6 +229,9 @@ func galleyBinary(t *testing.T) string {
 }
 
 func TestMain(m *testing.M) {
+	if os.Getenv("GALLEY_TEST_AS_MAIN") == "1" { // galleyBinary's script
+		os.Exit(run(os.Args[1:]))
+	}
 	code := m.Run()
 	if binPath != "" {
 		os.RemoveAll(filepath.Dir(binPath))
