@@ -107,8 +107,8 @@ func Shares(panels []SharePanel, o Options) (*Figure, error) {
 		for j, b := range bands {
 			names[j] = b.Name
 		}
-		addRowLegend(top, names, fills, w, h, len(panels))
-	} else if o.Title != "" {
+		addRowLegend(top, names, fills, w, h, len(panels), o.Title)
+	} else {
 		top.Title.Text = o.Title
 	}
 	return fig, nil
@@ -253,8 +253,8 @@ func (l *rowLegend) Plot(dc draw.Canvas, _ *plot.Plot) {
 // addRowLegend puts a row legend of names above the data area of the top
 // panel p of a figure w × h with the given number of panels, in as many
 // rows as the width of the data area needs, and makes room for it with
-// the panel's title.
-func addRowLegend(p *plot.Plot, names []string, fills []color.Color, w, h vg.Length, panels int) {
+// the panel's title (title, if any, above the legend).
+func addRowLegend(p *plot.Plot, names []string, fills []color.Color, w, h vg.Length, panels int, title string) {
 	l := &rowLegend{names: names, fills: fills, style: textStyle(legendFontSize, labelColor)}
 	l.style.XAlign, l.style.YAlign = draw.XLeft, draw.YBottom
 	ext := l.style.FontExtents()
@@ -280,9 +280,16 @@ func addRowLegend(p *plot.Plot, names []string, fills []color.Color, w, h vg.Len
 	}
 	l.rows = append(l.rows, row)
 	p.Add(l)
+	need := vg.Length(len(l.rows))*l.rowH + vg.Points(legendAbove)
+	if title != "" {
+		// the title above, its padding the room for the rows
+		p.Title.Text = title
+		p.Title.Padding += need
+		return
+	}
 	// The title (a space) and its padding reserve the rows.
 	p.Title.Text = " "
 	p.Title.TextStyle = l.style
 	th := l.style.Rectangle(p.Title.Text).Size().Y
-	p.Title.Padding = max(vg.Length(len(l.rows))*l.rowH+vg.Points(legendAbove)-th, 0)
+	p.Title.Padding = max(need-th, 0)
 }

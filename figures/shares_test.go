@@ -56,9 +56,19 @@ func TestSharesFigure(t *testing.T) {
 			}
 		}
 	}
-	// 200 horizons: bars without gaps, still drawn
-	if _, err := Shares([]SharePanel{sharePanel("North", names, 200)}, Options{}); err != nil {
-		t.Fatal(err)
+	// 200 horizons: bars without gaps; one horizon: one bar; a title above the legend
+	for _, n := range []int{200, 1} {
+		f, err := Shares([]SharePanel{sharePanel("North", names, n)}, Options{Title: "Shares"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		svg, err := f.Render("svg", 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(string(svg), ">Shares<") || !strings.Contains(string(svg), ">South price<") {
+			t.Errorf("%d horizons: the title or the legend is missing", n)
+		}
 	}
 }
 

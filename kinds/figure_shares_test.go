@@ -236,3 +236,55 @@ func TestVarianceSharesFigureErrors(t *testing.T) {
 		})
 	}
 }
+
+// TestVarianceSharesFigureManyShocks: past six shocks the last ones of the
+// ordering share one band (the note says so), while the values keep every
+// shock; names and ylabel reach the drawing.
+func TestVarianceSharesFigureManyShocks(t *testing.T) {
+	t.Parallel()
+	series := []string{"dlog(realgdp)", "dlog(realcons)", "dlog(realinv)", "dlog(realgovt)", "dlog(realdpi)", "dlog(cpi)", "dlog(m1)"}
+	doc := sharesFront + "\n" + fence("variance-shares", "id: f7\ndata: us\nseries: ["+strings.Join(series, ", ")+"]\nlags: 1\nhorizons: [1, 8]\n") +
+		"\n" + fence("figure", "id: fig\nplot: variance-shares\nof: f7\nseries: [dlog(realinv)]\nnames: [GDP, C, I, G, DPI, P, M]\nylabel: Investment growth\n")
+	p := writeProject(t, doc, sharesFiles(t))
+	res := runDoc(t, p)
+	f := res["fig"]
+	svg := string(f.Figure.SVG)
+	for _, want := range []string{">GDP<", ">DPI<", ">the other 2 shocks<", ">Investment growth<"} {
+		if !strings.Contains(svg, want) {
+			t.Errorf("the SVG lacks %q", want)
+		}
+	}
+	for _, not := range []string{">P<", ">M<"} {
+		if strings.Contains(svg, not) {
+			t.Errorf("the SVG draws %q, which should be in the combined band", not)
+		}
+	}
+	if len(f.Figure.Notes) < 2 || !strings.Contains(f.Figure.Notes[1], "The last 2 shocks of the ordering are drawn as one band") {
+		t.Errorf("notes %q", f.Figure.Notes)
+	}
+	shares := f.Values["shares"].(map[string]any)
+	if len(shares) != 1 {
+		t.Fatalf("shares of %d series", len(shares))
+	}
+	by := shares["dlog(realinv)"].(map[string]any)
+	if len(by) != 7 {
+		t.Fatalf("shares of %d shocks", len(by))
+	}
+	for h := 0; h < 8; h++ {
+		sum := 0.0
+		for _, s := range series {
+			sum += by[s].([]float64)[h]
+		}
+		if math.Abs(sum-1) > 1e-12 {
+			t.Errorf("h = %d: the shares sum to %.15g", h+1, sum)
+		}
+	}
+	// the table's last horizon is the figure's default
+	if f.Values["horizon"] != 8 {
+		t.Errorf("horizon %v", f.Values["horizon"])
+	}
+	tab := res["f7"].Values["shares"].(map[string]any)["dlog(realinv)"].(map[string]any)["dlog(m1)"].([]float64)
+	if tab[1] != by["dlog(m1)"].([]float64)[7] {
+		t.Errorf("the table's share at h = 8, %.15g, is not the figure's, %.15g", tab[1], by["dlog(m1)"].([]float64)[7])
+	}
+}
