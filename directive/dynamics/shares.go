@@ -1,6 +1,7 @@
 package dynamics
 
 import (
+	"errors"
 	"fmt"
 	"slices"
 	"strconv"
@@ -8,6 +9,7 @@ import (
 
 	"github.com/galley-econ/galley/analysis/vardyn"
 	"github.com/galley-econ/galley/engine"
+	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/engine/table"
 )
 
@@ -20,6 +22,61 @@ type sharesSpec struct {
 	Horizons      []int    `yaml:"horizons"`
 	Order         []string `yaml:"order"`
 	Decimals      *int     `yaml:"decimals"`
+
+	live *shareState // the fitted system, once Run has been called in this build
+}
+
+// shareState is what a variance-shares directive hands on through
+// contract.VarianceShareSource: its fitted system and Cholesky ordering.
+type shareState struct {
+	m     *model
+	order []int // nil: the series' own order
+}
+
+// decompose returns the decomposition at horizons 1 … h: [h−1][i][j], the
+// share of the h-step forecast-error variance of series i due to the
+// orthogonalised shock in series j (analysis/vardyn.FEVD of the Cholesky
+// responses Θ_0 … Θ_{h−1}). The table and contract.VarianceShareSource
+// both come from here.
+func (st *shareState) decompose(h int) ([][][]float64, error) {
+	theta, err := vardyn.Responses{Horizon: h - 1, Order: st.order}.Compute(st.m.a, st.m.sigma)
+	if err != nil {
+		return nil, err
+	}
+	return vardyn.FEVD(theta, h)
+}
+
+var _ contract.VarianceShareSource = (*sharesSpec)(nil)
+
+// VarianceShares implements contract.VarianceShareSource. The engine runs
+// the directive in this build before handing it on (engine.Context.Live),
+// so its state is there.
+func (s *sharesSpec) VarianceShares(h int) (*contract.VarianceShares, error) {
+	if s.live == nil {
+		return nil, errors.New("internal: the variance-shares directive has not run in this build")
+	}
+	if h < 1 || h > 200 {
+		return nil, fmt.Errorf("horizon %d is outside 1–200", h)
+	}
+	fe, err := s.live.decompose(h)
+	if err != nil {
+		return nil, errors.New(strings.TrimPrefix(err.Error(), "vardyn: "))
+	}
+	order := slices.Clone(s.live.order)
+	if order == nil {
+		order = make([]int, len(s.live.m.names))
+		for i := range order {
+			order[i] = i
+		}
+	}
+	return &contract.VarianceShares{Names: slices.Clone(s.live.m.names), Order: order, Shares: fe, Model: s.live.m.desc}, nil
+}
+
+// LastHorizon implements contract.VarianceShareSource: the last horizon
+// of the table.
+func (s *sharesSpec) LastHorizon() int {
+	hs := s.horizons()
+	return hs[len(hs)-1]
 }
 
 func (s *sharesSpec) horizons() []int {
@@ -62,12 +119,8 @@ func (s *sharesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		}
 	}
 	hs := s.horizons()
-	hmax := hs[len(hs)-1]
-	theta, err := vardyn.Responses{Horizon: hmax - 1, Order: order}.Compute(m.a, m.sigma)
-	if err != nil {
-		return nil, c.Errorf("", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
-	}
-	fe, err := vardyn.FEVD(theta, hmax)
+	st := &shareState{m: m, order: order}
+	fe, err := st.decompose(hs[len(hs)-1])
 	if err != nil {
 		return nil, c.Errorf("", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
 	}
@@ -114,5 +167,6 @@ func (s *sharesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if order != nil {
 		vals["order"] = s.Order
 	}
+	s.live = st
 	return &engine.Result{Table: t, Values: vals}, nil
 }

@@ -25,6 +25,9 @@ func (s *figureSpec) Check(c *engine.Context) error {
 	if isSystemPlot(p) {
 		return s.checkSystem(c, p) // system.go
 	}
+	if p == "variance-shares" {
+		return s.checkShares(c) // shares.go
+	}
 	if isRegressionPlot(p) {
 		return s.checkRegression(c, p)
 	}
@@ -52,6 +55,9 @@ func (s *figureSpec) checkCommon(c *engine.Context, p string) error {
 	}
 	if k := c.FirstSet(systemOnlyKeys...); k != "" && !isSystemPlot(p) {
 		return c.Errorf(k, "%s belongs to plot recursive-rank, not to plot %s", k, p)
+	}
+	if c.Has("horizon") && p != "variance-shares" {
+		return c.Errorf("horizon", "horizon belongs to plot variance-shares, not to plot %s", p)
 	}
 	if c.Has("lags") && s.Lags < 1 {
 		return c.Errorf("lags", "lags must be at least 1")

@@ -41,6 +41,7 @@ type figureSpec struct {
 	Form          string      `yaml:"form"`        // recursive-rank (system.go)
 	First         string      `yaml:"first"`       // recursive-rank
 	Eigenvalues   string      `yaml:"eigenvalues"` // recursive-rank
+	Horizon       *int        `yaml:"horizon"`     // variance-shares (shares.go)
 
 	notes []string // about shaded windows cut to the data
 }
@@ -51,7 +52,7 @@ type shadeSpec struct {
 }
 
 // The plot kinds, in the order the documentation gives them.
-var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive", "multipliers", "roots", "recursive-rank"}
+var plotKinds = []string{"lines", "panels", "residuals", "actual-fitted", "acf", "cusum", "cusumsq", "recursive", "multipliers", "roots", "recursive-rank", "variance-shares"}
 
 var legendPlaces = map[string]figures.LegendPos{
 	"top-left": figures.LegendTopLeft, "top-right": figures.LegendTopRight,
@@ -62,10 +63,11 @@ var legendPlaces = map[string]figures.LegendPos{
 func init() {
 	engine.Register(engine.Kind{
 		Name:    "figure",
-		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient, multipliers, a system's companion roots and recursive rank statistics",
+		Summary: "a chart: series, panels, residuals, actual and fitted, correlogram, CUSUM, CUSUM of squares, recursive coefficient, multipliers, a system's companion roots and recursive rank statistics, variance shares",
 		New:     func() engine.Directive { return &figureSpec{} },
 		Fields: []string{"plot", "files", "sample", "series", "width", "height", "alpha", "a", "c0", "cusum", "cusumsq", "recursive", "outside", "first_outside", "lags", "acf", "pacf", "band", "relation", "of", "coef", "horizon",
-			"roots", "unit_roots", "largest_other", "recursion"}, // the last four: system.go
+			"roots", "unit_roots", "largest_other", "recursion", // these four: system.go
+			"shares"}, // shares.go
 	})
 }
 
@@ -122,6 +124,8 @@ func (s *figureSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return s.runRoots(c, &o, vals) // system.go
 	case "recursive-rank":
 		return s.runRecursiveRank(c, &o, vals) // system.go
+	case "variance-shares":
+		return s.runShares(c, &o, vals) // shares.go
 	}
 	var fig *figures.Figure
 	var dr drawn
