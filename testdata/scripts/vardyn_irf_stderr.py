@@ -34,6 +34,7 @@ Writes testdata/fixtures/vardyn_irf_stderr.json, one entry per VAR in
   statsmodels' _cov_alpha and _cov_sigma. The same complex-step Jacobian
   applied to Phi_h must reproduce statsmodels' irf.cov() (asserted below),
   which checks the numerical route against the library.
+* z: scipy.stats.norm.ppf((1 + c)/2) for coverages c = 0.68, 0.9, 0.95.
 * ordered: for the first case, the VAR fitted with its columns reordered
   (order [2, 0, 1]): orth_stderr of that fit, [h][a][b] for response
   order[a] and shock order[b] of the original columns.
@@ -42,7 +43,9 @@ import json
 
 import numpy as np
 import pandas as pd
+import scipy
 import statsmodels
+from scipy import stats
 from statsmodels.tsa.api import VAR
 
 H = 10
@@ -153,7 +156,9 @@ dl = 100 * np.diff(lv, axis=0)
 d = pd.read_csv("testdata/data/denmark.csv")
 dk = ["LRM", "LRY", "IBO", "IDE"]
 
-out = {"library": "statsmodels", "version": statsmodels.__version__, "numpy": np.__version__, "cases": []}
+out = {"library": "statsmodels", "version": statsmodels.__version__, "numpy": np.__version__, "scipy": scipy.__version__, "cases": []}
+# Normal quantiles z_{(1+c)/2} for the band half-widths (scipy.stats.norm.ppf).
+out["z"] = {str(c): float(stats.norm.ppf((1 + c) / 2)) for c in [0.68, 0.9, 0.95]}
 out["cases"].append(case("growth", "macrodata.csv", mac, "100*dlog", dl, 2, "c", full=True))
 out["cases"].append(case("levels", "macrodata.csv", mac, "log", lv, 3, "ct"))
 out["cases"].append(case("denmark", "denmark.csv", dk, "none", d[dk].values, 2, "n"))
