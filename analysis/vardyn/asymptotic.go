@@ -329,34 +329,38 @@ func StdErrs(cov []*mat.SymDense) []*mat.Dense {
 	return out
 }
 
-// NormalBands returns pointwise bands θ̂ ± z_{(1+c)/2} · se for the
+// NormalBands are pointwise asymptotic confidence bands for impulse
+// responses: Lower and Upper indexed [s][i][j] (horizon, response, shock)
+// like Bands, and Z the normal quantile used.
+type NormalBands struct {
+	Lower, Upper [][][]float64
+	Z            float64
+}
+
+// AsymptoticBands returns the pointwise bands θ̂ ± z_{(1+c)/2} · se for the
 // responses theta and their standard errors se, c = coverage and z_q the
-// q-quantile of the standard normal: [0] lower, [1] upper, each indexed
-// [s][i][j] like Bands. This is the asymptotic interval of Lütkepohl
-// (2005), §3.7.1, from the normal limit of Proposition 3.6.
-func NormalBands(theta, se []*mat.Dense, coverage float64) ([2][][][]float64, error) {
-	var out [2][][][]float64
+// q-quantile of the standard normal. This is the asymptotic interval of
+// Lütkepohl (2005), §3.7.1, from the normal limit of Proposition 3.6.
+func AsymptoticBands(theta, se []*mat.Dense, coverage float64) (*NormalBands, error) {
 	if !(coverage > 0 && coverage < 1) {
-		return out, fmt.Errorf("vardyn: coverage %g is not between 0 and 1", coverage)
+		return nil, fmt.Errorf("vardyn: coverage %g is not between 0 and 1", coverage)
 	}
 	if len(theta) != len(se) {
-		return out, fmt.Errorf("vardyn: %d responses and %d standard errors", len(theta), len(se))
+		return nil, fmt.Errorf("vardyn: %d responses and %d standard errors", len(theta), len(se))
 	}
 	z := distuv.UnitNormal.Quantile((1 + coverage) / 2)
-	for b := range out {
-		out[b] = make([][][]float64, len(theta))
-	}
+	out := &NormalBands{Lower: make([][][]float64, len(theta)), Upper: make([][][]float64, len(theta)), Z: z}
 	for s, th := range theta {
 		k, c := th.Dims()
 		if r2, c2 := se[s].Dims(); r2 != k || c2 != c {
-			return out, fmt.Errorf("vardyn: horizon %d: %d×%d responses and %d×%d standard errors", s, k, c, r2, c2)
+			return nil, fmt.Errorf("vardyn: horizon %d: %d×%d responses and %d×%d standard errors", s, k, c, r2, c2)
 		}
-		out[0][s], out[1][s] = make([][]float64, k), make([][]float64, k)
+		out.Lower[s], out.Upper[s] = make([][]float64, k), make([][]float64, k)
 		for i := 0; i < k; i++ {
-			out[0][s][i], out[1][s][i] = make([]float64, c), make([]float64, c)
+			out.Lower[s][i], out.Upper[s][i] = make([]float64, c), make([]float64, c)
 			for j := 0; j < c; j++ {
-				out[0][s][i][j] = th.At(i, j) - z*se[s].At(i, j)
-				out[1][s][i][j] = th.At(i, j) + z*se[s].At(i, j)
+				out.Lower[s][i][j] = th.At(i, j) - z*se[s].At(i, j)
+				out.Upper[s][i][j] = th.At(i, j) + z*se[s].At(i, j)
 			}
 		}
 	}

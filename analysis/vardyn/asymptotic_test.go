@@ -165,7 +165,7 @@ func TestOrderedStdErr(t *testing.T) {
 	}
 }
 
-func TestNormalBands(t *testing.T) {
+func TestAsymptoticBands(t *testing.T) {
 	f := loadIRFSE(t)
 	v := caseVAR(t, "growth", 2, "c")
 	r := Responses{Horizon: 4}
@@ -182,25 +182,28 @@ func TestNormalBands(t *testing.T) {
 		if err := json.Unmarshal([]byte(cs), &c); err != nil {
 			t.Fatal(err)
 		}
-		b, err := NormalBands(theta, se, c)
+		b, err := AsymptoticBands(theta, se, c)
 		if err != nil {
 			t.Fatal(err)
+		}
+		if !near(b.Z, z, 1e-12, 0) {
+			t.Errorf("coverage %g: z = %.15g, scipy %s %.15g", c, b.Z, f.Scipy, z)
 		}
 		for s := range theta {
 			for i := 0; i < 3; i++ {
 				for j := 0; j < 3; j++ {
 					th, e := theta[s].At(i, j), se[s].At(i, j)
-					if !near(b[0][s][i][j], th-z*e, 1e-12, 1e-12) || !near(b[1][s][i][j], th+z*e, 1e-12, 1e-12) {
-						t.Errorf("coverage %g h=%d (%d,%d): [%g, %g], want θ ± %g·%g (z from scipy %s)", c, s, i, j, b[0][s][i][j], b[1][s][i][j], z, e, f.Scipy)
+					if !near(b.Lower[s][i][j], th-z*e, 1e-12, 1e-12) || !near(b.Upper[s][i][j], th+z*e, 1e-12, 1e-12) {
+						t.Errorf("coverage %g h=%d (%d,%d): [%g, %g], want θ ± %g·%g (z from scipy %s)", c, s, i, j, b.Lower[s][i][j], b.Upper[s][i][j], z, e, f.Scipy)
 					}
 				}
 			}
 		}
 	}
-	if _, err := NormalBands(theta, se, 1); err == nil {
+	if _, err := AsymptoticBands(theta, se, 1); err == nil {
 		t.Error("coverage 1 accepted")
 	}
-	if _, err := NormalBands(theta, se[:2], 0.9); err == nil {
+	if _, err := AsymptoticBands(theta, se[:2], 0.9); err == nil {
 		t.Error("mismatched lengths accepted")
 	}
 }
