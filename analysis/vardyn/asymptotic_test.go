@@ -8,6 +8,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/galley-econ/galley/analysis/johansen"
 )
 
 // Asymptotic standard errors of impulse responses against statsmodels
@@ -251,5 +253,72 @@ func TestAsymptoticBadInput(t *testing.T) {
 	}
 	if se := StdErrs([]*mat.SymDense{mat.NewSymDense(4, []float64{-1e-18, 0, 0, 0, 0, 4, 0, 0, 0, 0, 9, 0, 0, 0, 0, 1})}); se[0].At(0, 0) != 0 || math.Abs(se[0].At(1, 0)-2) > 0 || se[0].At(0, 1) != 3 {
 		t.Errorf("StdErrs: %v", mat.Formatted(se[0]))
+	}
+}
+
+// TestVECMResponseStdErr: the responses of a VECM in its VAR form against
+// statsmodels 0.13.5 VECMResults.irf(10).stderr (its cov_var_repr, β
+// fixed), and the generalised ones against the numpy complex step on the
+// same covariances.
+func TestVECMResponseStdErr(t *testing.T) {
+	b, err := os.ReadFile("../../testdata/fixtures/vardyn_irf_stderr.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var f struct {
+		Version string
+		VECM    []struct {
+			Name, Trend   string
+			KArDiff       int `json:"k_ar_diff"`
+			Nobs, Horizon int
+			Stderr, Girf  [][][]float64
+			OrthStderr    [][][]float64 `json:"orth_stderr"`
+			GirfStderr    [][][]float64 `json:"girf_stderr"`
+		} `json:"vecm"`
+	}
+	if err := json.Unmarshal(b, &f); err != nil {
+		t.Fatal(err)
+	}
+	if len(f.VECM) != 4 {
+		t.Fatal("the fixture lacks the VECM cases")
+	}
+	lib := " (statsmodels " + f.Version + ")"
+	for _, c := range f.VECM {
+		if len(c.Stderr) != c.Horizon+1 || len(c.OrthStderr) != c.Horizon+1 || len(c.GirfStderr) != c.Horizon+1 || c.KArDiff < 1 {
+			t.Fatalf("case %s is incomplete", c.Name)
+		}
+		r, err := johansen.Test(denmark(t), vecmCase[c.Trend], c.KArDiff)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, err := r.Estimate(1, []int{0})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if n, _ := m.Resid.Dims(); n != c.Nobs {
+			t.Fatalf("%s: T = %d, statsmodels %d", c.Name, n, c.Nobs)
+		}
+		ca, err := VECMCoefCov(m)
+		if err != nil {
+			t.Fatal(err)
+		}
+		pc, err := MACov(m.VARForm(), ca, c.Horizon)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkMats(t, c.Name+" stderr"+lib, StdErrs(pc), c.Stderr, 1e-3)
+		se, err := VECMResponseStdErr(m, Responses{Horizon: c.Horizon})
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkMats(t, c.Name+" orth_stderr"+lib, se, c.OrthStderr, 1e-3)
+		gse, err := VECMResponseStdErr(m, Responses{Horizon: c.Horizon, Generalised: true})
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkMats(t, c.Name+" girf_stderr (numpy complex step)", gse, c.GirfStderr, 1e-3)
+	}
+	if _, err := VECMCoefCov(nil); err == nil {
+		t.Error("a nil VECM accepted")
 	}
 }

@@ -34,6 +34,13 @@ Writes testdata/fixtures/vardyn_irf_stderr.json, one entry per VAR in
   statsmodels' _cov_alpha and _cov_sigma. The same complex-step Jacobian
   applied to Phi_h must reproduce statsmodels' irf.cov() (asserted below),
   which checks the numerical route against the library.
+* vecm: statsmodels VECM on the Danish data (LRM, LRY, IBO, IDE), rank 1,
+  deterministic "ci" (restricted constant) and "co" (unrestricted), 1 and
+  2 lagged differences: irf(H).stderr(orth=False/True), nobs; for these
+  statsmodels uses its cov_var_repr (the covariance of the VAR-form
+  coefficients with beta fixed, Luetkepohl 2005 ch. 7 and 9) and
+  _cov_sigma with the ML sigma_u. girf_stderr as above from the same
+  covariances (complex step on the VAR form).
 * z: scipy.stats.norm.ppf((1 + c)/2) for coverages c = 0.68, 0.9, 0.95.
 * ordered: for the first case, the VAR fitted with its columns reordered
   (order [2, 0, 1]): orth_stderr of that fit, [h][a][b] for response
@@ -47,6 +54,7 @@ import scipy
 import statsmodels
 from scipy import stats
 from statsmodels.tsa.api import VAR
+from statsmodels.tsa.vector_ar.vecm import VECM
 
 H = 10
 
@@ -118,16 +126,23 @@ def unvec_diag(c, k):
     return np.sqrt(np.diag(c)).reshape(k, k).T
 
 
-def case(name, data, series, transform, y, lags, trend, full=False):
-    res = VAR(y).fit(lags, trend=trend)
+def case(name, data, series, transform, y, lags, trend, full=False, vecm=None):
+    if vecm is None:
+        res = VAR(y).fit(lags, trend=trend)
+        coefs = res.coefs
+        cov_a = np.asarray(res._cov_alpha)
+    else:
+        res = VECM(y, k_ar_diff=lags, coint_rank=1, deterministic=trend).fit()
+        coefs = res.var_rep
+        lags = lags + 1  # the order of the VAR form
+        cov_a = np.asarray(res.cov_var_repr)
     irf = res.irf(H)
     k = y.shape[1]
     sig = np.asarray(res.sigma_u)
-    cov_a = np.asarray(res._cov_alpha)
     cov_s = np.asarray(res._cov_sigma)
     T = res.nobs
-    alpha = np.hstack([c.T.reshape(-1) for c in res.coefs])  # vec(A_1), vec(A_2), ... = vec([A_1 ... A_p])
-    assert np.allclose(unpack_alpha(alpha, k, lags), res.coefs, rtol=0, atol=0)
+    alpha = np.hstack([c.T.reshape(-1) for c in coefs])  # vec(A_1), vec(A_2), ... = vec([A_1 ... A_p])
+    assert np.allclose(unpack_alpha(alpha, k, lags), coefs, rtol=0, atol=0)
     vs = vech(sig)
     # The complex-step route reproduces statsmodels for Phi_h.
     ja, _ = jacobians(alpha, vs, k, lags, "ma")
@@ -136,12 +151,14 @@ def case(name, data, series, transform, y, lags, trend, full=False):
         assert np.allclose(c, irf.cov()[h], rtol=1e-10, atol=1e-14), (name, h)
     ja, js = jacobians(alpha, vs, k, lags, "g")
     gcov = [ja[h] @ cov_a @ ja[h].T + js[h] @ cov_s @ js[h].T / T for h in range(H + 1)]
-    phi = res.ma_rep(H)
+    phi = ma(np.asarray(coefs), H)
     girf = np.array([phi[h] @ sig / np.sqrt(np.diag(sig))[None, :] for h in range(H + 1)])
     out = {"name": name, "data": data, "series": series, "transform": transform, "lags": lags, "trend": trend,
            "nobs": int(T), "horizon": H,
            "stderr": irf.stderr(orth=False).tolist(), "orth_stderr": irf.stderr(orth=True).tolist(),
            "girf": girf.tolist(), "girf_stderr": [unvec_diag(c, k).tolist() for c in gcov]}
+    if vecm is not None:
+        out["k_ar_diff"] = lags - 1
     if full:
         out["cov"] = np.asarray(irf.cov(orth=False)).tolist()
         out["orth_cov"] = np.asarray(irf.cov(orth=True)).tolist()
@@ -162,6 +179,9 @@ out["z"] = {str(c): float(stats.norm.ppf((1 + c) / 2)) for c in [0.68, 0.9, 0.95
 out["cases"].append(case("growth", "macrodata.csv", mac, "100*dlog", dl, 2, "c", full=True))
 out["cases"].append(case("levels", "macrodata.csv", mac, "log", lv, 3, "ct"))
 out["cases"].append(case("denmark", "denmark.csv", dk, "none", d[dk].values, 2, "n"))
+
+out["vecm"] = [case("vecm-%s-%d" % (det, kd), "denmark.csv", dk, "none", d[dk].values, kd, det, vecm=True)
+               for det in ["ci", "co"] for kd in [1, 2]]
 
 order = [2, 0, 1]
 r2 = VAR(dl[:, order]).fit(2, trend="c")
