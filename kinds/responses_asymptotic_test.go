@@ -12,7 +12,8 @@ import (
 
 // responses with bands: asymptotic, through whole manuscripts, against
 // statsmodels 0.13.5 (VARResults.irf(10).stderr(orth=True) and
-// .orth_irfs) and, for generalised responses, a numpy complex-step
+// .orth_irfs; VECMResults.irf(10).stderr for a VECM from a johansen
+// directive) and, for generalised responses, a numpy complex-step
 // Jacobian: testdata/fixtures/vardyn_irf_stderr.json (script
 // testdata/scripts/vardyn_irf_stderr.py) and
 // testdata/fixtures/vardyn_statsmodels.json (orth_irfs). The normal
@@ -30,6 +31,12 @@ type irfSEKindsFixture struct {
 		Order      []int
 		OrthStderr [][][]float64 `json:"orth_stderr"`
 	}
+	VECM []struct {
+		Name       string
+		OrthStderr [][][]float64 `json:"orth_stderr"`
+		Girf       [][][]float64
+		GirfStderr [][][]float64 `json:"girf_stderr"`
+	} `json:"vecm"`
 }
 
 func TestResponsesAsymptoticBands(t *testing.T) {
@@ -43,10 +50,12 @@ func TestResponsesAsymptoticBands(t *testing.T) {
 		t.Fatal(err)
 	}
 	if len(fx.Cases) != 3 || fx.Cases[0].Name != "growth" || fx.Cases[1].Name != "levels" || fx.Cases[2].Name != "denmark" ||
-		len(irfx.VAR.OrthIrfs) != 11 || len(fx.Ordered.OrthStderr) != 11 || !strings.HasPrefix(fx.Version, "0.13.5") {
+		len(irfx.VAR.OrthIrfs) != 11 || len(fx.Ordered.OrthStderr) != 11 || !strings.HasPrefix(fx.Version, "0.13.5") ||
+		len(fx.VECM) != 4 || fx.VECM[0].Name != "vecm-ci-1" || fx.VECM[3].Name != "vecm-co-2" || len(irfx.VECM) != 2 || irfx.VECM[0].Deterministic != "ci" {
 		t.Fatal("fixture layout")
 	}
 	growth, levels, denmark := fx.Cases[0], fx.Cases[1], fx.Cases[2]
+	ci1, co2 := fx.VECM[0], fx.VECM[3]
 	us := []string{"100*dlog(realgdp)", "100*dlog(realcons)", "100*dlog(realinv)"}
 	usl := []string{"log(realgdp)", "log(realcons)", "log(realinv)"}
 	dk := []string{"LRM", "LRY", "IBO", "IDE"}
@@ -58,7 +67,11 @@ func TestResponsesAsymptoticBands(t *testing.T) {
 		"\n" + fence("responses", "id: o\ndata: us\nseries: "+list(us)+"\nlags: 2\nhorizon: 10\nbands: asymptotic\norder: [100*dlog(realinv), 100*dlog(realgdp), 100*dlog(realcons)]\n") +
 		"\n" + fence("responses", "id: g\ndata: us\nseries: "+list(usl)+"\nlags: 3\ndet: ct\nhorizon: 10\nidentify: generalised\nbands: asymptotic\ncoverage: 0.95\n") +
 		"\n" + fence("responses", "id: k\ndata: dk\nseries: "+list(dk)+"\nlags: 2\ndet: n\nhorizon: 10\nbands: asymptotic\nresponses: [LRM]\n") +
-		"\n" + fence("responses", "id: b\ndata: us\nseries: "+list(us)+"\nlags: 2\nhorizon: 10\n")
+		"\n" + fence("responses", "id: b\ndata: us\nseries: "+list(us)+"\nlags: 2\nhorizon: 10\n") +
+		"\n" + fence("johansen", "id: rc\ndata: dk\nseries: "+list(dk)+"\ndet: restricted constant\nlags: 1\nrank: 1\n") +
+		"\n" + fence("responses", "id: v\nfrom: rc\nhorizon: 10\nbands: asymptotic\n") +
+		"\n" + fence("johansen", "id: uc\ndata: dk\nseries: "+list(dk)+"\ndet: constant\nlags: 2\nrank: 1\n") +
+		"\n" + fence("responses", "id: vg\nfrom: uc\nhorizon: 10\nbands: asymptotic\nidentify: generalised\ncoverage: 0.95\n")
 	p := writeProject(t, doc, map[string]string{"dk.csv": sysRead(t, "../testdata/data/denmark.csv"), "us.csv": sysRead(t, "../testdata/data/macrodata.csv")})
 	d, err := engine.Parse(p, engine.Options{})
 	if err != nil {
@@ -112,10 +125,17 @@ func TestResponsesAsymptoticBands(t *testing.T) {
 		for i := range dk {
 			for j := range dk {
 				check("denmark stderr", sysAt(t, all["k"], "stderr", dk[i], dk[j], h), denmark.OrthStderr[h][i][j])
+				// The VECM of a johansen directive in its VAR form.
+				se := ci1.OrthStderr[h][i][j]
+				check("VECM stderr", sysAt(t, all["v"], "stderr", dk[i], dk[j], h), se)
+				check("VECM upper", sysAt(t, all["v"], "upper", dk[i], dk[j], h), irfx.VECM[0].OrthIrfs[h][i][j]+fx.Z["0.9"]*se)
+				gs := co2.GirfStderr[h][i][j]
+				check("VECM generalised stderr", sysAt(t, all["vg"], "stderr", dk[i], dk[j], h), gs)
+				check("VECM generalised lower", sysAt(t, all["vg"], "lower", dk[i], dk[j], h), co2.Girf[h][i][j]-fx.Z["0.95"]*gs)
 			}
 		}
 	}
-	if n != 11*(9*9+16) {
+	if n != 11*(9*9+16*5) {
 		t.Errorf("checked %d values", n)
 	}
 	if c := sysAt(t, all["a"], "coverage"); c != 0.9 {
@@ -139,6 +159,9 @@ func TestResponsesAsymptoticBands(t *testing.T) {
 		}
 	}
 	for _, r := range d.Results() {
+		if r.Kind != "responses" {
+			continue
+		}
 		for key := range r.Values {
 			if !slices.Contains(kind.Fields, key) && !slices.Contains(engine.CommonFields, key) {
 				t.Errorf("%s produces %q, which the kind's Fields refuse", r.ID, key)
@@ -154,7 +177,11 @@ func TestResponsesAsymptoticBands(t *testing.T) {
 			t.Errorf("%s cites %v", r.ID, r.Cites)
 		}
 		note := strings.Join(r.Figure.Notes, " ")
-		for _, w := range []string{"asymptotic intervals", "delta method", "Lütkepohl 2005, Proposition 3.6", "T − Kp − d"} {
+		ws := []string{"asymptotic intervals", "delta method", "Lütkepohl 2005, Proposition 3.6", "T − Kp − d"}
+		if r.ID == "v" || r.ID == "vg" {
+			ws = []string{"asymptotic intervals", "delta method", "Lütkepohl 2005, Proposition 3.6", "β fixed at its estimate", "ML residual covariance"}
+		}
+		for _, w := range ws {
 			if !strings.Contains(note, w) {
 				t.Errorf("%s: the note lacks %q: %s", r.ID, w, note)
 			}
@@ -178,7 +205,7 @@ func TestResponsesAsymptoticErrors(t *testing.T) {
 	jo := "\n" + fence("johansen", "id: sys\ndata: dk\nseries: [LRM, LRY, IBO, IDE]\ndet: restricted constant\nlags: 1\nrank: 1\n")
 	v := "id: r\ndata: dk\nseries: [LRM, LRY]\nlags: 2\n"
 	for _, tc := range []struct{ name, doc, want string }{
-		{"vecm", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nbands: asymptotic\n"), `bands: asymptotic bands are for a VAR the directive fits itself; for the VECM of "sys" galley offers bootstrap bands only`},
+		{"vecm with replications", front + jo + "\n" + fence("responses", "id: r\nfrom: sys\nbands: asymptotic\nreplications: 100\n"), "replications: belongs to bootstrap bands"},
 		{"replications", front + "\n" + fence("responses", v+"bands: asymptotic\nreplications: 200\n"), "replications: belongs to bootstrap bands"},
 		{"seed", front + "\n" + fence("responses", v+"bands: asymptotic\nseed: 3\n"), "seed: belongs to bootstrap bands"},
 		{"interval", front + "\n" + fence("responses", v+"bands: asymptotic\ninterval: hall\n"), "interval: belongs to bootstrap bands"},

@@ -18,7 +18,7 @@ import (
 
 // responsesSpec is the responses kind: impulse responses drawn as one
 // panel per (response, shock) pair, response-major, with bootstrap bands
-// or (for a VAR of the directive's own) asymptotic delta-method bands.
+// or asymptotic delta-method bands.
 type responsesSpec struct {
 	engine.Common `yaml:",inline"`
 	SourceKeys    `yaml:",inline"`
@@ -103,9 +103,6 @@ func (s *responsesSpec) Check(c *engine.Context) error {
 			return c.Errorf("bands", "bands: bootstrap bands need replications: (100–100,000)")
 		}
 	case "asymptotic":
-		if s.From != "" {
-			return c.Errorf("bands", "bands: asymptotic bands are for a VAR the directive fits itself; for the VECM of %q galley offers bootstrap bands only (bands: bootstrap with replications:)", s.From)
-		}
 		for _, k := range []string{"replications", "seed", "interval"} {
 			if c.Has(k) {
 				return c.Errorf(k, "%s: belongs to bootstrap bands; drop it with bands: asymptotic", k)
@@ -183,13 +180,20 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 
 // normalBands returns the reader of the responses theta with asymptotic
 // bands: θ̂ ± z·se, the standard errors by the delta method from the
-// least-squares VAR (analysis/vardyn.ResponseStdErr).
+// least-squares VAR (analysis/vardyn.ResponseStdErr) or from the VECM in
+// its VAR form (vardyn.VECMResponseStdErr).
 func (s *responsesSpec) normalBands(c *engine.Context, m *model, resp vardyn.Responses, theta []*mat.Dense) (irfPaths, error) {
 	p := irfPaths{theta: theta, horizon: resp.Horizon}
-	if m.varm == nil {
-		return p, c.Errorf("bands", "bands: asymptotic bands need a VAR fitted by the directive")
+	var se []*mat.Dense
+	var err error
+	switch {
+	case m.varm != nil:
+		se, err = m.varm.ResponseStdErr(resp)
+	case m.vecm != nil:
+		se, err = vardyn.VECMResponseStdErr(m.vecm, resp)
+	default:
+		return p, c.Errorf("bands", "bands: asymptotic bands need an estimated VAR or VECM")
 	}
-	se, err := m.varm.ResponseStdErr(resp)
 	if err != nil {
 		return p, c.Errorf("bands", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
 	}
@@ -391,7 +395,11 @@ func (s *responsesSpec) note(m *model, p irfPaths, b *vardyn.Bands) string {
 		if s.identify() == "generalised" {
 			sb.WriteString(", applied to the generalised responses")
 		}
-		sb.WriteString("), from the least-squares covariance of the lag coefficients and, for normal errors, that of the residual covariance matrix (estimated with T − Kp − d degrees of freedom).")
+		if m.vecm != nil {
+			sb.WriteString("), from the covariance of the VAR-form coefficients with β fixed at its estimate (Lütkepohl 2005, ch. 7 and 9) and, for normal errors, that of the ML residual covariance matrix.")
+		} else {
+			sb.WriteString("), from the least-squares covariance of the lag coefficients and, for normal errors, that of the residual covariance matrix (estimated with T − Kp − d degrees of freedom).")
+		}
 	}
 	return sb.String()
 }

@@ -175,7 +175,7 @@ func seriesIndices(c *engine.Context, key string, list []string, names []string)
 func norm(s string) string { return strings.Join(strings.Fields(s), "") }
 
 func init() {
-	engine.Register(engine.Kind{Name: "responses", Summary: "impulse responses of a VECM or VAR (orthogonalised or generalised) with bootstrap or (for a VAR) asymptotic bands, as a figure",
+	engine.Register(engine.Kind{Name: "responses", Summary: "impulse responses of a VECM or VAR (orthogonalised or generalised) with bootstrap or asymptotic bands, as a figure",
 		New: func() engine.Directive { return &responsesSpec{} }, Fields: []string{"irf", "lower", "upper", "stderr", "horizon", "identify", "order", "reps", "failed", "seed", "coverage", "interval", "series", "model", "width", "height", "files"}})
 	engine.Register(engine.Kind{Name: "variance-shares", Summary: "forecast-error variance decomposition of a VECM or VAR (horizons × shocks)",
 		New: func() engine.Directive { return &sharesSpec{} }, Fields: []string{"shares", "horizons", "order", "series", "model"}})
