@@ -24,10 +24,11 @@ import (
 //
 // Z the T×(d + Kp) regressors [d_t, y'_{t−1}, …, y'_{t−p}] (rows in time)
 // and [·]_AA the block of the lags (the deterministic terms partialled
-// out). This is the covariance of Lütkepohl (2005), Proposition 3.1 and
-// eq. (3.2.21), (ZZ'/T)⁻¹ ⊗ Σ̂_u divided by T, with Σ̂_u = Û'Û/(T − Kp − d)
-// (v.Sigma; Lütkepohl's estimator with degrees of freedom, which the
-// responses and Wald tests of this package use).
+// out). This is the estimate of the asymptotic covariance of Lütkepohl
+// (2005), §3.2, Proposition 3.1, (ZZ'/T)⁻¹ ⊗ Σ̂_u, divided by T, with
+// Σ̂_u = Û'Û/(T − Kp − d) (v.Sigma; the estimator with degrees of freedom,
+// which the responses and Wald tests of this package use; statsmodels'
+// VARResults.cov_params makes the same choice).
 func (v *VAR) CoefCov() (*mat.SymDense, error) {
 	if v == nil || v.XtXInv == nil || v.Sigma == nil {
 		return nil, errors.New("vardyn: the VAR has no coefficient covariance")
@@ -63,8 +64,8 @@ func (v *VAR) CoefCov() (*mat.SymDense, error) {
 //	Σ̂_σ̂ = 2 D_K⁺ (Σ̂_u ⊗ Σ̂_u) D_K⁺' / T,  element Cov(σ̂_ij, σ̂_kl) = (σ_ik σ_jl + σ_il σ_jk)/T,
 //
 // D_K⁺ = (D_K'D_K)⁻¹D_K' the Moore–Penrose inverse of the duplication
-// matrix (Lütkepohl 2005, Proposition 3.4 and §3.7.1, where Σ_σ̃ is the
-// covariance of √T(σ̃ − σ)).
+// matrix (Lütkepohl 2005, §3.4 and §3.7.1, where Σ_σ̃ is the asymptotic
+// covariance of √T(σ̃ − σ); the proposition number, 3.4, is from memory).
 func VechCov(sigma mat.Symmetric, t int) (*mat.SymDense, error) {
 	if sigma == nil {
 		return nil, errors.New("vardyn: no residual covariance")
@@ -278,7 +279,8 @@ func GeneralisedCov(a []*mat.Dense, sigma mat.Symmetric, covA, covSigma mat.Symm
 }
 
 // Cov returns the estimated covariances of vec(θ̂_s), s = 0 … Horizon, of
-// the responses r (OrthogonalisedCov or GeneralisedCov).
+// the responses r: OrthogonalisedCov (Lütkepohl 2005, §3.7.1, Proposition
+// 3.6) or GeneralisedCov (the same delta method).
 func (r Responses) Cov(a []*mat.Dense, sigma mat.Symmetric, covA, covSigma mat.Symmetric) ([]*mat.SymDense, error) {
 	if r.Generalised {
 		return GeneralisedCov(a, sigma, covA, covSigma, r.Horizon)
@@ -313,7 +315,8 @@ func (v *VAR) ResponseStdErr(r Responses) ([]*mat.Dense, error) {
 // StdErrs returns the standard errors of K×K matrices from the
 // covariances of their vec: element (i, j) of out[s] is √cov[s][j·K+i,
 // j·K+i] (a diagonal element that rounding has made slightly negative
-// counts as zero).
+// counts as zero), the asymptotic standard errors of Lütkepohl (2005),
+// §3.7.1.
 func StdErrs(cov []*mat.SymDense) []*mat.Dense {
 	out := make([]*mat.Dense, len(cov))
 	for s, c := range cov {

@@ -16,7 +16,8 @@ import (
 // short-run coefficients have the limit they would have with β known, and
 // the VAR-form coefficients inherit it through a linear map (Lütkepohl
 // 2005, §7.2, and ch. 9 for the impulse responses of a VECM, whose
-// covariance of α̂ is singular). With the regression of each equation on
+// covariance of α̂ is singular; the section numbers are from memory;
+// statsmodels' VECMResults.cov_var_repr computes the same matrix). With the regression of each equation on
 // X_t = [β̂'ỹ_{t−1}, short-run terms] (Δy_{t−1} … Δy_{t−k}, unrestricted
 // deterministic and extra terms), M the block of (X'X)⁻¹ of the loadings
 // and the lagged differences (the other terms partialled out), β_y the rows
