@@ -3,8 +3,10 @@
 // differences, moving-average (impulse-response) coefficients,
 // orthogonalised and generalised impulse responses, forecast-error variance
 // decompositions, Granger-causality Wald tests in a VAR and in a VECM, the
-// Toda–Yamamoto lag-augmented test, and residual-bootstrap confidence bands
-// for impulse responses.
+// Toda–Yamamoto lag-augmented test, and confidence bands for impulse
+// responses: residual-bootstrap bands, and asymptotic (delta-method)
+// standard errors and normal bands for a least-squares VAR and for a VECM
+// in its VAR form (Lütkepohl 2005, §3.7.1).
 //
 // (The package is not called var, a Go keyword.)
 //

@@ -17,7 +17,8 @@ import (
 )
 
 // responsesSpec is the responses kind: impulse responses drawn as one
-// panel per (response, shock) pair, response-major, with bootstrap bands.
+// panel per (response, shock) pair, response-major, with bootstrap bands
+// or asymptotic delta-method bands.
 type responsesSpec struct {
 	engine.Common `yaml:",inline"`
 	SourceKeys    `yaml:",inline"`
@@ -26,6 +27,7 @@ type responsesSpec struct {
 	Order         []string `yaml:"order"`
 	Responses     []string `yaml:"responses"`
 	Shocks        []string `yaml:"shocks"`
+	Bands         string   `yaml:"bands"`
 	Reps          int      `yaml:"replications" formerly:"reps"`
 	Seed          *uint64  `yaml:"seed"`
 	Coverage      *float64 `yaml:"coverage"`
@@ -54,6 +56,17 @@ func (s *responsesSpec) interval() string {
 	}
 	return strings.ToLower(s.Interval)
 }
+
+// bands returns the band method: bootstrap (the default; bands only
+// with replications:) or asymptotic.
+func (s *responsesSpec) bands() string {
+	if s.Bands == "" {
+		return "bootstrap"
+	}
+	return strings.ToLower(strings.TrimSpace(s.Bands))
+}
+
+func (s *responsesSpec) asymptotic() bool { return s.bands() == "asymptotic" }
 
 func (s *responsesSpec) coverage() float64 {
 	if s.Coverage == nil {
@@ -84,10 +97,25 @@ func (s *responsesSpec) Check(c *engine.Context) error {
 	if iv := s.interval(); iv != "percentile" && iv != "hall" {
 		return c.Errorf("interval", "interval: write percentile or hall, not %q", s.Interval)
 	}
+	switch s.bands() {
+	case "bootstrap":
+		if c.Has("bands") && s.Reps == 0 {
+			return c.Errorf("bands", "bands: bootstrap bands need replications: (100–100,000)")
+		}
+	case "asymptotic":
+		for _, k := range []string{"replications", "seed", "interval"} {
+			if c.Has(k) {
+				return c.Errorf(k, "%s: belongs to bootstrap bands; drop it with bands: asymptotic", k)
+			}
+		}
+		return nil
+	default:
+		return c.Errorf("bands", "bands: write bootstrap (residual bootstrap, with replications:) or asymptotic (delta method), not %q", s.Bands)
+	}
 	if s.Reps == 0 {
 		for _, k := range []string{"seed", "coverage", "interval"} {
 			if c.Has(k) {
-				return c.Errorf(k, "%s: there are no bands without reps: (the bootstrap replications)", k)
+				return c.Errorf(k, "%s: there are no bands without reps: (the bootstrap replications) or bands: asymptotic", k)
 			}
 		}
 	}
@@ -127,17 +155,54 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		return nil, err
 	}
 	p := s.paths(theta, bands, resp.Horizon)
+	if s.asymptotic() {
+		if p, err = s.normalBands(c, m, resp, theta); err != nil {
+			return nil, err
+		}
+	}
 	vals := s.values(m, p, order, bands, seed)
 	fig, err := s.figure(c, m, p, ri, si)
 	if err != nil {
 		return nil, err
 	}
-	notes := []string{s.note(m, bands)}
+	notes := []string{s.note(m, p, bands)}
 	res, err := renderFigure(c, fig, vals, notes)
-	if err == nil && s.identify() == "generalised" {
-		res.Cites = []string{"pesaran-shin-1998"}
+	if err == nil {
+		if s.identify() == "generalised" {
+			res.Cites = append(res.Cites, "pesaran-shin-1998")
+		}
+		if s.asymptotic() {
+			res.Cites = append(res.Cites, "lutkepohl-2005")
+		}
 	}
 	return res, err
+}
+
+// normalBands returns the reader of the responses theta with asymptotic
+// bands: θ̂ ± z·se, the standard errors by the delta method from the
+// least-squares VAR (analysis/vardyn.ResponseStdErr) or from the VECM in
+// its VAR form (vardyn.VECMResponseStdErr).
+func (s *responsesSpec) normalBands(c *engine.Context, m *model, resp vardyn.Responses, theta []*mat.Dense) (irfPaths, error) {
+	p := irfPaths{theta: theta, horizon: resp.Horizon}
+	var se []*mat.Dense
+	var err error
+	switch {
+	case m.varm != nil:
+		se, err = m.varm.ResponseStdErr(resp)
+	case m.vecm != nil:
+		se, err = vardyn.VECMResponseStdErr(m.vecm, resp)
+	default:
+		return p, c.Errorf("bands", "bands: asymptotic bands need an estimated VAR or VECM")
+	}
+	if err != nil {
+		return p, c.Errorf("bands", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+	}
+	b, err := vardyn.AsymptoticBands(theta, se, s.coverage())
+	if err != nil {
+		return p, c.Errorf("coverage", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
+	}
+	p.lo, p.hi, p.se, p.z, p.bands = b.Lower, b.Upper, se, b.Z, true
+	return p, nil
 }
 
 // order returns the Cholesky ordering as indices into the series (nil
@@ -173,6 +238,8 @@ func (s *responsesSpec) bootstrap(c *engine.Context, m *model, resp vardyn.Respo
 type irfPaths struct {
 	theta   []*mat.Dense
 	lo, hi  [][][]float64 // nil without bands
+	se      []*mat.Dense  // asymptotic standard errors (nil for bootstrap bands)
+	z       float64       // their normal quantile
 	bands   bool
 	horizon int
 }
@@ -215,21 +282,29 @@ func (p irfPaths) upper(i, j int) []float64 {
 	return p.at(func(h, i, j int) float64 { return p.hi[h][i][j] }, i, j)
 }
 
+func (p irfPaths) stderr(i, j int) []float64 {
+	return p.at(func(h, i, j int) float64 { return p.se[h].At(i, j) }, i, j)
+}
+
 // values returns the results-file values: irf.RESPONSE.SHOCK (a list over
 // horizons 0 … H), with lower and upper and the bootstrap's settings when
-// there are bands.
+// there are bootstrap bands, or lower, upper, stderr and coverage when
+// there are asymptotic bands.
 func (s *responsesSpec) values(m *model, p irfPaths, order []int, bands *vardyn.Bands, seed uint64) map[string]any {
-	irf, lower, upper := map[string]any{}, map[string]any{}, map[string]any{}
+	irf, lower, upper, stderr := map[string]any{}, map[string]any{}, map[string]any{}, map[string]any{}
 	for i, rn := range m.names {
-		ir, lr, ur := map[string]any{}, map[string]any{}, map[string]any{}
+		ir, lr, ur, sr := map[string]any{}, map[string]any{}, map[string]any{}, map[string]any{}
 		for j, sn := range m.names {
 			ir[sn] = p.est(i, j)
 			if p.bands {
 				lr[sn] = p.lower(i, j)
 				ur[sn] = p.upper(i, j)
 			}
+			if p.se != nil {
+				sr[sn] = p.stderr(i, j)
+			}
 		}
-		irf[rn], lower[rn], upper[rn] = ir, lr, ur
+		irf[rn], lower[rn], upper[rn], stderr[rn] = ir, lr, ur, sr
 	}
 	vals := map[string]any{"irf": irf, "horizon": p.horizon, "identify": s.identify(), "series": m.names, "model": m.desc}
 	if order != nil {
@@ -238,6 +313,9 @@ func (s *responsesSpec) values(m *model, p irfPaths, order []int, bands *vardyn.
 	if bands != nil {
 		vals["lower"], vals["upper"] = lower, upper
 		vals["reps"], vals["failed"], vals["seed"], vals["coverage"], vals["interval"] = bands.Reps, bands.Failed, seed, s.coverage(), s.interval()
+	}
+	if p.se != nil {
+		vals["lower"], vals["upper"], vals["stderr"], vals["coverage"] = lower, upper, stderr, s.coverage()
 	}
 	return vals
 }
@@ -293,7 +371,7 @@ func renderFigure(c *engine.Context, fig *figures.Figure, vals map[string]any, n
 
 // note returns the figure's note: the responses, the identification and
 // the bands.
-func (s *responsesSpec) note(m *model, b *vardyn.Bands) string {
+func (s *responsesSpec) note(m *model, p irfPaths, b *vardyn.Bands) string {
 	var sb strings.Builder
 	fmt.Fprintf(&sb, "Responses of %s over %d periods, from %s. ", strings.Join(m.names, ", "), s.horizon(), m.desc)
 	if s.identify() == "generalised" {
@@ -319,6 +397,17 @@ func (s *responsesSpec) note(m *model, b *vardyn.Bands) string {
 			fmt.Fprintf(&sb, "; %d replications could not be re-estimated and are left out", b.Failed)
 		}
 		sb.WriteString(".")
+	}
+	if p.se != nil {
+		fmt.Fprintf(&sb, "Bands: pointwise %s asymptotic intervals, the response ± %.3f standard errors from the delta method (Lütkepohl 2005, Proposition 3.6", pctText(s.coverage()), p.z)
+		if s.identify() == "generalised" {
+			sb.WriteString(", applied to the generalised responses")
+		}
+		if m.vecm != nil {
+			sb.WriteString("), from the covariance of the VAR-form coefficients with β fixed at its estimate (Lütkepohl 2005, ch. 7 and 9) and, for normal errors, that of the ML residual covariance matrix.")
+		} else {
+			sb.WriteString("), from the least-squares covariance of the lag coefficients and, for normal errors, that of the residual covariance matrix (estimated with T − Kp − d degrees of freedom).")
+		}
 	}
 	return sb.String()
 }

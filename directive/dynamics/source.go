@@ -4,7 +4,7 @@
 // (read through contract.SystemSource) or of a VAR the directive fits
 // itself. The statistics come from analysis/vardyn.
 //
-//	responses        impulse responses, response × shock panels, bootstrap bands
+//	responses        impulse responses, response × shock panels, bootstrap or asymptotic bands
 //	variance-shares  the forecast-error variance decomposition, horizons × shocks
 //	causality        Granger causality for every ordered pair of series
 package dynamics
@@ -175,8 +175,8 @@ func seriesIndices(c *engine.Context, key string, list []string, names []string)
 func norm(s string) string { return strings.Join(strings.Fields(s), "") }
 
 func init() {
-	engine.Register(engine.Kind{Name: "responses", Summary: "impulse responses of a VECM or VAR (orthogonalised or generalised) with bootstrap bands, as a figure",
-		New: func() engine.Directive { return &responsesSpec{} }, Fields: []string{"irf", "lower", "upper", "horizon", "identify", "order", "reps", "failed", "seed", "coverage", "interval", "series", "model", "width", "height", "files"}})
+	engine.Register(engine.Kind{Name: "responses", Summary: "impulse responses of a VECM or VAR (orthogonalised or generalised) with bootstrap or asymptotic bands, as a figure",
+		New: func() engine.Directive { return &responsesSpec{} }, Fields: []string{"irf", "lower", "upper", "stderr", "horizon", "identify", "order", "reps", "failed", "seed", "coverage", "interval", "series", "model", "width", "height", "files"}})
 	engine.Register(engine.Kind{Name: "variance-shares", Summary: "forecast-error variance decomposition of a VECM or VAR (horizons × shocks)",
 		New: func() engine.Directive { return &sharesSpec{} }, Fields: []string{"shares", "horizons", "order", "series", "model"}})
 	engine.Register(engine.Kind{Name: "causality", Summary: "Granger causality between every ordered pair of a system's series (VAR Wald, Toda–Yamamoto, or VECM short-run, long-run and strong)",
