@@ -6,6 +6,7 @@ package engine
 import (
 	"errors"
 	"fmt"
+	"slices"
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/critical"
@@ -165,4 +166,30 @@ func SystemCase(c *Context, det string, def int) (int, error) {
 		}
 	}
 	return 0, c.Errorf("det", "det: %q is not a case; write %s", det, strings.Join(SystemCaseWords[:], ", "))
+}
+
+// SeriesIndices resolves the list under key — names of a system's series,
+// spaces ignored — to their indices in names; an empty list gives every
+// index in order. An unknown or repeated name is an error at its item.
+func (c *Context) SeriesIndices(key string, list, names []string) ([]int, error) {
+	squeeze := func(x string) string { return strings.Join(strings.Fields(x), "") }
+	if len(list) == 0 {
+		out := make([]int, len(names))
+		for i := range out {
+			out[i] = i
+		}
+		return out, nil
+	}
+	var out []int
+	for i, n := range list {
+		j := slices.IndexFunc(names, func(x string) bool { return squeeze(x) == squeeze(n) })
+		if j < 0 {
+			return nil, c.ItemErrorf(key, i, "%s: %q is not one of the series of the system%s (%s)", key, n, manuscript.DidYouMean(n, names), strings.Join(names, ", "))
+		}
+		if slices.Contains(out, j) {
+			return nil, c.ItemErrorf(key, i, "%s: %q is named twice", key, n)
+		}
+		out = append(out, j)
+	}
+	return out, nil
 }

@@ -314,15 +314,14 @@ func (m *nullModel) replicate(w []float64, buf *mat.Dense, c Case, x Extra) (flo
 	return res.Trace[m.rank], nil
 }
 
-// CompanionRoots returns the eigenvalues of the companion matrix of the
-// VAR y_t = Σ_{i=1}^{p} A_i y_{t−i} + …,
+// Companion is the companion matrix of a VAR with coefficients
+// A_1 … A_p (each K×K),
 //
-//	F = [A_1 A_2 … A_p; I 0 … 0; …; 0 … I 0]  (Kp×Kp),
+//	F = [A_1 A_2 … A_p; I 0 … 0; …; 0 … I 0]  (Kp×Kp)
 //
-// sorted by modulus, largest first (Lütkepohl 2005, §2.1.1: the process is
-// stable when every root has modulus below one; the VAR form of a VECM of
-// rank r has exactly K − r roots equal to one, Johansen 1995, Thm 4.2).
-func CompanionRoots(a []*mat.Dense) ([]complex128, error) {
+// (Lütkepohl 2005, §2.1.1), in which y_t = A_1 y_{t−1} + … + A_p y_{t−p}
+// is the first block row of Y_t = F Y_{t−1}, Y_t = (y_t', …, y_{t−p+1}')'.
+func Companion(a []*mat.Dense) (*mat.Dense, error) {
 	if len(a) == 0 {
 		return nil, errors.New("johansen: no VAR coefficients")
 	}
@@ -330,8 +329,7 @@ func CompanionRoots(a []*mat.Dense) ([]complex128, error) {
 	if k != kc {
 		return nil, fmt.Errorf("johansen: VAR coefficient of %d×%d is not square", k, kc)
 	}
-	p := len(a)
-	n := k * p
+	n := k * len(a)
 	f := mat.NewDense(n, n, nil)
 	for l, al := range a {
 		if r, c := al.Dims(); r != k || c != k {
@@ -341,6 +339,22 @@ func CompanionRoots(a []*mat.Dense) ([]complex128, error) {
 	}
 	for i := k; i < n; i++ {
 		f.Set(i, i-k, 1)
+	}
+	return f, nil
+}
+
+// CompanionRoots returns the eigenvalues of the companion matrix of the
+// VAR y_t = Σ_{i=1}^{p} A_i y_{t−i} + …,
+//
+//	F = [A_1 A_2 … A_p; I 0 … 0; …; 0 … I 0]  (Kp×Kp),
+//
+// sorted by modulus, largest first (Lütkepohl 2005, §2.1.1: the process is
+// stable when every root has modulus below one; the VAR form of a VECM of
+// rank r has exactly K − r roots equal to one, Johansen 1995, Thm 4.2).
+func CompanionRoots(a []*mat.Dense) ([]complex128, error) {
+	f, err := Companion(a)
+	if err != nil {
+		return nil, err
 	}
 	var eig mat.Eigen
 	if !eig.Factorize(f, mat.EigenNone) {

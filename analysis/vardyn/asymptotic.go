@@ -4,9 +4,12 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat/distuv"
+
+	"github.com/galley-econ/galley/analysis/johansen"
 )
 
 // Asymptotic (delta-method) standard errors of impulse responses
@@ -107,24 +110,12 @@ func MAJacobians(a []*mat.Dense, phi []*mat.Dense) ([]*mat.Dense, error) {
 	if len(a) == 0 || len(phi) == 0 {
 		return nil, errors.New("vardyn: no coefficient matrices")
 	}
-	k, c := a[0].Dims()
-	if k != c {
-		return nil, fmt.Errorf("vardyn: coefficient matrix is %d×%d, not square", k, c)
+	comp, err := johansen.Companion(a)
+	if err != nil {
+		return nil, fmt.Errorf("vardyn: %s", strings.TrimPrefix(err.Error(), "johansen: "))
 	}
-	p := len(a)
-	kp := k * p
-	comp := mat.NewDense(kp, kp, nil)
-	for l, al := range a {
-		if r, c := al.Dims(); r != k || c != k {
-			return nil, fmt.Errorf("vardyn: coefficient matrix %d is %d×%d, not %d×%d", l+1, r, c, k, k)
-		}
-		comp.Slice(0, k, l*k, (l+1)*k).(*mat.Dense).Copy(al)
-	}
-	for l := 1; l < p; l++ {
-		for i := 0; i < k; i++ {
-			comp.Set(l*k+i, (l-1)*k+i, 1)
-		}
-	}
+	k, _ := a[0].Dims()
+	kp := k * len(a)
 	h := len(phi) - 1
 	// pow[n] = J (A')^n, K × Kp.
 	pow := make([]*mat.Dense, max(h, 1))

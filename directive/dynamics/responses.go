@@ -138,11 +138,11 @@ func (s *responsesSpec) Run(c *engine.Context) (*engine.Result, error) {
 	if err != nil {
 		return nil, c.Errorf("", "%v", strings.TrimPrefix(err.Error(), "vardyn: "))
 	}
-	ri, err := seriesIndices(c, "responses", s.Responses, m.names)
+	ri, err := c.SeriesIndices("responses", s.Responses, m.names)
 	if err != nil {
 		return nil, err
 	}
-	si, err := seriesIndices(c, "shocks", s.Shocks, m.names)
+	si, err := c.SeriesIndices("shocks", s.Shocks, m.names)
 	if err != nil {
 		return nil, err
 	}
@@ -214,7 +214,7 @@ func (s *responsesSpec) order(c *engine.Context, m *model) ([]int, error) {
 	if k := len(m.names); len(s.Order) != k {
 		return nil, c.Errorf("order", "order: name all %d series, first the one whose shock moves the others on impact", k)
 	}
-	return seriesIndices(c, "order", s.Order, m.names)
+	return c.SeriesIndices("order", s.Order, m.names)
 }
 
 // bootstrap returns the bootstrap bands of the responses theta (nil

@@ -114,7 +114,7 @@ func (s *sharesSpec) Run(c *engine.Context) (*engine.Result, error) {
 		if len(s.Order) != k {
 			return nil, c.Errorf("order", "order: name all %d series, first the one whose shock moves the others on impact", k)
 		}
-		if order, err = seriesIndices(c, "order", s.Order, m.names); err != nil {
+		if order, err = c.SeriesIndices("order", s.Order, m.names); err != nil {
 			return nil, err
 		}
 	}

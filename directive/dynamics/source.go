@@ -20,7 +20,6 @@ import (
 	"github.com/galley-econ/galley/analysis/vardyn"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
-	"github.com/galley-econ/galley/manuscript"
 )
 
 // SourceKeys say which system the dynamics are of: from: the id of a
@@ -147,29 +146,6 @@ func (k *SourceKeys) fit(c *engine.Context) (*model, error) {
 	detText := map[vardyn.Det]string{vardyn.NoDet: "no deterministic terms", vardyn.Const: "a constant", vardyn.ConstTrend: "a constant and trend"}[det]
 	m.desc = fmt.Sprintf("a VAR(%d) in the %s of the series with %s, fitted by least squares (T = %d, %s–%s)", *k.Lags, what, detText, v.T, d.Dates[first+*k.Lags], d.Dates[n-1])
 	return m, nil
-}
-
-// order resolves a list of series names to indices (nil: all, in order).
-func seriesIndices(c *engine.Context, key string, list []string, names []string) ([]int, error) {
-	if len(list) == 0 {
-		out := make([]int, len(names))
-		for i := range out {
-			out[i] = i
-		}
-		return out, nil
-	}
-	var out []int
-	for i, n := range list {
-		j := slices.IndexFunc(names, func(s string) bool { return norm(s) == norm(n) })
-		if j < 0 {
-			return nil, c.ItemErrorf(key, i, "%s: %q is not one of the series%s (%s)", key, n, manuscript.DidYouMean(n, names), strings.Join(names, ", "))
-		}
-		if slices.Contains(out, j) {
-			return nil, c.ItemErrorf(key, i, "%s: %q is named twice", key, n)
-		}
-		out = append(out, j)
-	}
-	return out, nil
 }
 
 func norm(s string) string { return strings.Join(strings.Fields(s), "") }

@@ -2,13 +2,11 @@ package figure
 
 import (
 	"fmt"
-	"slices"
 	"strings"
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/figures"
-	"github.com/galley-econ/galley/manuscript"
 )
 
 // plot: variance-shares — the forecast-error variance decomposition of
@@ -77,7 +75,7 @@ func (s *figureSpec) runShares(c *engine.Context, o *figures.Options, vals map[s
 	if len(vs.Shares) != h || len(vs.Order) != k {
 		return nil, fmt.Errorf("internal error: %q handed on %d horizons and an ordering of %d for %d series", s.Of, len(vs.Shares), len(vs.Order), k)
 	}
-	rows, err := shareRows(c, s.Series, vs.Names)
+	rows, err := c.SeriesIndices("series", s.Series, vs.Names)
 	if err != nil {
 		return nil, err
 	}
@@ -161,29 +159,4 @@ func (s *figureSpec) runShares(c *engine.Context, o *figures.Options, vals map[s
 	vals["horizon"] = h
 	vals["shares"] = shares
 	return s.finish(c, fig, vals)
-}
-
-// shareRows resolves series: (names of the system's series, spaces
-// ignored) to indices, nil giving all of them in order.
-func shareRows(c *engine.Context, list, names []string) ([]int, error) {
-	squeeze := func(x string) string { return strings.Join(strings.Fields(x), "") }
-	if len(list) == 0 {
-		out := make([]int, len(names))
-		for i := range out {
-			out[i] = i
-		}
-		return out, nil
-	}
-	var out []int
-	for a, n := range list {
-		i := slices.IndexFunc(names, func(x string) bool { return squeeze(x) == squeeze(n) })
-		if i < 0 {
-			return nil, c.ItemErrorf("series", a, "series: %q is not one of the series of the system%s (%s)", n, manuscript.DidYouMean(n, names), strings.Join(names, ", "))
-		}
-		if slices.Contains(out, i) {
-			return nil, c.ItemErrorf("series", a, "series: %q is named twice", n)
-		}
-		out = append(out, i)
-	}
-	return out, nil
 }
