@@ -29,7 +29,7 @@ type Cache struct {
 	Fresh bool
 }
 
-const cacheMagic = "galley-cache-1"
+const cacheMagic = "galley-cache-2"
 
 // cacheEntry is one stored result with the inputs it depended on.
 type cacheEntry struct {
@@ -40,6 +40,11 @@ type cacheEntry struct {
 	Upstream []upDep
 	FullKey  string
 	Result   *Result
+	// Trees holds the result's Values, Spec and Test.Extra in the tree
+	// codec (treecodec.go), which those fields are then empty of; nil
+	// when a value has a type the codec does not know, and the fields
+	// are stored by gob (toGob).
+	Trees []byte
 }
 
 type colDep struct{ Alias, Column, Hash string }
@@ -304,9 +309,28 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	delete(p.entries, b.specKey)
 	p.used[b.specKey] = e
 	e.Result.Line = b.line
-	e.Result.Values = fromGob(e.Result.Values).(map[string]any)
-	if e.Result.Spec != nil {
-		e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
+	if e.Trees != nil {
+		r := treeReader{b: e.Trees}
+		values, ok := r.value().(map[string]any)
+		if !ok {
+			return nil, "", false // damaged: run again
+		}
+		e.Result.Values = values
+		if spec, ok := r.value().(map[string]any); ok {
+			e.Result.Spec = spec
+		}
+		if extra, ok := r.value().(map[string]any); ok && e.Result.Test != nil {
+			e.Result.Test.Extra = extra
+		}
+		if r.err != nil || len(r.b) != 0 {
+			return nil, "", false // damaged: run again
+		}
+		e.Trees = nil
+	} else {
+		e.Result.Values = fromGob(e.Result.Values).(map[string]any)
+		if e.Result.Spec != nil {
+			e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
+		}
 	}
 	return e.Result, e.FullKey, true
 }
@@ -361,9 +385,20 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	p.stored[b.specKey] = e
 }
 
-// gobEntry is a cache entry for r in the form gob can carry (copies of
-// its maps, nils replaced).
+// gobEntry is a cache entry for r in the form gob can carry: its
+// free-form values in the tree codec, or else (a value of a type the
+// codec does not know) as copies of its maps with nils replaced.
 func gobEntry(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
+	if trees, ok := encodeTrees(res); ok {
+		r := *res
+		r.Values, r.Spec = nil, nil
+		if r.Test != nil {
+			t := *r.Test
+			t.Extra = nil
+			r.Test = &t
+		}
+		return &cacheEntry{Magic: cacheMagic, Version: version, SpecKey: specKey, Columns: cols, Upstream: ups, FullKey: fullKey, Result: &r, Trees: trees}
+	}
 	r := *res
 	r.Values = toGob(r.Values).(map[string]any)
 	if r.Spec != nil {
@@ -491,4 +526,21 @@ func (d *Document) cachedResults(version string, render func() ([]byte, error)) 
 	out := append(append(append(head, hex.EncodeToString(sum[:])...), '\n'), b...)
 	_ = atomicfile.WriteUnsynced(path, out, 0o644) // a failure costs a render next time
 	return b, nil
+}
+
+// encodeTrees encodes a result's Values, Spec and Test.Extra (in that
+// order) in the tree codec; false if one holds a type it does not know.
+func encodeTrees(res *Result) ([]byte, bool) {
+	var extra map[string]any
+	if res.Test != nil {
+		extra = res.Test.Extra
+	}
+	b := make([]byte, 0, 1024)
+	var err error
+	for _, v := range []map[string]any{res.Values, res.Spec, extra} {
+		if b, err = appendTree(b, v); err != nil {
+			return nil, false
+		}
+	}
+	return b, true
 }
