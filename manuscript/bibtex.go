@@ -423,7 +423,19 @@ func SortReferences(entries []*BibEntry) {
 		}
 		return b.String() + "\x00" + e.Fields["year"] + "\x00" + strings.ToLower(e.Field("title"))
 	}
-	sort.SliceStable(entries, func(i, j int) bool { return key(entries[i]) < key(entries[j]) })
+	// each key once, not once per comparison (it detexes every name)
+	type keyed struct {
+		key string
+		e   *BibEntry
+	}
+	ks := make([]keyed, len(entries))
+	for i, e := range entries {
+		ks[i] = keyed{key(e), e}
+	}
+	sort.SliceStable(ks, func(i, j int) bool { return ks[i].key < ks[j].key })
+	for i := range ks {
+		entries[i] = ks[i].e
+	}
 }
 
 var accentCommands = map[string]rune{
