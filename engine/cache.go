@@ -3,6 +3,7 @@ package engine
 import (
 	"bytes"
 	"crypto/sha256"
+	"encoding/binary"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
@@ -29,7 +30,7 @@ type Cache struct {
 	Fresh bool
 }
 
-const cacheMagic = "galley-cache-2"
+const cacheMagic = "galley-cache-3"
 
 // cacheEntry is one stored result with the inputs it depended on.
 type cacheEntry struct {
@@ -45,6 +46,13 @@ type cacheEntry struct {
 	// when a value has a type the codec does not know, and the fields
 	// are stored by gob (toGob).
 	Trees []byte
+	// Blobs places the figure's SVG, PDF and PNG bytes, which the
+	// Figure in Result is then empty of, in the pack's byte section
+	// after the entries (offset and length each; length −1 for nil), so
+	// that they are read in place rather than copied by gob; blobs holds
+	// them while the entry is in memory.
+	Blobs []int
+	blobs [][]byte
 }
 
 type colDep struct{ Alias, Column, Hash string }
@@ -208,6 +216,8 @@ type cachePack struct {
 }
 
 // packHeader starts a pack file; N entries follow in the same stream.
+// The file is the stream's length (8 bytes, little-endian), the stream,
+// and the figures' bytes (cacheEntry.Blobs).
 type packHeader struct {
 	Magic, Version string
 	N              int
@@ -247,10 +257,15 @@ func (d *Document) cachePack() *cachePack {
 		return p // every result is computed again and the pack rewritten
 	}
 	raw, err := os.ReadFile(p.path)
-	if err != nil {
+	if err != nil || len(raw) < 8 {
 		return p
 	}
-	dec := gob.NewDecoder(bytes.NewReader(raw))
+	n := binary.LittleEndian.Uint64(raw)
+	if n > uint64(len(raw)-8) {
+		return p // corrupt: rewritten at the end
+	}
+	blob := raw[8+n:]
+	dec := gob.NewDecoder(bytes.NewReader(raw[8 : 8+n]))
 	var h packHeader
 	if dec.Decode(&h) != nil || h.Magic != cacheMagic || h.Version != c.Version || h.N < 0 {
 		return p // corrupt, foreign or stale: rewritten at the end
@@ -258,7 +273,7 @@ func (d *Document) cachePack() *cachePack {
 	entries := make(map[string]*cacheEntry, h.N)
 	for i := 0; i < h.N; i++ {
 		var e cacheEntry
-		if dec.Decode(&e) != nil {
+		if dec.Decode(&e) != nil || !e.takeBlobs(blob) {
 			return p // corrupt: ignore the whole pack
 		}
 		entries[e.SpecKey] = &e
@@ -309,6 +324,10 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	delete(p.entries, b.specKey)
 	p.used[b.specKey] = e
 	e.Result.Line = b.line
+	if f := e.Result.Figure; f != nil && e.blobs != nil {
+		f.SVG, f.PDF, f.PNG = e.blobs[0], e.blobs[1], e.blobs[2]
+		e.blobs = nil
+	}
 	if e.Trees != nil {
 		r := treeReader{b: e.Trees}
 		values, ok := r.value().(map[string]any)
@@ -389,6 +408,18 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 // free-form values in the tree codec, or else (a value of a type the
 // codec does not know) as copies of its maps with nils replaced.
 func gobEntry(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
+	e := gobEntryValues(version, specKey, fullKey, cols, ups, res)
+	if f := e.Result.Figure; f != nil {
+		g := *f
+		e.blobs = [][]byte{g.SVG, g.PDF, g.PNG}
+		g.SVG, g.PDF, g.PNG = nil, nil, nil
+		e.Result.Figure = &g
+	}
+	return e
+}
+
+// gobEntryValues is gobEntry with the figure's bytes still in place.
+func gobEntryValues(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
 	if trees, ok := encodeTrees(res); ok {
 		r := *res
 		r.Values, r.Spec = nil, nil
@@ -442,7 +473,20 @@ func (d *Document) cacheFlush() {
 	for _, k := range idle[:min(len(idle), maxIdleEntries)] {
 		all = append(all, p.entries[k])
 	}
+	var blob []byte
+	for _, e := range all {
+		e.Blobs = e.Blobs[:0]
+		for _, b := range e.blobs {
+			if b == nil {
+				e.Blobs = append(e.Blobs, 0, -1)
+				continue
+			}
+			e.Blobs = append(e.Blobs, len(blob), len(b))
+			blob = append(blob, b...)
+		}
+	}
 	var buf bytes.Buffer
+	buf.Write(make([]byte, 8)) // the stream's length, below
 	enc := gob.NewEncoder(&buf)
 	if enc.Encode(packHeader{Magic: cacheMagic, Version: c.Version, N: len(all)}) != nil {
 		return
@@ -452,7 +496,10 @@ func (d *Document) cacheFlush() {
 			return
 		}
 	}
-	if atomicfile.WriteUnsynced(p.path, buf.Bytes(), 0o644) == nil {
+	out := buf.Bytes()
+	binary.LittleEndian.PutUint64(out, uint64(len(out)-8))
+	out = append(out, blob...)
+	if atomicfile.WriteUnsynced(p.path, out, 0o644) == nil {
 		p.loaded = true
 	}
 }
@@ -543,4 +590,27 @@ func encodeTrees(res *Result) ([]byte, bool) {
 		}
 	}
 	return b, true
+}
+
+// takeBlobs points the entry's figure bytes into blob, the pack's byte
+// section (read in place, not copied); false if Blobs does not fit it.
+func (e *cacheEntry) takeBlobs(blob []byte) bool {
+	if len(e.Blobs) == 0 {
+		return true
+	}
+	if len(e.Blobs) != 6 || e.Result == nil || e.Result.Figure == nil {
+		return false
+	}
+	e.blobs = make([][]byte, 3)
+	for i := range e.blobs {
+		off, n := e.Blobs[2*i], e.Blobs[2*i+1]
+		if n == -1 {
+			continue
+		}
+		if off < 0 || n < 0 || off > len(blob) || n > len(blob)-off {
+			return false
+		}
+		e.blobs[i] = blob[off : off+n : off+n]
+	}
+	return true
 }
