@@ -44,6 +44,15 @@ func TestIndentJSON(t *testing.T) {
 			return s
 		}
 	}
+	var deep any = 1.5
+	for i := 0; i < 140; i++ {
+		deep = []any{deep, map[string]any{"k": i}}
+	}
+	want, _ := json.MarshalIndent(deep, "", " ")
+	compact, _ := json.Marshal(deep)
+	if got := indentJSON(nil, compact); !bytes.Equal(got, want) {
+		t.Fatal("140 levels deep: not the bytes of json.MarshalIndent")
+	}
 	for i := 0; i < 500; i++ {
 		v := map[string]any{"x": gen(0), "list": []any{gen(0), gen(0)}}
 		want, err := json.MarshalIndent(v, "", " ")

@@ -131,6 +131,10 @@ func (d *Document) quotedPaths() map[string][]string {
 func indentJSON(dst, src []byte) []byte {
 	depth := 0
 	newline := func() {
+		if depth < len(indentSpaces) {
+			dst = append(dst, indentSpaces[:1+depth]...)
+			return
+		}
 		dst = append(dst, '\n')
 		for i := 0; i < depth; i++ {
 			dst = append(dst, ' ')
@@ -170,8 +174,21 @@ func indentJSON(dst, src []byte) []byte {
 		case ':':
 			dst = append(dst, c, ' ')
 		default:
-			dst = append(dst, c)
+			// a number or a literal: copy up to the next punctuation
+			j := i + 1
+			for j < len(src) && !jsonPunct[src[j]] {
+				j++
+			}
+			dst = append(dst, src[i:j]...)
+			i = j - 1
 		}
 	}
 	return dst
 }
+
+// indentSpaces is a line feed and the indentation of the first 127
+// levels.
+var indentSpaces = "\n" + strings.Repeat(" ", 127)
+
+// jsonPunct marks the bytes indentJSON acts on.
+var jsonPunct = [256]bool{'"': true, '{': true, '}': true, '[': true, ']': true, ',': true, ':': true}
