@@ -46,10 +46,16 @@ func (d *Document) resultsJSON(version string) ([]byte, error) {
 		}
 		rf.Results = append(rf.Results, resultsfile.Record{ID: r.ID, Kind: r.Kind, Line: r.Line, Number: r.Number,
 			Label: label, Caption: r.Caption(), Hidden: r.HiddenKeys(), Quoted: quoted[r.ID],
-			Spec: spec, Values: JsonSafe(r.Values).(map[string]any)})
+			Spec: spec, Values: r.Values})
 	}
 	if rf.Results == nil {
 		rf.Results = []resultsfile.Record{}
+	}
+	if b, ok := appendResultsFile(nil, &rf); ok {
+		return append(b, '\n'), nil
+	}
+	for i := range rf.Results {
+		rf.Results[i].Values = JsonSafe(rf.Results[i].Values).(map[string]any)
 	}
 	b, err := json.Marshal(rf)
 	if err != nil {
