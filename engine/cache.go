@@ -547,11 +547,13 @@ func (d *Document) resultsSlot(version string) (path, key string, ok bool) {
 }
 
 // cachedResults returns the results file stored for this build's
-// results if there is one, else render()'s, storing it.
-func (d *Document) cachedResults(version string, render func() ([]byte, error)) ([]byte, error) {
+// results if there is one, else render()'s, storing it. render(h)
+// returns the file after h bytes of room for the slot's header (so that
+// the stored form is not a second copy of the file).
+func (d *Document) cachedResults(version string, render func(headroom int) ([]byte, error)) ([]byte, error) {
 	path, key, ok := d.resultsSlot(version)
 	if !ok {
-		return render()
+		return render(0)
 	}
 	// stored as the key, the SHA-256 of the file, a line feed, the file
 	head := []byte(key + " ")
@@ -565,14 +567,18 @@ func (d *Document) cachedResults(version string, render func() ([]byte, error)) 
 			}
 		}
 	}
-	b, err := render()
+	room := len(head) + 2*sha256.Size + 1
+	b, err := render(room)
 	if err != nil {
 		return nil, err
 	}
-	sum := sha256.Sum256(b)
-	out := append(append(append(head, hex.EncodeToString(sum[:])...), '\n'), b...)
-	_ = atomicfile.WriteUnsynced(path, out, 0o644) // a failure costs a render next time
-	return b, nil
+	body := b[room:]
+	sum := sha256.Sum256(body)
+	copy(b, head)
+	hex.Encode(b[len(head):], sum[:])
+	b[room-1] = '\n'
+	_ = atomicfile.WriteUnsynced(path, b, 0o644) // a failure costs a render next time
+	return body, nil
 }
 
 // encodeTrees encodes a result's Values, Spec and Test.Extra (in that

@@ -26,10 +26,12 @@ func (d *Document) ResultsFile(version, label string) (*resultsfile.File, error)
 // ResultsJSON renders the results file (or takes it from the cache when
 // the same results were rendered before: see cachedResults).
 func (d *Document) ResultsJSON(version string) ([]byte, error) {
-	return d.cachedResults(version, func() ([]byte, error) { return d.resultsJSON(version) })
+	return d.cachedResults(version, func(headroom int) ([]byte, error) { return d.resultsJSON(version, headroom) })
 }
 
-func (d *Document) resultsJSON(version string) ([]byte, error) {
+// resultsJSON renders the results file after headroom bytes left for
+// the caller.
+func (d *Document) resultsJSON(version string, headroom int) ([]byte, error) {
 	rf := resultsfile.File{Galley: version, Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage, Inputs: d.Inputs()}
 	if rf.Inputs == nil {
 		rf.Inputs = []resultsfile.Input{}
@@ -51,7 +53,11 @@ func (d *Document) resultsJSON(version string) ([]byte, error) {
 	if rf.Results == nil {
 		rf.Results = []resultsfile.Record{}
 	}
-	if b, ok := appendResultsFile(nil, &rf); ok {
+	size := 4 << 10
+	for _, r := range rf.Results {
+		size += 512 + sizeHint(r.Values) + sizeHint(r.Spec)
+	}
+	if b, ok := appendResultsFile(make([]byte, headroom, headroom+size), &rf); ok {
 		return append(b, '\n'), nil
 	}
 	for i := range rf.Results {
@@ -61,7 +67,7 @@ func (d *Document) resultsJSON(version string) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	return append(indentJSON(make([]byte, 0, len(b)+len(b)/2), b), '\n'), nil
+	return append(indentJSON(make([]byte, headroom, headroom+len(b)+len(b)/2), b), '\n'), nil
 }
 
 // JsonSafe replaces NaN and ±Inf (which JSON cannot hold) by null and the
@@ -198,3 +204,39 @@ var indentSpaces = "\n" + strings.Repeat(" ", 127)
 
 // jsonPunct marks the bytes indentJSON acts on.
 var jsonPunct = [256]bool{'"': true, '{': true, '}': true, '[': true, ']': true, ',': true, ':': true}
+
+// sizeHint is a rough size of v in the indented results file (for the
+// writer's buffer): 32 bytes a number, a string's length and quotes.
+func sizeHint(v any) int {
+	switch x := v.(type) {
+	case map[string]any:
+		n := 2
+		for k, e := range x {
+			n += len(k) + 8 + sizeHint(e)
+		}
+		return n
+	case []any:
+		n := 2
+		for _, e := range x {
+			n += sizeHint(e)
+		}
+		return n
+	case []map[string]any:
+		n := 2
+		for _, e := range x {
+			n += sizeHint(e)
+		}
+		return n
+	case []float64:
+		return 2 + 32*len(x)
+	case []string:
+		n := 2
+		for _, s := range x {
+			n += len(s) + 16
+		}
+		return n
+	case string:
+		return len(x) + 16
+	}
+	return 32
+}
