@@ -30,7 +30,7 @@ type Cache struct {
 	Fresh bool
 }
 
-const cacheMagic = "galley-cache-3"
+const cacheMagic = "galley-cache-4"
 
 // cacheEntry is one stored result with the inputs it depended on.
 type cacheEntry struct {
