@@ -47,7 +47,7 @@ func (d Dated) At() map[string]float64 {
 // which gob could not see), the values by their bits; nil and empty
 // kept apart.
 func (d Dated) GobEncode() ([]byte, error) {
-	b := make([]byte, 0, 2+len(d.Dates)*4+len(d.Values)*8)
+	b := make([]byte, 0, 16+len(d.Dates)*8+len(d.Values)*8) // a date takes at most 8 bytes but for far-off years
 	b = appendLen(b, d.Dates == nil, len(d.Dates))
 	for _, dt := range d.Dates {
 		b = binary.AppendUvarint(b, uint64(dt.Freq))
