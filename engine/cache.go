@@ -473,7 +473,24 @@ func (d *Document) cacheFlush() {
 	for _, k := range idle[:min(len(idle), maxIdleEntries)] {
 		all = append(all, p.entries[k])
 	}
-	var blob []byte
+	// sizes up front: the pack of a large data set is hundreds of MB,
+	// and growing it by doubling copied it several times
+	nblob, est := 0, 4096
+	for _, e := range all {
+		for _, b := range e.blobs {
+			nblob += len(b)
+		}
+		est += 1024 + len(e.Trees)
+		if e.Result != nil {
+			for _, d := range e.Result.Series {
+				est += 16 * len(d.Values)
+			}
+			for _, d := range e.Result.Relations {
+				est += 16 * len(d.Values)
+			}
+		}
+	}
+	blob := make([]byte, 0, nblob)
 	for _, e := range all {
 		e.Blobs = e.Blobs[:0]
 		for _, b := range e.blobs {
@@ -486,6 +503,7 @@ func (d *Document) cacheFlush() {
 		}
 	}
 	var buf bytes.Buffer
+	buf.Grow(est + nblob)
 	buf.Write(make([]byte, 8)) // the stream's length, below
 	enc := gob.NewEncoder(&buf)
 	if enc.Encode(packHeader{Magic: cacheMagic, Version: c.Version, N: len(all)}) != nil {
