@@ -92,6 +92,9 @@ func readPlainCSV(raw []byte, source string, freq Freq) (f *Frame, err error, ok
 			}
 			header = true
 			parallel = t.rowsHint*len(fields) >= parallelCells && runtime.GOMAXPROCS(0) > 1
+			if parallel {
+				spans = make([]int32, 0, 2*t.rowsHint)
+			}
 			continue
 		}
 		if !parallel {
