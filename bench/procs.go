@@ -122,7 +122,7 @@ func writeProjects(dir string, write bool, only ...string) ([]Project, error) {
 	joh := func(t int) func() [][]float64 { return func() [][]float64 { return JohSeries(t) } }
 	adfBody := "id: t\nseries: y\ndet: c\nlags: {select: aic, max: 12}\n"
 	egBody := "id: t\ny: y\nx: [x1, x2]\ndet: c\nlags: {select: aic, max: 12}\n"
-	johBody := "id: t\nseries: [y1, y2, y3, y4, y5, y6]\ndet: c\nlags: 2\n"
+	johBody := "id: t\nseries: [y1, y2, y3, y4, y5, y6]\ndet: constant\nlags: 2\n"
 	jn := []string{"y1", "y2", "y3", "y4", "y5", "y6"}
 	specs := []spec{
 		{"adf_T100k", "adf", adfBody, []string{"y"}, adf(100_000), []string{"adf"}},

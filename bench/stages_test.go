@@ -8,16 +8,23 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/galley-econ/galley/analysis/critical"
+	"github.com/galley-econ/galley/analysis/johansen"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/analysis/series"
+	"github.com/galley-econ/galley/analysis/unitroot"
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/version"
+	"github.com/galley-econ/galley/manuscript"
+	"github.com/galley-econ/galley/write/html"
 )
 
 // Stage benchmarks: each step of a build on its own, so that a slowdown
 // shows up in one place. The lag search's factorisation is benchmarked
 // in analysis/householder (BenchmarkNestedTall, BenchmarkNestedFactor),
-// the hashes of the data in engine (BenchmarkHashColumns).
+// the hashes of the data in engine (BenchmarkHashColumns), reading a
+// workbook in dataio (BenchmarkReadXLSX), the pack's decoding within
+// BenchmarkStageCacheLoad.
 //
 //	go test -run '^$' -bench Stage -benchtime 20x ./bench/
 
@@ -156,6 +163,91 @@ func BenchmarkStageCacheLoad(b *testing.B) {
 		}
 		if len(doc.Ran()) != 0 {
 			b.Fatalf("ran %v", doc.Ran())
+		}
+	}
+}
+
+// BenchmarkStageADF1M: the ADF test of the T = 1,000,000 workload in
+// process (lag search over 0..12 and the final regression). B/op is the
+// memory the test allocates: the lag search reads y and Δy in place
+// (householder.NestedTallScaled), so it no longer stores the 15-column
+// comparison design (120 MB).
+func BenchmarkStageADF1M(b *testing.B) {
+	y := ADFSeries(1_000_000)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := unitroot.ADF(y, critical.Const, unitroot.LagRule{Select: unitroot.AIC, Max: ADFMaxLag}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageJohansenVECM: the rank tests and the VECM of rank 2 on
+// the six Johansen series at T = 100,000: the reduced-rank regression
+// and the short-run equations (one factorisation for all six,
+// ols.RegressEach).
+func BenchmarkStageJohansenVECM(b *testing.B) {
+	cols := JohSeries(100_000)
+	y := mat.NewDense(len(cols[0]), len(cols), nil)
+	for j, c := range cols {
+		y.SetCol(j, c)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		r, err := johansen.Test(y, johansen.C, JohLags)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := r.Estimate(2, []int{0, 1}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageResultsFileResiduals: writing the results file of the
+// Johansen project at T = 10,000 (60,000 residuals and the relations),
+// the results writer on number-heavy values.
+func BenchmarkStageResultsFileResiduals(b *testing.B) {
+	p := filepath.Join(project(b, "joh_T10k"), "paper.md")
+	doc, _, err := BuildFresh(p, false, true)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := doc.ResultsJSON(version.Version); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageHTML: rendering the demo's HTML page from a built
+// document (Markdown, tables, MathML, references).
+func BenchmarkStageHTML(b *testing.B) {
+	p := demoCopy(b)
+	doc, _, err := Build(p, true)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := html.Write(doc, html.Options{Version: version.Version}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkStageBibliography: parsing galley's reference table (done
+// once per build that cites methods).
+func BenchmarkStageBibliography(b *testing.B) {
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := manuscript.ParseBib("methods", []byte(manuscript.MethodBib)); err != nil {
+			b.Fatal(err)
 		}
 	}
 }

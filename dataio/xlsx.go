@@ -1,6 +1,7 @@
 package dataio
 
 import (
+	"archive/zip"
 	"bytes"
 	"fmt"
 	"io"
@@ -8,11 +9,11 @@ import (
 	"strings"
 
 	"github.com/galley-econ/galley/analysis/series"
-	"github.com/xuri/excelize/v2"
 )
 
-// ReadXLSX reads one sheet of an Office Open XML workbook (.xlsx)
-// through github.com/xuri/excelize/v2 and builds the frame with
+// ReadXLSX reads one sheet of an Office Open XML workbook (.xlsx) with
+// galley's own reader of the parts a data table needs (ooxml.go:
+// archive/zip and encoding/xml) and builds the frame with
 // series.FromCells, that is with the rules of series.ReadCSV: the first
 // non-empty row is the header, each further non-empty row an
 // observation; Frame.Lines and DataError.Line are sheet row numbers.
@@ -26,7 +27,7 @@ import (
 // *series.DataError naming the source. The whole workbook is held in
 // memory; r is read up to MaxDataBytes, and a workbook that expands
 // beyond maxExpanded bytes or whose sheets span more than maxCells
-// cells is refused before the library reads it.
+// cells is refused before it is read.
 func ReadXLSX(r io.Reader, source, sheet string) (*series.Frame, error) {
 	return ReadXLSXAs(r, source, sheet, series.Undated)
 }
@@ -54,16 +55,15 @@ func ReadXLSXAs(r io.Reader, source, sheet string, freq series.Freq) (fr *series
 	if err := checkBounds(b); err != nil {
 		return nil, bad("%v", err)
 	}
-	f, err := excelize.OpenReader(bytes.NewReader(b), excelize.Options{UnzipSizeLimit: maxExpanded})
+	zr, err := zip.NewReader(bytes.NewReader(b), int64(len(b)))
 	if err != nil {
 		return nil, bad("not an .xlsx workbook: %v", err)
 	}
-	defer f.Close()
-	props, err := f.GetWorkbookProps()
+	bk, err := loadBook(openPackage(zr))
 	if err != nil {
 		return nil, bad("not a readable .xlsx workbook: %v", err)
 	}
-	sheets := f.GetSheetList()
+	sheets := bk.names
 	if len(sheets) == 0 {
 		return nil, bad("the workbook has no sheets")
 	}
@@ -80,8 +80,7 @@ func ReadXLSXAs(r io.Reader, source, sheet string, freq series.Freq) (fr *series
 		}
 		name = sheet
 	}
-	rd := &sheetReader{f: f, sheet: name, date1904: props.Date1904 != nil && *props.Date1904, dateStyle: map[int]bool{}}
-	rows, err := rd.rows()
+	rows, err := bk.rows(bk.sheets[name])
 	if err != nil {
 		return nil, bad("sheet %q: %v", name, err)
 	}

@@ -11,8 +11,10 @@ import (
 
 // The workbooks are written by github.com/xuri/excelize/v2 through
 // testdata/series/genxlsx (see its comments for the contents); ReadXLSX
-// reads them through the same library, so these tests check the cell
-// interpretation and the rules of series.FromCells on real workbooks.
+// reads them with galley's own reader (ooxml.go), so these tests check
+// the decoding, the cell interpretation and the rules of
+// series.FromCells on real workbooks (excelize_ref_test.go compares the
+// frames with those excelize reads).
 func readBook(t *testing.T, name, sheet string) (*series.Frame, error) {
 	t.Helper()
 	fh, err := os.Open("../testdata/series/" + name)

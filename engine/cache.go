@@ -3,6 +3,7 @@ package engine
 import (
 	"bytes"
 	"crypto/sha256"
+	"encoding/binary"
 	"encoding/gob"
 	"encoding/hex"
 	"encoding/json"
@@ -29,7 +30,7 @@ type Cache struct {
 	Fresh bool
 }
 
-const cacheMagic = "galley-cache-1"
+const cacheMagic = "galley-cache-4"
 
 // cacheEntry is one stored result with the inputs it depended on.
 type cacheEntry struct {
@@ -40,6 +41,18 @@ type cacheEntry struct {
 	Upstream []upDep
 	FullKey  string
 	Result   *Result
+	// Trees holds the result's Values, Spec and Test.Extra in the tree
+	// codec (treecodec.go), which those fields are then empty of; nil
+	// when a value has a type the codec does not know, and the fields
+	// are stored by gob (toGob).
+	Trees []byte
+	// Blobs places the figure's SVG, PDF and PNG bytes, which the
+	// Figure in Result is then empty of, in the pack's byte section
+	// after the entries (offset and length each; length −1 for nil), so
+	// that they are read in place rather than copied by gob; blobs holds
+	// them while the entry is in memory.
+	Blobs []int
+	blobs [][]byte
 }
 
 type colDep struct{ Alias, Column, Hash string }
@@ -203,6 +216,8 @@ type cachePack struct {
 }
 
 // packHeader starts a pack file; N entries follow in the same stream.
+// The file is the stream's length (8 bytes, little-endian), the stream,
+// and the figures' bytes (cacheEntry.Blobs).
 type packHeader struct {
 	Magic, Version string
 	N              int
@@ -242,10 +257,15 @@ func (d *Document) cachePack() *cachePack {
 		return p // every result is computed again and the pack rewritten
 	}
 	raw, err := os.ReadFile(p.path)
-	if err != nil {
+	if err != nil || len(raw) < 8 {
 		return p
 	}
-	dec := gob.NewDecoder(bytes.NewReader(raw))
+	n := binary.LittleEndian.Uint64(raw)
+	if n > uint64(len(raw)-8) {
+		return p // corrupt: rewritten at the end
+	}
+	blob := raw[8+n:]
+	dec := gob.NewDecoder(bytes.NewReader(raw[8 : 8+n]))
 	var h packHeader
 	if dec.Decode(&h) != nil || h.Magic != cacheMagic || h.Version != c.Version || h.N < 0 {
 		return p // corrupt, foreign or stale: rewritten at the end
@@ -253,7 +273,7 @@ func (d *Document) cachePack() *cachePack {
 	entries := make(map[string]*cacheEntry, h.N)
 	for i := 0; i < h.N; i++ {
 		var e cacheEntry
-		if dec.Decode(&e) != nil {
+		if dec.Decode(&e) != nil || !e.takeBlobs(blob) {
 			return p // corrupt: ignore the whole pack
 		}
 		entries[e.SpecKey] = &e
@@ -304,9 +324,32 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	delete(p.entries, b.specKey)
 	p.used[b.specKey] = e
 	e.Result.Line = b.line
-	e.Result.Values = fromGob(e.Result.Values).(map[string]any)
-	if e.Result.Spec != nil {
-		e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
+	if f := e.Result.Figure; f != nil && e.blobs != nil {
+		f.SVG, f.PDF, f.PNG = e.blobs[0], e.blobs[1], e.blobs[2]
+		e.blobs = nil
+	}
+	if e.Trees != nil {
+		r := treeReader{b: e.Trees}
+		values, ok := r.value().(map[string]any)
+		if !ok {
+			return nil, "", false // damaged: run again
+		}
+		e.Result.Values = values
+		if spec, ok := r.value().(map[string]any); ok {
+			e.Result.Spec = spec
+		}
+		if extra, ok := r.value().(map[string]any); ok && e.Result.Test != nil {
+			e.Result.Test.Extra = extra
+		}
+		if r.err != nil || len(r.b) != 0 {
+			return nil, "", false // damaged: run again
+		}
+		e.Trees = nil
+	} else {
+		e.Result.Values = fromGob(e.Result.Values).(map[string]any)
+		if e.Result.Spec != nil {
+			e.Result.Spec = fromGob(e.Result.Spec).(map[string]any)
+		}
 	}
 	return e.Result, e.FullKey, true
 }
@@ -361,9 +404,32 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	p.stored[b.specKey] = e
 }
 
-// gobEntry is a cache entry for r in the form gob can carry (copies of
-// its maps, nils replaced).
+// gobEntry is a cache entry for r in the form gob can carry: its
+// free-form values in the tree codec, or else (a value of a type the
+// codec does not know) as copies of its maps with nils replaced.
 func gobEntry(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
+	e := gobEntryValues(version, specKey, fullKey, cols, ups, res)
+	if f := e.Result.Figure; f != nil {
+		g := *f
+		e.blobs = [][]byte{g.SVG, g.PDF, g.PNG}
+		g.SVG, g.PDF, g.PNG = nil, nil, nil
+		e.Result.Figure = &g
+	}
+	return e
+}
+
+// gobEntryValues is gobEntry with the figure's bytes still in place.
+func gobEntryValues(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) *cacheEntry {
+	if trees, ok := encodeTrees(res); ok {
+		r := *res
+		r.Values, r.Spec = nil, nil
+		if r.Test != nil {
+			t := *r.Test
+			t.Extra = nil
+			r.Test = &t
+		}
+		return &cacheEntry{Magic: cacheMagic, Version: version, SpecKey: specKey, Columns: cols, Upstream: ups, FullKey: fullKey, Result: &r, Trees: trees}
+	}
 	r := *res
 	r.Values = toGob(r.Values).(map[string]any)
 	if r.Spec != nil {
@@ -407,7 +473,38 @@ func (d *Document) cacheFlush() {
 	for _, k := range idle[:min(len(idle), maxIdleEntries)] {
 		all = append(all, p.entries[k])
 	}
+	// sizes up front: the pack of a large data set is hundreds of MB,
+	// and growing it by doubling copied it several times
+	nblob, est := 0, 4096
+	for _, e := range all {
+		for _, b := range e.blobs {
+			nblob += len(b)
+		}
+		est += 1024 + len(e.Trees)
+		if e.Result != nil {
+			for _, d := range e.Result.Series {
+				est += 16 * len(d.Values)
+			}
+			for _, d := range e.Result.Relations {
+				est += 16 * len(d.Values)
+			}
+		}
+	}
+	blob := make([]byte, 0, nblob)
+	for _, e := range all {
+		e.Blobs = e.Blobs[:0]
+		for _, b := range e.blobs {
+			if b == nil {
+				e.Blobs = append(e.Blobs, 0, -1)
+				continue
+			}
+			e.Blobs = append(e.Blobs, len(blob), len(b))
+			blob = append(blob, b...)
+		}
+	}
 	var buf bytes.Buffer
+	buf.Grow(est + nblob)
+	buf.Write(make([]byte, 8)) // the stream's length, below
 	enc := gob.NewEncoder(&buf)
 	if enc.Encode(packHeader{Magic: cacheMagic, Version: c.Version, N: len(all)}) != nil {
 		return
@@ -417,7 +514,10 @@ func (d *Document) cacheFlush() {
 			return
 		}
 	}
-	if atomicfile.WriteUnsynced(p.path, buf.Bytes(), 0o644) == nil {
+	out := buf.Bytes()
+	binary.LittleEndian.PutUint64(out, uint64(len(out)-8))
+	out = append(out, blob...)
+	if atomicfile.WriteUnsynced(p.path, out, 0o644) == nil {
 		p.loaded = true
 	}
 }
@@ -465,11 +565,13 @@ func (d *Document) resultsSlot(version string) (path, key string, ok bool) {
 }
 
 // cachedResults returns the results file stored for this build's
-// results if there is one, else render()'s, storing it.
-func (d *Document) cachedResults(version string, render func() ([]byte, error)) ([]byte, error) {
+// results if there is one, else render()'s, storing it. render(h)
+// returns the file after h bytes of room for the slot's header (so that
+// the stored form is not a second copy of the file).
+func (d *Document) cachedResults(version string, render func(headroom int) ([]byte, error)) ([]byte, error) {
 	path, key, ok := d.resultsSlot(version)
 	if !ok {
-		return render()
+		return render(0)
 	}
 	// stored as the key, the SHA-256 of the file, a line feed, the file
 	head := []byte(key + " ")
@@ -483,12 +585,56 @@ func (d *Document) cachedResults(version string, render func() ([]byte, error)) 
 			}
 		}
 	}
-	b, err := render()
+	room := len(head) + 2*sha256.Size + 1
+	b, err := render(room)
 	if err != nil {
 		return nil, err
 	}
-	sum := sha256.Sum256(b)
-	out := append(append(append(head, hex.EncodeToString(sum[:])...), '\n'), b...)
-	_ = atomicfile.WriteUnsynced(path, out, 0o644) // a failure costs a render next time
-	return b, nil
+	body := b[room:]
+	sum := sha256.Sum256(body)
+	copy(b, head)
+	hex.Encode(b[len(head):], sum[:])
+	b[room-1] = '\n'
+	_ = atomicfile.WriteUnsynced(path, b, 0o644) // a failure costs a render next time
+	return body, nil
+}
+
+// encodeTrees encodes a result's Values, Spec and Test.Extra (in that
+// order) in the tree codec; false if one holds a type it does not know.
+func encodeTrees(res *Result) ([]byte, bool) {
+	var extra map[string]any
+	if res.Test != nil {
+		extra = res.Test.Extra
+	}
+	b := make([]byte, 0, 1024)
+	var err error
+	for _, v := range []map[string]any{res.Values, res.Spec, extra} {
+		if b, err = appendTree(b, v); err != nil {
+			return nil, false
+		}
+	}
+	return b, true
+}
+
+// takeBlobs points the entry's figure bytes into blob, the pack's byte
+// section (read in place, not copied); false if Blobs does not fit it.
+func (e *cacheEntry) takeBlobs(blob []byte) bool {
+	if len(e.Blobs) == 0 {
+		return true
+	}
+	if len(e.Blobs) != 6 || e.Result == nil || e.Result.Figure == nil {
+		return false
+	}
+	e.blobs = make([][]byte, 3)
+	for i := range e.blobs {
+		off, n := e.Blobs[2*i], e.Blobs[2*i+1]
+		if n == -1 {
+			continue
+		}
+		if off < 0 || n < 0 || off > len(blob) || n > len(blob)-off {
+			return false
+		}
+		e.blobs[i] = blob[off : off+n : off+n]
+	}
+	return true
 }

@@ -39,10 +39,8 @@ type Library struct {
 var bibMu sync.Mutex
 
 var (
-	entryStartRE  = regexp.MustCompile(`(?m)^[ \t]*@([A-Za-z]+)[ \t]*[{(][ \t]*([^,\s]+)[ \t]*,`)
-	parsePosRE    = regexp.MustCompile(`at (\d+):(\d+)`)
-	commentLineRE = regexp.MustCompile(`(?m)^[ \t]*%.*$`)
-	citeKeyRE     = regexp.MustCompile(`^[A-Za-z0-9:_.+/-]+$`)
+	parsePosRE = regexp.MustCompile(`at (\d+):(\d+)`)
+	citeKeyRE  = regexp.MustCompile(`^[A-Za-z0-9:_.+/-]+$`)
 )
 
 // ParseBib reads a BibTeX file with github.com/nickng/bibtex and
@@ -56,7 +54,7 @@ func ParseBib(file string, src []byte) (*Library, error) {
 	}
 	lines := map[string]int{}
 	var order []string
-	for _, m := range entryStartRE.FindAllSubmatchIndex(src, -1) {
+	for _, m := range entryStarts(src) {
 		typ := strings.ToLower(string(src[m[2]:m[3]]))
 		if typ == "string" || typ == "comment" || typ == "preamble" {
 			continue
@@ -74,7 +72,7 @@ func ParseBib(file string, src []byte) (*Library, error) {
 	}
 	// BibTeX ignores text outside entries; the reader does not always, so
 	// comment lines are blanked (keeping the line count).
-	clean := commentLineRE.ReplaceAll(src, nil)
+	clean := blankComments(src)
 	bibMu.Lock()
 	parsed, err := parseBibSafely(clean)
 	bibMu.Unlock()
@@ -166,7 +164,98 @@ func (e *BibEntry) finish() error {
 	return nil
 }
 
-var andRE = regexp.MustCompile(`\s+and\s+`)
+// entryStarts finds the entry openings "@type{key," that start a line
+// (after spaces and tabs), what the expression
+// `(?m)^[ \t]*@([A-Za-z]+)[ \t]*[{(][ \t]*([^,\s]+)[ \t]*,` finds: for
+// each, the offsets of the match and of its two groups, as
+// FindAllSubmatchIndex gives them.
+func entryStarts(src []byte) [][6]int {
+	var out [][6]int
+	blank := func(i int) int {
+		for i < len(src) && (src[i] == ' ' || src[i] == '\t') {
+			i++
+		}
+		return i
+	}
+	for start := 0; start < len(src); {
+		end := bytes.IndexByte(src[start:], '\n')
+		if end < 0 {
+			end = len(src)
+		} else {
+			end += start
+		}
+		i := blank(start)
+		if i < end && src[i] == '@' {
+			t0 := i + 1
+			t1 := t0
+			for t1 < end && ('a' <= src[t1]|0x20 && src[t1]|0x20 <= 'z') {
+				t1++
+			}
+			j := blank(t1)
+			if t1 > t0 && j < end && (src[j] == '{' || src[j] == '(') {
+				k0 := blank(j + 1)
+				k1 := k0
+				for k1 < end && src[k1] != ',' && !isRESpace(src[k1]) {
+					k1++
+				}
+				c := blank(k1)
+				if k1 > k0 && c < end && src[c] == ',' {
+					out = append(out, [6]int{start, c + 1, t0, t1, k0, k1})
+				}
+			}
+		}
+		start = end + 1
+	}
+	return out
+}
+
+// andAt returns the length of the name separator (the match of
+// `\s+and\s+`, RE2's \s being [\t\n\f\r ]) that starts at s[i], or 0.
+func andAt(s string, i int) int {
+	j := i
+	for j < len(s) && isRESpace(s[j]) {
+		j++
+	}
+	if j == i || !strings.HasPrefix(s[j:], "and") {
+		return 0
+	}
+	k := j + 3
+	for k < len(s) && isRESpace(s[k]) {
+		k++
+	}
+	if k == j+3 {
+		return 0
+	}
+	return k - i
+}
+
+func isRESpace(c byte) bool {
+	return c == ' ' || c == '\t' || c == '\n' || c == '\f' || c == '\r'
+}
+
+// blankComments removes the text of every line whose first character
+// after spaces and tabs is '%' (keeping its line feed, so that line
+// numbers stay), what `(?m)^[ \t]*%.*$` replaced by "" removes.
+func blankComments(src []byte) []byte {
+	out := make([]byte, 0, len(src))
+	for len(src) > 0 {
+		line := src
+		rest := []byte(nil)
+		if k := bytes.IndexByte(src, '\n'); k >= 0 {
+			line, rest = src[:k], src[k:]
+		}
+		t := bytes.TrimLeft(line, " \t")
+		if len(t) == 0 || t[0] != '%' {
+			out = append(out, line...)
+		}
+		if rest == nil {
+			break
+		}
+		out = append(out, '\n')
+		src = rest[1:]
+	}
+	return out
+}
 
 // ParseNames splits a BibTeX name list at "and" (outside braces); a
 // last name "others" is the "et al." mark.
@@ -199,9 +288,9 @@ func splitTopLevel(s string) []string {
 			depth--
 		}
 		if depth == 0 {
-			if loc := andRE.FindStringIndex(s[i:]); loc != nil && loc[0] == 0 {
+			if n := andAt(s, i); n > 0 {
 				parts = append(parts, s[start:i])
-				i += loc[1] - 1
+				i += n - 1
 				start = i + 1
 			}
 		}
@@ -334,7 +423,19 @@ func SortReferences(entries []*BibEntry) {
 		}
 		return b.String() + "\x00" + e.Fields["year"] + "\x00" + strings.ToLower(e.Field("title"))
 	}
-	sort.SliceStable(entries, func(i, j int) bool { return key(entries[i]) < key(entries[j]) })
+	// each key once, not once per comparison (it detexes every name)
+	type keyed struct {
+		key string
+		e   *BibEntry
+	}
+	ks := make([]keyed, len(entries))
+	for i, e := range entries {
+		ks[i] = keyed{key(e), e}
+	}
+	sort.SliceStable(ks, func(i, j int) bool { return ks[i].key < ks[j].key })
+	for i := range ks {
+		entries[i] = ks[i].e
+	}
 }
 
 var accentCommands = map[string]rune{

@@ -33,11 +33,30 @@ const TallBlockBytes = 256 << 10
 // NestedTall returns an error for a malformed shape or a non-finite
 // entry.
 func NestedTall(cols [][]float64, ssr, t []float64) (indep int, err error) {
-	return nestedTall(cols, ssr, t, max(TallBlockBytes/(8*len(cols))-len(cols), 2*len(cols)))
+	return nestedTall(cols, nil, ssr, t, tallBlock(len(cols)))
 }
 
-// nestedTall is NestedTall with blocks of the given number of rows.
-func nestedTall(cols [][]float64, ssr, t []float64, block int) (indep int, err error) {
+// NestedTallScaled is NestedTall for the columns x_j = s_j·c_j (j < m)
+// and y = c_m, with c_j = cols[j] and s_j = scale[j] (len(scale) = m;
+// the response is not scaled). Each block of rows is formed as
+// s_j·c_j[lo:hi] when it is factorised, so the scaled design is never
+// held whole and the columns may share storage (the lags of one series
+// as windows of it). Every entry s_j·c_ij is the same product that
+// scaling a copy of c_j in place would store, so the result is that of
+// NestedTall on the scaled copies, bit for bit.
+func NestedTallScaled(cols [][]float64, scale []float64, ssr, t []float64) (indep int, err error) {
+	if len(scale) != len(cols)-1 {
+		return 0, fmt.Errorf("%w: %d scales for %d design columns", ErrShape, len(scale), len(cols)-1)
+	}
+	return nestedTall(cols, scale, ssr, t, tallBlock(len(cols)))
+}
+
+// tallBlock is the number of rows of a block of w columns.
+func tallBlock(w int) int { return max(TallBlockBytes/(8*w)-w, 2*w) }
+
+// nestedTall is NestedTall with blocks of the given number of rows;
+// scale (nil: none) multiplies the design columns as they are copied.
+func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) (indep int, err error) {
 	w := len(cols)
 	m := w - 1
 	if m < 1 {
@@ -75,7 +94,14 @@ func nestedTall(cols [][]float64, ssr, t []float64, block int) (indep int, err e
 		for j := 0; j < w; j++ {
 			c := work[j][:h]
 			copy(c[:have], r[j*w:j*w+have])
-			copy(c[have:], cols[j][lo:hi])
+			if scale == nil || j == m {
+				copy(c[have:], cols[j][lo:hi])
+			} else {
+				s, dst := scale[j], c[have:]
+				for i, v := range cols[j][lo:hi] {
+					dst[i] = v * s
+				}
+			}
 		}
 		if have > 0 {
 			for j := 0; j < w; j++ { // zero below R's diagonal

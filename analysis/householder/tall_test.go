@@ -83,7 +83,7 @@ func TestNestedTallMatchesFactor(t *testing.T) {
 	keep := clone(cols)
 	for _, block := range []int{15, 16, 97, 1000, 2500, 4999, 5000, 100000} {
 		ssr, tt := make([]float64, 14), make([]float64, 14)
-		ind, err := nestedTall(cols, ssr, tt, block)
+		ind, err := nestedTall(cols, nil, ssr, tt, block)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -116,7 +116,7 @@ func TestNestedTallRank(t *testing.T) {
 	copy(cols[5], cols[3])
 	_, _, ind0 := nestedRef(t, cols)
 	ssr, tt := make([]float64, 14), make([]float64, 14)
-	ind, err := nestedTall(cols, ssr, tt, 100)
+	ind, err := nestedTall(cols, nil, ssr, tt, 100)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -127,7 +127,7 @@ func TestNestedTallRank(t *testing.T) {
 		t.Errorf("t = %v: want NaN from the sixth sub-design on", tt)
 	}
 	cols[2][2500] = math.Inf(1)
-	if _, err := nestedTall(cols, ssr, tt, 100); err == nil {
+	if _, err := nestedTall(cols, nil, ssr, tt, 100); err == nil {
 		t.Error("an infinite entry gave no error")
 	}
 	if _, err := NestedTall(cols[:1], nil, nil); err == nil {
@@ -186,5 +186,59 @@ func TestColumnsDenseAndGeneral(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// TestNestedTallScaledBitForBit: scaling the design columns as each
+// block is copied gives what NestedTall gives on copies scaled in
+// place, bit for bit, with columns that share storage (windows of one
+// series, as the lags of a unit-root regression are).
+func TestNestedTallScaledBitForBit(t *testing.T) {
+	cols := adfLike(5000, 3)
+	m := len(cols) - 1
+	// the design columns become windows of one series
+	long := make([]float64, 5000+m)
+	copy(long[m:], cols[0])
+	src := make([][]float64, m+1)
+	for j := 0; j < m; j++ {
+		src[j] = long[m-j : m-j+5000]
+	}
+	src[m] = cols[m]
+	scale := make([]float64, m)
+	scaled := make([][]float64, m+1)
+	for j := 0; j < m; j++ {
+		scale[j] = 1 / math.Sqrt(float64(j+2))
+		scaled[j] = make([]float64, 5000)
+		for i, v := range src[j] {
+			scaled[j][i] = v * scale[j]
+		}
+	}
+	scaled[m] = append([]float64(nil), src[m]...)
+	ssr0, t0 := make([]float64, m), make([]float64, m)
+	ind0, err := NestedTall(scaled, ssr0, t0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	keep := append([]float64(nil), long...)
+	ssr, tt := make([]float64, m), make([]float64, m)
+	ind, err := NestedTallScaled(src, scale, ssr, tt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ind != ind0 {
+		t.Errorf("Indep %d, want %d", ind, ind0)
+	}
+	for j := 0; j < m; j++ {
+		if math.Float64bits(ssr[j]) != math.Float64bits(ssr0[j]) || math.Float64bits(tt[j]) != math.Float64bits(t0[j]) {
+			t.Errorf("sub-design %d: SSR %v t %v, scaled copies %v %v", j+1, ssr[j], tt[j], ssr0[j], t0[j])
+		}
+	}
+	for i := range long {
+		if long[i] != keep[i] {
+			t.Fatal("NestedTallScaled changed its input")
+		}
+	}
+	if _, err := NestedTallScaled(src, scale[1:], ssr, tt); err == nil {
+		t.Error("a missing scale was accepted")
 	}
 }

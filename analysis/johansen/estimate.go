@@ -377,16 +377,19 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		v.Short = mat.NewDense(k, ns, nil)
 		v.ShortSE = mat.NewDense(k, ns, nil)
 	}
-	yi := make([]float64, t)
+	ys := make([][]float64, k)
+	for i := range ys {
+		ys[i] = mat.Col(nil, i, r.z0)
+	}
 	v.eqCov = make([]*mat.SymDense, k)
 	v.dfResid = t - rank - ns
 	v.Resid = mat.NewDense(t, k, nil)
-	for i := 0; i < k; i++ {
-		mat.Col(yi, i, r.z0)
-		f, err := ols.Regress(yi, x)
-		if err != nil {
-			return fmt.Errorf("johansen: short-run equation %d: %v", i, err)
-		}
+	// every equation has the same regressors: one factorisation
+	fits, err := ols.RegressEach(ys, x)
+	if err != nil {
+		return fmt.Errorf("johansen: short-run equations: %v", err)
+	}
+	for i, f := range fits {
 		cov := f.Cov(ols.CovSpec{Kind: ols.Classical})
 		v.eqCov[i] = cov
 		for j, e := range f.Resid {

@@ -50,9 +50,26 @@ type Fit struct {
 // collinear when |R_jj| ≤ householder.CollinearTol·‖x_j‖.
 // X must have N rows (len(y)) and K < N columns; rows are observations.
 func Regress(y []float64, x *mat.Dense) (*Fit, error) {
+	fs, err := RegressEach([][]float64{y}, x)
+	if err != nil {
+		return nil, err
+	}
+	return fs[0], nil
+}
+
+// RegressEach fits y_i = Xβ_i + e_i by least squares for every response
+// y_i in ys on the same X, as Regress does one at a time, from one
+// Householder QR of the column-scaled X with every response carried as
+// an extra column (Qᵀy_i; Golub and Van Loan 2013, §5.3.3, one
+// factorisation for several right-hand sides). The reflections act on
+// each column separately, so every fit equals Regress(y_i, x) bit for
+// bit. Errors are those of Regress (every response is checked before X).
+func RegressEach(ys [][]float64, x *mat.Dense) ([]*Fit, error) {
 	n, k := x.Dims()
-	if n != len(y) {
-		return nil, fmt.Errorf("ols: %d observations in y but %d rows in X", len(y), n)
+	for _, y := range ys {
+		if n != len(y) {
+			return nil, fmt.Errorf("ols: %d observations in y but %d rows in X", len(y), n)
+		}
 	}
 	if k == 0 {
 		return nil, errors.New("ols: no regressors")
@@ -60,16 +77,18 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 	if n <= k {
 		return nil, fmt.Errorf("ols: %w: %d observations for %d regressors", ErrTooFewObs, n, k)
 	}
-	for i, v := range y {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("ols: y[%d] is not finite", i)
+	for _, y := range ys {
+		for i, v := range y {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("ols: y[%d] is not finite", i)
+			}
 		}
 	}
 	// Scale the columns to unit norm before factorising; this makes the
-	// condition estimate scale invariant. The response rides along as
-	// column k, so that it comes back as Qᵀy.
+	// condition estimate scale invariant. The responses ride along as
+	// columns k, k+1, …, so that they come back as Qᵀy.
 	scale := make([]float64, k)
-	cols := householder.Columns(x, 1)
+	cols := householder.Columns(x, len(ys))
 	for j := 0; j < k; j++ {
 		c := cols[j]
 		var s float64
@@ -88,21 +107,15 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 			c[i] /= s
 		}
 	}
-	copy(cols[k], y)
+	for r, y := range ys {
+		copy(cols[k+r], y)
+	}
 	var qr householder.QR
 	if err := qr.Factor(cols, k); err != nil {
 		return nil, fmt.Errorf("ols: %w", err)
 	}
 	if j := qr.Indep(); j < k {
 		return nil, &CollinearError{Col: j}
-	}
-	bs := append([]float64(nil), cols[k][:k]...) // (Qᵀy)_{0..k−1}
-	if err := qr.Solve(bs); err != nil {
-		return nil, fmt.Errorf("ols: %w", err)
-	}
-	f := &Fit{N: n, K: k, Coef: make([]float64, k), x: x}
-	for j := 0; j < k; j++ {
-		f.Coef[j] = bs[j] / scale[j]
 	}
 	// R⁻¹ of the unscaled problem: X = Xs·D, Xs = QRs, so X = Q(Rs·D), R = Rs·D, R⁻¹ = D⁻¹Rs⁻¹.
 	r := qr.R()
@@ -116,30 +129,48 @@ func Regress(y []float64, x *mat.Dense) (*Fit, error) {
 			rinv.SetTri(i, j, rsinv.At(i, j)/scale[i])
 		}
 	}
-	f.rinv = rinv
-	f.Cond = qr.Cond()
-
-	f.Fitted = make([]float64, n)
-	f.Resid = make([]float64, n)
-	var ybar float64
-	for _, v := range y {
-		ybar += v
-	}
-	ybar /= float64(n)
-	for i := 0; i < n; i++ {
-		var fit float64
-		for j := 0; j < k; j++ {
-			fit += x.At(i, j) * f.Coef[j]
+	cond := qr.Cond()
+	raw := x.RawMatrix()
+	out := make([]*Fit, len(ys))
+	for ri, y := range ys {
+		bs := append([]float64(nil), cols[k+ri][:k]...) // (Qᵀy)_{0..k−1}
+		if err := qr.Solve(bs); err != nil {
+			return nil, fmt.Errorf("ols: %w", err)
 		}
-		f.Fitted[i] = fit
-		e := y[i] - fit
-		f.Resid[i] = e
-		f.SSR += e * e
-		d := y[i] - ybar
-		f.TSS += d * d
-		f.YY += y[i] * y[i]
+		f := &Fit{N: n, K: k, Coef: make([]float64, k), x: x, Cond: cond}
+		if ri == 0 {
+			f.rinv = rinv
+		} else {
+			f.rinv = mat.NewTriDense(k, mat.Upper, nil)
+			f.rinv.Copy(rinv)
+		}
+		for j := 0; j < k; j++ {
+			f.Coef[j] = bs[j] / scale[j]
+		}
+		f.Fitted = make([]float64, n)
+		f.Resid = make([]float64, n)
+		var ybar float64
+		for _, v := range y {
+			ybar += v
+		}
+		ybar /= float64(n)
+		for i := 0; i < n; i++ {
+			row := raw.Data[i*raw.Stride : i*raw.Stride+k]
+			var fit float64
+			for j, v := range row {
+				fit += v * f.Coef[j]
+			}
+			f.Fitted[i] = fit
+			e := y[i] - fit
+			f.Resid[i] = e
+			f.SSR += e * e
+			d := y[i] - ybar
+			f.TSS += d * d
+			f.YY += y[i] * y[i]
+		}
+		out[ri] = f
 	}
-	return f, nil
+	return out, nil
 }
 
 // DF is the residual degrees of freedom N − K.

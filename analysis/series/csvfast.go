@@ -64,7 +64,7 @@ func readPlainCSV(raw []byte, source string, freq Freq) (f *Frame, err error, ok
 	s := string(raw) // one copy; every field is a substring of it
 	t := newTable(source, freq)
 	t.rowsHint = strings.Count(s, "\n") + 1
-	parallel := t.rowsHint >= parallelRows && runtime.GOMAXPROCS(0) > 1
+	parallel := false // decided from the header's width
 	var spans []int32 // parallel: start and end of each data row in s
 	var fields []string
 	line, header, pos := 0, false, 0
@@ -91,6 +91,10 @@ func readPlainCSV(raw []byte, source string, freq Freq) (f *Frame, err error, ok
 				return nil, err, true
 			}
 			header = true
+			parallel = t.rowsHint*len(fields) >= parallelCells && runtime.GOMAXPROCS(0) > 1
+			if parallel {
+				spans = make([]int32, 0, 2*t.rowsHint)
+			}
 			continue
 		}
 		if !parallel {
@@ -120,11 +124,12 @@ func readPlainCSV(raw []byte, source string, freq Freq) (f *Frame, err error, ok
 	return f, err, true
 }
 
-// parallelRows is the number of rows from which readPlainCSV parses the
-// values on every core: the rows are split and dated in order first
-// (those checks read the rows before), then the values, independent of
-// each other, are parsed in contiguous blocks at the same time.
-const parallelRows = 16384
+// parallelCells is the number of cells (rows times columns) from which
+// readPlainCSV parses the values on every core: the rows are split and
+// dated in order first (those checks read the rows before), then the
+// values, independent of each other, are parsed in contiguous blocks at
+// the same time.
+const parallelCells = 32768
 
 // splitFields appends the fields of one line to fields.
 func splitFields(fields []string, l string, comma byte) []string {
@@ -147,7 +152,7 @@ func (t *table) parseValuesParallel(s string, comma byte, spans []int32) error {
 	for k := range t.f.cols {
 		t.f.cols[k] = t.f.cols[k][:n] // rowsHint ≥ n: no new array
 	}
-	workers := min(runtime.GOMAXPROCS(0), 8, max(n/(parallelRows/2), 1))
+	workers := min(runtime.GOMAXPROCS(0), 8, max(n*max(len(t.f.cols), 1)/(parallelCells/2), 1))
 	errs := make([]error, workers)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {

@@ -96,7 +96,7 @@ func TestReadCSVBytesPlainPath(t *testing.T) {
 // values and dates early, late, at block boundaries and together (the
 // earlier one must win, as in a reading in order).
 func TestReadCSVBytesParallelSame(t *testing.T) {
-	const n = 2*parallelRows + 3
+	const n = 2*parallelCells/3 + 3 // three columns
 	row := func(i int) []string {
 		y, m := 1000+i/12, i%12+1
 		return []string{fmt.Sprintf("%d-%02d", y, m), fmt.Sprintf("%d.5", i), fmt.Sprintf("%de-3", 2*i)}

@@ -4,7 +4,7 @@
 package series
 
 import (
-	"fmt"
+	"strconv"
 	"time"
 )
 
@@ -78,17 +78,30 @@ func (d Date) Day() time.Time {
 // String formats the date in the canonical form for its frequency:
 // 1990, 1990Q1, 1990-01, 1990-01-31, or the observation number.
 func (d Date) String() string {
+	// strconv rather than fmt: a results file writes one per observation
 	switch d.Freq {
 	case Annual:
-		return fmt.Sprintf("%d", d.Year)
+		return strconv.Itoa(d.Year)
 	case Quarterly:
-		return fmt.Sprintf("%dQ%d", d.Year, d.Sub)
+		return strconv.Itoa(d.Year) + "Q" + strconv.Itoa(d.Sub)
 	case Monthly:
-		return fmt.Sprintf("%d-%02d", d.Year, d.Sub)
+		if d.Sub >= 0 && d.Sub < 10 {
+			return strconv.Itoa(d.Year) + "-0" + strconv.Itoa(d.Sub)
+		}
+		return strconv.Itoa(d.Year) + "-" + strconv.Itoa(d.Sub)
 	case Daily:
-		return d.Day().Format("2006-01-02")
+		day := d.Day()
+		y, m, dd := day.Date()
+		if y < 0 || y > 9999 {
+			return day.Format("2006-01-02")
+		}
+		b := make([]byte, 10)
+		b[0], b[1], b[2], b[3] = byte('0'+y/1000), byte('0'+y/100%10), byte('0'+y/10%10), byte('0'+y%10)
+		b[4], b[5], b[6] = '-', byte('0'+int(m)/10), byte('0'+int(m)%10)
+		b[7], b[8], b[9] = '-', byte('0'+dd/10), byte('0'+dd%10)
+		return string(b)
 	default:
-		return fmt.Sprintf("%d", d.Sub)
+		return strconv.Itoa(d.Sub)
 	}
 }
 

@@ -145,7 +145,10 @@ func enoughObs(t, d, p int) error {
 // t = max+1..T−1 from one nested QR of [X_max | Δy] and returns the
 // values and the choice.
 func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, int, error) {
-	cols, n := selectionColumns(y, det, d, max)
+	cols, n := selectionSources(y, det, d, max)
+	if !tall(n, len(cols)) {
+		cols = materialise(cols) // nested scales a small design in place
+	}
 	ns := nested(cols)
 	if !ns.ok[d] {
 		return nil, 0, fmt.Errorf("unitroot: y_{t−1} is collinear with the deterministic terms on the comparison sample")
@@ -186,13 +189,22 @@ func selectLag(y []float64, det detFunc, d, max int, sel Selector) ([]float64, i
 
 // selectionColumns returns the comparison design for p = 0..max in
 // column-major form, [deterministics | y_{t−1} | Δy_{t−1} … Δy_{t−max} |
-// Δy_t] over t = max+1..T−1, and its number of rows.
+// Δy_t] over t = max+1..T−1, each column its own storage, and its
+// number of rows.
 func selectionColumns(y []float64, det detFunc, d, max int) ([][]float64, int) {
+	src, n := selectionSources(y, det, d, max)
+	return materialise(src), n
+}
+
+// selectionSources is selectionColumns without the copies: y_{t−1} is a
+// window of y and the differences windows of one series Δy (only the
+// deterministic columns are stored), so the columns share storage.
+func selectionSources(y []float64, det detFunc, d, max int) ([][]float64, int) {
 	n := len(y) - 1 - max
 	m := d + 1 + max
-	buf := make([]float64, n*(m+1))
 	cols := make([][]float64, m+1)
-	for j := range cols {
+	buf := make([]float64, n*d)
+	for j := 0; j < d; j++ {
 		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
 	}
 	row := make([]float64, d)
@@ -202,14 +214,27 @@ func selectionColumns(y []float64, det detFunc, d, max int) ([][]float64, int) {
 			cols[j][i] = row[j]
 		}
 	}
-	copy(cols[d], y[max:max+n])     // y_{t−1}, t = max+1..
-	dy := make([]float64, len(y)-1) // dy[s] = Δy_{s+1}
+	cols[d] = y[max : max+n : max+n] // y_{t−1}, t = max+1..
+	dy := make([]float64, len(y)-1)  // dy[s] = Δy_{s+1}
 	for s := range dy {
 		dy[s] = y[s+1] - y[s]
 	}
 	for l := 1; l <= max; l++ { // Δy_{t−l} = dy[t−l−1]
-		copy(cols[d+l], dy[max-l:max-l+n])
+		cols[d+l] = dy[max-l : max-l+n : max-l+n]
 	}
-	copy(cols[m], dy[max:max+n]) // Δy_t
+	cols[m] = dy[max : max+n : max+n] // Δy_t
 	return cols, n
+}
+
+// materialise copies columns into one column-major block, each column
+// its own storage.
+func materialise(src [][]float64) [][]float64 {
+	n := len(src[0])
+	buf := make([]float64, n*len(src))
+	cols := make([][]float64, len(src))
+	for j, c := range src {
+		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
+		copy(cols[j], c)
+	}
+	return cols
 }

@@ -28,26 +28,33 @@ type nestedLS struct {
 }
 
 // nested factorises the columns cols[0..m−1] of X and the response
-// cols[m] (each of length n > m, contiguous: column-major storage), in
-// place, or for a design larger than tallBytes in blocks of rows
-// (householder.NestedTall; the same R to rounding, so the criteria agree
-// to about 1e-15 relative).
+// cols[m] (each of length n > m). A design of at most tallBytes is
+// scaled and factorised in place, so its columns must not share
+// storage; a larger one is factorised in blocks of rows
+// (householder.NestedTallScaled; the same R to rounding, so the
+// criteria agree to about 1e-15 relative), each block scaled as it is
+// copied, and cols are left unchanged and may be windows of one series.
 func nested(cols [][]float64) nestedLS {
 	m := len(cols) - 1
 	n := len(cols[0])
-	for j := 0; j < m; j++ { // unit column length for the design
+	scale := make([]float64, m) // unit column length for the design
+	for j := range scale {
+		scale[j] = 1
 		if s := math.Sqrt(floats.Dot(cols[j], cols[j])); s > 0 {
-			floats.Scale(1/s, cols[j])
+			scale[j] = 1 / s
 		}
 	}
 	out := nestedLS{n: n, ssr: make([]float64, m), t: make([]float64, m), ok: make([]bool, m)}
 	var indep int
 	var err error
-	if n*len(cols)*8 > tallBytes {
+	if tall(n, len(cols)) {
 		// a design larger than the cache: the same factorisation in
 		// blocks of rows (equal to rounding)
-		indep, err = householder.NestedTall(cols, out.ssr, out.t)
+		indep, err = householder.NestedTallScaled(cols, scale, out.ssr, out.t)
 	} else {
+		for j, s := range scale {
+			floats.Scale(s, cols[j])
+		}
 		var f householder.QR
 		if err = f.Factor(cols, m); err == nil {
 			err = f.Nested(m, out.ssr, out.t)
@@ -65,6 +72,10 @@ func nested(cols [][]float64) nestedLS {
 	}
 	return out
 }
+
+// tall reports whether a design of n rows and w columns (response
+// included) is factorised by nested in blocks of rows.
+func tall(n, w int) bool { return n*w*8 > tallBytes }
 
 // tallBytes is the size of [X | y] above which nested factorises it in
 // blocks of rows (householder.NestedTall) rather than sweeping whole

@@ -66,3 +66,28 @@ func TestNestedTallDesign(t *testing.T) {
 		t.Errorf("AIC chose %d lags for an AR(1) in differences, want 1", a.Lags)
 	}
 }
+
+// TestSelectionSourcesBitForBit: the lag search over windows of the
+// series (no copy of the design) gives the criteria of the search over
+// a stored copy of the design, bit for bit.
+func TestSelectionSourcesBitForBit(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 6))
+	y := make([]float64, 30_000)
+	for i := 1; i < len(y); i++ {
+		y[i] = y[i-1] + r.NormFloat64()
+	}
+	for _, c := range []critical.Case{critical.NoConst, critical.Const, critical.ConstTrend, critical.ConstTrendSq} {
+		det, d := caseDet(c)
+		src, n := selectionSources(y, det, d, 12)
+		if !tall(n, len(src)) {
+			t.Fatal("not a tall design")
+		}
+		cols, _ := selectionColumns(y, det, d, 12)
+		got, want := nested(src), nested(cols)
+		for j := range want.ssr {
+			if math.Float64bits(got.ssr[j]) != math.Float64bits(want.ssr[j]) || math.Float64bits(got.t[j]) != math.Float64bits(want.t[j]) || got.ok[j] != want.ok[j] {
+				t.Errorf("case %v, sub-design %d: %v %v, stored design %v %v", c, j+1, got.ssr[j], got.t[j], want.ssr[j], want.t[j])
+			}
+		}
+	}
+}

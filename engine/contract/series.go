@@ -1,6 +1,13 @@
 package contract
 
-import "github.com/galley-econ/galley/analysis/series"
+import (
+	"encoding/binary"
+	"errors"
+	"math"
+	"time"
+
+	"github.com/galley-econ/galley/analysis/series"
+)
 
 // Dated is a dated series a result carries for other directives and for
 // figures: a regression's residuals, actual and fitted values, or an
@@ -33,4 +40,95 @@ func (d Dated) At() map[string]float64 {
 		m[dt.String()] = d.Values[i]
 	}
 	return m
+}
+
+// GobEncode stores the series for the result cache: every date by its
+// frequency and its year and period (a daily date by its day number,
+// which gob could not see), the values by their bits; nil and empty
+// kept apart.
+func (d Dated) GobEncode() ([]byte, error) {
+	b := make([]byte, 0, 16+len(d.Dates)*8+len(d.Values)*8) // a date takes at most 8 bytes but for far-off years
+	b = appendLen(b, d.Dates == nil, len(d.Dates))
+	for _, dt := range d.Dates {
+		b = binary.AppendUvarint(b, uint64(dt.Freq))
+		if dt.Freq == series.Daily {
+			b = binary.AppendVarint(b, dt.Day().Unix()/86400)
+			continue
+		}
+		b = binary.AppendVarint(binary.AppendVarint(b, int64(dt.Year)), int64(dt.Sub))
+	}
+	b = appendLen(b, d.Values == nil, len(d.Values))
+	for _, v := range d.Values {
+		b = binary.LittleEndian.AppendUint64(b, math.Float64bits(v))
+	}
+	return b, nil
+}
+
+// GobDecode reads what GobEncode wrote.
+func (d *Dated) GobDecode(b []byte) error {
+	bad := errors.New("contract: malformed dated series")
+	n, isNil, b, ok := readLen(b)
+	if !ok || n > len(b) {
+		return bad
+	}
+	if !isNil {
+		d.Dates = make([]series.Date, n)
+	}
+	for i := 0; i < n; i++ {
+		f, k := binary.Uvarint(b)
+		if k <= 0 {
+			return bad
+		}
+		b = b[k:]
+		if series.Freq(f) == series.Daily {
+			day, k := binary.Varint(b)
+			if k <= 0 {
+				return bad
+			}
+			b = b[k:]
+			d.Dates[i] = series.DailyDate(time.Unix(day*86400, 0).UTC())
+			continue
+		}
+		y, k := binary.Varint(b)
+		if k <= 0 {
+			return bad
+		}
+		b = b[k:]
+		s, k := binary.Varint(b)
+		if k <= 0 {
+			return bad
+		}
+		b = b[k:]
+		d.Dates[i] = series.Date{Freq: series.Freq(f), Year: int(y), Sub: int(s)}
+	}
+	n, isNil, b, ok = readLen(b)
+	if !ok || n != len(b)/8 || len(b)%8 != 0 {
+		return bad
+	}
+	if !isNil {
+		d.Values = make([]float64, n)
+	}
+	for i := 0; i < n; i++ {
+		d.Values[i] = math.Float64frombits(binary.LittleEndian.Uint64(b[8*i:]))
+	}
+	return nil
+}
+
+// appendLen writes a length, 0 standing for nil and n+1 for n.
+func appendLen(b []byte, isNil bool, n int) []byte {
+	if isNil {
+		return append(b, 0)
+	}
+	return binary.AppendUvarint(b, uint64(n)+1)
+}
+
+func readLen(b []byte) (n int, isNil bool, rest []byte, ok bool) {
+	v, k := binary.Uvarint(b)
+	if k <= 0 || v > uint64(len(b)) {
+		return 0, false, nil, false
+	}
+	if v == 0 {
+		return 0, true, b[k:], true
+	}
+	return int(v - 1), false, b[k:], true
 }

@@ -5,6 +5,7 @@ package atomicfile
 import (
 	"bytes"
 	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -79,7 +80,7 @@ type staged struct{ path, tmp string }
 // holds exactly data is left as it is (not rewritten, not synced), so a
 // rebuild that changes nothing writes nothing.
 func (s *Set) Stage(path string, data []byte) error {
-	if old, err := os.ReadFile(path); err == nil && bytes.Equal(old, data) {
+	if sameContent(path, data) {
 		return nil
 	}
 	name, err := stage(path, data, 0o644, false)
@@ -211,4 +212,35 @@ func removeStale(path string) {
 func globEscape(s string) string {
 	r := strings.NewReplacer(`\`, `\\`, "*", `\*`, "?", `\?`, "[", `\[`)
 	return r.Replace(s)
+}
+
+// sameContent reports whether the regular file at path holds exactly
+// data: its size first, then its bytes read in blocks into one small
+// buffer (a build compares every output with the file it would replace,
+// and reading each whole file into new memory cost more than the
+// comparison).
+func sameContent(path string, data []byte) bool {
+	f, err := os.Open(path)
+	if err != nil {
+		return false
+	}
+	defer f.Close()
+	st, err := f.Stat()
+	if err != nil || !st.Mode().IsRegular() || st.Size() != int64(len(data)) {
+		return false
+	}
+	buf := make([]byte, min(len(data), 64<<10)+1)
+	for {
+		n, err := f.Read(buf)
+		if n > len(data) || !bytes.Equal(buf[:n], data[:n]) {
+			return false
+		}
+		data = data[n:]
+		if err == io.EOF {
+			return len(data) == 0
+		}
+		if err != nil {
+			return false
+		}
+	}
 }

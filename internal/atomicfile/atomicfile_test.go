@@ -128,3 +128,38 @@ func TestCommitAllOrNothing(t *testing.T) {
 		}
 	}
 }
+
+// TestSameContent: a file equals data only byte for byte, across the
+// comparison's blocks.
+func TestSameContent(t *testing.T) {
+	dir := t.TempDir()
+	big := make([]byte, 200_003)
+	for i := range big {
+		big[i] = byte(i * 7)
+	}
+	p := filepath.Join(dir, "f")
+	if err := os.WriteFile(p, big, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if !sameContent(p, big) {
+		t.Error("equal content not seen")
+	}
+	for _, at := range []int{0, 65535, 65536, 65537, 200_002} {
+		d := append([]byte(nil), big...)
+		d[at]++
+		if sameContent(p, d) {
+			t.Errorf("a change at byte %d not seen", at)
+		}
+	}
+	if sameContent(p, big[:len(big)-1]) || sameContent(p, append(append([]byte(nil), big...), 0)) {
+		t.Error("a different length not seen")
+	}
+	if sameContent(filepath.Join(dir, "missing"), nil) || sameContent(dir, nil) {
+		t.Error("a missing file or a folder matched")
+	}
+	e := filepath.Join(dir, "empty")
+	os.WriteFile(e, nil, 0o644)
+	if !sameContent(e, nil) || sameContent(e, []byte{0}) {
+		t.Error("empty file")
+	}
+}

@@ -1,9 +1,9 @@
 // Command genxlsx writes the workbooks under testdata/series that test
 // the .xlsx reader (dataio.ReadXLSX). They are written by
-// github.com/xuri/excelize/v2 (the version in go.mod), the library the
-// reader also decodes with, so they check galley's reading of the cells
-// (types, date formats, serials) and the table rules rather than the
-// XML decoding; dataio/xlsx_handmade_test.go builds workbooks by hand,
+// github.com/xuri/excelize/v2 (the version in go.mod), so they check
+// galley's own reader (dataio/ooxml.go) on workbooks another library
+// wrote: the decoding, the cells (types, date formats, serials) and the
+// table rules; dataio/xlsx_handmade_test.go builds workbooks by hand,
 // without excelize, for the parts these files do not reach.
 // The values are an invented scenario: a made-up economy whose output
 // grows by 1.5 a quarter from 100, and whose rate is 2 + i/10.

@@ -1,0 +1,68 @@
+package contract
+
+import (
+	"bytes"
+	"encoding/gob"
+	"math"
+	"reflect"
+	"testing"
+	"time"
+
+	"github.com/galley-econ/galley/analysis/series"
+)
+
+// TestDatedGob: a dated series comes back from gob (the result cache)
+// with its dates — daily ones included, whose day number gob could not
+// see in series.Date — its values bit for bit, and nil and empty apart.
+func TestDatedGob(t *testing.T) {
+	day := func(y, m, d int) series.Date {
+		return series.DailyDate(time.Date(y, time.Month(m), d, 0, 0, 0, 0, time.UTC))
+	}
+	nan := math.Float64frombits(0x7ff8000000000042)
+	type holder struct {
+		Series    map[string]Dated
+		Relations []Dated
+	}
+	in := holder{
+		Series: map[string]Dated{
+			"daily":   {Dates: []series.Date{day(1969, 12, 31), day(2020, 2, 29), day(1600, 1, 1)}, Values: []float64{1.5, math.Copysign(0, -1), nan}},
+			"monthly": {Dates: []series.Date{{Freq: series.Monthly, Year: 1990, Sub: 12}, {Freq: series.Quarterly, Year: -3, Sub: 4}, {Freq: series.Undated, Sub: 77}}, Values: []float64{math.Inf(-1), 1e-300, 3}},
+			"empty":   {Dates: []series.Date{}, Values: []float64{}},
+			"nil":     {},
+		},
+		Relations: []Dated{{Dates: []series.Date{{Freq: series.Annual, Year: 2001}}, Values: []float64{2}}},
+	}
+	var buf bytes.Buffer
+	if err := gob.NewEncoder(&buf).Encode(in); err != nil {
+		t.Fatal(err)
+	}
+	var out holder
+	if err := gob.NewDecoder(&buf).Decode(&out); err != nil {
+		t.Fatal(err)
+	}
+	for k, want := range in.Series {
+		got := out.Series[k]
+		if !reflect.DeepEqual(got.Dates, want.Dates) || (got.Dates == nil) != (want.Dates == nil) || (got.Values == nil) != (want.Values == nil) || len(got.Values) != len(want.Values) {
+			t.Errorf("%s: %v %v, want %v %v", k, got.Dates, got.Values, want.Dates, want.Values)
+			continue
+		}
+		for i := range want.Values {
+			if math.Float64bits(got.Values[i]) != math.Float64bits(want.Values[i]) {
+				t.Errorf("%s[%d]: %v, want %v", k, i, got.Values[i], want.Values[i])
+			}
+		}
+	}
+	if got := out.Series["daily"].Dates[1].String(); got != "2020-02-29" {
+		t.Errorf("daily date %q", got)
+	}
+	if !reflect.DeepEqual(out.Relations, in.Relations) {
+		t.Errorf("relations %v", out.Relations)
+	}
+	b, _ := in.Series["daily"].GobEncode()
+	for cut := 0; cut < len(b); cut++ {
+		var d Dated
+		if d.GobDecode(b[:cut]) == nil {
+			t.Fatalf("a truncation at %d of %d bytes decoded", cut, len(b))
+		}
+	}
+}
