@@ -13,6 +13,7 @@ import (
 	"sort"
 	"strings"
 
+	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/internal/atomicfile"
 )
 
@@ -80,7 +81,9 @@ func (d *deps) up(id string) {
 }
 
 func init() {
-	for _, v := range []any{map[string]any{}, []any{}, []map[string]any{}, []float64{}, []string{}, []int{}, []bool{}, nilValue{}, [][]float64{}, map[string]float64{}} {
+	// []contract.Break: a test's break dates in Outcome.Extra (without it
+	// gob refused a gregory-hansen result and no pack was written)
+	for _, v := range []any{map[string]any{}, []any{}, []map[string]any{}, []float64{}, []string{}, []int{}, []bool{}, nilValue{}, [][]float64{}, map[string]float64{}, []contract.Break{}} {
 		gob.Register(v)
 	}
 }

@@ -1,6 +1,12 @@
 package engine
 
-import "testing"
+import (
+	"bytes"
+	"encoding/gob"
+	"testing"
+
+	"github.com/galley-econ/galley/engine/contract"
+)
 
 // TestPackBlobs: figure bytes stored in the pack's byte section come
 // back in place, nil and empty kept apart; offsets outside the section
@@ -30,5 +36,25 @@ func TestPackBlobs(t *testing.T) {
 	bad := &cacheEntry{Blobs: []int{0, 7, 0, 0, 0, -1}, Result: &Result{Figure: &Figure{}}}
 	if bad.takeBlobs(blob) {
 		t.Error("a blob past the section was accepted")
+	}
+}
+
+// TestPackBreaks: a result whose test carries break dates (as
+// gregory-hansen's does, in Outcome.Extra) can be stored and comes back
+// with them; gob refused the type before it was registered, and the
+// whole pack then went unwritten.
+func TestPackBreaks(t *testing.T) {
+	breaks := []contract.Break{{Label: "ADF*", Date: "1990Q3", Index: 17}}
+	res := &Result{ID: "gh", Values: map[string]any{"stat": -5.1}, Test: &contract.Outcome{Extra: map[string]any{contract.BreaksKey: breaks}}}
+	var buf bytes.Buffer
+	if err := gob.NewEncoder(&buf).Encode(gobEntry("v", "s", "k", nil, nil, res)); err != nil {
+		t.Fatal(err)
+	}
+	var e cacheEntry
+	if err := gob.NewDecoder(&buf).Decode(&e); err != nil {
+		t.Fatal(err)
+	}
+	if got := e.Result.Test.Breaks(); len(got) != 1 || got[0] != breaks[0] {
+		t.Errorf("breaks %v", got)
 	}
 }
