@@ -245,13 +245,9 @@ func GeneralisedCov(a []*mat.Dense, sigma mat.Symmetric, covA, covSigma mat.Symm
 		return nil, err
 	}
 	k := sigma.SymmetricDim()
-	sd := make([]float64, k)
-	for j := range sd {
-		if s := sigma.At(j, j); s > 0 {
-			sd[j] = math.Sqrt(s)
-		} else {
-			return nil, fmt.Errorf("vardyn: the innovation variance of series %d is not positive", j)
-		}
+	sd, err := innovationSD(sigma)
+	if err != nil {
+		return nil, err
 	}
 	s := mat.NewDense(k, k, nil)
 	hs := mat.NewDense(k*k, k*(k+1)/2, nil)

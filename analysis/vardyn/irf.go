@@ -123,13 +123,9 @@ func Orthogonalised(phi []*mat.Dense, sigma mat.Symmetric, order []int) ([]*mat.
 // ordering, ψ_s(j) equals the orthogonalised response.
 func Generalised(phi []*mat.Dense, sigma mat.Symmetric) ([]*mat.Dense, error) {
 	k := sigma.SymmetricDim()
-	sd := make([]float64, k)
-	for j := range sd {
-		if s := sigma.At(j, j); s > 0 {
-			sd[j] = math.Sqrt(s)
-		} else {
-			return nil, fmt.Errorf("vardyn: the innovation variance of series %d is not positive", j)
-		}
+	sd, err := innovationSD(sigma)
+	if err != nil {
+		return nil, err
 	}
 	out := make([]*mat.Dense, len(phi))
 	for s, p := range phi {
@@ -185,4 +181,18 @@ func FEVD(theta []*mat.Dense, h int) ([][][]float64, error) {
 		}
 	}
 	return out, nil
+}
+
+// innovationSD is √σ_jj for each series j of the innovation covariance;
+// a variance that is not positive is an error.
+func innovationSD(sigma mat.Symmetric) ([]float64, error) {
+	sd := make([]float64, sigma.SymmetricDim())
+	for j := range sd {
+		s := sigma.At(j, j)
+		if !(s > 0) {
+			return nil, fmt.Errorf("vardyn: the innovation variance of series %d is not positive", j)
+		}
+		sd[j] = math.Sqrt(s)
+	}
+	return sd, nil
 }
