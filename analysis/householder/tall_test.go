@@ -242,3 +242,76 @@ func TestNestedTallScaledBitForBit(t *testing.T) {
 		t.Error("a missing scale was accepted")
 	}
 }
+
+// rowMajor stores cols by rows.
+func rowMajor(cols [][]float64) (data []float64, n, w int) {
+	n, w = len(cols[0]), len(cols)
+	data = make([]float64, n*w)
+	for j, c := range cols {
+		for i, v := range c {
+			data[i*w+j] = v
+		}
+	}
+	return data, n, w
+}
+
+// TestTallRowMajor: within one block R is Factor's bit for bit; over many
+// blocks it is Factor's up to the signs of its rows, to 1e-12 relative
+// to the largest entry of its column; the rank rule finds a duplicated
+// column; malformed shapes are errors.
+func TestTallRowMajor(t *testing.T) {
+	for _, n := range []int{40, tallBlock(15), 20_000} {
+		cols := adfLike(n, uint64(n))
+		data, _, w := rowMajor(cols)
+		var f QR
+		if err := f.Factor(clone(cols), w); err != nil {
+			t.Fatal(err)
+		}
+		ref := f.R()
+		r, indep, err := TallRowMajor(data, w, n, w)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if indep != w || f.Indep() != w {
+			t.Fatalf("n = %d: indep %d, Factor's %d, want %d", n, indep, f.Indep(), w)
+		}
+		for i := 0; i < w; i++ {
+			sign := 1.0
+			if n > tallBlock(w) && math.Signbit(r.At(i, i)) != math.Signbit(ref.At(i, i)) {
+				sign = -1
+			}
+			for j := i; j < w; j++ {
+				a, b := sign*r.At(i, j), ref.At(i, j)
+				if n <= tallBlock(w) {
+					if math.Float64bits(a) != math.Float64bits(b) {
+						t.Fatalf("n = %d (one block): R[%d,%d] = %v, Factor's %v", n, i, j, a, b)
+					}
+					continue
+				}
+				colMax := 0.0
+				for h := 0; h <= j; h++ {
+					colMax = math.Max(colMax, math.Abs(ref.At(h, j)))
+				}
+				if d := math.Abs(a-b) / colMax; d > 1e-12 {
+					t.Fatalf("n = %d: R[%d,%d] = %v, Factor's %v (%.2g)", n, i, j, a, b, d)
+				}
+			}
+		}
+	}
+	cols := adfLike(5000, 3)
+	cols[7] = append([]float64(nil), cols[4]...)
+	data, n, w := rowMajor(cols)
+	if _, indep, err := TallRowMajor(data, w, n, w); err != nil || indep != 7 {
+		t.Fatalf("duplicated column 7: indep %d, err %v", indep, err)
+	}
+	if _, _, err := TallRowMajor(data, w, 3, w); err == nil {
+		t.Fatal("fewer rows than columns: no error")
+	}
+	if _, _, err := TallRowMajor(data[:100], w, n, w); err == nil {
+		t.Fatal("short data: no error")
+	}
+	data[5*w+2] = math.NaN()
+	if _, _, err := TallRowMajor(data, w, n, w); err == nil {
+		t.Fatal("NaN: no error")
+	}
+}
