@@ -3,8 +3,6 @@ package householder
 import (
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/mat"
 )
 
 // TallBlockBytes bounds the working storage of NestedTall: a block of
@@ -76,20 +74,56 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 	if len(ssr) != m || len(t) != m {
 		return 0, fmt.Errorf("%w: %d and %d outputs for %d sub-designs", ErrShape, len(ssr), len(t), m)
 	}
-	r, err := tallTriangle(w, n, block, func(lo, hi int, dst [][]float64) {
+	block = max(block, w)
+	rows := w + block
+	buf := make([]float64, rows*w)
+	work := make([][]float64, w)
+	for j := range work {
+		work[j] = buf[j*rows : (j+1)*rows : (j+1)*rows]
+	}
+	r := make([]float64, w*w) // r[j*w+i] = R_ij, i ≤ j
+	var f QR
+	bc := make([][]float64, w)
+	have := 0 // rows of R carried (0 before the first block)
+	for lo := 0; lo < n; {
+		hi := min(n, lo+block)
+		if have == 0 && hi-lo < w { // the first block must be at least square
+			hi = min(n, lo+w)
+		}
+		h := have + hi - lo
 		for j := 0; j < w; j++ {
+			c := work[j][:h]
+			copy(c[:have], r[j*w:j*w+have])
 			if scale == nil || j == m {
-				copy(dst[j], cols[j][lo:hi])
+				copy(c[have:], cols[j][lo:hi])
 			} else {
-				s, d := scale[j], dst[j]
+				s, dst := scale[j], c[have:]
 				for i, v := range cols[j][lo:hi] {
-					d[i] = v * s
+					dst[i] = v * s
 				}
 			}
 		}
-	})
-	if err != nil {
-		return 0, err
+		if have > 0 {
+			for j := 0; j < w; j++ { // zero below R's diagonal
+				for i := j + 1; i < have; i++ {
+					work[j][i] = 0
+				}
+			}
+		}
+		for j := range bc {
+			bc[j] = work[j][:h]
+		}
+		if err := f.Factor(bc, w); err != nil {
+			return 0, err
+		}
+		for j := 0; j < w; j++ {
+			for i := 0; i < j; i++ {
+				r[j*w+i] = bc[j][i]
+			}
+			r[j*w+j] = f.diag[j]
+		}
+		have = w
+		lo = hi
 	}
 	// Nested on the final triangle, as a QR of the m design columns with
 	// the response's column [r; ρ] carried.
@@ -113,106 +147,4 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 		return 0, err
 	}
 	return g.indep, nil
-}
-
-// tallTriangle is the row-blocked factorisation of NestedTall for an n×w
-// matrix (n ≥ w) whose rows lo..hi−1 fill writes into dst[j][0:hi−lo],
-// j < w: it returns R with r[j*w+i] = R_ij (i ≤ j, zero below). When the
-// first block holds all n rows it is one Factor of the whole matrix, so R
-// is then Factor's bit for bit.
-func tallTriangle(w, n, block int, fill func(lo, hi int, dst [][]float64)) ([]float64, error) {
-	block = max(block, w)
-	rows := w + block
-	buf := make([]float64, rows*w)
-	work := make([][]float64, w)
-	for j := range work {
-		work[j] = buf[j*rows : (j+1)*rows : (j+1)*rows]
-	}
-	r := make([]float64, w*w) // r[j*w+i] = R_ij, i ≤ j
-	var f QR
-	bc := make([][]float64, w)
-	dst := make([][]float64, w)
-	have := 0 // rows of R carried (0 before the first block)
-	for lo := 0; lo < n; {
-		hi := min(n, lo+block)
-		if have == 0 && hi-lo < w { // the first block must be at least square
-			hi = min(n, lo+w)
-		}
-		h := have + hi - lo
-		for j := 0; j < w; j++ {
-			copy(work[j][:have], r[j*w:j*w+have])
-			dst[j] = work[j][have:h]
-		}
-		fill(lo, hi, dst)
-		if have > 0 {
-			for j := 0; j < w; j++ { // zero below R's diagonal
-				for i := j + 1; i < have; i++ {
-					work[j][i] = 0
-				}
-			}
-		}
-		for j := range bc {
-			bc[j] = work[j][:h]
-		}
-		if err := f.Factor(bc, w); err != nil {
-			return nil, err
-		}
-		for j := 0; j < w; j++ {
-			for i := 0; i < j; i++ {
-				r[j*w+i] = bc[j][i]
-			}
-			r[j*w+j] = f.diag[j]
-		}
-		have = w
-		lo = hi
-	}
-	return r, nil
-}
-
-// TallRowMajor returns the upper-triangular factor R (w×w) of the
-// Householder QR A = QR of the n×w matrix A stored by rows (row i is
-// data[i*stride : i*stride+w], n ≥ w ≥ 1), and Indep, the rank rule
-// CollinearTol applied to every column with ‖a_k‖² = Σ_{i≤k} R_ik²
-// (orthogonal invariance). A is factorised in blocks of rows, each
-// transposed into a block held in cache (sequential tall-skinny QR,
-// Demmel, Grigori, Hoemmen and Langou 2012, §3; see NestedTall):
-//
-//	[R_k; A_{k+1}] = Q_{k+1} R_{k+1},
-//
-// so that A is read once, row by row, and never copied whole. R equals
-// the R of Factor on A's columns up to the signs of its rows and to
-// rounding; when A fits in one block (n ≤ TallBlockBytes/(8w) − w rows)
-// it is exactly Factor's, bit for bit. TallRowMajor returns an error for
-// a malformed shape or a non-finite entry.
-func TallRowMajor(data []float64, stride, n, w int) (r *mat.TriDense, indep int, err error) {
-	if w < 1 || n < w || stride < w {
-		return nil, 0, fmt.Errorf("%w: %d rows, %d columns, row stride %d", ErrShape, n, w, stride)
-	}
-	if len(data) < (n-1)*stride+w {
-		return nil, 0, fmt.Errorf("%w: %d values for %d rows of stride %d", ErrShape, len(data), n, stride)
-	}
-	rv, err := tallTriangle(w, n, tallBlock(w), func(lo, hi int, dst [][]float64) {
-		for i := lo; i < hi; i++ {
-			row := data[i*stride : i*stride+w]
-			for j, v := range row {
-				dst[j][i-lo] = v
-			}
-		}
-	})
-	if err != nil {
-		return nil, 0, err
-	}
-	r = mat.NewTriDense(w, mat.Upper, nil)
-	indep = w
-	for k := 0; k < w; k++ {
-		norm := 0.0
-		for i := 0; i <= k; i++ {
-			r.SetTri(i, k, rv[k*w+i])
-			norm += rv[k*w+i] * rv[k*w+i]
-		}
-		if indep == w && math.Abs(rv[k*w+k]) <= CollinearTol*math.Sqrt(norm) {
-			indep = k
-		}
-	}
-	return r, indep, nil
 }

@@ -52,9 +52,6 @@ type Result struct {
 	// solves the restricted problem from them.
 	r11 *mat.TriDense
 	a   *mat.SymDense
-	// rd is the triangular factor of the QR of the whole scaled design
-	// [zs | z1 | z0] (T·S of its columns = rd'rd), set by TestExtra.
-	rd *mat.TriDense
 }
 
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
@@ -288,11 +285,9 @@ func checkSeries(y *mat.Dense) error {
 
 // reduce factorises the (scaled) design and solves the eigenproblem, setting
 // the scaled moment matrices and eigenvectors. The QR is package
-// householder's, read from the design's rows in blocks
-// (householder.TallRowMajor: a design of more than a few thousand rows is
-// never copied into columns), with its rank rule (|R_jj| ≤ 1e-10·‖d_j‖
-// names column j as singular). R is kept for the short-run equations
-// (estimate.go).
+// householder's unblocked one with its rank rule (|R_jj| ≤ 1e-10·‖d_j‖
+// names column j as singular): the design has T rows but only ns+P1+K
+// columns, few enough that a blocked factorisation gains nothing.
 func (r *Result) reduce(d *mat.Dense) error {
 	t, k := r.z0.Dims()
 	_, p1 := r.z1.Dims()
@@ -301,16 +296,14 @@ func (r *Result) reduce(d *mat.Dense) error {
 		_, ns = r.zs.Dims()
 	}
 	n := ns + p1 + k
-	raw := d.RawMatrix()
-	rr, indep, err := householder.TallRowMajor(raw.Data, raw.Stride, t, n)
-	if err != nil {
+	var qr householder.QR
+	if err := qr.Factor(householder.Columns(d, 0), n); err != nil {
 		return fmt.Errorf("johansen: %w", err)
 	}
-	if indep < n {
-		return r.singular(indep, ns, p1)
+	if j := qr.Indep(); j < n {
+		return r.singular(j, ns, p1)
 	}
-	r.rd = rr
-	return r.solveR(rr, t, ns, p1)
+	return r.solveR(qr.R(), t, ns, p1)
 }
 
 // solveR sets the scaled moment matrices, the eigenvalues, eigenvectors
