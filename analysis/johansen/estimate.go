@@ -6,6 +6,7 @@ import (
 	"slices"
 
 	"github.com/galley-econ/galley/analysis/ols"
+	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -358,6 +359,9 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 
 // shortRun fits each scaled equation by OLS on [β̃'ỹ_{t−1}, short-run
 // regressors], β̃ in scaled units; unscaleShortRun maps the result back.
+// The design's columns and the responses are written once into the
+// storage the factorisation works in (ols.RegressEachColumns), and its
+// rows are read again from z1β̃, zs and z0 for the residuals.
 func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	t, k := r.z0.Dims()
 	rank := v.Rank
@@ -365,11 +369,35 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	if r.zs != nil {
 		_, ns = r.zs.Dims()
 	}
-	x := mat.NewDense(t, rank+ns, nil)
-	ect := x.Slice(0, t, 0, rank).(*mat.Dense)
+	var ect mat.Dense
 	ect.Mul(r.z1, beta)
+	w := rank + ns + k
+	buf := make([]float64, t*w)
+	cols := make([][]float64, w)
+	for j := range cols {
+		cols[j] = buf[j*t : (j+1)*t : (j+1)*t]
+	}
+	er, z0 := ect.RawMatrix(), r.z0.RawMatrix()
+	var zs blas64.General
 	if ns > 0 {
-		x.Slice(0, t, rank, rank+ns).(*mat.Dense).Copy(r.zs)
+		zs = r.zs.RawMatrix()
+	}
+	row := func(h int, x, y []float64) {
+		copy(x[:rank], er.Data[h*er.Stride:h*er.Stride+rank])
+		if ns > 0 {
+			copy(x[rank:], zs.Data[h*zs.Stride:h*zs.Stride+ns])
+		}
+		copy(y, z0.Data[h*z0.Stride:h*z0.Stride+k])
+	}
+	x, y := make([]float64, rank+ns), make([]float64, k)
+	for h := 0; h < t; h++ {
+		row(h, x, y)
+		for j, e := range x {
+			cols[j][h] = e
+		}
+		for i, e := range y {
+			cols[rank+ns+i][h] = e
+		}
 	}
 	v.Alpha = mat.NewDense(k, rank, nil)
 	v.AlphaSE = mat.NewDense(k, rank, nil)
@@ -377,25 +405,26 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		v.Short = mat.NewDense(k, ns, nil)
 		v.ShortSE = mat.NewDense(k, ns, nil)
 	}
-	ys := make([][]float64, k)
-	for i := range ys {
-		ys[i] = mat.Col(nil, i, r.z0)
-	}
 	v.eqCov = make([]*mat.SymDense, k)
 	v.dfResid = t - rank - ns
-	v.Resid = mat.NewDense(t, k, nil)
+	rbuf := make([]float64, t*k)
+	resid := make([][]float64, k)
+	for i := range resid {
+		resid[i] = rbuf[i*t : (i+1)*t : (i+1)*t]
+	}
 	// every equation has the same regressors: one factorisation
-	fits, err := ols.RegressEach(ys, x)
+	fits, err := ols.RegressEachColumns(cols, rank+ns, row, resid)
 	if err != nil {
 		return fmt.Errorf("johansen: short-run equations: %v", err)
 	}
+	v.Resid = mat.NewDense(t, k, nil)
+	vr := v.Resid.RawMatrix()
 	for i, f := range fits {
-		cov := f.Cov(ols.CovSpec{Kind: ols.Classical})
-		v.eqCov[i] = cov
-		for j, e := range f.Resid {
-			v.Resid.Set(j, i, e*r.scale[i])
+		v.eqCov[i] = f.Cov
+		for h, e := range resid[i] {
+			vr.Data[h*vr.Stride+i] = e * r.scale[i]
 		}
-		se := ols.SE(cov)
+		se := ols.SE(f.Cov)
 		for j := 0; j < rank; j++ {
 			v.Alpha.Set(i, j, f.Coef[j])
 			v.AlphaSE.Set(i, j, se[j])

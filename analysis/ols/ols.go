@@ -84,50 +84,15 @@ func RegressEach(ys [][]float64, x *mat.Dense) ([]*Fit, error) {
 			}
 		}
 	}
-	// Scale the columns to unit norm before factorising; this makes the
-	// condition estimate scale invariant. The responses ride along as
-	// columns k, k+1, …, so that they come back as Qᵀy.
-	scale := make([]float64, k)
+	// The responses ride along as columns k, k+1, …, so that they come
+	// back as Qᵀy.
 	cols := householder.Columns(x, len(ys))
-	for j := 0; j < k; j++ {
-		c := cols[j]
-		var s float64
-		for i, v := range c {
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return nil, fmt.Errorf("ols: X[%d,%d] is not finite", i, j)
-			}
-			s += v * v
-		}
-		s = math.Sqrt(s)
-		if s == 0 {
-			return nil, &CollinearError{Col: j}
-		}
-		scale[j] = s
-		for i := range c {
-			c[i] /= s
-		}
-	}
 	for r, y := range ys {
 		copy(cols[k+r], y)
 	}
-	var qr householder.QR
-	if err := qr.Factor(cols, k); err != nil {
-		return nil, fmt.Errorf("ols: %w", err)
-	}
-	if j := qr.Indep(); j < k {
-		return nil, &CollinearError{Col: j}
-	}
-	// R⁻¹ of the unscaled problem: X = Xs·D, Xs = QRs, so X = Q(Rs·D), R = Rs·D, R⁻¹ = D⁻¹Rs⁻¹.
-	r := qr.R()
-	var rsinv mat.TriDense
-	if err := rsinv.InverseTri(r); err != nil {
-		return nil, fmt.Errorf("ols: %w", err)
-	}
-	rinv := mat.NewTriDense(k, mat.Upper, nil)
-	for i := 0; i < k; i++ {
-		for j := i; j < k; j++ {
-			rinv.SetTri(i, j, rsinv.At(i, j)/scale[i])
-		}
+	qr, scale, rinv, err := factorScaled(cols, k)
+	if err != nil {
+		return nil, err
 	}
 	cond := qr.Cond()
 	raw := x.RawMatrix()
@@ -250,3 +215,136 @@ func (f *Fit) XtXInv() *mat.SymDense {
 
 // X returns the design matrix the fit was computed from (not a copy).
 func (f *Fit) X() *mat.Dense { return f.x }
+
+// factorScaled scales the columns cols[:k] of X to unit norm (this makes
+// the condition estimate scale invariant), factorises them by Householder
+// QR carrying cols[k:] (responses) along, and returns the QR, the scales
+// and R⁻¹ of the unscaled problem.
+func factorScaled(cols [][]float64, k int) (*householder.QR, []float64, *mat.TriDense, error) {
+	scale := make([]float64, k)
+	for j := 0; j < k; j++ {
+		c := cols[j]
+		var s float64
+		for i, v := range c {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, nil, nil, fmt.Errorf("ols: X[%d,%d] is not finite", i, j)
+			}
+			s += v * v
+		}
+		s = math.Sqrt(s)
+		if s == 0 {
+			return nil, nil, nil, &CollinearError{Col: j}
+		}
+		scale[j] = s
+		for i := range c {
+			c[i] /= s
+		}
+	}
+	var qr householder.QR
+	if err := qr.Factor(cols, k); err != nil {
+		return nil, nil, nil, fmt.Errorf("ols: %w", err)
+	}
+	if j := qr.Indep(); j < k {
+		return nil, nil, nil, &CollinearError{Col: j}
+	}
+	// R⁻¹ of the unscaled problem: X = Xs·D, Xs = QRs, so X = Q(Rs·D), R = Rs·D, R⁻¹ = D⁻¹Rs⁻¹.
+	r := qr.R()
+	var rsinv mat.TriDense
+	if err := rsinv.InverseTri(r); err != nil {
+		return nil, nil, nil, fmt.Errorf("ols: %w", err)
+	}
+	rinv := mat.NewTriDense(k, mat.Upper, nil)
+	for i := 0; i < k; i++ {
+		for j := i; j < k; j++ {
+			rinv.SetTri(i, j, rsinv.At(i, j)/scale[i])
+		}
+	}
+	return &qr, scale, rinv, nil
+}
+
+// EachFit is one equation of RegressEachColumns: the coefficients, the
+// residual sum of squares and the classical covariance s²(X'X)⁻¹,
+// s² = SSR/(N − K), of a least-squares fit whose residuals the caller
+// holds.
+type EachFit struct {
+	N, K int
+	Coef []float64
+	SSR  float64
+	Cov  *mat.SymDense
+}
+
+// RegressEachColumns is RegressEach on storage the caller fills and gives
+// up: cols[:k] are the columns of X and cols[k:] the responses y_r (all of
+// length n > k), overwritten by the factorisation. For the residuals
+// e_r = y_r − Xβ̂_r the rows are read again: row(i, x, y) must write row i
+// of X (length k) and of the responses (length len(cols) − k) as they
+// were given, and e_ri is stored in resid[r][i] (resid[r] of length n).
+// The arithmetic is RegressEach's — Householder QR of the column-scaled
+// X, β̂ = R⁻¹(Qᵀy)_{1..K}, SSR = e'e, Cov = s²R⁻¹R⁻ᵀ (Golub and Van Loan
+// 2013, §5.3.3) — so every number equals RegressEach's bit for bit
+// (tested), without its copies of X and of the responses and without
+// fitted values: for a tall design shared by several responses.
+func RegressEachColumns(cols [][]float64, k int, row func(i int, x, y []float64), resid [][]float64) ([]*EachFit, error) {
+	if k <= 0 || len(cols) <= k {
+		return nil, fmt.Errorf("ols: %d columns for %d regressors and at least one response", len(cols), k)
+	}
+	n := len(cols[0])
+	for _, c := range cols {
+		if len(c) != n {
+			return nil, fmt.Errorf("ols: columns of %d and %d observations", len(c), n)
+		}
+	}
+	q := len(cols) - k
+	if len(resid) != q {
+		return nil, fmt.Errorf("ols: %d residual vectors for %d responses", len(resid), q)
+	}
+	for _, e := range resid {
+		if len(e) != n {
+			return nil, fmt.Errorf("ols: a residual vector of length %d for %d observations", len(e), n)
+		}
+	}
+	if n <= k {
+		return nil, fmt.Errorf("ols: %w: %d observations for %d regressors", ErrTooFewObs, n, k)
+	}
+	for _, y := range cols[k:] {
+		for i, v := range y {
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("ols: y[%d] is not finite", i)
+			}
+		}
+	}
+	qr, scale, rinv, err := factorScaled(cols, k)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]*EachFit, q)
+	fits := make([]*Fit, q)
+	for ri := range out {
+		bs := append([]float64(nil), cols[k+ri][:k]...) // (Qᵀy)_{0..k−1}
+		if err := qr.Solve(bs); err != nil {
+			return nil, fmt.Errorf("ols: %w", err)
+		}
+		f := &Fit{N: n, K: k, Coef: make([]float64, k), rinv: rinv}
+		for j := 0; j < k; j++ {
+			f.Coef[j] = bs[j] / scale[j]
+		}
+		fits[ri] = f
+	}
+	xr, yr := make([]float64, k), make([]float64, q)
+	for i := 0; i < n; i++ {
+		row(i, xr, yr)
+		for ri, f := range fits {
+			var fit float64
+			for j, v := range xr {
+				fit += v * f.Coef[j]
+			}
+			e := yr[ri] - fit
+			resid[ri][i] = e
+			f.SSR += e * e
+		}
+	}
+	for ri, f := range fits {
+		out[ri] = &EachFit{N: n, K: k, Coef: f.Coef, SSR: f.SSR, Cov: f.Cov(CovSpec{Kind: Classical})}
+	}
+	return out, nil
+}

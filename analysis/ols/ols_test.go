@@ -8,6 +8,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/galley-econ/galley/analysis/householder"
 	"github.com/galley-econ/galley/analysis/ols"
 	"github.com/galley-econ/galley/internal/refdata"
 )
@@ -258,5 +259,87 @@ func TestRegressEachBitForBit(t *testing.T) {
 	ys[2][7] = math.NaN()
 	if _, err := ols.RegressEach(ys, x); err == nil || err.Error() != "ols: y[7] is not finite" {
 		t.Errorf("got %v", err)
+	}
+}
+
+// TestRegressEachColumnsBitForBit: the fits in the caller's storage equal
+// RegressEach's bit for bit (coefficients, SSR, classical covariance,
+// residuals); malformed storage, a non-finite response and a collinear
+// column are errors.
+func TestRegressEachColumnsBitForBit(t *testing.T) {
+	r := rand.New(rand.NewPCG(8, 9))
+	n, k, q := 700, 5, 3
+	x := mat.NewDense(n, k, nil)
+	ys := make([][]float64, q)
+	for h := range ys {
+		ys[h] = make([]float64, n)
+	}
+	for i := 0; i < n; i++ {
+		x.Set(i, 0, 1)
+		for j := 1; j < k; j++ {
+			x.Set(i, j, r.NormFloat64()*float64(j)+float64(i%5))
+		}
+		for h := range ys {
+			ys[h][i] = x.At(i, 2)*float64(h) + r.NormFloat64()
+		}
+	}
+	want, err := ols.RegressEach(ys, x)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fill := func() ([][]float64, func(int, []float64, []float64), [][]float64) {
+		cols := householder.Columns(x, q)
+		for h, y := range ys {
+			copy(cols[k+h], y)
+		}
+		row := func(i int, xr, yr []float64) {
+			mat.Row(xr, i, x)
+			for h, y := range ys {
+				yr[h] = y[i]
+			}
+		}
+		resid := make([][]float64, q)
+		for h := range resid {
+			resid[h] = make([]float64, n)
+		}
+		return cols, row, resid
+	}
+	cols, row, resid := fill()
+	got, err := ols.RegressEachColumns(cols, k, row, resid)
+	if err != nil {
+		t.Fatal(err)
+	}
+	bits := func(a, b []float64) bool {
+		for i := range a {
+			if math.Float64bits(a[i]) != math.Float64bits(b[i]) {
+				return false
+			}
+		}
+		return len(a) == len(b)
+	}
+	for h, w := range want {
+		g := got[h]
+		wc := w.Cov(ols.CovSpec{Kind: ols.Classical})
+		if g.N != n || g.K != k || !bits(g.Coef, w.Coef) || g.SSR != w.SSR || !bits(resid[h], w.Resid) ||
+			!bits(g.Cov.RawSymmetric().Data, wc.RawSymmetric().Data) {
+			t.Errorf("response %d differs from RegressEach", h)
+		}
+	}
+	cols, row, resid = fill()
+	if _, err := ols.RegressEachColumns(cols, k, row, resid[:2]); err == nil {
+		t.Error("two residual vectors for three responses: no error")
+	}
+	if _, err := ols.RegressEachColumns(cols[:k], k, row, nil); err == nil {
+		t.Error("no response: no error")
+	}
+	cols[k+1][9] = math.Inf(1)
+	if _, err := ols.RegressEachColumns(cols, k, row, resid); err == nil || err.Error() != "ols: y[9] is not finite" {
+		t.Errorf("infinite response: got %v", err)
+	}
+	cols, row, resid = fill()
+	copy(cols[3], cols[1])
+	var ce *ols.CollinearError
+	if _, err := ols.RegressEachColumns(cols, k, row, resid); !errors.As(err, &ce) || ce.Col != 3 {
+		t.Errorf("duplicated column: got %v", err)
 	}
 }

@@ -40,6 +40,7 @@ type sysState struct {
 	boot       *johansen.RankBoot // rank_bootstrap: (rankboot.go)
 	bart       *johansen.Bartlett // rank_bootstrap: {bartlett: true} (bartlett.go)
 	bootSeed   uint64
+	rel        []contract.Dated // the relations, once computed (relations)
 }
 
 type sysTest struct {
@@ -401,14 +402,19 @@ func (s *sysState) values() map[string]any {
 // relations is the results-file form of the estimated cointegrating
 // relations β_j'ỹ_t over the directive's sample, one dated series per
 // relation (johansen.VECM.Relations gives the formula and the meaning of
-// their levels in each case).
+// their levels in each case). They are computed once; the relations share
+// one copy of the sample's dates (nothing writes to a result's series).
 func (s *sysState) relations() []contract.Dated {
-	zs := s.vecm.Relations(s.res.Case, s.y, s.xr)
-	out := make([]contract.Dated, len(zs))
-	for j, z := range zs {
-		out[j] = contract.NewDated(s.d.Dates, z)
+	if s.rel != nil {
+		return s.rel
 	}
-	return out
+	zs := s.vecm.Relations(s.res.Case, s.y, s.xr)
+	dates := slices.Clone(s.d.Dates)
+	s.rel = make([]contract.Dated, len(zs))
+	for j, z := range zs {
+		s.rel[j] = contract.Dated{Dates: dates, Values: z}
+	}
+	return s.rel
 }
 
 // dummyValues lists the extra regressors of the model (only set when
