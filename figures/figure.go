@@ -48,12 +48,24 @@ func (f *Figure) draw(c vg.CanvasSizer) {
 }
 
 // WriteSVG writes the figure as SVG.
+//
+// The text names its font with fallbacks of the same metrics (Arimo,
+// Arial, Helvetica), so that a viewer without Liberation Sans sets the
+// labels in the widths the layout was computed for.
 func (f *Figure) WriteSVG(w io.Writer) error {
 	c := vgsvg.New(f.Width, f.Height)
 	f.draw(c)
-	_, err := c.WriteTo(w)
+	var b bytes.Buffer
+	if _, err := c.WriteTo(&b); err != nil {
+		return wrap("svg", err)
+	}
+	_, err := w.Write(bytes.ReplaceAll(b.Bytes(), []byte("font-family:Liberation Sans;"), []byte(svgFonts)))
 	return wrap("svg", err)
 }
+
+// svgFonts is the font of SVG text: Liberation Sans, or a face with its
+// metrics.
+const svgFonts = "font-family:'Liberation Sans',Arimo,Arial,Helvetica,sans-serif;"
 
 // WritePDF writes the figure as a one-page PDF with its fonts embedded.
 func (f *Figure) WritePDF(w io.Writer) error {

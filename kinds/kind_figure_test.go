@@ -176,7 +176,7 @@ func TestFigureLinesPanels(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, want := range []string{`<a class="xref" href="#fig-lv">Figure 1</a>`, `href="#fig-pn">Figure 2</a>`, `<figure class="result" id="fig-lv">`, `<span class="label">Figure 1.</span> Levels`, "<svg"} {
+	for _, want := range []string{`<a class="xref" href="#fig-lv">Figure 1</a>`, `href="#fig-pn">Figure 2</a>`, `<figure class="result" id="fig-lv" style="--figure-width: 52.3%">`, `<span class="label">Figure 1.</span> Levels`, "<svg"} {
 		if !bytes.Contains(h, []byte(want)) {
 			t.Errorf("HTML lacks %q", want)
 		}

@@ -254,7 +254,14 @@ func writeHTMLResult(w util.BufWriter, r *engine.Result) {
 		writeHTMLNotes(w, r.Table.Notes)
 		w.WriteString("</div>\n")
 	case r.Figure != nil:
-		fmt.Fprintf(w, `<figure class="result" id="%s">`+"\n", html.EscapeString(anchor(r)))
+		// A figure takes the share of the column that it takes of the
+		// LaTeX text block (6.5 in), so that its lettering is the same
+		// size whatever width it was drawn at.
+		share := 100.0
+		if wi := r.Figure.Width; wi > 0 && wi < textBlockInches {
+			share = 100 * wi / textBlockInches
+		}
+		fmt.Fprintf(w, `<figure class="result" id="%s" style="--figure-width: %.1f%%">`+"\n", html.EscapeString(anchor(r)), share)
 		writeHTMLCaption(w, r.Label(), r.Figure.Caption)
 		w.Write(inlineSVG(r.Figure.SVG))
 		writeHTMLNotes(w, r.Figure.Notes)
@@ -406,3 +413,7 @@ func stripXMLProlog(b []byte) []byte {
 	}
 	return b
 }
+
+// textBlockInches is the width of the LaTeX output's text block, the
+// width a full-column figure is drawn at.
+const textBlockInches = 6.5
