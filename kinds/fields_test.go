@@ -72,14 +72,7 @@ func TestProducedValuesAreAccepted(t *testing.T) {
 			}
 		}
 	}
-	doc, err := engine.Parse("../examples/gridlink/paper.md", engine.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := doc.Run(); err != nil {
-		t.Fatal(err)
-	}
-	check(doc.Results())
+	withDemo(t, func(doc *engine.Document) { check(doc.Results()) })
 	body := fence("adf", "id: a\nseries: log(realgdp)\n") + fence("pp", "id: p\nseries: log(realgdp)\n") +
 		fence("kpss", "id: k\nseries: infl\n") + fence("dfgls", "id: g\nseries: log(realgdp)\n") +
 		fence("za", "id: z\nseries: log(realgdp)\nlags: 1\n") + fence("ngperron", "id: n\nseries: log(realgdp)\n") +

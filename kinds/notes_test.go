@@ -107,21 +107,16 @@ var bareLabel = regexp.MustCompile(`(?m)^\*\*(Table|Figure) [A-Z0-9.]+\.\*\*\s*$
 // of its Markdown has a caption after its label.
 func TestDemoNotes(t *testing.T) {
 	t.Parallel()
-	doc, err := engine.Parse("../examples/gridlink/paper.md", engine.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := doc.Run(); err != nil {
-		t.Fatal(err)
-	}
-	checkNotes(t, doc.Results())
-	md, err := markdown.Write(doc, markdown.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if m := bareLabel.FindAllString(string(md), -1); len(m) > 0 {
-		t.Errorf("labels without a caption: %q", m)
-	}
+	withDemo(t, func(doc *engine.Document) {
+		checkNotes(t, doc.Results())
+		md, err := markdown.Write(doc, markdown.Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if m := bareLabel.FindAllString(string(md), -1); len(m) > 0 {
+			t.Errorf("labels without a caption: %q", m)
+		}
+	})
 }
 
 // TestUnitRootTableNotes: a unit-root table with every test, a trend in
