@@ -43,11 +43,7 @@ func copyDemo(dir string) error {
 // outputs exist and the results file carries full-precision values.
 func TestBuildDemo(t *testing.T) {
 	t.Parallel()
-	dir := demoCopy(t)
-	out := filepath.Join(dir, "out")
-	if code := run([]string{"build", filepath.Join(dir, "paper.md"), "--to", "html", "--to", "latex", "--to", "markdown", "--out", out}); code != 0 {
-		t.Fatalf("exit code %d", code)
-	}
+	out := sharedDemo(t) // the demo built to HTML, LaTeX and Markdown
 	for _, f := range []string{"paper.html", "paper.tex", "paper.md", "paper.results.json", "tables/static.tex"} {
 		if _, err := os.Stat(filepath.Join(out, f)); err != nil {
 			t.Errorf("missing output %s", f)

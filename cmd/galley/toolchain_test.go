@@ -38,7 +38,7 @@ func buildDemoTo(t *testing.T, format string) string {
 	return out
 }
 
-// The demo built once to HTML and LaTeX for the toolchain checks, which
+// The demo built once to HTML, LaTeX and Markdown for the checks that
 // only read it and add files of their own names beside it; TestMain
 // removes it.
 var (
@@ -56,7 +56,7 @@ func sharedDemo(t *testing.T) string {
 		if sharedErr = copyDemo(filepath.Join(sharedDir, "src")); sharedErr != nil {
 			return
 		}
-		if code := run([]string{"build", filepath.Join(sharedDir, "src", "paper.md"), "--to", "html", "--to", "latex", "--out", filepath.Join(sharedDir, "out"), "--no-cache"}); code != 0 {
+		if code := run([]string{"build", filepath.Join(sharedDir, "src", "paper.md"), "--to", "html", "--to", "latex", "--to", "markdown", "--out", filepath.Join(sharedDir, "out"), "--no-cache"}); code != 0 {
 			sharedErr = fmt.Errorf("build: exit %d", code)
 		}
 	})
