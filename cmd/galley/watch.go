@@ -79,6 +79,7 @@ type watcher struct {
 	png        int
 	interval   time.Duration // between looks at the files
 	log        io.Writer
+	built      func() // called after each build (tests: a save that lands during a build)
 
 	mu      sync.Mutex
 	version int    // counts the pages served; the page reloads when it moves
@@ -101,10 +102,14 @@ func (w *watcher) run(ctx context.Context, ln net.Listener) error {
 	served := make(chan error, 1)
 	go func() { served <- srv.Serve(ln) }()
 
+	// prev is the state of the files as they were before the build that
+	// read them: a save that lands while a build runs differs from it and
+	// is built next (a snapshot taken after the build would swallow it).
+	prev := w.snapshot()
 	if !w.buildOrStop(ctx) {
 		return w.shutdown(srv, served)
 	}
-	prev := w.snapshot()
+	prev = w.afterBuild(prev)
 	var pending map[string]fileState
 	missing := map[string]bool{}
 	tick := time.NewTicker(w.interval)
@@ -133,7 +138,7 @@ loop:
 			gone = gone || !st.exists
 		}
 		if gone {
-			prev, pending = now, nil
+			prev, pending = w.afterBuild(now), nil
 			continue
 		}
 		if sameState(now, prev) {
@@ -149,7 +154,7 @@ loop:
 		if !w.buildOrStop(ctx) {
 			break loop
 		}
-		prev, pending = w.snapshot(), nil
+		prev, pending = w.afterBuild(now), nil
 	}
 	return w.shutdown(srv, served)
 }
@@ -213,6 +218,24 @@ func (w *watcher) snapshot() map[string]fileState {
 			continue
 		}
 		out[p] = fileState{exists: true, size: fi.Size(), mtime: fi.ModTime()}
+	}
+	return out
+}
+
+// afterBuild is the state to compare later looks with after a build that
+// read the files in state before: before itself for the files it covers,
+// so that a save landing during the build is seen as a change, and the
+// state now of the files the build has just named (new data files), which
+// before could not cover.
+func (w *watcher) afterBuild(before map[string]fileState) map[string]fileState {
+	if w.built != nil {
+		w.built()
+	}
+	out := w.snapshot()
+	for p := range out {
+		if st, ok := before[p]; ok {
+			out[p] = st
+		}
 	}
 	return out
 }

@@ -322,3 +322,33 @@ func TestWatchBannerLayout(t *testing.T) {
 		}
 	}
 }
+
+// TestWatchSaveDuringBuild: a save that lands while a build runs (here:
+// just as the first build ends, before the watcher looks at the files
+// again) is built next, not taken for the state that was built.
+func TestWatchSaveDuringBuild(t *testing.T) {
+	t.Parallel()
+	dir := t.TempDir()
+	p := filepath.Join(dir, "paper.md")
+	writeFile(t, p, watchManuscript("Built first."))
+	if err := os.WriteFile(filepath.Join(dir, "data.csv"), []byte(watchCSV), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := &watchCmd{Manuscript: p, To: []string{"html"}, NoCache: true}
+	w := cmd.watcher(&syncBuffer{})
+	w.interval = 20 * time.Millisecond
+	var once sync.Once
+	w.built = func() { once.Do(func() { writeFile(t, p, watchManuscript("Saved during the build, longer.")) }) }
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	done := make(chan error, 1)
+	go func() { done <- w.run(ctx, ln) }()
+	defer func() { cancel(); <-done }()
+	eventually(t, "the save made during the first build", func() bool {
+		_, page := w.state()
+		return strings.Contains(string(page), "Saved during the build, longer.")
+	})
+}
