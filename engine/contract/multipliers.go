@@ -47,26 +47,14 @@ func ReadMultipliers(values map[string]any) ([]Multiplier, error) {
 	if !ok || raw == nil {
 		return nil, fmt.Errorf("the result carries no multipliers")
 	}
-	var list []map[string]any
-	switch x := raw.(type) {
-	case []map[string]any:
-		list = x
-	case []any:
-		for _, e := range x {
-			m, ok := e.(map[string]any)
-			if !ok {
-				return nil, fmt.Errorf("multipliers: malformed entry")
-			}
-			list = append(list, m)
-		}
-	default:
-		return nil, fmt.Errorf("multipliers: malformed value")
+	list, err := mapList("multipliers", raw)
+	if err != nil {
+		return nil, err
 	}
 	var out []Multiplier
 	for _, m := range list {
 		var e Multiplier
 		e.Name, _ = m["name"].(string)
-		var err error
 		if e.Pos, err = floats(m["pos"]); err != nil {
 			return nil, err
 		}
@@ -109,4 +97,25 @@ func floats(v any) ([]float64, error) {
 		return out, nil
 	}
 	return nil, fmt.Errorf("multipliers: malformed path")
+}
+
+// mapList reads a list of mappings from values as built ([]map[string]any)
+// or after a round trip through JSON ([]any of map[string]any); what names
+// the value in errors.
+func mapList(what string, raw any) ([]map[string]any, error) {
+	switch x := raw.(type) {
+	case []map[string]any:
+		return x, nil
+	case []any:
+		list := make([]map[string]any, 0, len(x))
+		for _, e := range x {
+			m, ok := e.(map[string]any)
+			if !ok {
+				return nil, fmt.Errorf("%s: malformed entry", what)
+			}
+			list = append(list, m)
+		}
+		return list, nil
+	}
+	return nil, fmt.Errorf("%s: malformed value", what)
 }

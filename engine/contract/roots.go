@@ -16,20 +16,9 @@ func ReadRoots(values map[string]any) ([]complex128, int, error) {
 	if !ok || raw == nil {
 		return nil, 0, fmt.Errorf("the result carries no companion roots (its rank must be 1 … K−1)")
 	}
-	var list []map[string]any
-	switch x := raw.(type) {
-	case []map[string]any:
-		list = x
-	case []any:
-		for _, e := range x {
-			m, ok := e.(map[string]any)
-			if !ok {
-				return nil, 0, fmt.Errorf("roots: malformed entry")
-			}
-			list = append(list, m)
-		}
-	default:
-		return nil, 0, fmt.Errorf("roots: malformed value")
+	list, err := mapList("roots", raw)
+	if err != nil {
+		return nil, 0, err
 	}
 	out := make([]complex128, len(list))
 	for i, m := range list {
