@@ -525,7 +525,7 @@ func Estimate(in Input, s Spec) (*Model, error) {
 		G.Set(i, c, -1/piY)
 		G.Set(i, iy, fit.Coef[c]/(piY*piY))
 	}
-	m.LRCov = sandwich(G, m.Cov)
+	m.LRCov = ols.LinearCov(G, m.Cov)
 	for i := range theta {
 		se := math.Sqrt(m.LRCov.At(i, i))
 		t := theta[i] / se
@@ -617,7 +617,7 @@ func wald(b []float64, v *mat.SymDense, R *mat.Dense, r []float64) (float64, err
 	if r != nil {
 		d.SubVec(d, mat.NewVecDense(q, append([]float64(nil), r...)))
 	}
-	rv := sandwich(R, v)
+	rv := ols.LinearCov(R, v)
 	var ch mat.Cholesky
 	if !ch.Factorize(rv) {
 		return 0, errors.New("the restrictions' covariance is not positive definite")
@@ -627,21 +627,6 @@ func wald(b []float64, v *mat.SymDense, R *mat.Dense, r []float64) (float64, err
 		return 0, err
 	}
 	return mat.Dot(d, &sol), nil
-}
-
-// sandwich returns G V Gᵀ, symmetrised.
-func sandwich(g *mat.Dense, v *mat.SymDense) *mat.SymDense {
-	r, _ := g.Dims()
-	var gv, gvg mat.Dense
-	gv.Mul(g, v)
-	gvg.Mul(&gv, g.T())
-	out := mat.NewSymDense(r, nil)
-	for i := 0; i < r; i++ {
-		for j := i; j < r; j++ {
-			out.SetSym(i, j, (gvg.At(i, j)+gvg.At(j, i))/2)
-		}
-	}
-	return out
 }
 
 // FTest is an F-form Wald test of linear restrictions on the conditional

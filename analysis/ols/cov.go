@@ -149,6 +149,23 @@ func Sandwich(a, m *mat.SymDense, c float64) *mat.SymDense {
 	return out
 }
 
+// LinearCov returns B V B′, symmetrised: the covariance of Bθ when θ has
+// covariance V (the delta method's covariance when B is the Jacobian of a
+// function of θ).
+func LinearCov(b mat.Matrix, v mat.Symmetric) *mat.SymDense {
+	r, _ := b.Dims()
+	var bv, bvb mat.Dense
+	bv.Mul(b, v)
+	bvb.Mul(&bv, b.T())
+	out := mat.NewSymDense(r, nil)
+	for i := 0; i < r; i++ {
+		for j := i; j < r; j++ {
+			out.SetSym(i, j, (bvb.At(i, j)+bvb.At(j, i))/2)
+		}
+	}
+	return out
+}
+
 // SE returns the square roots of the diagonal of a covariance matrix.
 func SE(cov *mat.SymDense) []float64 {
 	k := cov.SymmetricDim()

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/ols"
 )
 
 // Asymptotic (delta-method) standard errors of impulse responses
@@ -162,7 +163,7 @@ func MACov(a []*mat.Dense, covA mat.Symmetric, h int) ([]*mat.SymDense, error) {
 	}
 	out := make([]*mat.SymDense, h+1)
 	for s := range out {
-		out[s] = sandwich(g[s], covA)
+		out[s] = ols.LinearCov(g[s], covA)
 	}
 	return out, nil
 }
@@ -400,26 +401,11 @@ func combine(phi, g []*mat.Dense, m *mat.Dense, hd *mat.Dense, covA, covSigma ma
 	var c, ip, cbar mat.Dense
 	for s := range phi {
 		c.Mul(m, g[s])
-		out[s] = sandwich(&c, covA)
+		out[s] = ols.LinearCov(&c, covA)
 		ip.Kronecker(identity(k), phi[s])
 		cbar.Mul(&ip, hd)
-		b := sandwich(&cbar, covSigma)
+		b := ols.LinearCov(&cbar, covSigma)
 		out[s].AddSym(out[s], b)
-	}
-	return out
-}
-
-// sandwich returns B V B' (symmetrised).
-func sandwich(b mat.Matrix, v mat.Symmetric) *mat.SymDense {
-	r, _ := b.Dims()
-	var bv, bvb mat.Dense
-	bv.Mul(b, v)
-	bvb.Mul(&bv, b.T())
-	out := mat.NewSymDense(r, nil)
-	for i := 0; i < r; i++ {
-		for j := i; j < r; j++ {
-			out.SetSym(i, j, (bvb.At(i, j)+bvb.At(j, i))/2)
-		}
 	}
 	return out
 }

@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
+	"github.com/galley-econ/galley/analysis/ols"
 )
 
 // VECMCoefCov returns the estimated covariance of α̂ = vec[Â_1 … Â_{k+1}],
@@ -103,7 +104,7 @@ func VECMCoefCov(m *johansen.VECM) (*mat.SymDense, error) {
 	}
 	var bw mat.Dense
 	bw.Mul(w.T(), bm) // W'B
-	g := sandwich(&bw, mat.NewSymDense(n, symData(mm)))
+	g := ols.LinearCov(&bw, mat.NewSymDense(n, symData(mm)))
 	out := mat.NewSymDense(kk*k, nil)
 	for c1 := 0; c1 < kk; c1++ {
 		for c2 := c1; c2 < kk; c2++ {
