@@ -155,50 +155,11 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 	case float64:
 		w.float(x, safe)
 	case []float64:
-		if x == nil && !safe {
-			w.b = append(w.b, "null"...)
-			return
-		}
-		if len(x) == 0 {
-			w.b = append(w.b, "[]"...)
-			return
-		}
-		w.b = append(w.b, '[')
-		for i, f := range x {
-			w.item(depth+1, i == 0)
-			w.float(f, safe)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, !safe, func(f float64) { w.float(f, safe) })
 	case []any:
-		if x == nil && !safe {
-			w.b = append(w.b, "null"...)
-			return
-		}
-		if len(x) == 0 {
-			w.b = append(w.b, "[]"...)
-			return
-		}
-		w.b = append(w.b, '[')
-		for i, e := range x {
-			w.item(depth+1, i == 0)
-			w.value(depth+1, e, safe)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, !safe, func(e any) { w.value(depth+1, e, safe) })
 	case []map[string]any:
-		if x == nil && !safe {
-			w.b = append(w.b, "null"...)
-			return
-		}
-		if len(x) == 0 {
-			w.b = append(w.b, "[]"...)
-			return
-		}
-		w.b = append(w.b, '[')
-		for i, e := range x {
-			w.item(depth+1, i == 0)
-			w.value(depth+1, e, safe)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, !safe, func(e map[string]any) { w.value(depth+1, e, safe) })
 	case map[string]any:
 		if x == nil && !safe {
 			w.b = append(w.b, "null"...)
@@ -220,38 +181,31 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 		}
 		w.end(depth, '}')
 	case []string:
-		if x == nil {
-			w.b = append(w.b, "null"...)
-			return
-		}
-		if len(x) == 0 {
-			w.b = append(w.b, "[]"...)
-			return
-		}
-		w.b = append(w.b, '[')
-		for i, s := range x {
-			w.item(depth+1, i == 0)
-			w.str(s)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, true, w.str)
 	case []int:
-		if x == nil {
-			w.b = append(w.b, "null"...)
-			return
-		}
-		if len(x) == 0 {
-			w.b = append(w.b, "[]"...)
-			return
-		}
-		w.b = append(w.b, '[')
-		for i, n := range x {
-			w.item(depth+1, i == 0)
-			w.b = strconv.AppendInt(w.b, int64(n), 10)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, true, func(n int) { w.b = strconv.AppendInt(w.b, int64(n), 10) })
 	default:
 		w.ok = false // encoding/json writes it
 	}
+}
+
+// writeList writes x as a list at depth, each element by each (at
+// depth+1); a nil x is null when nilIsNull, as encoding/json writes it.
+func writeList[T any](w *resultsWriter, depth int, x []T, nilIsNull bool, each func(T)) {
+	if x == nil && nilIsNull {
+		w.b = append(w.b, "null"...)
+		return
+	}
+	if len(x) == 0 {
+		w.b = append(w.b, "[]"...)
+		return
+	}
+	w.b = append(w.b, '[')
+	for i, e := range x {
+		w.item(depth+1, i == 0)
+		each(e)
+	}
+	w.end(depth, ']')
 }
 
 // float writes f as encoding/json does; with safe, NaN is null and ±Inf
