@@ -192,9 +192,11 @@ func (d *Document) hashColumn(alias, col string) (string, bool) {
 		}
 		raw, err := os.ReadFile(full)
 		if err != nil {
+			d.opts.reads.note(full, "")
 			return "", false
 		}
 		sum := sha256.Sum256(raw)
+		d.opts.reads.note(full, hex.EncodeToString(sum[:]))
 		return hex.EncodeToString(sum[:]), true
 	}
 	sums, err := d.data.columnSums(alias)

@@ -25,6 +25,7 @@ func (d *Document) loadBibliography() []error {
 		if err != nil {
 			return []error{manuscript.ErrAt(d.File, line, "bibliography: %v", err)}
 		}
+		d.opts.reads.noteBytes(full, src)
 		lib, err := manuscript.ParseBib(p, src)
 		if err != nil {
 			return []error{err}

@@ -31,7 +31,8 @@ type Options struct {
 	// PNG is the resolution of PNG figures wanted (0: none).
 	PNG int
 
-	nested bool // a build made by a revision directive for another vintage
+	nested bool     // a build made by a revision directive for another vintage
+	reads  *readLog // the files read (reads.go), shared with nested builds
 }
 
 // Document is a parsed manuscript: front matter, Markdown body, and its
@@ -97,6 +98,10 @@ func Parse(path string, opts Options) (*Document, error) {
 	if err != nil {
 		return nil, fmt.Errorf("reading manuscript: %w", err)
 	}
+	if opts.reads == nil {
+		opts.reads = &readLog{}
+	}
+	opts.reads.noteBytes(path, src)
 	return ParseBytes(path, src, opts)
 }
 
@@ -157,6 +162,9 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 		full, err := confine(d.Dir, p, opts.AllowOutside)
 		if err == nil {
 			d.Preamble, err = os.ReadFile(full)
+		}
+		if err == nil {
+			opts.reads.noteBytes(full, d.Preamble)
 		}
 		if err != nil {
 			errs = append(errs, manuscript.ErrAt(path, meta.Lines["latex"], "latex: preamble: %v", strings.Replace(err.Error(), "data file", "file", 1)))

@@ -35,32 +35,13 @@ func (b *buildCmd) Run() error {
 	if !b.NoCache {
 		opts.Cache = cacheFor(b.Manuscript, b.Fresh)
 	}
-	doc, err := engine.Parse(b.Manuscript, opts)
-	if err != nil {
-		return err
-	}
-	if err := doc.Run(); err != nil {
-		return err
-	}
-	if n := len(doc.Reused()); n > 0 && b.Verbose {
-		fmt.Fprintf(os.Stderr, "galley: %d of %d results reused from the cache\n", n, doc.Directives())
-	}
-	out := b.Out
-	if out == "" {
-		out = filepath.Join(filepath.Dir(b.Manuscript), "out")
-	}
-	files, err := outputs(doc, b.To, b.PNG)
-	if err != nil {
-		return err
-	}
-	var set atomicfile.Set
-	for name, data := range files {
-		if err := set.Stage(filepath.Join(out, name), data); err != nil {
-			set.Abort()
-			return err
+	out := b.outDir()
+	rec := b.recordFor(opts.Cache)
+	if rec != nil && !b.Fresh && rec.current() {
+		if b.Verbose {
+			fmt.Fprintln(os.Stderr, "galley: nothing changed since the last build; the outputs are current")
 		}
-	}
-	if err := set.Commit(); err != nil {
+	} else if err := b.build(opts, out, rec); err != nil {
 		return err
 	}
 	if b.Against != "" {
@@ -78,6 +59,47 @@ func (b *buildCmd) Run() error {
 		if rep.HasFlips() {
 			return &exitError{code: 3}
 		}
+	}
+	return nil
+}
+
+// outDir is the output folder: --out, or out/ beside the manuscript.
+func (b *buildCmd) outDir() string {
+	if b.Out != "" {
+		return b.Out
+	}
+	return filepath.Join(filepath.Dir(b.Manuscript), "out")
+}
+
+// build runs the manuscript and writes every output (all or none), then
+// its build record (record.go) if rec is not nil.
+func (b *buildCmd) build(opts engine.Options, out string, rec *buildRecord) error {
+	doc, err := engine.Parse(b.Manuscript, opts)
+	if err != nil {
+		return err
+	}
+	if err := doc.Run(); err != nil {
+		return err
+	}
+	if n := len(doc.Reused()); n > 0 && b.Verbose {
+		fmt.Fprintf(os.Stderr, "galley: %d of %d results reused from the cache\n", n, doc.Directives())
+	}
+	files, err := outputs(doc, b.To, b.PNG)
+	if err != nil {
+		return err
+	}
+	var set atomicfile.Set
+	for name, data := range files {
+		if err := set.Stage(filepath.Join(out, name), data); err != nil {
+			set.Abort()
+			return err
+		}
+	}
+	if err := set.Commit(); err != nil {
+		return err
+	}
+	if rec != nil {
+		rec.save(doc.FilesRead(), files)
 	}
 	return nil
 }
