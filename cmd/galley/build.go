@@ -88,20 +88,26 @@ func (b *buildCmd) build(opts engine.Options, out string, rec *buildRecord) erro
 	if err != nil {
 		return err
 	}
-	var set atomicfile.Set
-	for name, data := range files {
-		if err := set.Stage(filepath.Join(out, name), data); err != nil {
-			set.Abort()
-			return err
-		}
+	if rec != nil {
+		// The record is written beside the commit, not after it: it
+		// vouches only for outputs with exactly these bytes, so one that
+		// lands before (or without) the outputs vouches for nothing.
+		done := make(chan struct{})
+		go func() {
+			defer close(done)
+			rec.save(doc.FilesRead(), files)
+		}()
+		defer func() { <-done }()
 	}
-	if err := set.Commit(); err != nil {
+	staged := make(map[string][]byte, len(files))
+	for name, data := range files {
+		staged[filepath.Join(out, name)] = data
+	}
+	var set atomicfile.Set
+	if err := set.StageAll(staged); err != nil {
 		return err
 	}
-	if rec != nil {
-		rec.save(doc.FilesRead(), files)
-	}
-	return nil
+	return set.Commit()
 }
 
 // outputs renders every requested format in memory, keyed by path

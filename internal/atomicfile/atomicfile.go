@@ -8,8 +8,11 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"runtime"
+	"sort"
 	"strings"
 	"sync"
+	"sync/atomic"
 )
 
 // Write writes data to path through a temporary file in the same
@@ -89,6 +92,49 @@ func (s *Set) Stage(path string, data []byte) error {
 	}
 	s.files = append(s.files, staged{path, name})
 	return nil
+}
+
+// StageAll stages every file of files (keyed by path) as Stage does,
+// the comparisons and writes shared among up to two workers (a build's
+// outputs are many files, each compared with the file it replaces). On
+// a failure every file staged in the set is removed (as Abort) and the
+// error of the first failing path in sorted order is returned.
+func (s *Set) StageAll(files map[string][]byte) error {
+	paths := make([]string, 0, len(files))
+	for p := range files {
+		paths = append(paths, p)
+	}
+	sort.Strings(paths)
+	tmps := make([]string, len(paths))
+	errs := make([]error, len(paths))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < min(2, runtime.GOMAXPROCS(0), len(paths)); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := int(next.Add(1) - 1); i < len(paths); i = int(next.Add(1) - 1) {
+				if sameContent(paths[i], files[paths[i]]) {
+					continue
+				}
+				tmps[i], errs[i] = stage(paths[i], files[paths[i]], 0o644, false)
+			}
+		}()
+	}
+	wg.Wait()
+	var first error
+	for i, err := range errs {
+		if err != nil && first == nil {
+			first = err
+		}
+		if tmps[i] != "" {
+			s.files = append(s.files, staged{paths[i], tmps[i]})
+		}
+	}
+	if first != nil {
+		s.Abort()
+	}
+	return first
 }
 
 // Commit syncs every staged file (all at once, so that the file system

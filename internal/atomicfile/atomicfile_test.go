@@ -163,3 +163,67 @@ func TestSameContent(t *testing.T) {
 		t.Error("empty file")
 	}
 }
+
+// TestStageAll: many files staged at once behave as one Stage each: an
+// unchanged file is left alone, the others appear only at Commit; a
+// failure (a target whose folder is a file) removes every staged file
+// and names the path.
+func TestStageAll(t *testing.T) {
+	dir := t.TempDir()
+	files := map[string][]byte{}
+	for i := 0; i < 40; i++ {
+		files[filepath.Join(dir, "f", string(rune('a'+i%26))+strings.Repeat("x", i/26)+".txt")] = []byte(strings.Repeat("v", i))
+	}
+	var s Set
+	if err := s.StageAll(files); err != nil {
+		t.Fatal(err)
+	}
+	if err := s.Commit(); err != nil {
+		t.Fatal(err)
+	}
+	old := time.Now().Add(-time.Hour)
+	for p, b := range files {
+		if got, _ := os.ReadFile(p); string(got) != string(b) {
+			t.Fatalf("%s = %q", p, got)
+		}
+		os.Chtimes(p, old, old)
+	}
+	changed := filepath.Join(dir, "f", "c.txt")
+	files[changed] = []byte("new")
+	var s2 Set
+	if err := s2.StageAll(files); err != nil {
+		t.Fatal(err)
+	}
+	if got, _ := os.ReadFile(changed); string(got) != "vv" {
+		t.Fatal("a staged file is visible before Commit")
+	}
+	if err := s2.Commit(); err != nil {
+		t.Fatal(err)
+	}
+	for p, b := range files {
+		st, _ := os.Stat(p)
+		if got, _ := os.ReadFile(p); string(got) != string(b) {
+			t.Errorf("%s = %q", p, got)
+		}
+		if p != changed && !st.ModTime().Equal(old) {
+			t.Errorf("unchanged %s was rewritten", p)
+		}
+	}
+	os.WriteFile(filepath.Join(dir, "blocker"), nil, 0o644)
+	bad := filepath.Join(dir, "blocker", "x.txt")
+	files[bad] = []byte("x")
+	files[changed] = []byte("newer")
+	var s3 Set
+	if err := s3.StageAll(files); err == nil || !strings.Contains(err.Error(), "blocker") {
+		t.Fatalf("error %v, want one naming the blocked path", err)
+	}
+	if len(s3.files) != 0 {
+		t.Error("files left staged after a failure")
+	}
+	entries, _ := os.ReadDir(filepath.Join(dir, "f"))
+	for _, e := range entries {
+		if strings.Contains(e.Name(), ".tmp-") {
+			t.Errorf("left behind: %s", e.Name())
+		}
+	}
+}

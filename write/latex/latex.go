@@ -743,7 +743,9 @@ var accentCmd = map[string]string{"\u0302": `\hat`, "\u0303": `\tilde`, "\u0304"
 // texEscape makes literal text safe in LaTeX's text mode; control
 // characters are dropped.
 func texEscape(s string) string {
-	if !subscriptRun.MatchString(s) {
+	// every subscript rune is encoded E2 82 xx, but for ⱼ (E2 B1 BC), so
+	// a string without either needs no regular expression
+	if !strings.Contains(s, "\xe2\x82") && !strings.Contains(s, "ⱼ") || !subscriptRun.MatchString(s) {
 		return texEscapeText(s)
 	}
 	// A run of Unicode subscript characters (a time index such as ₜ₋₁) is
@@ -773,7 +775,8 @@ func texEscapeText(s string) string {
 		}
 		return r
 	}, s)
-	if !combiningAccent.MatchString(s) {
+	// U+0302..U+0304 are encoded 0xCC 0x82..0x84
+	if strings.IndexByte(s, 0xcc) < 0 || !combiningAccent.MatchString(s) {
 		return texReplacer.Replace(s)
 	}
 	var b strings.Builder

@@ -130,7 +130,7 @@ func main() {
 		os.Exit(2)
 	}
 	if *base != "" {
-		if err := runPair(*base, *galley, *work, *runs, *demo, *big); err != nil {
+		if err := runPair(*base, *galley, *work, *runs, *demo, *big, *only); err != nil {
 			fmt.Fprintln(os.Stderr, "procbench:", err)
 			os.Exit(1)
 		}

@@ -14,7 +14,7 @@ import (
 // workloads with their runs interleaved (each has its own copy of every
 // project, so that their caches do not meet), and prints after/before
 // for each: min/min and the median of the paired ratios.
-func runPair(before, after, work string, runs int, demo string, big bool) error {
+func runPair(before, after, work string, runs int, demo string, big bool, only string) error {
 	before, _ = filepath.Abs(before)
 	after, _ = filepath.Abs(after)
 	self, err := os.Executable()
@@ -76,6 +76,17 @@ func runPair(before, after, work string, runs int, demo string, big bool) error 
 			}},
 			&command{name: "galley --version", dir: tmp, argv: []string{s.exe, "--version"}},
 		)
+	}
+	if only != "" {
+		for _, s := range sides {
+			var keep []*command
+			for _, c := range s.cmds {
+				if strings.Contains(c.name, only) {
+					keep = append(keep, c)
+				}
+			}
+			s.cmds = keep
+		}
 	}
 	// one untimed round, then runs rounds: each command before, then after
 	n := len(sides[0].cmds)
