@@ -69,12 +69,12 @@ func (d *Document) entry(key string) (*manuscript.BibEntry, error) {
 			return e, nil
 		}
 	}
+	if e, ok := manuscript.MethodEntry(key); ok {
+		return e, nil
+	}
 	methods, err := manuscript.MethodLibrary()
 	if err != nil {
 		return nil, err
-	}
-	if e, ok := methods.Entries[key]; ok {
-		return e, nil
 	}
 	var keys []string
 	if d.bib != nil {

@@ -5,6 +5,10 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"sync"
+	"time"
+
+	"codeberg.org/go-pdf/fpdf"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
@@ -67,8 +71,24 @@ func (f *Figure) WriteSVG(w io.Writer) error {
 // metrics.
 const svgFonts = "font-family:'Liberation Sans',Arimo,Arial,Helvetica,sans-serif;"
 
+// pdfDate is the creation and modification date written into every
+// figure PDF. The PDF library writes the time of the build unless told
+// otherwise, so the same figure gave different bytes at every build;
+// with a fixed date the same inputs give the same file (common practice
+// for reproducible builds; the date itself means nothing).
+var pdfDate = time.Date(2000, 1, 1, 0, 0, 0, 0, time.UTC)
+
+var pdfDefaults sync.Once
+
 // WritePDF writes the figure as a one-page PDF with its fonts embedded.
 func (f *Figure) WritePDF(w io.Writer) error {
+	pdfDefaults.Do(func() {
+		// vgpdf makes its document without a way to set these, so they
+		// are set as the PDF library's defaults for every document.
+		fpdf.SetDefaultCreationDate(pdfDate)
+		fpdf.SetDefaultModificationDate(pdfDate)
+		fpdf.SetDefaultCatalogSort(true)
+	})
 	c := vgpdf.New(f.Width, f.Height)
 	c.EmbedFonts(true)
 	f.draw(cp1252Canvas{c})

@@ -84,6 +84,15 @@ func TestPDFStructure(t *testing.T) {
 	if m := regexp.MustCompile(`/Count\s+(\d+)`).FindSubmatch(b); m == nil || string(m[1]) != "1" {
 		t.Errorf("page tree count %q, want 1", m)
 	}
+	// No clock in the file: the same figure is the same bytes at any time.
+	for _, key := range []string{"/CreationDate (D:20000101000000)", "/ModDate (D:20000101000000)"} {
+		if !bytes.Contains(b, []byte(key)) {
+			t.Errorf("PDF lacks %q (the build's time would make every build's file differ)", key)
+		}
+	}
+	if again, _ := fig.Render("pdf", 0); !bytes.Equal(again, b) {
+		t.Error("the same figure rendered twice gave different PDF bytes")
+	}
 	// MediaBox in points: 3.4 in × (2 × 1.5 in).
 	if !bytes.Contains(b, []byte("/MediaBox [0 0 244.80 216.00]")) {
 		t.Errorf("unexpected MediaBox: %q", regexp.MustCompile(`/MediaBox \[[^\]]*\]`).Find(b))

@@ -1,6 +1,10 @@
 package manuscript
 
-import "sync"
+import (
+	"fmt"
+	"strings"
+	"sync"
+)
 
 // MethodBib is galley's reference table: the published works behind its
 // estimators, tests and critical values, as BibTeX, so that a directive
@@ -163,14 +167,88 @@ const MethodBib = `
   journal = {Journal of the American Statistical Association}, year = {1989}, volume = {84}, number = {406}, pages = {598--601}}
 `
 
+const methodFile = "galley's reference table"
+
 var (
 	methodOnce sync.Once
 	methodLib  *Library
 	methodErr  error
+
+	methodIdxOnce sync.Once
+	methodIdx     map[string][2]int // key → the entry's bytes in MethodBib
+	methodKeys    []string          // in MethodBib's order
+	methodMu      sync.Mutex
+	methodEnt     = map[string]*BibEntry{}
 )
 
-// MethodLibrary is MethodBib parsed.
+// MethodLibrary is MethodBib parsed: every entry of MethodEntry, in
+// the table's order.
 func MethodLibrary() (*Library, error) {
-	methodOnce.Do(func() { methodLib, methodErr = ParseBib("galley's reference table", []byte(MethodBib)) })
+	methodOnce.Do(func() {
+		lib := &Library{Entries: map[string]*BibEntry{}}
+		for _, k := range methodIndex() {
+			e, err := methodEntry(k)
+			if err != nil {
+				methodErr = err
+				return
+			}
+			lib.Entries[k] = e
+			lib.Keys = append(lib.Keys, k)
+		}
+		methodLib = lib
+	})
 	return methodLib, methodErr
+}
+
+// MethodEntry is the work key of galley's reference table, parsed on
+// first use: a build cites a handful of the table's works, and parsing
+// them all cost every build a millisecond.
+func MethodEntry(key string) (*BibEntry, bool) {
+	methodIndex()
+	if _, ok := methodIdx[key]; !ok {
+		return nil, false
+	}
+	e, err := methodEntry(key)
+	return e, err == nil
+}
+
+// methodIndex finds each entry of MethodBib (once) and lists the keys.
+func methodIndex() []string {
+	methodIdxOnce.Do(func() {
+		src := []byte(MethodBib)
+		starts := entryStarts(src)
+		methodIdx = make(map[string][2]int, len(starts))
+		for i, m := range starts {
+			end := len(src)
+			if i+1 < len(starts) {
+				end = starts[i+1][0]
+			}
+			k := string(src[m[4]:m[5]])
+			methodIdx[k] = [2]int{m[0], end}
+			methodKeys = append(methodKeys, k)
+		}
+	})
+	return methodKeys
+}
+
+// methodEntry parses one entry of MethodBib (memoised), preceded by as
+// many line feeds as come before it so that its line is the table's.
+func methodEntry(key string) (*BibEntry, error) {
+	methodMu.Lock()
+	defer methodMu.Unlock()
+	if e, ok := methodEnt[key]; ok {
+		return e, nil
+	}
+	r := methodIdx[key]
+	piece := strings.Repeat("\n", strings.Count(MethodBib[:r[0]], "\n")) + MethodBib[r[0]:r[1]]
+	lib, err := ParseBib(methodFile, []byte(piece))
+	if err != nil {
+		return nil, err
+	}
+	e, ok := lib.Entries[key]
+	if !ok {
+		return nil, fmt.Errorf("%s: no entry %q", methodFile, key)
+	}
+	methodEnt[key] = e
+	return e, nil
 }

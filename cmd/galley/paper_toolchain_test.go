@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"html"
 	"os"
 	"strconv"
@@ -27,6 +28,11 @@ func TestDemoPDF(t *testing.T) {
 	need(t, "pdflatex")
 	out := buildDemoTo(t, "pdf")
 	firstPageInked(t, out, "paper.pdf")
+	// pdfTeX was given a fixed date, so the file does not change with the
+	// time of the build (unless the environment names a SOURCE_DATE_EPOCH).
+	if pdf, _ := os.ReadFile(filepath.Join(out, "paper.pdf")); os.Getenv("SOURCE_DATE_EPOCH") == "" && !bytes.Contains(pdf, []byte("/CreationDate (D:20000101000000Z)")) {
+		t.Error("the PDF carries the time of the build")
+	}
 	cmd := exec.Command(need(t, "pdftotext"), "-layout", "paper.pdf", "paper.txt")
 	cmd.Dir = out
 	if b, err := cmd.CombinedOutput(); err != nil {

@@ -55,6 +55,12 @@ func compilePDF(doc *engine.Document, tex []byte) ([]byte, error) {
 		cmd := exec.CommandContext(ctx, bin, "-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", "-file-line-error", "paper.tex")
 		cmd.Dir = dir
 		cmd.Env = append(os.Environ(), "openout_any=p", "openin_any=p")
+		if os.Getenv("SOURCE_DATE_EPOCH") == "" {
+			// pdfTeX writes the time of the run into the PDF (its dates
+			// and file ID) unless given one (the reproducible-builds
+			// convention); a fixed date makes equal inputs equal files.
+			cmd.Env = append(cmd.Env, "SOURCE_DATE_EPOCH=946684800", "FORCE_SOURCE_DATE=1")
+		}
 		out, runErr := cmd.CombinedOutput()
 		cancel()
 		if runErr != nil {

@@ -22,7 +22,7 @@ func TestBuildRecord(t *testing.T) {
 	text := func(s string) string {
 		m := strings.Replace(watchManuscript(s+` As in \citet{dg}.`), "data:\n  grid: data.csv\n",
 			"bibliography: refs.bib\ndata:\n  grid:\n    path: data.csv\n    vintage:\n      first: first.csv\n", 1)
-		return m + "\n```galley revision\nid: rev\nagainst: first\n```\n"
+		return m + "\n```galley revision\nid: rev\nagainst: first\n```\n\n```galley figure\nid: fig\ndata: grid\npanels:\n  - [north, fuel]\n```\n"
 	}
 	first := filepath.Join(dir, "first.csv")
 	writeFile(t, first, strings.Replace(watchCSV, "2004-08,65,106", "2004-08,64,105", 1))
@@ -48,13 +48,19 @@ func TestBuildRecord(t *testing.T) {
 		if code := run([]string{"build", p, "--out", ref, "--no-cache"}); code != 0 {
 			t.Fatalf("reference build: exit %d", code)
 		}
-		for _, f := range []string{"paper.html", "paper.results.json"} {
-			a, _ := os.ReadFile(filepath.Join(out, f))
-			b, _ := os.ReadFile(filepath.Join(ref, f))
-			if len(a) == 0 || string(a) != string(b) {
-				t.Errorf("%s: %s differs from a build without a record", what, f)
+		// every file, the figure's PDF and SVG included
+		_ = filepath.WalkDir(ref, func(path string, e os.DirEntry, err error) error {
+			if err != nil || e.IsDir() {
+				return err
 			}
-		}
+			rel, _ := filepath.Rel(ref, path)
+			a, _ := os.ReadFile(filepath.Join(out, rel))
+			b, _ := os.ReadFile(path)
+			if len(a) == 0 || string(a) != string(b) {
+				t.Errorf("%s: %s differs from a build without a record", what, rel)
+			}
+			return nil
+		})
 	}
 	step := func(what string, skip bool, extra ...string) {
 		t.Helper()
