@@ -44,6 +44,7 @@ func TestPackBlobs(t *testing.T) {
 // with them; gob refused the type before it was registered, and the
 // whole pack then went unwritten.
 func TestPackBreaks(t *testing.T) {
+	registerGob() // as the pack's reader and writer do before gob runs
 	breaks := []contract.Break{{Label: "ADF*", Date: "1990Q3", Index: 17}}
 	res := &Result{ID: "gh", Values: map[string]any{"stat": -5.1}, Test: &contract.Outcome{Extra: map[string]any{contract.BreaksKey: breaks}}}
 	var buf bytes.Buffer

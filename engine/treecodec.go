@@ -166,6 +166,9 @@ func appendFloats(b []byte, x []float64) []byte {
 type treeReader struct {
 	b   []byte
 	err error
+	// strs, if not nil, holds the short strings read so far, so that a
+	// key or value met again (field names, dates) is not allocated again
+	strs map[string]string
 }
 
 var errTreeData = errors.New("engine: malformed tree data")
@@ -224,8 +227,16 @@ func (r *treeReader) str() string {
 	if r.err != nil {
 		return ""
 	}
-	s := string(r.b[:n])
+	b := r.b[:n]
 	r.b = r.b[n:]
+	if r.strs == nil || n > 32 {
+		return string(b)
+	}
+	if s, ok := r.strs[string(b)]; ok {
+		return s
+	}
+	s := string(b)
+	r.strs[s] = s
 	return s
 }
 

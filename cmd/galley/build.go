@@ -34,6 +34,7 @@ func (b *buildCmd) Run() error {
 	opts := engine.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage, PNG: b.PNG}
 	if !b.NoCache {
 		opts.Cache = cacheFor(b.Manuscript, b.Fresh)
+		opts.Cache.Map = true // one build, then the process ends
 	}
 	out := b.outDir()
 	rec := b.recordFor(opts.Cache)

@@ -55,7 +55,8 @@ import (
 
 const recordMagic = "galley-build-record-2"
 
-var castagnoli = crc32.MakeTable(crc32.Castagnoli)
+// castagnoli is the CRC-32C table, made on first use.
+var castagnoli = sync.OnceValue(func() *crc32.Table { return crc32.MakeTable(crc32.Castagnoli) })
 
 // recordFor is the record slot of this build, or nil when the build
 // keeps none.
@@ -171,7 +172,7 @@ func (f recordFile) matches() bool {
 	if err != nil || !st.Mode().IsRegular() || (f.size >= 0 && st.Size() != f.size) {
 		return false
 	}
-	var h hash.Hash = crc32.New(castagnoli)
+	var h hash.Hash = crc32.New(castagnoli())
 	if f.size < 0 {
 		h = sha256.New()
 	}
@@ -261,7 +262,7 @@ func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte) {
 	}
 	sort.Strings(names)
 	for _, n := range names {
-		s := binary.BigEndian.AppendUint32(nil, crc32.Checksum(files[n], castagnoli))
+		s := binary.BigEndian.AppendUint32(nil, crc32.Checksum(files[n], castagnoli()))
 		if !line("out " + hex.EncodeToString(s) + " " + strconv.Itoa(len(files[n])) + " " + filepath.Join(r.out, n)) {
 			r.remove()
 			return
