@@ -35,6 +35,32 @@ type Cache struct {
 	// which is never undone: for a process that ends after one build,
 	// not for one that builds again and again.
 	Map bool
+	// Async writes the cache's files (the pack, the stored results file)
+	// in the background, beside the rendering of the outputs; the caller
+	// must then call Document.Wait before it exits.
+	Async bool
+}
+
+// later runs write in the background if the cache is asynchronous (the
+// build's Wait waits for it), else now.
+func (d *Document) later(write func()) {
+	if !d.opts.Cache.Async || d.opts.pending == nil {
+		write()
+		return
+	}
+	d.opts.pending.Add(1)
+	go func() {
+		defer d.opts.pending.Done()
+		write()
+	}()
+}
+
+// Wait returns when every cache file this build (and any nested build
+// it made) writes in the background is written.
+func (d *Document) Wait() {
+	if d.opts.pending != nil {
+		d.opts.pending.Wait()
+	}
 }
 
 // read returns the bytes of one of the cache's files.
@@ -517,6 +543,13 @@ func (d *Document) cacheFlush() {
 			}
 		}
 	}
+	d.later(func() { writePack(p.path, c.Version, all, nblob, est) })
+	p.loaded = true
+}
+
+// writePack encodes the entries and writes the pack file; a failure
+// only costs a rerun next time.
+func writePack(path, version string, all []*cacheEntry, nblob, est int) {
 	blob := make([]byte, 0, nblob)
 	for _, e := range all {
 		e.Blobs = e.Blobs[:0]
@@ -534,7 +567,7 @@ func (d *Document) cacheFlush() {
 	buf.Write(make([]byte, 8)) // the stream's length, below
 	registerGob()
 	enc := gob.NewEncoder(&buf)
-	if enc.Encode(packHeader{Magic: cacheMagic, Version: c.Version, N: len(all)}) != nil {
+	if enc.Encode(packHeader{Magic: cacheMagic, Version: version, N: len(all)}) != nil {
 		return
 	}
 	for _, e := range all {
@@ -545,9 +578,7 @@ func (d *Document) cacheFlush() {
 	out := buf.Bytes()
 	binary.LittleEndian.PutUint64(out, uint64(len(out)-8))
 	out = append(out, blob...)
-	if atomicfile.WriteUnsynced(p.path, out, 0o644) == nil {
-		p.loaded = true
-	}
+	_ = atomicfile.WriteUnsynced(path, out, 0o644)
 }
 
 // resultsSlot is where the cache keeps the last results file of this
@@ -621,7 +652,7 @@ func (d *Document) cachedResults(version string, render func(headroom int) ([]by
 	copy(b, head)
 	copy(b[len(head):], crcHex(body))
 	b[room-1] = '\n'
-	_ = atomicfile.WriteUnsynced(path, b, 0o644) // a failure costs a render next time
+	d.later(func() { _ = atomicfile.WriteUnsynced(path, b, 0o644) }) // a failure costs a render next time
 	return body, nil
 }
 

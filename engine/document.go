@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/text"
@@ -33,6 +34,9 @@ type Options struct {
 
 	nested bool     // a build made by a revision directive for another vintage
 	reads  *readLog // the files read (reads.go), shared with nested builds
+	// pending counts the cache files being written in the background
+	// (Cache.Async), shared with nested builds
+	pending *sync.WaitGroup
 }
 
 // Document is a parsed manuscript: front matter, Markdown body, and its
@@ -100,6 +104,9 @@ func Parse(path string, opts Options) (*Document, error) {
 	}
 	if opts.reads == nil {
 		opts.reads = &readLog{}
+	}
+	if opts.pending == nil {
+		opts.pending = &sync.WaitGroup{}
 	}
 	opts.reads.noteBytes(path, src)
 	return ParseBytes(path, src, opts)

@@ -34,7 +34,8 @@ func (b *buildCmd) Run() error {
 	opts := engine.Options{AllowOutside: b.AllowOutside, Vintage: b.Vintage, PNG: b.PNG}
 	if !b.NoCache {
 		opts.Cache = cacheFor(b.Manuscript, b.Fresh)
-		opts.Cache.Map = true // one build, then the process ends
+		opts.Cache.Map = true   // one build, then the process ends
+		opts.Cache.Async = true // build waits for the cache's files below
 	}
 	out := b.outDir()
 	rec := b.recordFor(opts.Cache)
@@ -79,6 +80,7 @@ func (b *buildCmd) build(opts engine.Options, out string, rec *buildRecord) erro
 	if err != nil {
 		return err
 	}
+	defer doc.Wait() // the cache's files, written beside the outputs
 	if err := doc.Run(); err != nil {
 		return err
 	}
@@ -89,24 +91,32 @@ func (b *buildCmd) build(opts engine.Options, out string, rec *buildRecord) erro
 	if err != nil {
 		return err
 	}
-	if rec != nil {
-		// The record is written beside the commit, not after it: it
-		// vouches only for outputs with exactly these bytes, so one that
-		// lands before (or without) the outputs vouches for nothing.
-		done := make(chan struct{})
-		go func() {
-			defer close(done)
-			rec.save(doc.FilesRead(), files)
-		}()
-		defer func() { <-done }()
-	}
 	staged := make(map[string][]byte, len(files))
 	for name, data := range files {
 		staged[filepath.Join(out, name)] = data
 	}
+	var holds func(string, []byte) bool
+	if rec != nil {
+		holds = rec.holds
+	}
 	var set atomicfile.Set
-	if err := set.StageAll(staged); err != nil {
+	if err := set.StageAll(staged, holds); err != nil {
 		return err
+	}
+	if rec != nil {
+		// The record is written beside the commit: it takes the identity
+		// of the outputs the commit leaves alone, and none of those it
+		// replaces (they are compared by content next time, as files
+		// just written would be anyway). One that lands without the
+		// commit vouches for nothing: the replaced outputs' checksums
+		// would not match the files left in place.
+		done := make(chan struct{})
+		replaced := set.Staged()
+		go func() {
+			defer close(done)
+			rec.save(doc.FilesRead(), files, replaced)
+		}()
+		defer func() { <-done }()
 	}
 	return set.Commit()
 }

@@ -11,11 +11,13 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
 	"sync"
 	"sync/atomic"
+	"time"
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
@@ -37,26 +39,60 @@ import (
 //   - every output file, with its size and CRC-32C (outputs are written
 //     by galley, so the check is against accident and hand edits, not
 //     forgery; the CRC runs in hardware at several GB/s where SHA-256
-//     cost a build of the demo 3 ms).
+//     cost a build of the demo 3 ms), and the file's identity on disk
+//     just after the build put it there: its inode number and its
+//     status-change time (ctime).
 //
 // The next build with the same settings reads the record, hashes every
-// file it lists, and stops if each input has the same bytes and each
-// output is still on disk with the bytes written (the same size and
-// checksum): a build is a function
+// input it lists, and stops if each input has the same bytes and each
+// output is still on disk with the bytes written: a build is a function
 // of those inputs and settings (it reads nothing else: no clock, no
 // environment, no network), so it would write exactly those outputs
 // again. Any difference (an edited manuscript, a revised data file, an
 // output edited by hand or deleted, another galley) means a full build.
-// Inputs are compared by content, not by modification time.
+//
+// Inputs are always compared by content. An output is known to hold the
+// recorded bytes without reading it when it is the same inode with the
+// same size and ctime as recorded: the kernel sets ctime at every write
+// or rename and it cannot be set back, so an equal ctime means nobody
+// has touched the file since (the rule git's index uses, with the same
+// guard against "racy" files: a file whose ctime is within a second of
+// the moment it was recorded is compared by content, since a write in
+// the same clock tick would not have moved its ctime). A full build uses
+// the same knowledge to skip comparing unchanged outputs with the files
+// they would replace (atomicfile.Set.StageAll).
 //
 // No record is kept for a PDF build (pdflatex, outside galley, is part
 // of its output) or without a cache; --fresh builds without looking at
 // the record (and writes a new one).
 
-const recordMagic = "galley-build-record-2"
+const recordMagic = "galley-build-record-3"
+
+// racyWindow: an output whose ctime is this close to the time it was
+// recorded is compared by content (see above): longer than the
+// kernel's clock tick (at most 10 ms) for a file system with nanosecond
+// times; racyCoarse for one whose times have whole seconds.
+var (
+	racyWindow = int64(50 * time.Millisecond)
+	racyCoarse = int64(2 * time.Second)
+)
+
+// racy reports whether an output of identity id, recorded at at, must
+// be compared by content.
+func racy(id fileID, at int64) bool {
+	w := racyWindow
+	if id.ctime%int64(time.Second) == 0 {
+		w = racyCoarse
+	}
+	return !id.known || id.ctime >= at-w
+}
 
 // castagnoli is the CRC-32C table, made on first use.
 var castagnoli = sync.OnceValue(func() *crc32.Table { return crc32.MakeTable(crc32.Castagnoli) })
+
+func crcHex(b []byte) string {
+	return hex.EncodeToString(binary.BigEndian.AppendUint32(nil, crc32.Checksum(b, castagnoli())))
+}
 
 // recordFor is the record slot of this build, or nil when the build
 // keeps none.
@@ -95,12 +131,14 @@ func (b *buildCmd) recordFor(cache *engine.Cache) *buildRecord {
 	}
 	slot := sha256.Sum256([]byte(man + "\x00" + out))
 	key := sha256.Sum256([]byte(strings.Join(settings, "\x00")))
-	return &buildRecord{
+	r := &buildRecord{
 		path: filepath.Join(cache.Dir, "builds", hex.EncodeToString(slot[:16])),
 		key:  hex.EncodeToString(key[:]),
 		out:  out,
 		man:  man,
 	}
+	r.load()
+	return r
 }
 
 type buildRecord struct {
@@ -108,6 +146,12 @@ type buildRecord struct {
 	key  string // the hash of the settings
 	out  string // the output folder (absolute)
 	man  string // the manuscript (absolute), listed first
+
+	// what the last build recorded (load): every file, inputs first,
+	// and the outputs by path; nil without a usable record
+	prev    []recordFile
+	outputs map[string]recordFile
+	at      int64 // when the last build's outputs were looked at (Unix ns)
 }
 
 // recordFile is one line of a record: an input (size −1) or an output.
@@ -115,127 +159,208 @@ type recordFile struct {
 	path string
 	sum  string // SHA-256 (input) or CRC-32C (output), hex; "" for an input looked for and absent
 	size int64  // −1 for an input
+	id   fileID // an output's inode and ctime (known false if not recorded)
+}
+
+// load reads the last build's record; a missing, foreign or corrupt
+// one leaves prev nil.
+func (r *buildRecord) load() {
+	raw, err := os.ReadFile(r.path)
+	if err != nil {
+		return
+	}
+	files, at, ok := r.parse(raw)
+	if !ok || len(files) == 0 {
+		return
+	}
+	r.prev, r.at = files, at
+	r.outputs = map[string]recordFile{}
+	for _, f := range files {
+		if f.size >= 0 {
+			r.outputs[f.path] = f
+		}
+	}
 }
 
 // current reports whether the record says this build would write
 // exactly what is on disk now. Any doubt (no record, a corrupt one, a
 // file that cannot be read) is a no.
 func (r *buildRecord) current() bool {
-	raw, err := os.ReadFile(r.path)
-	if err != nil {
+	files := r.prev
+	if len(files) == 0 {
 		return false
 	}
-	files, ok := r.parse(raw)
-	if !ok || len(files) == 0 {
-		return false
-	}
+	start := time.Now().UnixNano()
 	// The manuscript (listed first) is what changes most often: check it
 	// alone, then the rest on both cores; the first mismatch stops them.
-	if !files[0].matches() {
+	seen := make([]fileID, len(files))
+	var read atomic.Bool // an output was read: its record can be renewed
+	check := func(i int) bool {
+		ok, id, byContent := r.matches(files[i])
+		seen[i] = id
+		if byContent && files[i].size >= 0 {
+			read.Store(true)
+		}
+		return ok
+	}
+	if !check(0) {
 		return false
 	}
-	files = files[1:]
 	var (
 		next  atomic.Int64
 		stale atomic.Bool
 		wg    sync.WaitGroup
 	)
+	next.Store(1)
 	for w := 0; w < 2; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for i := int(next.Add(1) - 1); i < len(files) && !stale.Load(); i = int(next.Add(1) - 1) {
-				if !files[i].matches() {
+				if !check(i) {
 					stale.Store(true)
 				}
 			}
 		}()
 	}
 	wg.Wait()
-	return !stale.Load()
+	if stale.Load() {
+		return false
+	}
+	if read.Load() {
+		// Every output was found to hold its bytes, some by reading
+		// them: record their identities as seen now (taken before the
+		// read, at or after start), so that the next build can trust
+		// them. An identity taken after start is safe to trust if its
+		// ctime is racyWindow before start: a write after it would have
+		// moved the ctime.
+		renewed := slices.Clone(files)
+		for i := range renewed {
+			if renewed[i].size >= 0 {
+				renewed[i].id = seen[i]
+			}
+		}
+		r.write(start, renewed)
+	}
+	return true
 }
 
-// matches reports whether the file on disk is the one recorded.
-func (f recordFile) matches() bool {
+// untouched reports whether the output f is, by its identity on disk,
+// the file the last build recorded (and so holds f's bytes).
+func (r *buildRecord) untouched(f recordFile) bool {
+	if racy(f.id, r.at) {
+		return false
+	}
+	st, err := os.Lstat(f.path)
+	if err != nil || !st.Mode().IsRegular() || st.Size() != f.size {
+		return false
+	}
+	id := identity(st)
+	return id.known && id == f.id
+}
+
+// matches reports whether the file on disk is the one recorded, with
+// the identity of the output seen (taken before it was read) and whether
+// it had to be read.
+func (r *buildRecord) matches(f recordFile) (ok bool, id fileID, read bool) {
+	if f.size >= 0 && r.untouched(f) {
+		return true, f.id, false
+	}
 	fh, err := os.Open(f.path)
 	if f.sum == "" {
 		if err == nil {
 			fh.Close()
 		}
-		return os.IsNotExist(err)
+		return os.IsNotExist(err), id, true
 	}
 	if err != nil {
-		return false
+		return false, id, true
 	}
 	defer fh.Close()
 	st, err := fh.Stat()
 	if err != nil || !st.Mode().IsRegular() || (f.size >= 0 && st.Size() != f.size) {
-		return false
+		return false, id, true
 	}
 	var h hash.Hash = crc32.New(castagnoli())
 	if f.size < 0 {
 		h = sha256.New()
 	}
 	if _, err := io.Copy(h, fh); err != nil {
+		return false, id, true
+	}
+	return hex.EncodeToString(h.Sum(nil)) == f.sum, identity(st), true
+}
+
+// holds reports, without reading it, whether the file at path (in the
+// output folder) already holds data: it is the last build's output,
+// untouched since, and that output had data's size and checksum. It is
+// atomicfile.Set.StageAll's shortcut; false means "compare".
+func (r *buildRecord) holds(path string, data []byte) bool {
+	f, ok := r.outputs[path]
+	if !ok || f.size != int64(len(data)) || !r.untouched(f) {
 		return false
 	}
-	return hex.EncodeToString(h.Sum(nil)) == f.sum
+	return crcHex(data) == f.sum
 }
 
 // parse reads a record written by save for these settings.
-func (r *buildRecord) parse(raw []byte) ([]recordFile, bool) {
+func (r *buildRecord) parse(raw []byte) ([]recordFile, int64, bool) {
 	sc := bufio.NewScanner(bytes.NewReader(raw))
 	sc.Buffer(make([]byte, 0, 4096), 1<<20)
-	if !sc.Scan() || sc.Text() != recordMagic || !sc.Scan() || sc.Text() != r.key {
-		return nil, false
+	if !sc.Scan() || sc.Text() != recordMagic || !sc.Scan() || sc.Text() != r.key || !sc.Scan() {
+		return nil, 0, false
+	}
+	at, err := strconv.ParseInt(strings.TrimPrefix(sc.Text(), "at "), 10, 64)
+	if err != nil || !strings.HasPrefix(sc.Text(), "at ") {
+		return nil, 0, false
 	}
 	var files []recordFile
 	for sc.Scan() {
-		// "in SUM PATH" or "out SUM SIZE PATH" (SUM "-" for absent)
-		fields := strings.SplitN(sc.Text(), " ", 4)
+		// "in SUM PATH" or "out SUM SIZE INO CTIME PATH" (SUM "-" for
+		// absent, INO and CTIME "-" when not known)
+		fields := strings.SplitN(sc.Text(), " ", 6)
 		var f recordFile
 		switch {
 		case len(fields) >= 3 && fields[0] == "in":
 			f = recordFile{sum: fields[1], size: -1, path: strings.Join(fields[2:], " ")}
-		case len(fields) == 4 && fields[0] == "out":
+		case len(fields) == 6 && fields[0] == "out":
 			n, err := strconv.ParseInt(fields[2], 10, 64)
 			if err != nil || n < 0 {
-				return nil, false
+				return nil, 0, false
 			}
-			f = recordFile{sum: fields[1], size: n, path: fields[3]}
+			f = recordFile{sum: fields[1], size: n, path: fields[5]}
+			if fields[3] != "-" {
+				ino, err1 := strconv.ParseUint(fields[3], 10, 64)
+				ct, err2 := strconv.ParseInt(fields[4], 10, 64)
+				if err1 != nil || err2 != nil {
+					return nil, 0, false
+				}
+				f.id = fileID{ino: ino, ctime: ct, known: true}
+			}
 		default:
-			return nil, false
+			return nil, 0, false
 		}
 		if f.sum == "-" {
 			if f.size >= 0 {
-				return nil, false
+				return nil, 0, false
 			}
 			f.sum = ""
 		} else if f.size < 0 && len(f.sum) != 2*sha256.Size || f.size >= 0 && len(f.sum) != 2*crc32.Size {
-			return nil, false
+			return nil, 0, false
 		}
 		if !filepath.IsAbs(f.path) {
-			return nil, false
+			return nil, 0, false
 		}
 		files = append(files, f)
 	}
-	return files, sc.Err() == nil
+	return files, at, sc.Err() == nil
 }
 
 // save writes the record of a build that read reads and wrote files
-// (paths relative to the output folder). A failure only costs a full
-// build next time.
-func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte) {
-	var b strings.Builder
-	b.WriteString(recordMagic + "\n" + r.key + "\n")
-	line := func(s string) bool {
-		if strings.ContainsAny(s, "\x00\n\r") {
-			return false
-		}
-		b.WriteString(s)
-		b.WriteByte('\n')
-		return true
-	}
+// (paths relative to the output folder); replaced holds the outputs the
+// build replaces, whose identity is not recorded. A failure only costs a
+// full build next time.
+func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte, replaced map[string]bool) {
 	first := -1
 	for i, in := range reads {
 		if in.Path == r.man {
@@ -243,36 +368,65 @@ func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte) {
 		}
 	}
 	if first < 0 {
-		return // not the build of this manuscript
+		r.remove() // not the build of this manuscript
+		return
 	}
 	reads = append([]engine.FileRead{reads[first]}, append(reads[:first:first], reads[first+1:]...)...)
-	for _, in := range reads {
-		sum := in.SHA256
-		if sum == "" {
-			sum = "-"
-		}
-		if !line("in " + sum + " " + in.Path) {
-			r.remove()
-			return
-		}
-	}
 	names := make([]string, 0, len(files))
 	for n := range files {
 		names = append(names, n)
 	}
 	sort.Strings(names)
-	for _, n := range names {
-		s := binary.BigEndian.AppendUint32(nil, crc32.Checksum(files[n], castagnoli()))
-		if !line("out " + hex.EncodeToString(s) + " " + strconv.Itoa(len(files[n])) + " " + filepath.Join(r.out, n)) {
+	outs := make([]string, len(names))
+	ids := make([]fileID, len(names))
+	for i, n := range names {
+		outs[i] = filepath.Join(r.out, n)
+		if replaced[outs[i]] {
+			continue
+		}
+		if st, err := os.Lstat(outs[i]); err == nil && st.Mode().IsRegular() && st.Size() == int64(len(files[n])) {
+			ids[i] = identity(st)
+		}
+	}
+	at := time.Now().UnixNano()
+	all := make([]recordFile, 0, len(reads)+len(names))
+	for _, in := range reads {
+		all = append(all, recordFile{path: in.Path, sum: in.SHA256, size: -1})
+	}
+	for i, n := range names {
+		all = append(all, recordFile{path: outs[i], sum: crcHex(files[n]), size: int64(len(files[n])), id: ids[i]})
+	}
+	r.write(at, all)
+}
+
+// write writes the record of files, their outputs' identities seen at
+// or after at. A failure only costs a full build next time.
+func (r *buildRecord) write(at int64, files []recordFile) {
+	var b strings.Builder
+	b.WriteString(recordMagic + "\n" + r.key + "\nat " + strconv.FormatInt(at, 10) + "\n")
+	for _, f := range files {
+		if strings.ContainsAny(f.path, "\x00\n\r") {
 			r.remove()
 			return
 		}
+		sum := f.sum
+		if sum == "" {
+			sum = "-"
+		}
+		if f.size < 0 {
+			b.WriteString("in " + sum + " " + f.path + "\n")
+			continue
+		}
+		id := "- -"
+		if f.id.known {
+			id = strconv.FormatUint(f.id.ino, 10) + " " + strconv.FormatInt(f.id.ctime, 10)
+		}
+		b.WriteString("out " + sum + " " + strconv.FormatInt(f.size, 10) + " " + id + " " + f.path + "\n")
 	}
 	if atomicfile.WriteUnsynced(r.path, []byte(b.String()), 0o644) != nil {
 		r.remove()
 	}
 }
 
-// remove deletes the record (before a build, so that a build that
-// fails half way leaves none that could vouch for the old outputs).
+// remove deletes the record.
 func (r *buildRecord) remove() { _ = os.Remove(r.path) }

@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 )
 
 // TestBuildRecord: a build that would write what is already there stops
@@ -131,4 +132,66 @@ func readFile(t *testing.T, p string) string {
 		t.Fatal(err)
 	}
 	return string(b)
+}
+
+// TestRecordTrustsUntouchedOutputs: an output the last build put in
+// place and nobody touched since is known to hold its bytes without
+// being read (holds, and current for a build that changed nothing), but
+// not while it is "racy" (recorded within racyWindow of its last
+// change), and never after a write of the same size or a copy over it.
+func TestRecordTrustsUntouchedOutputs(t *testing.T) {
+	dir := t.TempDir()
+	p := filepath.Join(dir, "paper.md")
+	writeFile(t, p, watchManuscript("Draft."))
+	writeFile(t, filepath.Join(dir, "data.csv"), watchCSV)
+	out := filepath.Join(dir, "out")
+	b := &buildCmd{Manuscript: p, Out: out, To: []string{"html"}}
+	cache := cacheFor(p, false)
+	if code := run([]string{"build", p, "--out", out}); code != 0 {
+		t.Fatalf("build: exit %d", code)
+	}
+	html := filepath.Join(out, "paper.html")
+	data, _ := os.ReadFile(html)
+	// just built: racy, so not vouched for
+	if rec := b.recordFor(cache); rec == nil || rec.holds(html, data) {
+		t.Fatal("a file changed within the racy window was vouched for")
+	}
+	// a later build that changes nothing reads the racy outputs, finds
+	// them intact and renews the record, which then vouches for them
+	time.Sleep(3 * time.Duration(racyWindow))
+	if code := run([]string{"build", p, "--out", out}); code != 0 {
+		t.Fatalf("build: exit %d", code)
+	}
+	if rec := b.recordFor(cache); !rec.holds(html, data) {
+		t.Fatal("the record was not renewed after the outputs were read")
+	}
+	old := racyWindow
+	racyWindow = 0
+	defer func() { racyWindow = old }()
+	time.Sleep(30 * time.Millisecond) // past the kernel's clock tick
+	rec := b.recordFor(cache)
+	if !rec.holds(html, data) || !rec.current() {
+		t.Fatal("an untouched output was not vouched for")
+	}
+	if rec.holds(html, append([]byte("x"), data[1:]...)) {
+		t.Error("vouched for other bytes")
+	}
+	// a write of the same size changes the ctime
+	edited := append([]byte{}, data...)
+	i := strings.Index(string(edited), "Draft.")
+	copy(edited[i:], "DRAFT.")
+	writeFile(t, html, string(edited))
+	if rec.holds(html, data) || rec.current() {
+		t.Error("an output written over with the same size was vouched for")
+	}
+	// a copy of the right bytes put in its place: not the recorded file,
+	// but equal by content
+	writeFile(t, html+".new", string(data))
+	os.Rename(html+".new", html)
+	if rec.holds(html, data) {
+		t.Error("a different file (inode) was vouched for")
+	}
+	if !rec.current() {
+		t.Error("equal content was not recognised")
+	}
 }

@@ -99,7 +99,10 @@ func (s *Set) Stage(path string, data []byte) error {
 // outputs are many files, each compared with the file it replaces). On
 // a failure every file staged in the set is removed (as Abort) and the
 // error of the first failing path in sorted order is returned.
-func (s *Set) StageAll(files map[string][]byte) error {
+//
+// holds, if not nil, may vouch that the file at a path already holds its
+// data (known without reading it); such a file is treated as unchanged.
+func (s *Set) StageAll(files map[string][]byte, holds func(path string, data []byte) bool) error {
 	paths := make([]string, 0, len(files))
 	for p := range files {
 		paths = append(paths, p)
@@ -114,7 +117,7 @@ func (s *Set) StageAll(files map[string][]byte) error {
 		go func() {
 			defer wg.Done()
 			for i := int(next.Add(1) - 1); i < len(paths); i = int(next.Add(1) - 1) {
-				if sameContent(paths[i], files[paths[i]]) {
+				if holds != nil && holds(paths[i], files[paths[i]]) || sameContent(paths[i], files[paths[i]]) {
 					continue
 				}
 				tmps[i], errs[i] = stage(paths[i], files[paths[i]], 0o644, false)
@@ -135,6 +138,16 @@ func (s *Set) StageAll(files map[string][]byte) error {
 		s.Abort()
 	}
 	return first
+}
+
+// Staged lists the paths staged (to be replaced by Commit); a file
+// Stage found unchanged is not among them.
+func (s *Set) Staged() map[string]bool {
+	out := make(map[string]bool, len(s.files))
+	for _, f := range s.files {
+		out[f.path] = true
+	}
+	return out
 }
 
 // Commit syncs every staged file (all at once, so that the file system

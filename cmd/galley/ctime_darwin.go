@@ -1,0 +1,5 @@
+package main
+
+import "syscall"
+
+func ctimeNs(s *syscall.Stat_t) int64 { return s.Ctimespec.Nano() }
