@@ -6,8 +6,10 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"runtime"
 	"strings"
 	"sync"
+	"sync/atomic"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/text"
@@ -88,6 +90,9 @@ type block struct {
 	err      error
 	running  bool
 
+	yaml    []byte // the YAML body until decodeBlock has read it
+	ordinal int    // its place among the blocks of its kind (default id)
+
 	specKey string // what the block asks for (cache lookup)
 	fullKey string // specKey and the hashes of everything it read
 	deps    deps   // what it read while running
@@ -138,24 +143,52 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 	d.Root = manuscript.NewMarkdown().Parser().Parse(text.NewReader(body))
 	var errs []error
 	ordinal := map[string]int{}
+	// The fenced blocks in order: each a directive to decode, or an
+	// error found on the way (an unknown kind), or neither.
+	type found struct {
+		n   *ast.FencedCodeBlock
+		b   *block
+		err error
+	}
+	var blocks []found
 	_ = ast.Walk(d.Root, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
 			return ast.WalkContinue, nil
 		}
 		switch n := n.(type) {
 		case *ast.FencedCodeBlock:
-			b, err := d.discoverBlock(n, ordinal)
-			if err != nil {
-				errs = append(errs, err)
-			} else if b != nil {
-				d.blocks = append(d.blocks, b)
-				d.atNode[n] = b
+			if b, err := d.discoverBlock(n, ordinal); err != nil || b != nil {
+				blocks = append(blocks, found{n, b, err})
 			}
 		case *manuscript.RefNode:
 			d.refs = append(d.refs, n)
 		}
 		return ast.WalkContinue, nil
 	})
+	// Decoding the directives' YAML is most of a parse: it is shared
+	// between two workers, and its errors are reported in order.
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < min(2, runtime.GOMAXPROCS(0)); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := int(next.Add(1) - 1); i < len(blocks); i = int(next.Add(1) - 1) {
+				if f := &blocks[i]; f.err == nil {
+					f.err = d.decodeBlock(f.b)
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	for _, f := range blocks {
+		if f.err != nil {
+			errs = append(errs, f.err)
+			continue
+		}
+		d.blocks = append(d.blocks, f.b)
+		d.atNode[f.n] = f.b
+	}
 	for _, b := range d.blocks {
 		if prev, dup := d.byID[b.id]; dup {
 			errs = append(errs, manuscript.ErrAt(path, b.line, "duplicate id %q (first used on line %d)", b.id, prev.line))
@@ -221,43 +254,52 @@ func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int)
 		s := lines.At(i)
 		body.Write(s.Value(d.Body))
 	}
-	bodyLine := line + 1
-	b := &block{kind: k, line: line, startOff: lineStart}
+	b := &block{kind: k, line: line, startOff: lineStart, yaml: body.Bytes()}
 	b.endOff, b.endLine = d.closingFence(n, line)
 	ordinal[k.Name]++
+	b.ordinal = ordinal[k.Name]
+	return b, nil
+}
+
+// decodeBlock decodes a directive's YAML body into its kind's spec
+// (strictly: unknown keys are errors) and sets its id. It touches only
+// b, so that blocks can be decoded side by side.
+func (d *Document) decodeBlock(b *block) error {
+	k, bodyLine := b.kind, b.line+1
 	dir := k.New()
 	var root yaml.Node
-	if err := yaml.Unmarshal(body.Bytes(), &root); err != nil {
-		return nil, manuscript.YamlError(d.File, bodyLine, err)
+	if err := yaml.Unmarshal(b.yaml, &root); err != nil {
+		return manuscript.YamlError(d.File, bodyLine, err)
 	}
+	b.yaml = nil
 	if len(root.Content) > 0 {
 		doc := root.Content[0]
 		if doc.Kind != yaml.MappingNode {
-			return nil, manuscript.ErrAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
+			return manuscript.ErrAt(d.File, bodyLine, "the body of a galley %s block must be YAML keys and values", k.Name)
 		}
 		manuscript.RejoinFlowLists(doc)
 		if err := manuscript.CheckKeys(doc, dir); err != nil {
-			return nil, manuscript.YamlError(d.File, bodyLine, err)
+			return manuscript.YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(dir); err != nil {
-			return nil, manuscript.YamlError(d.File, bodyLine, err)
+			return manuscript.YamlError(d.File, bodyLine, err)
 		}
 		if err := doc.Decode(&b.raw); err != nil {
-			return nil, manuscript.YamlError(d.File, bodyLine, err)
+			return manuscript.YamlError(d.File, bodyLine, err)
 		}
 		b.node = doc
 	}
 	b.dir = dir
 	if m := dir.Base().Missing; m != "" && m != "error" && m != "drop" {
-		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
+		return manuscript.ErrAt(d.File, d.keyLine(b, "missing"), "missing: %q is not a choice; write error (the default) or drop", m)
 	}
 	b.id = dir.Base().ID
 	if b.id == "" {
-		b.id = fmt.Sprintf("%s-%d", k.Name, ordinal[k.Name])
+		b.id = fmt.Sprintf("%s-%d", k.Name, b.ordinal)
 	} else if !ValidID(b.id) {
-		return nil, manuscript.ErrAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter, at most %d characters", shorten(b.id), MaxIDLength)
+		return manuscript.ErrAt(d.File, d.keyLine(b, "id"), "id %q: use letters, digits, '_' and '-', starting with a letter, at most %d characters", shorten(b.id), MaxIDLength)
 	}
-	return b, nil
+	return nil
 }
 
 // closingFence finds the closing fence of a fenced block: the body offset
