@@ -94,6 +94,26 @@ type cacheEntry struct {
 	// them while the entry is in memory.
 	Blobs []int
 	blobs [][]byte
+	trees *entryTrees // Trees decoded (decodeTrees), nil until then
+}
+
+// entryTrees are an entry's decoded trees; ok false if they were damaged.
+type entryTrees struct {
+	values, spec, extra map[string]any
+	ok                  bool
+}
+
+// decodeTrees decodes the entry's Trees (strs interns short strings).
+func (e *cacheEntry) decodeTrees(strs map[string]string) {
+	r := treeReader{b: e.Trees, strs: strs}
+	t := &entryTrees{}
+	var ok bool
+	if t.values, ok = r.value().(map[string]any); ok {
+		t.spec, _ = r.value().(map[string]any)
+		t.extra, _ = r.value().(map[string]any)
+		t.ok = r.err == nil && len(r.b) == 0
+	}
+	e.trees = t
 }
 
 type colDep struct{ Alias, Column, Hash string }
@@ -261,7 +281,6 @@ type cachePack struct {
 	used    map[string]*cacheEntry // reused in this build (values restored)
 	stored  map[string]*cacheEntry // run and stored in this build (gob form)
 	loaded  bool                   // the file was read and is current
-	strs    map[string]string      // short strings of the entries' trees, shared (treeReader)
 }
 
 // packHeader starts a pack file; N entries follow in the same stream.
@@ -321,13 +340,32 @@ func (d *Document) cachePack() *cachePack {
 		return p // corrupt, foreign or stale: rewritten at the end
 	}
 	entries := make(map[string]*cacheEntry, h.N)
+	// While gob decodes the entries one after another, a second worker
+	// decodes each one's trees (its values), which took as long again.
+	trees := make(chan *cacheEntry, 8)
+	var worker sync.WaitGroup
+	worker.Add(1)
+	go func() {
+		defer worker.Done()
+		strs := map[string]string{}
+		for e := range trees {
+			e.decodeTrees(strs)
+		}
+	}()
 	for i := 0; i < h.N; i++ {
-		var e cacheEntry
-		if dec.Decode(&e) != nil || !e.takeBlobs(blob) {
+		e := new(cacheEntry)
+		if dec.Decode(e) != nil || !e.takeBlobs(blob) {
+			close(trees)
+			worker.Wait()
 			return p // corrupt: ignore the whole pack
 		}
-		entries[e.SpecKey] = &e
+		if e.Trees != nil {
+			trees <- e
+		}
+		entries[e.SpecKey] = e
 	}
+	close(trees)
+	worker.Wait()
 	p.entries, p.loaded = entries, true
 	return p
 }
@@ -367,6 +405,9 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 	if e.FullKey != d.fullKey(b.specKey, e.Columns, e.Upstream) {
 		return nil, "", false
 	}
+	if e.Trees != nil && (e.trees == nil || !e.trees.ok) {
+		return nil, "", false // damaged: run again
+	}
 	// the directive may have moved since the entry was stored (prose
 	// added above it): its result is at its line in this build
 	// The entry is handed out: its gob form is rebuilt if the pack is
@@ -379,24 +420,15 @@ func (d *Document) cacheLookup(b *block) (*Result, string, bool) {
 		e.blobs = nil
 	}
 	if e.Trees != nil {
-		if p.strs == nil {
-			p.strs = map[string]string{}
+		t := e.trees
+		e.Result.Values = t.values
+		if t.spec != nil {
+			e.Result.Spec = t.spec
 		}
-		r := treeReader{b: e.Trees, strs: p.strs}
-		values, ok := r.value().(map[string]any)
-		if !ok {
-			return nil, "", false // damaged: run again
+		if t.extra != nil && e.Result.Test != nil {
+			e.Result.Test.Extra = t.extra
 		}
-		e.Result.Values = values
-		if spec, ok := r.value().(map[string]any); ok {
-			e.Result.Spec = spec
-		}
-		if extra, ok := r.value().(map[string]any); ok && e.Result.Test != nil {
-			e.Result.Test.Extra = extra
-		}
-		if r.err != nil || len(r.b) != 0 {
-			return nil, "", false // damaged: run again
-		}
+		e.trees = nil
 		e.Trees = nil
 	} else {
 		e.Result.Values = fromGob(e.Result.Values).(map[string]any)

@@ -3,6 +3,7 @@ package engine
 import (
 	"bytes"
 	"encoding/gob"
+	"reflect"
 	"testing"
 
 	"github.com/galley-econ/galley/engine/contract"
@@ -57,5 +58,35 @@ func TestPackBreaks(t *testing.T) {
 	}
 	if got := e.Result.Test.Breaks(); len(got) != 1 || got[0] != breaks[0] {
 		t.Errorf("breaks %v", got)
+	}
+}
+
+// TestDecodeTrees: an entry's trees decoded ahead of its lookup give the
+// result's values, spec and test extras; damaged ones (every
+// truncation, a trailing byte) are marked so that the lookup refuses
+// the entry and the directive runs again.
+func TestDecodeTrees(t *testing.T) {
+	res := &Result{ID: "a", Values: map[string]any{"stat": -3.5, "lags": 2, "dates": []string{"2001-01", "2001-02"}},
+		Spec: map[string]any{"y": "log(x)"}, Test: &contract.Outcome{Extra: map[string]any{"k": []float64{1, 2}}}}
+	trees, ok := encodeTrees(res)
+	if !ok {
+		t.Fatal("not encodable")
+	}
+	e := &cacheEntry{Trees: trees}
+	e.decodeTrees(map[string]string{})
+	if !e.trees.ok || !reflect.DeepEqual(e.trees.values, res.Values) || !reflect.DeepEqual(e.trees.spec, res.Spec) || !reflect.DeepEqual(e.trees.extra, res.Test.Extra) {
+		t.Fatalf("decoded %+v", e.trees)
+	}
+	for cut := 0; cut < len(trees); cut++ {
+		e := &cacheEntry{Trees: trees[:cut]}
+		e.decodeTrees(map[string]string{})
+		if e.trees.ok {
+			t.Fatalf("a tree cut at %d of %d bytes was accepted", cut, len(trees))
+		}
+	}
+	e = &cacheEntry{Trees: append(append([]byte{}, trees...), 0)}
+	e.decodeTrees(nil)
+	if e.trees.ok {
+		t.Error("a trailing byte was accepted")
 	}
 }
