@@ -36,7 +36,8 @@ fi
 WORK=$(mktemp -d)
 trap 'rm -rf "$WORK"' EXIT
 go build -o "$WORK/galleybench" ./bench/cmd/galleybench
-go build -o "$WORK/galley" ./cmd/galley
+# galley as it is installed (README): a static executable
+CGO_ENABLED=0 go build -o "$WORK/galley" ./cmd/galley
 go build -o "$WORK/procbench" ./bench/cmd/procbench
 
 echo "== machine: $(nproc) cores, $(grep -m1 'model name' /proc/cpuinfo | cut -d: -f2 | sed 's/^ *//'), $(go version | cut -d' ' -f3-), $(date -u +%Y-%m-%d), load $(cut -d' ' -f1-3 /proc/loadavg)"
