@@ -459,22 +459,35 @@ func (m *VECM) Relations(c Case, y, xr *mat.Dense) [][]float64 {
 		_, nr = xr.Dims()
 	}
 	m0 := c.restricted()
+	nb := m.Beta.RawMatrix().Rows
+	yr := y.RawMatrix()
+	var xrr blas64.General
+	if xr != nil {
+		xrr = xr.RawMatrix()
+	}
 	out := make([][]float64, m.Rank)
+	b := make([]float64, nb) // column j of β
 	for j := range out {
+		for i := range b {
+			b[i] = m.Beta.At(i, j)
+		}
 		z := make([]float64, rows)
 		for t := range z {
+			// the same operations in the same order as the formula above
+			// (y's and xr's rows read in place)
+			row := yr.Data[t*yr.Stride : t*yr.Stride+k]
 			var v float64
-			for i := 0; i < k; i++ {
-				v += m.Beta.At(i, j) * y.At(t, i)
+			for i, yi := range row {
+				v += b[i] * yi
 			}
 			switch c {
 			case RC:
-				v += m.Beta.At(k, j)
+				v += b[k]
 			case RT:
-				v += m.Beta.At(k, j) * float64(t+1)
+				v += b[k] * float64(t+1)
 			}
-			for h := 0; h < nr && k+m0+h < m.Beta.RawMatrix().Rows; h++ {
-				v += m.Beta.At(k+m0+h, j) * xr.At(t, h)
+			for h := 0; h < nr && k+m0+h < nb; h++ {
+				v += b[k+m0+h] * xrr.Data[t*xrr.Stride+h]
 			}
 			z[t] = v
 		}

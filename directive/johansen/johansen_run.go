@@ -386,11 +386,7 @@ func (s *sysState) values() map[string]any {
 		}
 		v["roots"], v["unit_roots"] = rs, r.K-s.rank
 	}
-	rel := make([]map[string]any, 0, s.rank)
-	for _, z := range s.relations() {
-		rel = append(rel, z.ResultsForm())
-	}
-	v["relations"] = rel
+	v["relations"] = contract.ResultsForms(s.relations())
 	tests := []map[string]any{}
 	for _, t := range s.tests {
 		tests = append(tests, map[string]any{"name": t.Name, "hypothesis": t.Hyp, "stat": t.LR.Stat, "df": t.LR.DF, "p": t.LR.P})

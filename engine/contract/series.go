@@ -33,6 +33,26 @@ func (d Dated) ResultsForm() map[string]any {
 	return map[string]any{"dates": ds, "values": append([]float64(nil), d.Values...)}
 }
 
+// ResultsForms is ResultsForm of each series, the text of a date axis
+// they share (the same dates in the same memory, as the relations of
+// one system) made once and shared.
+func ResultsForms(ds []Dated) []map[string]any {
+	out := make([]map[string]any, len(ds))
+	var last []series.Date
+	var texts []string
+	for i, d := range ds {
+		if len(d.Dates) == 0 || len(last) != len(d.Dates) || &last[0] != &d.Dates[0] {
+			texts = make([]string, len(d.Dates))
+			for j, dt := range d.Dates {
+				texts[j] = dt.String()
+			}
+			last = d.Dates
+		}
+		out[i] = map[string]any{"dates": texts, "values": append([]float64(nil), d.Values...)}
+	}
+	return out
+}
+
 // At maps each date's canonical text to its value.
 func (d Dated) At() map[string]float64 {
 	m := make(map[string]float64, len(d.Dates))

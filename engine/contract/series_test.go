@@ -66,3 +66,24 @@ func TestDatedGob(t *testing.T) {
 		}
 	}
 }
+
+// TestResultsForms: each series comes out as ResultsForm writes it, the
+// date text shared by series on one date axis and not by others.
+func TestResultsForms(t *testing.T) {
+	a := []series.Date{{Freq: series.Monthly, Year: 2001, Sub: 1}, {Freq: series.Monthly, Year: 2001, Sub: 2}}
+	b := []series.Date{{Freq: series.Monthly, Year: 2001, Sub: 1}, {Freq: series.Monthly, Year: 2001, Sub: 2}}
+	ds := []Dated{{Dates: a, Values: []float64{1, 2}}, {Dates: a, Values: []float64{3, 4}}, {Dates: b, Values: []float64{5, 6}}, {}}
+	got := ResultsForms(ds)
+	for i, d := range ds {
+		if !reflect.DeepEqual(got[i], d.ResultsForm()) {
+			t.Errorf("series %d: %v, want %v", i, got[i], d.ResultsForm())
+		}
+	}
+	t0, t1, t2 := got[0]["dates"].([]string), got[1]["dates"].([]string), got[2]["dates"].([]string)
+	if &t0[0] != &t1[0] || &t0[0] == &t2[0] {
+		t.Error("the date text is not shared exactly by the series on one axis")
+	}
+	if n := len(ResultsForms(nil)); n != 0 {
+		t.Errorf("%d forms of no series", n)
+	}
+}
