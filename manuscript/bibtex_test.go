@@ -1,7 +1,6 @@
 package manuscript
 
 import (
-	"reflect"
 	"strings"
 	"testing"
 )
@@ -174,34 +173,5 @@ func TestMethodReferences(t *testing.T) {
 				t.Errorf("%s: %q, want %q", w.key, got[i], exp[i])
 			}
 		}
-	}
-}
-
-// TestMethodEntryAsWhole: each entry of galley's reference table parsed
-// alone (as a build reads it) equals the entry of the whole table parsed
-// at once, its line included, and the table has no other entries.
-func TestMethodEntryAsWhole(t *testing.T) {
-	whole, err := ParseBib(methodFile, []byte(MethodBib))
-	if err != nil {
-		t.Fatal(err)
-	}
-	lib, err := MethodLibrary()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !reflect.DeepEqual(lib.Keys, whole.Keys) || len(whole.Keys) < 30 {
-		t.Fatalf("keys %v, want %v", lib.Keys, whole.Keys)
-	}
-	for _, k := range whole.Keys {
-		e, ok := MethodEntry(k)
-		if !ok || !reflect.DeepEqual(e, whole.Entries[k]) {
-			t.Errorf("%s: alone %+v, in the whole table %+v", k, e, whole.Entries[k])
-		}
-		if lib.Entries[k] != e {
-			t.Errorf("%s: the library and MethodEntry hold different copies", k)
-		}
-	}
-	if _, ok := MethodEntry("no-such-work"); ok {
-		t.Error("an unknown key was found")
 	}
 }

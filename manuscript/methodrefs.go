@@ -1,10 +1,6 @@
 package manuscript
 
-import (
-	"fmt"
-	"strings"
-	"sync"
-)
+import "sync"
 
 // MethodBib is galley's reference table: the published works behind its
 // estimators, tests and critical values, as BibTeX, so that a directive
@@ -169,86 +165,23 @@ const MethodBib = `
 
 const methodFile = "galley's reference table"
 
-var (
-	methodOnce sync.Once
-	methodLib  *Library
-	methodErr  error
+// methodLib is galley's reference table as a library, made on first use
+// from methodTable, MethodBib as parsed when galley was built (parsing
+// the BibTeX text cost a build that cites its methods 0.6 ms).
+var methodLib = sync.OnceValue(func() *Library {
+	lib := &Library{Entries: map[string]*BibEntry{}}
+	for _, e := range methodTable() {
+		lib.Entries[e.Key] = e
+		lib.Keys = append(lib.Keys, e.Key)
+	}
+	return lib
+})
 
-	methodIdxOnce sync.Once
-	methodIdx     map[string][2]int // key → the entry's bytes in MethodBib
-	methodKeys    []string          // in MethodBib's order
-	methodMu      sync.Mutex
-	methodEnt     = map[string]*BibEntry{}
-)
+// MethodLibrary is MethodBib parsed.
+func MethodLibrary() (*Library, error) { return methodLib(), nil }
 
-// MethodLibrary is MethodBib parsed: every entry of MethodEntry, in
-// the table's order.
-func MethodLibrary() (*Library, error) {
-	methodOnce.Do(func() {
-		lib := &Library{Entries: map[string]*BibEntry{}}
-		for _, k := range methodIndex() {
-			e, err := methodEntry(k)
-			if err != nil {
-				methodErr = err
-				return
-			}
-			lib.Entries[k] = e
-			lib.Keys = append(lib.Keys, k)
-		}
-		methodLib = lib
-	})
-	return methodLib, methodErr
-}
-
-// MethodEntry is the work key of galley's reference table, parsed on
-// first use: a build cites a handful of the table's works, and parsing
-// them all cost every build a millisecond.
+// MethodEntry is the work key of galley's reference table.
 func MethodEntry(key string) (*BibEntry, bool) {
-	methodIndex()
-	if _, ok := methodIdx[key]; !ok {
-		return nil, false
-	}
-	e, err := methodEntry(key)
-	return e, err == nil
-}
-
-// methodIndex finds each entry of MethodBib (once) and lists the keys.
-func methodIndex() []string {
-	methodIdxOnce.Do(func() {
-		src := []byte(MethodBib)
-		starts := entryStarts(src)
-		methodIdx = make(map[string][2]int, len(starts))
-		for i, m := range starts {
-			end := len(src)
-			if i+1 < len(starts) {
-				end = starts[i+1][0]
-			}
-			k := string(src[m[4]:m[5]])
-			methodIdx[k] = [2]int{m[0], end}
-			methodKeys = append(methodKeys, k)
-		}
-	})
-	return methodKeys
-}
-
-// methodEntry parses one entry of MethodBib (memoised), preceded by as
-// many line feeds as come before it so that its line is the table's.
-func methodEntry(key string) (*BibEntry, error) {
-	methodMu.Lock()
-	defer methodMu.Unlock()
-	if e, ok := methodEnt[key]; ok {
-		return e, nil
-	}
-	r := methodIdx[key]
-	piece := strings.Repeat("\n", strings.Count(MethodBib[:r[0]], "\n")) + MethodBib[r[0]:r[1]]
-	lib, err := ParseBib(methodFile, []byte(piece))
-	if err != nil {
-		return nil, err
-	}
-	e, ok := lib.Entries[key]
-	if !ok {
-		return nil, fmt.Errorf("%s: no entry %q", methodFile, key)
-	}
-	methodEnt[key] = e
-	return e, nil
+	e, ok := methodLib().Entries[key]
+	return e, ok
 }
