@@ -8,7 +8,6 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
-	"hash/crc32"
 	"os"
 	"path/filepath"
 	"sort"
@@ -17,6 +16,7 @@ import (
 
 	"github.com/galley-econ/galley/engine/contract"
 	"github.com/galley-econ/galley/internal/atomicfile"
+	"github.com/galley-econ/galley/internal/checksum"
 )
 
 // Cache stores directive results between builds. An entry is found by
@@ -670,31 +670,22 @@ func (d *Document) cachedResults(version string, render func(headroom int) ([]by
 	head := []byte(key + " ")
 	if !d.opts.Cache.Fresh {
 		if b, err := d.opts.Cache.read(path); err == nil && bytes.HasPrefix(b, head) {
-			if sum, body, ok := bytes.Cut(b[len(head):], []byte("\n")); ok && string(sum) == crcHex(body) {
+			if sum, body, ok := bytes.Cut(b[len(head):], []byte("\n")); ok && string(sum) == checksum.Hex(body) {
 				return body, nil
 			}
 		}
 	}
-	room := len(head) + 2*crc32.Size + 1
+	room := len(head) + checksum.Size + 1
 	b, err := render(room)
 	if err != nil {
 		return nil, err
 	}
 	body := b[room:]
 	copy(b, head)
-	copy(b[len(head):], crcHex(body))
+	copy(b[len(head):], checksum.Hex(body))
 	b[room-1] = '\n'
 	d.later(func() { _ = atomicfile.WriteUnsynced(path, b, 0o644) }) // a failure costs a render next time
 	return body, nil
-}
-
-// castagnoli is the CRC-32C table, made on first use (making it at
-// start-up cost every command 0.1 ms).
-var castagnoli = sync.OnceValue(func() *crc32.Table { return crc32.MakeTable(crc32.Castagnoli) })
-
-// crcHex is the CRC-32C of b in hexadecimal.
-func crcHex(b []byte) string {
-	return hex.EncodeToString(binary.BigEndian.AppendUint32(nil, crc32.Checksum(b, castagnoli())))
 }
 
 // encodeTrees encodes a result's Values, Spec and Test.Extra (in that

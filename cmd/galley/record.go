@@ -4,10 +4,8 @@ import (
 	"bufio"
 	"bytes"
 	"crypto/sha256"
-	"encoding/binary"
 	"encoding/hex"
 	"hash"
-	"hash/crc32"
 	"io"
 	"os"
 	"path/filepath"
@@ -21,6 +19,7 @@ import (
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
+	"github.com/galley-econ/galley/internal/checksum"
 )
 
 // A build record lets a build that would change nothing stop before it
@@ -85,13 +84,6 @@ func racy(id fileID, at int64) bool {
 		w = racyCoarse
 	}
 	return !id.known || id.ctime >= at-w
-}
-
-// castagnoli is the CRC-32C table, made on first use.
-var castagnoli = sync.OnceValue(func() *crc32.Table { return crc32.MakeTable(crc32.Castagnoli) })
-
-func crcHex(b []byte) string {
-	return hex.EncodeToString(binary.BigEndian.AppendUint32(nil, crc32.Checksum(b, castagnoli())))
 }
 
 // recordFor is the record slot of this build, or nil when the build
@@ -281,7 +273,7 @@ func (r *buildRecord) matches(f recordFile) (ok bool, id fileID, read bool) {
 	if err != nil || !st.Mode().IsRegular() || (f.size >= 0 && st.Size() != f.size) {
 		return false, id, true
 	}
-	var h hash.Hash = crc32.New(castagnoli())
+	var h hash.Hash = checksum.New()
 	if f.size < 0 {
 		h = sha256.New()
 	}
@@ -300,7 +292,7 @@ func (r *buildRecord) holds(path string, data []byte) bool {
 	if !ok || f.size != int64(len(data)) || !r.untouched(f) {
 		return false
 	}
-	return crcHex(data) == f.sum
+	return checksum.Hex(data) == f.sum
 }
 
 // parse reads a record written by save for these settings.
@@ -345,7 +337,7 @@ func (r *buildRecord) parse(raw []byte) ([]recordFile, int64, bool) {
 				return nil, 0, false
 			}
 			f.sum = ""
-		} else if f.size < 0 && len(f.sum) != 2*sha256.Size || f.size >= 0 && len(f.sum) != 2*crc32.Size {
+		} else if f.size < 0 && len(f.sum) != 2*sha256.Size || f.size >= 0 && len(f.sum) != checksum.Size {
 			return nil, 0, false
 		}
 		if !filepath.IsAbs(f.path) {
@@ -394,7 +386,7 @@ func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte, rep
 		all = append(all, recordFile{path: in.Path, sum: in.SHA256, size: -1})
 	}
 	for i, n := range names {
-		all = append(all, recordFile{path: outs[i], sum: crcHex(files[n]), size: int64(len(files[n])), id: ids[i]})
+		all = append(all, recordFile{path: outs[i], sum: checksum.Hex(files[n]), size: int64(len(files[n])), id: ids[i]})
 	}
 	r.write(at, all)
 }
