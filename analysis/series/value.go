@@ -22,9 +22,6 @@ func parseValue(s string) (float64, error) {
 		}
 		return 0, fmt.Errorf("not a number: %q", clip(s, 40))
 	}
-	if v, ok := parseDecimal(s); ok {
-		return v, nil
-	}
 	v, err := strconv.ParseFloat(s, 64)
 	if err != nil || math.IsInf(v, 0) {
 		return 0, fmt.Errorf("value %s is too large for a 64-bit float", clip(s, 40))
