@@ -195,3 +195,30 @@ func TestRecordTrustsUntouchedOutputs(t *testing.T) {
 		t.Error("equal content was not recognised")
 	}
 }
+
+// BenchmarkRecordCheck: the whole of a demo rebuild in which nothing
+// changed, in process — reading the build record, hashing the inputs and
+// vouching for the outputs (go test -run '^$' -bench RecordCheck
+// ./cmd/galley/).
+func BenchmarkRecordCheck(b *testing.B) {
+	dir := b.TempDir()
+	if err := copyDemo(dir); err != nil {
+		b.Fatal(err)
+	}
+	p := filepath.Join(dir, "paper.md")
+	if code := run([]string{"build", p}); code != 0 {
+		b.Fatalf("build: exit %d", code)
+	}
+	time.Sleep(3 * time.Duration(racyWindow)) // past the racy window
+	if code := run([]string{"build", p}); code != 0 {
+		b.Fatalf("build: exit %d", code)
+	}
+	cmd := &buildCmd{Manuscript: p, To: []string{"html"}}
+	cache := cacheFor(p, false)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if rec := cmd.recordFor(cache); rec == nil || !rec.current() {
+			b.Fatal("the record does not vouch for an unchanged build")
+		}
+	}
+}
