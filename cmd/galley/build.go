@@ -27,7 +27,7 @@ type buildCmd struct {
 	Fresh        bool     `help:"Ignore the result cache and run every directive."`
 	NoCache      bool     `help:"Neither read nor write the result cache."`
 	Against      string   `help:"Compare the new results with an earlier results file; exit 3 if a conclusion flipped." type:"existingfile" placeholder:"OLD.results.json"`
-	Verbose      bool     `short:"v" help:"Say how many results were reused from the cache (a build is otherwise silent when it succeeds)."`
+	Verbose      bool     `short:"v" help:"Say how many results were reused from the cache, or that nothing changed since the last build (a build is otherwise silent when it succeeds)."`
 }
 
 func (b *buildCmd) Run() error {
