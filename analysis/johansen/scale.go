@@ -32,8 +32,8 @@ import (
 // scaling itself adds no rounding error.
 
 // seriesScale returns d_j = 2^round(log₂ √(mean_t Δy_jt²)) for each column
-// of y (1 when the differences are all zero or not finite; checkSeries
-// reports those inputs).
+// of y, which must have passed checkSeries (every value finite); 1 when a
+// column's differences are all zero or overflow.
 func seriesScale(y *mat.Dense) []float64 {
 	rows, k := y.Dims()
 	raw := y.RawMatrix()
@@ -42,7 +42,10 @@ func seriesScale(y *mat.Dense) []float64 {
 	big := make([]float64, k)
 	for i := 1; i < rows; i++ {
 		for j := 0; j < k; j++ {
-			big[j] = math.Max(big[j], math.Abs(at(i, j)-at(i-1, j)))
+			// y is finite (checkSeries), so a plain comparison is math.Max
+			if a := math.Abs(at(i, j) - at(i-1, j)); a > big[j] {
+				big[j] = a
+			}
 		}
 	}
 	ss := make([]float64, k) // Σ (Δy/big)², safe from overflow and underflow

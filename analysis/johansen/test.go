@@ -256,14 +256,23 @@ func design(y *mat.Dense, c Case, lags int, x Extra) (d, z0, z1, zs *mat.Dense) 
 // checkSeries names non-finite values, constant series and identical series.
 func checkSeries(y *mat.Dense) error {
 	rows, k := y.Dims()
+	raw := y.RawMatrix() // read in place: a bootstrap checks every replication
+	at := func(i, j int) float64 { return raw.Data[i*raw.Stride+j] }
 	for j := 0; j < k; j++ {
 		lo, hi := math.Inf(1), math.Inf(-1)
 		for i := 0; i < rows; i++ {
-			v := y.At(i, j)
+			v := at(i, j)
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				return fmt.Errorf("johansen: series %d has a missing or infinite value at row %d", j, i)
 			}
-			lo, hi = math.Min(lo, v), math.Max(hi, v)
+			// finite, so plain comparisons find what math.Min and
+			// math.Max would (up to the sign of a zero, which == ignores)
+			if v < lo {
+				lo = v
+			}
+			if v > hi {
+				hi = v
+			}
 		}
 		if lo == hi {
 			return fmt.Errorf("johansen: series %d is constant, so the moment matrices are singular", j)
@@ -273,7 +282,7 @@ func checkSeries(y *mat.Dense) error {
 		for b := a + 1; b < k; b++ {
 			same := true
 			for i := 0; i < rows && same; i++ {
-				same = y.At(i, a) == y.At(i, b)
+				same = at(i, a) == at(i, b)
 			}
 			if same {
 				return fmt.Errorf("johansen: series %d and %d are identical, so the moment matrices are singular", a, b)
