@@ -38,9 +38,12 @@ import (
 //   - every output file, with its size and CRC-32C (outputs are written
 //     by galley, so the check is against accident and hand edits, not
 //     forgery; the CRC runs in hardware at several GB/s where SHA-256
-//     cost a build of the demo 3 ms), and the file's identity on disk
-//     just after the build put it there: its inode number and its
-//     status-change time (ctime).
+//     cost a build of the demo 3 ms), and, for an output the build left
+//     in place because it already held those bytes, its identity on
+//     disk: its inode number and status-change time (ctime). An output
+//     the build replaced gets none; the next build that finds it intact
+//     by reading it records its identity then (current renews the
+//     record).
 //
 // The next build with the same settings reads the record, hashes every
 // input it lists, and stops if each input has the same bytes and each
@@ -55,11 +58,11 @@ import (
 // same size and ctime as recorded: the kernel sets ctime at every write
 // or rename and it cannot be set back, so an equal ctime means nobody
 // has touched the file since (the rule git's index uses, with the same
-// guard against "racy" files: a file whose ctime is within a second of
-// the moment it was recorded is compared by content, since a write in
-// the same clock tick would not have moved its ctime). A full build uses
-// the same knowledge to skip comparing unchanged outputs with the files
-// they would replace (atomicfile.Set.StageAll).
+// guard against "racy" files: a file whose ctime is within racyWindow of
+// the moment its identity was taken is compared by content, since a
+// write in the same clock tick would not have moved its ctime). A full
+// build uses the same knowledge to skip comparing unchanged outputs with
+// the files they would replace (atomicfile.Set.StageAll).
 //
 // No record is kept for a PDF build (pdflatex, outside galley, is part
 // of its output) or without a cache; --fresh builds without looking at
