@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"strings"
 	"sync"
 	"sync/atomic"
@@ -62,17 +63,20 @@ type Document struct {
 	cites      []*manuscript.CiteNode
 	eqNumbers  map[*manuscript.MathBlock]string
 
-	src    []byte                  // the manuscript as read (normalised line ends)
-	dwMemo map[string]*diag.DWNull // Durbin–Watson null distributions by design
-	hashes map[[2]string]string    // data column hashes, by (alias, column)
-	pack   *cachePack              // the result cache's entries for this manuscript (cache.go)
-	blocks []*block
-	byID   map[string]*block
-	refs   []*manuscript.RefNode
-	atNode map[ast.Node]*block
-	opts   Options
-	data   *dataStore
-	ran    bool
+	src []byte // the manuscript as read (normalised line ends)
+
+	newlinesOnce sync.Once               // newlines, made by the first LineOf
+	newlines     []int                   // offsets of the line feeds in Body
+	dwMemo       map[string]*diag.DWNull // Durbin–Watson null distributions by design
+	hashes       map[[2]string]string    // data column hashes, by (alias, column)
+	pack         *cachePack              // the result cache's entries for this manuscript (cache.go)
+	blocks       []*block
+	byID         map[string]*block
+	refs         []*manuscript.RefNode
+	atNode       map[ast.Node]*block
+	opts         Options
+	data         *dataStore
+	ran          bool
 }
 
 // block is one directive in the manuscript.
@@ -227,7 +231,18 @@ func (d *Document) LineOf(off int) int {
 	if off > len(d.Body) {
 		off = len(d.Body)
 	}
-	return d.BodyLine + bytes.Count(d.Body[:off], []byte("\n"))
+	d.newlinesOnce.Do(func() {
+		// the offsets of the body's line feeds, found once: counting them
+		// afresh for every directive, citation and reference was
+		// quadratic in the manuscript's length
+		for i, c := range d.Body {
+			if c == '\n' {
+				d.newlines = append(d.newlines, i)
+			}
+		}
+	})
+	n, _ := slices.BinarySearch(d.newlines, off) // line feeds before off
+	return d.BodyLine + n
 }
 
 func (d *Document) discoverBlock(n *ast.FencedCodeBlock, ordinal map[string]int) (*block, error) {
