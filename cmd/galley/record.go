@@ -16,6 +16,7 @@ import (
 	"sync"
 	"sync/atomic"
 	"time"
+	"unsafe"
 
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
@@ -147,6 +148,9 @@ type buildRecord struct {
 	prev    []recordFile
 	outputs map[string]recordFile
 	at      int64 // when the last build's outputs were looked at (Unix ns)
+
+	mu   sync.Mutex
+	sums map[any]string // checksums of this build's outputs (sum)
 }
 
 // recordFile is one line of a record: an input (size −1) or an output.
@@ -295,7 +299,32 @@ func (r *buildRecord) holds(path string, data []byte) bool {
 	if !ok || f.size != int64(len(data)) || !r.untouched(f) {
 		return false
 	}
-	return checksum.Hex(data) == f.sum
+	return r.sum(path, data) == f.sum
+}
+
+// sum is the checksum of an output's new bytes, made once for both
+// holds and save (the same bytes: the same slice of memory).
+func (r *buildRecord) sum(path string, data []byte) string {
+	type key struct {
+		path string
+		at   *byte
+		n    int
+	}
+	k := key{path, unsafe.SliceData(data), len(data)}
+	r.mu.Lock()
+	s, ok := r.sums[k]
+	r.mu.Unlock()
+	if ok {
+		return s
+	}
+	s = checksum.Hex(data)
+	r.mu.Lock()
+	if r.sums == nil {
+		r.sums = map[any]string{}
+	}
+	r.sums[k] = s
+	r.mu.Unlock()
+	return s
 }
 
 // parse reads a record written by save for these settings.
@@ -389,7 +418,7 @@ func (r *buildRecord) save(reads []engine.FileRead, files map[string][]byte, rep
 		all = append(all, recordFile{path: in.Path, sum: in.SHA256, size: -1})
 	}
 	for i, n := range names {
-		all = append(all, recordFile{path: outs[i], sum: checksum.Hex(files[n]), size: int64(len(files[n])), id: ids[i]})
+		all = append(all, recordFile{path: outs[i], sum: r.sum(outs[i], files[n]), size: int64(len(files[n])), id: ids[i]})
 	}
 	r.write(at, all)
 }
