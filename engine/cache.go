@@ -55,9 +55,12 @@ func (d *Document) later(write func()) {
 	}()
 }
 
-// Wait returns when every cache file this build (and any nested build
-// it made) writes in the background is written.
+// Wait writes the writers' memos (memo.go) and returns when every cache
+// file this build (and any nested build it made) writes in the
+// background is written. A caller that keeps a cache calls it once its
+// outputs are rendered.
 func (d *Document) Wait() {
+	d.flushMemos()
 	if d.opts.pending != nil {
 		d.opts.pending.Wait()
 	}

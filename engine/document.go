@@ -67,6 +67,8 @@ type Document struct {
 
 	newlinesOnce sync.Once               // newlines, made by the first LineOf
 	newlines     []int                   // offsets of the line feeds in Body
+	memoMu       sync.Mutex              // guards memos
+	memos        map[string]*memo        // writers' memos by name space (memo.go)
 	dwMemo       map[string]*diag.DWNull // Durbin–Watson null distributions by design
 	hashes       map[[2]string]string    // data column hashes, by (alias, column)
 	pack         *cachePack              // the result cache's entries for this manuscript (cache.go)

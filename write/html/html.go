@@ -142,13 +142,13 @@ func (h *htmlNodes) mathBlock(w util.BufWriter, src []byte, node ast.Node, enter
 	if n.ID != "" {
 		id = ` id="eq-` + html.EscapeString(n.ID) + `"`
 	}
-	writeEquation(w, id, n.TeX, h.doc.EquationNumber(n))
+	h.writeEquation(w, id, n.TeX, h.doc.EquationNumber(n))
 	return ast.WalkSkipChildren, nil
 }
 
 // writeEquation writes a display equation with its number at the right.
-func writeEquation(w util.BufWriter, id, tex, number string) {
-	w.WriteString(`<div class="equation"` + id + `>` + mathML(tex, true))
+func (h *htmlNodes) writeEquation(w util.BufWriter, id, tex, number string) {
+	w.WriteString(`<div class="equation"` + id + `>` + h.mathML(tex, true))
 	if number != "" {
 		w.WriteString(`<span class="eqno">(` + html.EscapeString(number) + `)</span>`)
 	}
@@ -199,7 +199,7 @@ func (h *htmlNodes) fenced(w util.BufWriter, src []byte, node ast.Node, entering
 	if err != nil {
 		return ast.WalkSkipChildren, err
 	}
-	writeHTMLResult(w, res)
+	h.writeHTMLResult(w, res)
 	return ast.WalkSkipChildren, nil
 }
 
@@ -226,9 +226,9 @@ func (h *htmlNodes) math(w util.BufWriter, src []byte, node ast.Node, entering b
 	if entering {
 		n := node.(*manuscript.MathNode)
 		if n.Display {
-			w.WriteString(`<span class="math-display">` + mathML(n.TeX, true) + `</span>`)
+			w.WriteString(`<span class="math-display">` + h.mathML(n.TeX, true) + `</span>`)
 		} else {
-			w.WriteString(mathML(n.TeX, false))
+			w.WriteString(h.mathML(n.TeX, false))
 		}
 	}
 	return ast.WalkContinue, nil
@@ -262,7 +262,7 @@ func xrefAnchor(x *engine.XRef) string {
 	return "tab-" + x.ID
 }
 
-func writeHTMLResult(w util.BufWriter, r *engine.Result) {
+func (h *htmlNodes) writeHTMLResult(w util.BufWriter, r *engine.Result) {
 	switch {
 	case r.Table != nil:
 		fmt.Fprintf(w, `<div class="result table" id="%s">`+"\n", html.EscapeString(anchor(r)))
@@ -285,9 +285,9 @@ func writeHTMLResult(w util.BufWriter, r *engine.Result) {
 		w.WriteString("</figure>\n")
 	case r.Equation != nil:
 		w.WriteString(`<div class="result estimated">` + "\n")
-		writeEquation(w, ` id="`+html.EscapeString(anchor(r))+`"`, r.Equation.TeX(), r.Tag)
+		h.writeEquation(w, ` id="`+html.EscapeString(anchor(r))+`"`, r.Equation.TeX(), r.Tag)
 		if r.Equation.Stats != "" {
-			w.WriteString(`<p class="eqstats">` + mathML(r.Equation.Stats, false) + `</p>`)
+			w.WriteString(`<p class="eqstats">` + h.mathML(r.Equation.Stats, false) + `</p>`)
 		}
 		writeHTMLNotes(w, r.Equation.Notes)
 		w.WriteString("</div>\n")
