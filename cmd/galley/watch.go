@@ -308,6 +308,9 @@ func (w *watcher) build() {
 	if err == nil && w.out != "" {
 		err = w.write(doc)
 	}
+	if err == nil {
+		doc.Wait() // keeps the formulas' MathML for the next build (engine.Document.Memo)
+	}
 	if err != nil {
 		lines := splitErrors(err)
 		for _, l := range lines {
@@ -346,12 +349,13 @@ func (w *watcher) write(doc *engine.Document) error {
 	if err != nil {
 		return err
 	}
-	var set atomicfile.Set
+	staged := make(map[string][]byte, len(files))
 	for name, data := range files {
-		if err := set.Stage(filepath.Join(w.out, name), data); err != nil {
-			set.Abort()
-			return err
-		}
+		staged[filepath.Join(w.out, name)] = data
+	}
+	var set atomicfile.Set
+	if err := set.StageAll(staged, nil); err != nil {
+		return err
 	}
 	return set.Commit()
 }
