@@ -165,3 +165,42 @@ func TestReadCSVBytesParallelSame(t *testing.T) {
 		}
 	}
 }
+
+// TestReadCSVBytesKeepsNoView: the fast reader parses a view of the
+// caller's bytes, not a copy; nothing it returns may keep that view —
+// the frame and an error must read the same after the bytes are
+// overwritten.
+func TestReadCSVBytesKeepsNoView(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("period,alpha price,beta\n")
+	for i := 0; i < 40000; i++ { // enough rows for the parallel path
+		fmt.Fprintf(&b, "%d-%02d,%d.25,%d\n", 1900+i/12, i%12+1, i, -i)
+	}
+	raw := []byte(b.String())
+	f, err := ReadCSVBytes(raw, "x.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	bad := []byte(strings.Replace(b.String(), "1901-03,", "1901-3x,", 1))
+	_, derr := ReadCSVBytes(bad, "x.csv")
+	if derr == nil {
+		t.Fatal("no error for a bad date")
+	}
+	msg := derr.Error()
+	col := derr.(*DataError).Column
+	for i := range raw {
+		raw[i] = 'z'
+	}
+	for i := range bad {
+		bad[i] = 'z'
+	}
+	if len(f.Names) != 2 || f.Names[0] != "alpha price" || f.Names[1] != "beta" {
+		t.Errorf("names now %q", f.Names)
+	}
+	if v, _ := f.Column("alpha price"); len(v) != 40000 || v[7] != 7.25 {
+		t.Errorf("values changed")
+	}
+	if derr.Error() != msg || derr.(*DataError).Column != col || col != "period" {
+		t.Errorf("error now %q (column %q), was %q", derr.Error(), derr.(*DataError).Column, msg)
+	}
+}

@@ -40,7 +40,7 @@ func (t *table) setHeader(fields []string, line int) error {
 		if !utf8.ValidString(s) {
 			return t.errf(line, "", "header: column %d: name is not valid UTF-8 text (save the file as UTF-8)", j+1)
 		}
-		s = strings.TrimSpace(s)
+		s = strings.Clone(strings.TrimSpace(s)) // not a view of the file's bytes (readPlainCSV)
 		t.header[j] = s
 		if s == "" {
 			if j == 0 {
