@@ -135,7 +135,7 @@ func (s *ardlSpec) Run(c *engine.Context) (*engine.Result, error) {
 		cites = append(cites, "sygn-2014")
 	}
 	res := &engine.Result{Table: t, Values: vals, Test: b.outcome(), Cites: cites}
-	res.SetSeries("resid", contract.NewDated(d.Dates, m.ECT))
+	res.SetSeries("resid", contract.ViewDated(d.Dates, m.ECT))
 	res.Model = engine.ModelOf("ARDL", s.Y, m.Names, m.Coef, vals, false, "")
 	return res, nil
 }

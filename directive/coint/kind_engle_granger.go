@@ -150,7 +150,7 @@ func (s *egSpec) Run(c *engine.Context) (*engine.Result, error) {
 	}
 	t.Notes = append(t.Notes, c.StarNote()+" "+d.SampleNote())
 	res := &engine.Result{Table: t, Values: s.values(each, det, len(vars), d, all), Test: first, Cites: []string{"engle-granger-1987", "mackinnon-2010", "mackinnon-1994"}}
-	res.SetSeries("resid", contract.NewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
+	res.SetSeries("resid", contract.ViewDated(d.Dates[:len(rows[0].Resid)], rows[0].Resid))
 	return res, nil
 }
 
@@ -262,7 +262,7 @@ func egValues(r *coint.EGResult, o *contract.Outcome, static map[string]any, d *
 	v := map[string]any{
 		"stat": r.Stat, "pvalue": r.PValue, "lags": r.Lags, "nobs": r.NObs,
 		"crit": contract.CritMap(r.Crit), "crit_source": r.CritSource, "static": static,
-		"reject_5": o.Rejects(0.05), "resid": contract.NewDated(d.Dates[:len(r.Resid)], r.Resid).ResultsForm(),
+		"reject_5": o.Rejects(0.05), "resid": contract.ViewDated(d.Dates[:len(r.Resid)], r.Resid).ResultsForm(),
 	}
 	if !math.IsNaN(r.PValue) {
 		v["pvalue_source"] = "MacKinnon (1994)"

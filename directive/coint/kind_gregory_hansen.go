@@ -174,7 +174,7 @@ func (s *ghSpec) Run(c *engine.Context) (*engine.Result, error) {
 
 	vals := s.values(st, r, outs, breaks, sims, d)
 	res := &engine.Result{Table: t, Values: vals, Test: outs[0], Cites: []string{"gregory-hansen-1996"}}
-	res.SetSeries("resid", contract.NewDated(d.Dates[:len(r.Resid)], r.Resid))
+	res.SetSeries("resid", contract.ViewDated(d.Dates[:len(r.Resid)], r.Resid))
 	return res, nil
 }
 

@@ -177,8 +177,8 @@ func (s *ecmSpec) Run(c *engine.Context) (*engine.Result, error) {
 		actual[i] = m.Fit.Fitted[i] + m.Fit.Resid[i]
 	}
 	res := &engine.Result{Table: t, Values: vals, Cites: []string{"engle-granger-1987"}}
-	res.SetSeries("actual", contract.NewDated(sd.Dates, actual))
-	res.SetSeries("fitted", contract.NewDated(sd.Dates, m.Fit.Fitted))
+	res.SetSeries("actual", contract.ViewDated(sd.Dates, actual))
+	res.SetSeries("fitted", contract.ViewDated(sd.Dates, m.Fit.Fitted))
 	res.Model = engine.ModelOf("ECM", ecm.DiffName(rel.Y, 0), m.Names, m.Coef, vals, true, "")
 	return res, nil
 }

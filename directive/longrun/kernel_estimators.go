@@ -176,7 +176,7 @@ func (s *kernelSpec) Run(c *engine.Context) (*engine.Result, error) {
 		vals[k] = v
 	}
 	res := &engine.Result{Table: t, Values: vals, Hidden: hidden, Cites: s.method.Cites}
-	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], det, r.Coef)))
+	res.SetSeries("resid", contract.ViewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], det, r.Coef)))
 	res.Model = engine.ModelOf(s.method.Title, s.Y, r.Names, r.Table, vals, true, "")
 	return res, nil
 }

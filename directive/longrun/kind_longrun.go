@@ -225,7 +225,7 @@ func (s *dolsSpec) Run(c *engine.Context) (*engine.Result, error) {
 	vals := s.values(st, r, nd+k, walds, seNote, sd)
 	// The leads and lags are nuisance terms the table does not show.
 	res := &engine.Result{Table: t, Values: vals, Hidden: []string{"dynamics"}, Cites: []string{"saikkonen-1991", "stock-watson-1993", "newey-west-1987"}}
-	res.SetSeries("resid", contract.NewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
+	res.SetSeries("resid", contract.ViewDated(d.Dates, longrun.RelationResid(d.Cols[0], d.Cols[1:], st.spec.Det, r.Fit.Coef[:nd+k])))
 	res.Model = engine.ModelOf("DOLS", s.Y, terms, coefs, vals, true, "the coefficients of the leads and lags of the differenced regressors")
 	return res, nil
 }

@@ -112,7 +112,7 @@ func (s *olsSpec) Run(c *engine.Context) (*engine.Result, error) {
 		"sample":       engine.SampleValues(d),
 	}
 	res := &engine.Result{Table: t, Values: vals, Cites: seCites(s.SE)}
-	res.SetSeries("resid", contract.NewDated(d.Dates, fit.Resid))
+	res.SetSeries("resid", contract.ViewDated(d.Dates, fit.Resid))
 	res.Model = engine.ModelOf("OLS", s.Y, terms, coefs, vals, false, "")
 	return res, nil
 }

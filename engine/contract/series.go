@@ -17,9 +17,13 @@ type Dated struct {
 	Values []float64
 }
 
-// NewDated copies dates and values (which must have the same length).
-func NewDated(dates []series.Date, values []float64) Dated {
-	return Dated{Dates: append([]series.Date(nil), dates...), Values: append([]float64(nil), values...)}
+// ViewDated is a Dated over dates and values themselves, not copies:
+// for slices nobody changes once made (a data set's dates, an estimator's
+// residuals), where copying cost a million-row series 40 MB of new memory.
+// Their capacity is cut to their length, so that an append to the
+// series cannot write into what follows.
+func ViewDated(dates []series.Date, values []float64) Dated {
+	return Dated{Dates: dates[:len(dates):len(dates)], Values: values[:len(values):len(values)]}
 }
 
 // ResultsForm is the series as the results file holds it:

@@ -87,3 +87,18 @@ func TestResultsForms(t *testing.T) {
 		t.Errorf("%d forms of no series", n)
 	}
 }
+
+// TestViewDated: a view holds the slices themselves, capped, so an
+// append to it copies instead of writing past them.
+func TestViewDated(t *testing.T) {
+	dates := make([]series.Date, 3, 10)
+	vals := make([]float64, 3, 10)
+	v := ViewDated(dates, vals)
+	if &v.Dates[0] != &dates[0] || &v.Values[0] != &vals[0] || cap(v.Dates) != 3 || cap(v.Values) != 3 {
+		t.Fatal("not a capped view")
+	}
+	_ = append(v.Values, 9)
+	if vals[:4][3] != 0 {
+		t.Error("an append wrote past the view")
+	}
+}
