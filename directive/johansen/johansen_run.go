@@ -398,17 +398,17 @@ func (s *sysState) values() map[string]any {
 // relations is the results-file form of the estimated cointegrating
 // relations β_j'ỹ_t over the directive's sample, one dated series per
 // relation (johansen.VECM.Relations gives the formula and the meaning of
-// their levels in each case). They are computed once; the relations share
-// one copy of the sample's dates (nothing writes to a result's series).
+// their levels in each case). They are computed once and share the
+// sample's dates themselves (nothing writes to a data set's dates or a
+// result's series; contract.ViewDated).
 func (s *sysState) relations() []contract.Dated {
 	if s.rel != nil {
 		return s.rel
 	}
 	zs := s.vecm.Relations(s.res.Case, s.y, s.xr)
-	dates := slices.Clone(s.d.Dates)
 	s.rel = make([]contract.Dated, len(zs))
 	for j, z := range zs {
-		s.rel[j] = contract.Dated{Dates: dates, Values: z}
+		s.rel[j] = contract.ViewDated(s.d.Dates, z)
 	}
 	return s.rel
 }
