@@ -16,6 +16,9 @@ func parseValue(s string) (float64, error) {
 	if isMissing(s) {
 		return math.NaN(), nil
 	}
+	if v, ok := parseDecimal(s); ok { // nearly every cell
+		return v, nil
+	}
 	if !decimalSyntax(s) {
 		if isInfText(s) {
 			return 0, fmt.Errorf("infinite value %q (write an empty cell or NA for a missing value)", s)
