@@ -44,7 +44,7 @@ func TestParseDecimalAgainstStrconv(t *testing.T) {
 	for _, s := range edges {
 		checkDecimal(t, s)
 	}
-	reps := 60000 // 1,000,000 among the long checks (CI)
+	reps := 30000 // 1,000,000 among the long checks (CI)
 	if longtest.Enabled() {
 		reps = 1000000
 	}
@@ -131,7 +131,7 @@ func FuzzParseDecimal(f *testing.F) {
 // any place.
 func TestEightDigits(t *testing.T) {
 	r := rand.New(rand.NewSource(3))
-	for i := 0; i < 200000; i++ {
+	for i := 0; i < 50000; i++ {
 		s := fmt.Sprintf("%08d", r.Intn(100000000))
 		v, ok := eightDigits(s)
 		want, _ := strconv.ParseUint(s, 10, 64)
