@@ -422,7 +422,8 @@ func (c *Context) DataUsing(alias string, exprs []string, sample, missing string
 			}
 		}
 	}
-	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: missing == "drop"})
+	// the series were evaluated for this call alone: Owned
+	al, err := series.AlignWith(ss, series.AlignOptions{Frame: f, DropMissing: missing == "drop", Owned: true})
 	if err != nil {
 		return nil, c.Errorf("", "%v", err)
 	}

@@ -143,3 +143,26 @@ func TestAlignSharedWindow(t *testing.T) {
 		t.Errorf("dropped: %+v, %v", al, err)
 	}
 }
+
+// TestAlignOwned: series on one date axis come back as windows of their
+// own values when the caller gives them away, and as copies otherwise.
+func TestAlignOwned(t *testing.T) {
+	dates := []Date{{Freq: Monthly, Year: 2001, Sub: 1}, {Freq: Monthly, Year: 2001, Sub: 2}, {Freq: Monthly, Year: 2001, Sub: 3}}
+	a := &Series{Name: "a", Dates: dates, Values: []float64{math.NaN(), 2, 3}}
+	b := &Series{Name: "b", Dates: dates, Values: []float64{4, 5, 6}}
+	for _, owned := range []bool{false, true} {
+		al, err := AlignWith([]*Series{a, b}, AlignOptions{Owned: owned})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(al.Values[0]) != 2 || al.Values[0][0] != 2 || al.Values[1][1] != 6 {
+			t.Fatalf("owned %v: %v", owned, al.Values)
+		}
+		if shared := &al.Values[0][0] == &a.Values[1]; shared != owned {
+			t.Errorf("owned %v: values shared with the input: %v", owned, shared)
+		}
+		if owned && cap(al.Values[1]) != len(al.Values[1]) {
+			t.Error("a window's capacity reaches past it")
+		}
+	}
+}
