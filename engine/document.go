@@ -6,17 +6,16 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"runtime"
 	"slices"
 	"strings"
 	"sync"
-	"sync/atomic"
 
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/text"
 	"gopkg.in/yaml.v3"
 
 	"github.com/galley-econ/galley/analysis/diag"
+	"github.com/galley-econ/galley/internal/parallel"
 	"github.com/galley-econ/galley/manuscript"
 	"github.com/galley-econ/galley/resultsfile"
 )
@@ -173,20 +172,12 @@ func ParseBytes(path string, src []byte, opts Options) (*Document, error) {
 	})
 	// Decoding the directives' YAML is most of a parse: it is shared
 	// between two workers, and its errors are reported in order.
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < min(2, runtime.GOMAXPROCS(0)); w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := int(next.Add(1) - 1); i < len(blocks); i = int(next.Add(1) - 1) {
-				if f := &blocks[i]; f.err == nil {
-					f.err = d.decodeBlock(f.b)
-				}
-			}
-		}()
-	}
-	wg.Wait()
+	parallel.For(len(blocks), 2, func(i int) bool {
+		if f := &blocks[i]; f.err == nil {
+			f.err = d.decodeBlock(f.b)
+		}
+		return true // every block is decoded, for every error
+	})
 	for _, f := range blocks {
 		if f.err != nil {
 			errs = append(errs, f.err)

@@ -21,6 +21,7 @@ import (
 	"github.com/galley-econ/galley/engine"
 	"github.com/galley-econ/galley/internal/atomicfile"
 	"github.com/galley-econ/galley/internal/checksum"
+	"github.com/galley-econ/galley/internal/parallel"
 )
 
 // A build record lets a build that would change nothing stop before it
@@ -202,28 +203,7 @@ func (r *buildRecord) current() bool {
 		}
 		return ok
 	}
-	if !check(0) {
-		return false
-	}
-	var (
-		next  atomic.Int64
-		stale atomic.Bool
-		wg    sync.WaitGroup
-	)
-	next.Store(1)
-	for w := 0; w < 2; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := int(next.Add(1) - 1); i < len(files) && !stale.Load(); i = int(next.Add(1) - 1) {
-				if !check(i) {
-					stale.Store(true)
-				}
-			}
-		}()
-	}
-	wg.Wait()
-	if stale.Load() {
+	if !check(0) || !parallel.For(len(files)-1, 2, func(i int) bool { return check(i + 1) }) {
 		return false
 	}
 	if read.Load() {

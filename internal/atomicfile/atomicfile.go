@@ -8,11 +8,11 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"runtime"
 	"sort"
 	"strings"
 	"sync"
-	"sync/atomic"
+
+	"github.com/galley-econ/galley/internal/parallel"
 )
 
 // Write writes data to path through a temporary file in the same
@@ -110,21 +110,12 @@ func (s *Set) StageAll(files map[string][]byte, holds func(path string, data []b
 	sort.Strings(paths)
 	tmps := make([]string, len(paths))
 	errs := make([]error, len(paths))
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < min(2, runtime.GOMAXPROCS(0), len(paths)); w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := int(next.Add(1) - 1); i < len(paths); i = int(next.Add(1) - 1) {
-				if holds != nil && holds(paths[i], files[paths[i]]) || sameContent(paths[i], files[paths[i]]) {
-					continue
-				}
-				tmps[i], errs[i] = stage(paths[i], files[paths[i]], 0o644, false)
-			}
-		}()
-	}
-	wg.Wait()
+	parallel.For(len(paths), 2, func(i int) bool {
+		if !(holds != nil && holds(paths[i], files[paths[i]]) || sameContent(paths[i], files[paths[i]])) {
+			tmps[i], errs[i] = stage(paths[i], files[paths[i]], 0o644, false)
+		}
+		return true // every file is staged or compared: the errors are reported in order below
+	})
 	var first error
 	for i, err := range errs {
 		if err != nil && first == nil {
