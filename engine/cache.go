@@ -261,9 +261,7 @@ func (d *Document) hashColumn(alias, col string) (string, bool) {
 			d.opts.reads.note(full, "")
 			return "", false
 		}
-		sum := sha256.Sum256(raw)
-		d.opts.reads.note(full, hex.EncodeToString(sum[:]))
-		return hex.EncodeToString(sum[:]), true
+		return d.opts.reads.noteBytes(full, raw), true
 	}
 	sums, err := d.data.columnSums(alias)
 	if err != nil {

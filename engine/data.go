@@ -64,9 +64,7 @@ func (s *dataStore) file(alias string) (*dataFile, error) {
 	if err != nil {
 		return nil, fmt.Errorf("data alias %q: %w", alias, err)
 	}
-	sum := sha256.Sum256(raw)
-	s.doc.opts.reads.note(full, hex.EncodeToString(sum[:]))
-	df := &dataFile{ref: ref, full: full, display: filepath.Join(s.doc.Dir, rel), raw: raw, sum: hex.EncodeToString(sum[:])}
+	df := &dataFile{ref: ref, full: full, display: filepath.Join(s.doc.Dir, rel), raw: raw, sum: s.doc.opts.reads.noteBytes(full, raw)}
 	s.read[filepath.ToSlash(rel)] = df.sum
 	if a, ok := s.alias[filepath.ToSlash(rel)]; !ok || alias < a {
 		s.alias[filepath.ToSlash(rel)] = alias

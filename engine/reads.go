@@ -40,12 +40,14 @@ func (l *readLog) note(path string, sum string) {
 	l.files[path] = sum
 }
 
-func (l *readLog) noteBytes(path string, raw []byte) {
-	if l == nil {
-		return
-	}
+// noteBytes notes that the build read raw from path and returns the
+// SHA-256 of raw in hexadecimal (made even without a log: callers that
+// key a file by its content use it).
+func (l *readLog) noteBytes(path string, raw []byte) string {
 	s := sha256.Sum256(raw)
-	l.note(path, hex.EncodeToString(s[:]))
+	sum := hex.EncodeToString(s[:])
+	l.note(path, sum)
+	return sum
 }
 
 // FilesRead lists the files this build (and any nested build it made)
