@@ -105,7 +105,8 @@ func (d *Document) flushMemos() {
 }
 
 // encodeMemo writes the magic, the version and the entries (sorted by
-// key), each string as its length (uvarint) and bytes.
+// key): a count, then each key and value, in the tree codec's string
+// form (treecodec.go).
 func encodeMemo(entries map[string]string, version string) []byte {
 	keys := make([]string, 0, len(entries))
 	n := len(memoMagic) + len(version) + 16
@@ -114,17 +115,11 @@ func encodeMemo(entries map[string]string, version string) []byte {
 		n += len(k) + len(v) + 8
 	}
 	sort.Strings(keys)
-	b := make([]byte, 0, n)
-	b = append(b, memoMagic...)
-	str := func(s string) {
-		b = binary.AppendUvarint(b, uint64(len(s)))
-		b = append(b, s...)
-	}
-	str(version)
+	b := append(make([]byte, 0, n), memoMagic...)
+	b = appendStr(b, version)
 	b = binary.AppendUvarint(b, uint64(len(keys)))
 	for _, k := range keys {
-		str(k)
-		str(entries[k])
+		b = appendStr(appendStr(b, k), entries[k])
 	}
 	return b
 }
@@ -135,36 +130,17 @@ func decodeMemo(raw []byte, version string) map[string]string {
 	if len(raw) < len(memoMagic) || string(raw[:len(memoMagic)]) != memoMagic {
 		return nil
 	}
-	b := raw[len(memoMagic):]
-	bad := false
-	str := func() string {
-		n, k := binary.Uvarint(b)
-		if k <= 0 || n > uint64(len(b)-k) {
-			bad = true
-			return ""
-		}
-		s := string(b[k : k+int(n)])
-		b = b[k+int(n):]
-		return s
-	}
-	if str() != version || bad {
+	r := treeReader{b: raw[len(memoMagic):]}
+	if r.str() != version || r.err != nil {
 		return nil
 	}
-	count, k := binary.Uvarint(b)
-	if k <= 0 || count > uint64(len(b)) {
-		return nil
-	}
-	b = b[k:]
+	count := r.count(2) // a key and a value take a byte each at least
 	out := make(map[string]string, count)
-	for i := uint64(0); i < count; i++ {
-		key := str()
-		val := str()
-		if bad {
-			return nil
-		}
-		out[key] = val
+	for i := 0; i < count && r.err == nil; i++ {
+		k := r.str()
+		out[k] = r.str()
 	}
-	if len(b) != 0 {
+	if r.err != nil || len(r.b) != 0 {
 		return nil
 	}
 	return out
