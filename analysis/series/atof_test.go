@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -11,22 +12,40 @@ import (
 	"github.com/galley-econ/galley/internal/longtest"
 )
 
-// checkDecimal: parseDecimal answers only for strings decimalSyntax
-// accepts, and then with exactly strconv.ParseFloat's bits.
+// plainGrammar is the grammar of a plain decimal number, written
+// independently of parseDecimal as the test's reference.
+var plainGrammar = regexp.MustCompile(`^[+-]?([0-9]+(\.[0-9]*)?|\.[0-9]+)([eE][+-]?[0-9]+)?$`)
+
+// checkDecimal: parseDecimal calls s plain exactly when the grammar
+// does; when it settles a value, the bits are strconv.ParseFloat's; and
+// plainNumber, which asks strconv for the rest, always gives ParseFloat's
+// value or says the number is too large. It reports whether the fast
+// path settled s.
 func checkDecimal(t *testing.T, s string) bool {
 	t.Helper()
-	got, ok := parseDecimal(s)
-	if ok && !decimalSyntax(s) {
-		t.Fatalf("%q: read as %v, but it is not a plain decimal number", s, got)
+	got, ok, plain := parseDecimal(s)
+	if plain != plainGrammar.MatchString(s) {
+		t.Fatalf("%q: plain %v, the grammar says %v", s, plain, !plain)
 	}
-	if !ok {
+	if !plain {
 		return false
 	}
 	want, err := strconv.ParseFloat(s, 64)
-	if err != nil || math.Float64bits(got) != math.Float64bits(want) {
+	if ok && (err != nil || math.Float64bits(got) != math.Float64bits(want)) {
 		t.Fatalf("%q: %v (%#x), strconv %v (%#x, %v)", s, got, math.Float64bits(got), want, math.Float64bits(want), err)
 	}
-	return true
+	v, plain2, err2 := plainNumber(s)
+	switch {
+	case !plain2:
+		t.Fatalf("%q: plainNumber says it is not plain", s)
+	case err != nil || math.IsInf(want, 0):
+		if err2 != errTooLarge {
+			t.Fatalf("%q: plainNumber %v, %v; strconv %v, %v", s, v, err2, want, err)
+		}
+	case err2 != nil || math.Float64bits(v) != math.Float64bits(want):
+		t.Fatalf("%q: plainNumber %v (%v), strconv %v", s, v, err2, want)
+	}
+	return ok
 }
 
 // TestParseDecimalAgainstStrconv: bit for bit against strconv on the
@@ -115,8 +134,8 @@ func TestPow10Exponent(t *testing.T) {
 	}
 }
 
-// FuzzParseDecimal: on any string, parseDecimal declines or is a plain
-// decimal number read as strconv.ParseFloat reads it.
+// FuzzParseDecimal: on any string, parseDecimal and plainNumber agree
+// with the grammar and with strconv.ParseFloat (checkDecimal).
 func FuzzParseDecimal(f *testing.F) {
 	for _, s := range []string{"0", "-1.5e-3", "2.2250738585072011e-308", "123456789012345678901", "0.000123", "9007199254740993", "1e23"} {
 		f.Add(s)

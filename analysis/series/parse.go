@@ -2,7 +2,6 @@ package series
 
 import (
 	"fmt"
-	"math"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -253,11 +252,11 @@ func (p *parser) primary() (Expr, error) {
 	t := p.tok
 	switch t.kind {
 	case tNum:
-		if !decimalSyntax(t.text) {
+		v, plain, err := plainNumber(t.text)
+		if !plain {
 			return nil, p.fail("malformed number %q", t.text)
 		}
-		v, err := strconv.ParseFloat(t.text, 64)
-		if err != nil || math.IsInf(v, 0) {
+		if err != nil {
 			return nil, p.fail("number %s is too large", t.text)
 		}
 		p.next()

@@ -3,7 +3,6 @@ package series
 import (
 	"fmt"
 	"math"
-	"strconv"
 )
 
 // parseValue reads one data cell. Missing values (an empty cell, NA, .
@@ -16,17 +15,14 @@ func parseValue(s string) (float64, error) {
 	if isMissing(s) {
 		return math.NaN(), nil
 	}
-	if v, ok := parseDecimal(s); ok { // nearly every cell
-		return v, nil
-	}
-	if !decimalSyntax(s) {
+	v, plain, err := plainNumber(s)
+	if !plain {
 		if isInfText(s) {
 			return 0, fmt.Errorf("infinite value %q (write an empty cell or NA for a missing value)", s)
 		}
 		return 0, fmt.Errorf("not a number: %q", clip(s, 40))
 	}
-	v, err := strconv.ParseFloat(s, 64)
-	if err != nil || math.IsInf(v, 0) {
+	if err != nil {
 		return 0, fmt.Errorf("value %s is too large for a 64-bit float", clip(s, 40))
 	}
 	return v, nil
@@ -69,42 +65,4 @@ func equalFold(s, lower string) bool {
 		}
 	}
 	return true
-}
-
-// decimalSyntax checks [+-]? (d+ (. d*)? | . d+) ([eE] [+-]? d+)?.
-func decimalSyntax(s string) bool {
-	i, n := 0, len(s)
-	if i < n && (s[i] == '+' || s[i] == '-') {
-		i++
-	}
-	mant := 0
-	for i < n && s[i] >= '0' && s[i] <= '9' {
-		i++
-		mant++
-	}
-	if i < n && s[i] == '.' {
-		i++
-		for i < n && s[i] >= '0' && s[i] <= '9' {
-			i++
-			mant++
-		}
-	}
-	if mant == 0 {
-		return false
-	}
-	if i < n && (s[i] == 'e' || s[i] == 'E') {
-		i++
-		if i < n && (s[i] == '+' || s[i] == '-') {
-			i++
-		}
-		exp := 0
-		for i < n && s[i] >= '0' && s[i] <= '9' {
-			i++
-			exp++
-		}
-		if exp == 0 {
-			return false
-		}
-	}
-	return i == n
 }
