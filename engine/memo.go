@@ -23,7 +23,7 @@ type memo struct {
 	version string
 	old     map[string]string // as read
 	used    map[string]string // looked up or made in this build
-	changed bool              // an entry was made, or one of old went unused
+	changed bool              // an entry was made (an unused one of old shows in the lengths)
 }
 
 const memoMagic = "galley-memo-1\n"
@@ -94,11 +94,7 @@ func (d *Document) flushMemos() {
 		m.mu.Lock()
 		if m.changed || len(m.old) != len(m.used) {
 			_ = atomicfile.WriteUnsynced(m.path, encodeMemo(m.used, m.version), 0o644)
-			m.old, m.changed = m.used, false
-			m.used = map[string]string{}
-			for k, v := range m.old {
-				m.used[k] = v
-			}
+			m.old, m.changed = m.used, false // what is on disk now
 		}
 		m.mu.Unlock()
 	}
