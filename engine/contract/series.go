@@ -29,13 +29,7 @@ func ViewDated(dates []series.Date, values []float64) Dated {
 // ResultsForm is the series as the results file holds it:
 // {"dates": ["2004-01", …], "values": […]}, dates in the canonical text
 // of series.Date.String.
-func (d Dated) ResultsForm() map[string]any {
-	ds := make([]string, len(d.Dates))
-	for i, dt := range d.Dates {
-		ds[i] = dt.String()
-	}
-	return map[string]any{"dates": ds, "values": append([]float64(nil), d.Values...)}
-}
+func (d Dated) ResultsForm() map[string]any { return d.resultsForm(dateTexts(d.Dates)) }
 
 // ResultsForms is ResultsForm of each series, the text of a date axis
 // they share (the same dates in the same memory, as the relations of
@@ -46,13 +40,23 @@ func ResultsForms(ds []Dated) []map[string]any {
 	var texts []string
 	for i, d := range ds {
 		if len(d.Dates) == 0 || len(last) != len(d.Dates) || &last[0] != &d.Dates[0] {
-			texts = make([]string, len(d.Dates))
-			for j, dt := range d.Dates {
-				texts[j] = dt.String()
-			}
-			last = d.Dates
+			texts, last = dateTexts(d.Dates), d.Dates
 		}
-		out[i] = map[string]any{"dates": texts, "values": append([]float64(nil), d.Values...)}
+		out[i] = d.resultsForm(texts)
+	}
+	return out
+}
+
+// resultsForm is ResultsForm with the dates' text given.
+func (d Dated) resultsForm(texts []string) map[string]any {
+	return map[string]any{"dates": texts, "values": append([]float64(nil), d.Values...)}
+}
+
+// dateTexts is the canonical text of each date.
+func dateTexts(dates []series.Date) []string {
+	out := make([]string, len(dates))
+	for i, dt := range dates {
+		out[i] = dt.String()
 	}
 	return out
 }
