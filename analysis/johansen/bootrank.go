@@ -198,10 +198,7 @@ func (r *Result) WildBootstrapRank(y *mat.Dense, x Extra, spec RankBootSpec) (*R
 // returns it in VAR form with its deterministic part and residuals.
 func (r *Result) nullModel(ys *mat.Dense, rank int) (*nullModel, error) {
 	t, k := r.z0.Dims()
-	ns := 0
-	if r.zs != nil {
-		_, ns = r.zs.Dims()
-	}
+	ns := r.shortCols()
 	p1 := r.P1()
 	x := mat.NewDense(t, max(rank+ns, 1), nil)
 	if rank > 0 {

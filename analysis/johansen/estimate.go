@@ -365,10 +365,7 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	t, k := r.z0.Dims()
 	rank := v.Rank
-	ns := 0
-	if r.zs != nil {
-		_, ns = r.zs.Dims()
-	}
+	ns := r.shortCols()
 	var ect mat.Dense
 	ect.Mul(r.z1, beta)
 	w := rank + ns + k

@@ -108,10 +108,7 @@ func Recursive(y *mat.Dense, c Case, lags int, x Extra, first int, form Form, wo
 	}
 	t, k := full.z0.Dims()
 	_, p1 := full.z1.Dims()
-	ns := 0
-	if full.zs != nil {
-		_, ns = full.zs.Dims()
-	}
+	ns := full.shortCols()
 	n := ns + p1 + k
 	if first <= n || first > t {
 		return nil, fmt.Errorf("johansen: the first window of %d observations must exceed the %d columns of the design and not exceed the %d observations of the sample", first, n, t)

@@ -57,6 +57,16 @@ type Result struct {
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
 func (r *Result) P1() int { return r.K + r.Case.restricted() + r.NR }
 
+// shortCols is the number of columns of the short-run block zs (lagged
+// differences, unrestricted terms and regressors), 0 without one.
+func (r *Result) shortCols() int {
+	if r.zs == nil {
+		return 0
+	}
+	_, ns := r.zs.Dims()
+	return ns
+}
+
 // Extra holds regressors beyond the deterministic terms of the case, each a
 // matrix with one row per row of y (nil when there are none).
 //
@@ -300,10 +310,7 @@ func checkSeries(y *mat.Dense) error {
 func (r *Result) reduce(d *mat.Dense) error {
 	t, k := r.z0.Dims()
 	_, p1 := r.z1.Dims()
-	ns := 0
-	if r.zs != nil {
-		_, ns = r.zs.Dims()
-	}
+	ns := r.shortCols()
 	n := ns + p1 + k
 	var qr householder.QR
 	if err := qr.Factor(householder.Columns(d, 0), n); err != nil {
