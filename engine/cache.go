@@ -583,18 +583,7 @@ func (d *Document) cacheFlush() {
 // writePack encodes the entries and writes the pack file; a failure
 // only costs a rerun next time.
 func writePack(path, version string, all []*cacheEntry, nblob, est int) {
-	blob := make([]byte, 0, nblob)
-	for _, e := range all {
-		e.Blobs = e.Blobs[:0]
-		for _, b := range e.blobs {
-			if b == nil {
-				e.Blobs = append(e.Blobs, 0, -1)
-				continue
-			}
-			e.Blobs = append(e.Blobs, len(blob), len(b))
-			blob = append(blob, b...)
-		}
-	}
+	blob := placeBlobs(all, nblob)
 	var buf bytes.Buffer
 	buf.Grow(est + nblob)
 	buf.Write(make([]byte, 8)) // the stream's length, below
@@ -704,6 +693,25 @@ func encodeTrees(res *Result) ([]byte, bool) {
 		}
 	}
 	return b, true
+}
+
+// placeBlobs lays the entries' figure bytes one after another in the
+// pack's byte section (room for nblob bytes) and sets each entry's
+// Blobs to their offsets and lengths (takeBlobs reads them back).
+func placeBlobs(all []*cacheEntry, nblob int) []byte {
+	blob := make([]byte, 0, nblob)
+	for _, e := range all {
+		e.Blobs = e.Blobs[:0]
+		for _, b := range e.blobs {
+			if b == nil {
+				e.Blobs = append(e.Blobs, 0, -1)
+				continue
+			}
+			e.Blobs = append(e.Blobs, len(blob), len(b))
+			blob = append(blob, b...)
+		}
+	}
+	return blob
 }
 
 // takeBlobs points the entry's figure bytes into blob, the pack's byte

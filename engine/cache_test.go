@@ -18,15 +18,7 @@ func TestPackBlobs(t *testing.T) {
 	if e.Result.Figure.SVG != nil || res.Figure.SVG == nil {
 		t.Fatal("the entry must hold the bytes apart, the result keep them")
 	}
-	var blob []byte
-	for _, b := range e.blobs {
-		if b == nil {
-			e.Blobs = append(e.Blobs, 0, -1)
-			continue
-		}
-		e.Blobs = append(e.Blobs, len(blob), len(b))
-		blob = append(blob, b...)
-	}
+	blob := placeBlobs([]*cacheEntry{e}, 0)
 	got := &cacheEntry{Blobs: e.Blobs, Result: &Result{Figure: &Figure{}}}
 	if !got.takeBlobs(blob) {
 		t.Fatal("blobs refused")
