@@ -72,10 +72,7 @@ func (d *Document) entry(key string) (*manuscript.BibEntry, error) {
 	if e, ok := manuscript.MethodEntry(key); ok {
 		return e, nil
 	}
-	methods, err := manuscript.MethodLibrary()
-	if err != nil {
-		return nil, err
-	}
+	methods := manuscript.MethodLibrary()
 	var keys []string
 	if d.bib != nil {
 		keys = append(keys, d.bib.Keys...)

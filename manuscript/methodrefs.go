@@ -177,8 +177,9 @@ var methodLib = sync.OnceValue(func() *Library {
 	return lib
 })
 
-// MethodLibrary is MethodBib parsed.
-func MethodLibrary() (*Library, error) { return methodLib(), nil }
+// MethodLibrary is MethodBib parsed (when galley was built: it cannot
+// fail at run time).
+func MethodLibrary() *Library { return methodLib() }
 
 // MethodEntry is the work key of galley's reference table.
 func MethodEntry(key string) (*BibEntry, bool) {
