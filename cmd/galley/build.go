@@ -91,16 +91,12 @@ func (b *buildCmd) build(opts engine.Options, out string, rec *buildRecord) erro
 	if err != nil {
 		return err
 	}
-	staged := make(map[string][]byte, len(files))
-	for name, data := range files {
-		staged[filepath.Join(out, name)] = data
-	}
 	var holds func(string, []byte) bool
 	if rec != nil {
 		holds = rec.holds
 	}
 	var set atomicfile.Set
-	if err := set.StageAll(staged, holds); err != nil {
+	if err := set.StageAll(out, files, holds); err != nil {
 		return err
 	}
 	if rec != nil {

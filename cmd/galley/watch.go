@@ -349,12 +349,8 @@ func (w *watcher) write(doc *engine.Document) error {
 	if err != nil {
 		return err
 	}
-	staged := make(map[string][]byte, len(files))
-	for name, data := range files {
-		staged[filepath.Join(w.out, name)] = data
-	}
 	var set atomicfile.Set
-	if err := set.StageAll(staged, nil); err != nil {
+	if err := set.StageAll(w.out, files, nil); err != nil {
 		return err
 	}
 	return set.Commit()

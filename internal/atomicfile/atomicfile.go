@@ -94,25 +94,32 @@ func (s *Set) Stage(path string, data []byte) error {
 	return nil
 }
 
-// StageAll stages every file of files (keyed by path) as Stage does,
-// the comparisons and writes shared among up to two workers (a build's
-// outputs are many files, each compared with the file it replaces). On
-// a failure every file staged in the set is removed (as Abort) and the
-// error of the first failing path in sorted order is returned.
+// StageAll stages every file of files (keyed by its path within dir) as
+// Stage does, the comparisons and writes shared among up to two workers
+// (a build's outputs are many files, each compared with the file it
+// replaces). On a failure every file staged in the set is removed (as
+// Abort) and the error of the first failing path in sorted order is
+// returned.
 //
-// holds, if not nil, may vouch that the file at a path already holds its
-// data (known without reading it); such a file is treated as unchanged.
-func (s *Set) StageAll(files map[string][]byte, holds func(path string, data []byte) bool) error {
-	paths := make([]string, 0, len(files))
-	for p := range files {
-		paths = append(paths, p)
+// holds, if not nil, may vouch that the file at a path (dir joined)
+// already holds its data (known without reading it); such a file is
+// treated as unchanged.
+func (s *Set) StageAll(dir string, files map[string][]byte, holds func(path string, data []byte) bool) error {
+	names := make([]string, 0, len(files))
+	for n := range files {
+		names = append(names, n)
 	}
-	sort.Strings(paths)
+	sort.Strings(names)
+	paths := make([]string, len(names))
+	for i, n := range names {
+		paths[i] = filepath.Join(dir, n)
+	}
 	tmps := make([]string, len(paths))
 	errs := make([]error, len(paths))
 	parallel.For(len(paths), 2, func(i int) bool {
-		if !(holds != nil && holds(paths[i], files[paths[i]]) || sameContent(paths[i], files[paths[i]])) {
-			tmps[i], errs[i] = stage(paths[i], files[paths[i]], 0o644, false)
+		data := files[names[i]]
+		if !(holds != nil && holds(paths[i], data) || sameContent(paths[i], data)) {
+			tmps[i], errs[i] = stage(paths[i], data, 0o644, false)
 		}
 		return true // every file is staged or compared: the errors are reported in order below
 	})

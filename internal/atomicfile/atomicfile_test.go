@@ -175,7 +175,7 @@ func TestStageAll(t *testing.T) {
 		files[filepath.Join(dir, "f", string(rune('a'+i%26))+strings.Repeat("x", i/26)+".txt")] = []byte(strings.Repeat("v", i))
 	}
 	var s Set
-	if err := s.StageAll(files, nil); err != nil {
+	if err := s.StageAll("", files, nil); err != nil {
 		t.Fatal(err)
 	}
 	if err := s.Commit(); err != nil {
@@ -191,7 +191,7 @@ func TestStageAll(t *testing.T) {
 	changed := filepath.Join(dir, "f", "c.txt")
 	files[changed] = []byte("new")
 	var s2 Set
-	if err := s2.StageAll(files, nil); err != nil {
+	if err := s2.StageAll("", files, nil); err != nil {
 		t.Fatal(err)
 	}
 	if got, _ := os.ReadFile(changed); string(got) != "vv" {
@@ -214,7 +214,7 @@ func TestStageAll(t *testing.T) {
 	files[bad] = []byte("x")
 	files[changed] = []byte("newer")
 	var s3 Set
-	if err := s3.StageAll(files, nil); err == nil || !strings.Contains(err.Error(), "blocker") {
+	if err := s3.StageAll("", files, nil); err == nil || !strings.Contains(err.Error(), "blocker") {
 		t.Fatalf("error %v, want one naming the blocked path", err)
 	}
 	if len(s3.files) != 0 {
