@@ -53,18 +53,9 @@ func readWithExcelize(r io.Reader, source, sheet string, freq series.Freq) (fr *
 	if len(sheets) == 0 {
 		return nil, bad("the workbook has no sheets")
 	}
-	name := sheets[0]
-	if sheet != "" {
-		found := false
-		quoted := make([]string, len(sheets))
-		for i, s := range sheets {
-			quoted[i] = strconv.Quote(s)
-			found = found || s == sheet
-		}
-		if !found {
-			return nil, bad("no sheet %q; the sheets are %s", sheet, strings.Join(quoted, ", "))
-		}
-		name = sheet
+	name, ok := chooseSheet(sheets, sheet)
+	if !ok {
+		return nil, bad("no sheet %q; the sheets are %s", sheet, quoteAll(sheets))
 	}
 	rd := &exSheetReader{f: f, sheet: name, date1904: props.Date1904 != nil && *props.Date1904, dateStyle: map[int]bool{}}
 	rows, err := rd.rows()

@@ -67,22 +67,36 @@ func ReadXLSXAs(r io.Reader, source, sheet string, freq series.Freq) (fr *series
 	if len(sheets) == 0 {
 		return nil, bad("the workbook has no sheets")
 	}
-	name := sheets[0]
-	if sheet != "" {
-		found := false
-		quoted := make([]string, len(sheets))
-		for i, s := range sheets {
-			quoted[i] = strconv.Quote(s)
-			found = found || s == sheet
-		}
-		if !found {
-			return nil, bad("no sheet %q; the sheets are %s", sheet, strings.Join(quoted, ", "))
-		}
-		name = sheet
+	name, ok := chooseSheet(sheets, sheet)
+	if !ok {
+		return nil, bad("no sheet %q; the sheets are %s", sheet, quoteAll(sheets))
 	}
 	rows, err := bk.rows(bk.sheets[name])
 	if err != nil {
 		return nil, bad("sheet %q: %v", name, err)
 	}
 	return series.FromCellsAs(source, name, rows, freq)
+}
+
+// chooseSheet is the sheet to read: the one named, or the first when none
+// is; ok is false when the named one is not there.
+func chooseSheet(sheets []string, sheet string) (name string, ok bool) {
+	if sheet == "" {
+		return sheets[0], true
+	}
+	for _, s := range sheets {
+		if s == sheet {
+			return s, true
+		}
+	}
+	return "", false
+}
+
+// quoteAll lists names quoted, separated by commas (for messages).
+func quoteAll(names []string) string {
+	q := make([]string, len(names))
+	for i, s := range names {
+		q[i] = strconv.Quote(s)
+	}
+	return strings.Join(q, ", ")
 }
