@@ -5,9 +5,10 @@ import (
 	"testing"
 )
 
-// TestHex: the CRC-32C check value of "123456789" is e3069283 (the
-// standard check of the Castagnoli polynomial, as in RFC 3720's test
-// vectors); the running form agrees with Hex.
+// TestHex: the CRC-32C of "123456789" is e3069283, the "check" value
+// listed for CRC-32/ISCSI (Castagnoli) in the catalogue of parametrised
+// CRC algorithms (common practice; the value written down from memory,
+// and Go's hash/crc32 agrees); the running form agrees with Hex.
 func TestHex(t *testing.T) {
 	if got := Hex([]byte("123456789")); got != "e3069283" {
 		t.Errorf("Hex = %s, want e3069283", got)
