@@ -359,21 +359,49 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 
 // shortRun fits each scaled equation by OLS on [β̃'ỹ_{t−1}, short-run
 // regressors], β̃ in scaled units; unscaleShortRun maps the result back.
-// The design's columns and the responses are written once into the
-// storage the factorisation works in (ols.RegressEachColumns), and its
-// rows are read again from z1β̃, zs and z0 for the residuals.
+// The fit needs the data only through the cross-products of those
+// regressors and Δy_t, and reduce already factorised the design
+// D = [zs | z1 | z0] = QR: with Q orthonormal, X = [z1β̃, zs] = Q[R_1β̃, R_s]
+// and z0 = QR_0 (R_s, R_1, R_0 the column blocks of R), so the columns
+// [R_1β̃, R_s, R_0] — n = ns+P1+K rows instead of T — have the same
+// cross-products (Golub and Van Loan 2013, §5.3), and
+// ols.RegressEachColumns fits them, reading the rows of z1β̃, zs and z0
+// once for the residuals and s².
 func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	t, k := r.z0.Dims()
 	rank := v.Rank
 	ns := r.shortCols()
-	var ect mat.Dense
-	ect.Mul(r.z1, beta)
+	p1, _ := beta.Dims()
+	n := ns + p1 + k
 	w := rank + ns + k
-	buf := make([]float64, t*w)
+	buf := make([]float64, n*w)
 	cols := make([][]float64, w)
 	for j := range cols {
-		cols[j] = buf[j*t : (j+1)*t : (j+1)*t]
+		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
 	}
+	rd := r.rd.RawTriangular()
+	rAt := func(i, j int) float64 { return rd.Data[i*rd.Stride+j] } // i ≤ j
+	for j := 0; j < rank; j++ {
+		for i := 0; i < ns+p1; i++ {
+			var s float64
+			for l := max(i-ns, 0); l < p1; l++ {
+				s += rAt(i, ns+l) * beta.At(l, j)
+			}
+			cols[j][i] = s
+		}
+	}
+	for j := 0; j < ns; j++ {
+		for i := 0; i <= j; i++ {
+			cols[rank+j][i] = rAt(i, j)
+		}
+	}
+	for j := 0; j < k; j++ {
+		for i := 0; i <= ns+p1+j; i++ {
+			cols[rank+ns+j][i] = rAt(i, ns+p1+j)
+		}
+	}
+	var ect mat.Dense
+	ect.Mul(r.z1, beta)
 	er, z0 := ect.RawMatrix(), r.z0.RawMatrix()
 	var zs blas64.General
 	if ns > 0 {
@@ -385,16 +413,6 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 			copy(x[rank:], zs.Data[h*zs.Stride:h*zs.Stride+ns])
 		}
 		copy(y, z0.Data[h*z0.Stride:h*z0.Stride+k])
-	}
-	x, y := make([]float64, rank+ns), make([]float64, k)
-	for h := 0; h < t; h++ {
-		row(h, x, y)
-		for j, e := range x {
-			cols[j][h] = e
-		}
-		for i, e := range y {
-			cols[rank+ns+i][h] = e
-		}
 	}
 	v.Alpha = mat.NewDense(k, rank, nil)
 	v.AlphaSE = mat.NewDense(k, rank, nil)
@@ -410,7 +428,7 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		resid[i] = rbuf[i*t : (i+1)*t : (i+1)*t]
 	}
 	// every equation has the same regressors: one factorisation
-	fits, err := ols.RegressEachColumns(cols, rank+ns, row, resid)
+	fits, err := ols.RegressEachColumns(cols, rank+ns, t, row, resid)
 	if err != nil {
 		return fmt.Errorf("johansen: short-run equations: %v", err)
 	}

@@ -52,6 +52,9 @@ type Result struct {
 	// solves the restricted problem from them.
 	r11 *mat.TriDense
 	a   *mat.SymDense
+	// rd is the whole triangular factor of that QR, of the design
+	// [zs | z1 | z0]: shortRun fits the short-run equations from it.
+	rd *mat.TriDense
 }
 
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
@@ -319,7 +322,8 @@ func (r *Result) reduce(d *mat.Dense) error {
 	if j := qr.Indep(); j < n {
 		return r.singular(j, ns, p1)
 	}
-	return r.solveR(qr.R(), t, ns, p1)
+	r.rd = qr.R()
+	return r.solveR(r.rd, t, ns, p1)
 }
 
 // solveR sets the scaled moment matrices, the eigenvalues, eigenvectors

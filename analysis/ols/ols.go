@@ -274,24 +274,34 @@ type EachFit struct {
 }
 
 // RegressEachColumns is RegressEach on storage the caller fills and gives
-// up: cols[:k] are the columns of X and cols[k:] the responses y_r (all of
-// length n > k), overwritten by the factorisation. For the residuals
-// e_r = y_r − Xβ̂_r the rows are read again: row(i, x, y) must write row i
-// of X (length k) and of the responses (length len(cols) − k) as they
-// were given, and e_ri is stored in resid[r][i] (resid[r] of length n).
+// up: cols[:k] are the columns of X and cols[k:] the responses y_r, all of
+// one length m, overwritten by the factorisation. For the residuals
+// e_r = y_r − Xβ̂_r the n > k observations are read again: row(i, x, y)
+// must write row i of X (length k) and of the responses (length
+// len(cols) − k), and e_ri is stored in resid[r][i] (resid[r] of length n).
+//
+// The columns are either the data themselves (m = n) or any m ≥ k rows
+// [X̃ Ỹ] with the same cross-products, X̃'X̃ = X'X and X̃'Ỹ = X'Y — such as
+// the rows of R from a QR of a design whose columns span X and Y, which
+// are those of Q'[X Y] (Golub and Van Loan 2013, §5.3): β̂ = (X'X)⁻¹X'y
+// and (X'X)⁻¹ depend on the data only through those products, and SSR
+// and s² come from the residuals of the n rows. A model fitted after a
+// QR of its data (Johansen's short-run equations) so costs a fit on a few
+// rows and one pass over the data.
+//
 // The arithmetic is RegressEach's — Householder QR of the column-scaled
-// X, β̂ = R⁻¹(Qᵀy)_{1..K}, SSR = e'e, Cov = s²R⁻¹R⁻ᵀ (Golub and Van Loan
-// 2013, §5.3.3) — so every number equals RegressEach's bit for bit
-// (tested), without its copies of X and of the responses and without
-// fitted values: for a tall design shared by several responses.
-func RegressEachColumns(cols [][]float64, k int, row func(i int, x, y []float64), resid [][]float64) ([]*EachFit, error) {
+// X̃, β̂ = R⁻¹(Qᵀy)_{1..K}, SSR = e'e, Cov = s²R⁻¹R⁻ᵀ, s² = SSR/(n − K)
+// (Golub and Van Loan 2013, §5.3.3) — so with the data as columns every
+// number equals RegressEach's bit for bit (tested), without its copies of
+// X and of the responses and without fitted values.
+func RegressEachColumns(cols [][]float64, k, n int, row func(i int, x, y []float64), resid [][]float64) ([]*EachFit, error) {
 	if k <= 0 || len(cols) <= k {
 		return nil, fmt.Errorf("ols: %d columns for %d regressors and at least one response", len(cols), k)
 	}
-	n := len(cols[0])
+	m := len(cols[0])
 	for _, c := range cols {
-		if len(c) != n {
-			return nil, fmt.Errorf("ols: columns of %d and %d observations", len(c), n)
+		if len(c) != m {
+			return nil, fmt.Errorf("ols: columns of %d and %d rows", len(c), m)
 		}
 	}
 	q := len(cols) - k
@@ -303,8 +313,8 @@ func RegressEachColumns(cols [][]float64, k int, row func(i int, x, y []float64)
 			return nil, fmt.Errorf("ols: a residual vector of length %d for %d observations", len(e), n)
 		}
 	}
-	if n <= k {
-		return nil, fmt.Errorf("ols: %w: %d observations for %d regressors", ErrTooFewObs, n, k)
+	if n <= k || m < k {
+		return nil, fmt.Errorf("ols: %w: %d observations for %d regressors", ErrTooFewObs, min(n, m), k)
 	}
 	for _, y := range cols[k:] {
 		for i, v := range y {

@@ -264,7 +264,8 @@ func TestRegressEachBitForBit(t *testing.T) {
 
 // TestRegressEachColumnsBitForBit: the fits in the caller's storage equal
 // RegressEach's bit for bit (coefficients, SSR, classical covariance,
-// residuals); malformed storage, a non-finite response and a collinear
+// residuals), and to 1e-12 when the storage holds the rows of R from a QR
+// of [X Y] instead of the data; malformed storage, a non-finite response and a collinear
 // column are errors.
 func TestRegressEachColumnsBitForBit(t *testing.T) {
 	r := rand.New(rand.NewPCG(8, 9))
@@ -305,7 +306,7 @@ func TestRegressEachColumnsBitForBit(t *testing.T) {
 		return cols, row, resid
 	}
 	cols, row, resid := fill()
-	got, err := ols.RegressEachColumns(cols, k, row, resid)
+	got, err := ols.RegressEachColumns(cols, k, n, row, resid)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -325,21 +326,55 @@ func TestRegressEachColumnsBitForBit(t *testing.T) {
 			t.Errorf("response %d differs from RegressEach", h)
 		}
 	}
+	// The rows of R from a QR of [X Y] have X's and Y's cross-products:
+	// the same fits (to rounding) from k+q rows instead of n.
+	var qr householder.QR
+	full, row, resid := fill()
+	if err := qr.Factor(full, k+q); err != nil {
+		t.Fatal(err)
+	}
+	small := make([][]float64, k+q)
+	for j := range small {
+		small[j] = make([]float64, k+q)
+		for i := 0; i <= j; i++ {
+			small[j][i] = qr.RAt(i, j)
+		}
+	}
+	got, err = ols.RegressEachColumns(small, k, n, row, resid)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for h, w := range want {
+		g, wc := got[h], w.Cov(ols.CovSpec{Kind: ols.Classical})
+		if g.N != n || g.K != k || math.Abs(g.SSR-w.SSR) > 1e-12*w.SSR {
+			t.Errorf("response %d from R: N %d K %d SSR %g, want %d %d %g", h, g.N, g.K, g.SSR, n, k, w.SSR)
+		}
+		for j := range w.Coef {
+			if se := math.Sqrt(wc.At(j, j)); math.Abs(g.Coef[j]-w.Coef[j]) > 1e-12*se || math.Abs(math.Sqrt(g.Cov.At(j, j))-se) > 1e-12*se {
+				t.Errorf("response %d from R: coefficient %d %.17g (s.e. %.17g), want %.17g (%.17g)", h, j, g.Coef[j], math.Sqrt(g.Cov.At(j, j)), w.Coef[j], se)
+			}
+		}
+		for i, e := range resid[h] {
+			if math.Abs(e-w.Resid[i]) > 1e-12*math.Sqrt(w.SSR/float64(n)) {
+				t.Fatalf("response %d from R: residual %d %.17g, want %.17g", h, i, e, w.Resid[i])
+			}
+		}
+	}
 	cols, row, resid = fill()
-	if _, err := ols.RegressEachColumns(cols, k, row, resid[:2]); err == nil {
+	if _, err := ols.RegressEachColumns(cols, k, n, row, resid[:2]); err == nil {
 		t.Error("two residual vectors for three responses: no error")
 	}
-	if _, err := ols.RegressEachColumns(cols[:k], k, row, nil); err == nil {
+	if _, err := ols.RegressEachColumns(cols[:k], k, n, row, nil); err == nil {
 		t.Error("no response: no error")
 	}
 	cols[k+1][9] = math.Inf(1)
-	if _, err := ols.RegressEachColumns(cols, k, row, resid); err == nil || err.Error() != "ols: y[9] is not finite" {
+	if _, err := ols.RegressEachColumns(cols, k, n, row, resid); err == nil || err.Error() != "ols: y[9] is not finite" {
 		t.Errorf("infinite response: got %v", err)
 	}
 	cols, row, resid = fill()
 	copy(cols[3], cols[1])
 	var ce *ols.CollinearError
-	if _, err := ols.RegressEachColumns(cols, k, row, resid); !errors.As(err, &ce) || ce.Col != 3 {
+	if _, err := ols.RegressEachColumns(cols, k, n, row, resid); !errors.As(err, &ce) || ce.Col != 3 {
 		t.Errorf("duplicated column: got %v", err)
 	}
 }
