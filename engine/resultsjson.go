@@ -2,8 +2,10 @@ package engine
 
 import (
 	"math"
+	"runtime"
 	"slices"
 	"strconv"
+	"sync"
 	"unicode/utf8"
 
 	"github.com/galley-econ/galley/resultsfile"
@@ -155,7 +157,7 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 	case float64:
 		w.float(x, safe)
 	case []float64:
-		writeList(w, depth, x, !safe, func(f float64) { w.float(f, safe) })
+		writeLeaves(w, depth, x, !safe, func(w *resultsWriter, f float64) { w.float(f, safe) })
 	case []any:
 		writeList(w, depth, x, !safe, func(e any) { w.value(depth+1, e, safe) })
 	case []map[string]any:
@@ -181,7 +183,7 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 		}
 		w.end(depth, '}')
 	case []string:
-		writeList(w, depth, x, true, w.str)
+		writeLeaves(w, depth, x, true, (*resultsWriter).str)
 	case []int:
 		writeList(w, depth, x, true, func(n int) { w.b = strconv.AppendInt(w.b, int64(n), 10) })
 	default:
@@ -204,6 +206,66 @@ func writeList[T any](w *resultsWriter, depth int, x []T, nilIsNull bool, each f
 	for i, e := range x {
 		w.item(depth+1, i == 0)
 		each(e)
+	}
+	w.end(depth, ']')
+}
+
+// longList is the length from which writeLeaves writes a list on every
+// core: a Johansen relation or a residual series of ten thousand rows
+// costs about a millisecond to format on one.
+const longList = 4096
+
+// leafRuns is the number of runs a long list is cut into (a test sets it).
+var leafRuns = func() int { return runtime.GOMAXPROCS(0) }
+
+// writeLeaves is writeList for lists of numbers or strings, whose
+// elements each writes without looking at the rest of the file: a long
+// one is cut into as many runs as there are cores (GOMAXPROCS), each run
+// but the first written into a buffer of its own on its own goroutine,
+// and the runs joined in order — the same bytes as one pass (tested).
+func writeLeaves[T any](w *resultsWriter, depth int, x []T, nilIsNull bool, each func(*resultsWriter, T)) {
+	if x == nil && nilIsNull {
+		w.b = append(w.b, "null"...)
+		return
+	}
+	if len(x) == 0 {
+		w.b = append(w.b, "[]"...)
+		return
+	}
+	w.b = append(w.b, '[')
+	runs := min(leafRuns(), len(x)/longList)
+	if runs < 2 {
+		for i, e := range x {
+			w.item(depth+1, i == 0)
+			each(w, e)
+		}
+		w.end(depth, ']')
+		return
+	}
+	cut := func(r int) int { return r * len(x) / runs }
+	rest := make([]resultsWriter, runs)
+	var wg sync.WaitGroup
+	for r := 1; r < runs; r++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			lo, hi := cut(r), cut(r+1)
+			s := &rest[r]
+			s.ok, s.b = true, make([]byte, 0, (hi-lo)*(depth+28))
+			for _, e := range x[lo:hi] {
+				s.item(depth+1, false)
+				each(s, e)
+			}
+		}()
+	}
+	for i, e := range x[:cut(1)] {
+		w.item(depth+1, i == 0)
+		each(w, e)
+	}
+	wg.Wait()
+	for _, s := range rest[1:] {
+		w.b = append(w.b, s.b...)
+		w.ok = w.ok && s.ok
 	}
 	w.end(depth, ']')
 }

@@ -147,3 +147,45 @@ func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 		t.Error("a NaN in a spec was written")
 	}
 }
+
+// TestResultsWriterLongLists: lists of numbers and strings long enough to
+// be written in runs on several goroutines (writeLeaves) give the bytes
+// of json.MarshalIndent, for one to three runs and lengths on both sides
+// of the cuts; a non-finite number in a list that must stay finite (a
+// spec) makes the writer give up whichever run holds it.
+func TestResultsWriterLongLists(t *testing.T) {
+	defer func(f func() int) { leafRuns = f }(leafRuns)
+	r := rand.New(rand.NewPCG(11, 12))
+	strs := []string{"2001-03", "<&>", "q\"b", "é"}
+	for _, runs := range []int{1, 2, 3} {
+		leafRuns = func() int { return runs }
+		for _, n := range []int{longList - 1, 2 * longList, 3*longList + 1} {
+			x, s := make([]float64, n), make([]string, n)
+			for i := range x {
+				x[i] = math.Ldexp(r.NormFloat64(), r.IntN(100)-50)
+				s[i] = strs[r.IntN(len(strs))]
+			}
+			x[n-1], x[n/2] = math.NaN(), math.Inf(-1)
+			rf := resultsfile.File{Galley: "v", Inputs: []resultsfile.Input{}, Results: []resultsfile.Record{{ID: "a", Kind: "k",
+				Spec: map[string]any{"dates": s}, Values: map[string]any{"x": x, "dates": s, "y": []any{x[:n-2]}}}}}
+			got, ok := appendResultsFile(nil, &rf)
+			if !ok {
+				t.Fatalf("runs %d, n %d: the writer gave up", runs, n)
+			}
+			ref := rf
+			ref.Results = []resultsfile.Record{rf.Results[0]}
+			ref.Results[0].Values = JsonSafe(rf.Results[0].Values).(map[string]any)
+			want, err := json.MarshalIndent(ref, "", " ")
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !bytes.Equal(got, want) {
+				t.Fatalf("runs %d, n %d: not the bytes of json.MarshalIndent", runs, n)
+			}
+			rf.Results[0].Spec = map[string]any{"x": x}
+			if _, ok := appendResultsFile(nil, &rf); ok {
+				t.Fatalf("runs %d, n %d: a NaN in the spec was written", runs, n)
+			}
+		}
+	}
+}
