@@ -11,8 +11,6 @@ import (
 	"sync"
 
 	"gonum.org/v1/gonum/mat"
-
-	"github.com/galley-econ/galley/analysis/ols"
 )
 
 // RankBootSpec sets the wild bootstrap of the rank tests: replications
@@ -197,37 +195,31 @@ func (r *Result) WildBootstrapRank(y *mat.Dense, x Extra, spec RankBootSpec) (*R
 // nullModel estimates the VECM under H(rank) on the scaled problem and
 // returns it in VAR form with its deterministic part and residuals.
 func (r *Result) nullModel(ys *mat.Dense, rank int) (*nullModel, error) {
-	t, k := r.z0.Dims()
+	t, k := r.T, r.K
 	ns := r.shortCols()
-	p1 := r.P1()
-	x := mat.NewDense(t, max(rank+ns, 1), nil)
-	if rank > 0 {
-		x.Slice(0, t, 0, rank).(*mat.Dense).Mul(r.z1, r.vs.Slice(0, p1, 0, rank))
-	}
-	if ns > 0 {
-		x.Slice(0, t, rank, rank+ns).(*mat.Dense).Copy(r.zs)
-	}
 	alpha := mat.NewDense(k, max(rank, 1), nil)
 	short := mat.NewDense(k, max(ns, 1), nil)
 	resid := mat.NewDense(t, k, nil)
-	yi := make([]float64, t)
-	for i := 0; i < k; i++ {
-		mat.Col(yi, i, r.z0)
-		if rank+ns == 0 {
-			resid.SetCol(i, yi)
-			continue
+	if rank+ns == 0 {
+		row := make([]float64, r.dz.n)
+		for h := 0; h < t; h++ {
+			r.dz.row(h, row)
+			resid.SetRow(h, row[r.dz.ns+r.dz.p1:])
 		}
-		f, err := ols.Regress(yi, x)
+	} else {
+		fits, res, err := r.shortFit(r.vs, rank)
 		if err != nil {
-			return nil, fmt.Errorf("johansen: equation %d under rank %d: %v", i, rank, err)
+			return nil, fmt.Errorf("johansen: the short-run equations under rank %d: %v", rank, err)
 		}
-		for j := 0; j < rank; j++ {
-			alpha.Set(i, j, f.Coef[j])
+		for i, f := range fits {
+			for j := 0; j < rank; j++ {
+				alpha.Set(i, j, f.Coef[j])
+			}
+			for j := 0; j < ns; j++ {
+				short.Set(i, j, f.Coef[rank+j])
+			}
+			resid.SetCol(i, res[i])
 		}
-		for j := 0; j < ns; j++ {
-			short.Set(i, j, f.Coef[rank+j])
-		}
-		resid.SetCol(i, f.Resid)
 	}
 	// VAR form: A_1 = I + αβ_y' + Γ_1, A_i = Γ_i − Γ_{i−1}, A_{k+1} = −Γ_k.
 	lags := r.Lags

@@ -358,61 +358,15 @@ func (r *Result) betaSE(beta, alpha *mat.Dense, omega *mat.SymDense, fixed map[i
 }
 
 // shortRun fits each scaled equation by OLS on [β̃'ỹ_{t−1}, short-run
-// regressors], β̃ in scaled units; unscaleShortRun maps the result back.
-// The fit needs the data only through the cross-products of those
-// regressors and Δy_t, and reduce already factorised the design
-// D = [zs | z1 | z0] = QR: with Q orthonormal, X = [z1β̃, zs] = Q[R_1β̃, R_s]
-// and z0 = QR_0 (R_s, R_1, R_0 the column blocks of R), so the columns
-// [R_1β̃, R_s, R_0] — n = ns+P1+K rows instead of T — have the same
-// cross-products (Golub and Van Loan 2013, §5.3), and
-// ols.RegressEachColumns fits them, reading the rows of z1β̃, zs and z0
-// once for the residuals and s².
+// regressors], β̃ in scaled units (shortFit); unscaleShortRun maps the
+// result back.
 func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
-	t, k := r.z0.Dims()
+	t, k := r.T, r.K
 	rank := v.Rank
 	ns := r.shortCols()
-	p1, _ := beta.Dims()
-	n := ns + p1 + k
-	w := rank + ns + k
-	buf := make([]float64, n*w)
-	cols := make([][]float64, w)
-	for j := range cols {
-		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
-	}
-	rd := r.rd.RawTriangular()
-	rAt := func(i, j int) float64 { return rd.Data[i*rd.Stride+j] } // i ≤ j
-	for j := 0; j < rank; j++ {
-		for i := 0; i < ns+p1; i++ {
-			var s float64
-			for l := max(i-ns, 0); l < p1; l++ {
-				s += rAt(i, ns+l) * beta.At(l, j)
-			}
-			cols[j][i] = s
-		}
-	}
-	for j := 0; j < ns; j++ {
-		for i := 0; i <= j; i++ {
-			cols[rank+j][i] = rAt(i, j)
-		}
-	}
-	for j := 0; j < k; j++ {
-		for i := 0; i <= ns+p1+j; i++ {
-			cols[rank+ns+j][i] = rAt(i, ns+p1+j)
-		}
-	}
-	var ect mat.Dense
-	ect.Mul(r.z1, beta)
-	er, z0 := ect.RawMatrix(), r.z0.RawMatrix()
-	var zs blas64.General
-	if ns > 0 {
-		zs = r.zs.RawMatrix()
-	}
-	row := func(h int, x, y []float64) {
-		copy(x[:rank], er.Data[h*er.Stride:h*er.Stride+rank])
-		if ns > 0 {
-			copy(x[rank:], zs.Data[h*zs.Stride:h*zs.Stride+ns])
-		}
-		copy(y, z0.Data[h*z0.Stride:h*z0.Stride+k])
+	fits, resid, err := r.shortFit(beta, rank)
+	if err != nil {
+		return fmt.Errorf("johansen: short-run equations: %v", err)
 	}
 	v.Alpha = mat.NewDense(k, rank, nil)
 	v.AlphaSE = mat.NewDense(k, rank, nil)
@@ -422,16 +376,6 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 	}
 	v.eqCov = make([]*mat.SymDense, k)
 	v.dfResid = t - rank - ns
-	rbuf := make([]float64, t*k)
-	resid := make([][]float64, k)
-	for i := range resid {
-		resid[i] = rbuf[i*t : (i+1)*t : (i+1)*t]
-	}
-	// every equation has the same regressors: one factorisation
-	fits, err := ols.RegressEachColumns(cols, rank+ns, t, row, resid)
-	if err != nil {
-		return fmt.Errorf("johansen: short-run equations: %v", err)
-	}
 	v.Resid = mat.NewDense(t, k, nil)
 	vr := v.Resid.RawMatrix()
 	for i, f := range fits {
@@ -450,6 +394,77 @@ func (r *Result) shortRun(v *VECM, beta *mat.Dense) error {
 		}
 	}
 	return nil
+}
+
+// shortFit fits, equation by equation, the scaled Δy_t on [β̃'ỹ_{t−1},
+// short-run regressors] by OLS (β̃ the first rank columns of beta, P1
+// rows, scaled units) and returns the fits and the residuals, one slice
+// per equation; it needs at least one regressor.
+//
+// The fit needs the data only through the cross-products of those
+// regressors and Δy_t, and reduce already factorised the design
+// D = [zs | z1 | z0] = QR: with Q orthonormal, X = [z1β̃, zs] = Q[R_1β̃, R_s]
+// and z0 = QR_0 (R_s, R_1, R_0 the column blocks of R), so the columns
+// [R_1β̃, R_s, R_0] — n = ns+P1+K rows instead of T — have the same
+// cross-products (Golub and Van Loan 2013, §5.3), and
+// ols.RegressEachColumns fits them, writing the design's rows again
+// (designer.row) for the residuals and s².
+func (r *Result) shortFit(beta *mat.Dense, rank int) ([]*ols.EachFit, [][]float64, error) {
+	g := r.dz
+	t, k, ns, p1, n := g.t, g.k, g.ns, g.p1, g.n
+	w := rank + ns + k
+	buf := make([]float64, n*w)
+	cols := make([][]float64, w)
+	for j := range cols {
+		cols[j] = buf[j*n : (j+1)*n : (j+1)*n]
+	}
+	rd := r.rd.RawTriangular()
+	rAt := func(i, j int) float64 { return rd.Data[i*rd.Stride+j] } // i ≤ j
+	b := mat.DenseCopyOf(beta.Slice(0, p1, 0, rank)).RawMatrix()
+	for j := 0; j < rank; j++ {
+		for i := 0; i < ns+p1; i++ {
+			var s float64
+			for l := max(i-ns, 0); l < p1; l++ {
+				s += rAt(i, ns+l) * b.Data[l*b.Stride+j]
+			}
+			cols[j][i] = s
+		}
+	}
+	for j := 0; j < ns; j++ {
+		for i := 0; i <= j; i++ {
+			cols[rank+j][i] = rAt(i, j)
+		}
+	}
+	for j := 0; j < k; j++ {
+		for i := 0; i <= ns+p1+j; i++ {
+			cols[rank+ns+j][i] = rAt(i, ns+p1+j)
+		}
+	}
+	d := make([]float64, n)
+	row := func(h int, x, y []float64) {
+		g.row(h, d)
+		z1 := d[ns : ns+p1]
+		for j := 0; j < rank; j++ {
+			var s float64
+			for l, v := range z1 {
+				s += v * b.Data[l*b.Stride+j]
+			}
+			x[j] = s
+		}
+		copy(x[rank:], d[:ns])
+		copy(y, d[ns+p1:])
+	}
+	rbuf := make([]float64, t*k)
+	resid := make([][]float64, k)
+	for i := range resid {
+		resid[i] = rbuf[i*t : (i+1)*t : (i+1)*t]
+	}
+	// every equation has the same regressors: one factorisation
+	fits, err := ols.RegressEachColumns(cols, rank+ns, t, row, resid)
+	if err != nil {
+		return nil, nil, err
+	}
+	return fits, resid, nil
 }
 
 // Relations returns the estimated cointegrating relations over the rows

@@ -106,14 +106,13 @@ func Recursive(y *mat.Dense, c Case, lags int, x Extra, first int, form Form, wo
 	if err != nil {
 		return nil, err
 	}
-	t, k := full.z0.Dims()
-	_, p1 := full.z1.Dims()
+	t, k, p1 := full.T, full.K, full.dz.p1
 	ns := full.shortCols()
 	n := ns + p1 + k
 	if first <= n || first > t {
 		return nil, fmt.Errorf("johansen: the first window of %d observations must exceed the %d columns of the design and not exceed the %d observations of the sample", first, n, t)
 	}
-	d, _, _, _ := design(scaleColumns(y, full.scale), c, lags, x)
+	d := full.dz.rows()
 	// The columns of d an all-zero prefix may leave out: the extra
 	// regressors, unrestricted (after the lagged differences) and
 	// restricted (after the levels and the case's restricted term).

@@ -15,20 +15,18 @@ import (
 // standard errors, the covariances and the residuals (scaled units, the
 // residuals times the scales).
 func shortRunFull(t *testing.T, r *Result, beta *mat.Dense) (coef, se [][]float64, cov []*mat.SymDense, resid *mat.Dense) {
-	n, k := r.z0.Dims()
+	d := r.dz.rows()
+	n, k, ns, p1 := r.T, r.K, r.dz.ns, r.dz.p1
+	z0, z1 := d.Slice(0, n, ns+p1, ns+p1+k), d.Slice(0, n, ns, ns+p1)
 	_, rank := beta.Dims()
-	ns := 0
-	if r.zs != nil {
-		_, ns = r.zs.Dims()
-	}
 	x := mat.NewDense(n, rank+ns, nil)
-	x.Slice(0, n, 0, rank).(*mat.Dense).Mul(r.z1, beta)
+	x.Slice(0, n, 0, rank).(*mat.Dense).Mul(z1, beta)
 	if ns > 0 {
-		x.Slice(0, n, rank, rank+ns).(*mat.Dense).Copy(r.zs)
+		x.Slice(0, n, rank, rank+ns).(*mat.Dense).Copy(d.Slice(0, n, 0, ns))
 	}
 	ys := make([][]float64, k)
 	for i := range ys {
-		ys[i] = mat.Col(nil, i, r.z0)
+		ys[i] = mat.Col(nil, i, z0)
 	}
 	fits, err := ols.RegressEach(ys, x)
 	if err != nil {
@@ -72,7 +70,7 @@ func TestShortRunMatchesFullFit(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			_, p1 := res.z1.Dims()
+			p1 := res.P1()
 			beta := mat.DenseCopyOf(res.vs.Slice(0, p1, 0, c.rank))
 			coef, se, cov, resid := shortRunFull(t, res, beta)
 			v := &VECM{Rank: c.rank}

@@ -41,12 +41,13 @@ type Result struct {
 
 	// The same problem on the internally scaled series yD⁻¹ (scale.go):
 	// scale holds d_1..d_K; s00, s11, s01 and the eigenvectors vs are the
-	// scaled counterparts of S00, S11, S01 and Vectors, and z0, z1, zs the
-	// scaled Δy_t, ỹ_{t−1} and short-run regressors (rows t).
-	scale      []float64
-	s00, s11   *mat.SymDense
-	s01, vs    *mat.Dense
-	z0, z1, zs *mat.Dense
+	// scaled counterparts of S00, S11, S01 and Vectors, and dz writes the
+	// rows of the scaled design (scaled Δy_t, ỹ_{t−1} and short-run
+	// regressors) again when they are needed after the factorisation.
+	scale    []float64
+	s00, s11 *mat.SymDense
+	s01, vs  *mat.Dense
+	dz       *designer
 	// r11 is the R1 block of the QR in reduce (T·s11 = r11'r11) and a the
 	// symmetric T⁻¹ R10 S00⁻¹ R10' whose eigenvalues are the λ_i; TestBeta
 	// solves the restricted problem from them.
@@ -60,15 +61,9 @@ type Result struct {
 // P1 is the row count of β: K plus the restricted deterministic term, if any.
 func (r *Result) P1() int { return r.K + r.Case.restricted() + r.NR }
 
-// shortCols is the number of columns of the short-run block zs (lagged
-// differences, unrestricted terms and regressors), 0 without one.
-func (r *Result) shortCols() int {
-	if r.zs == nil {
-		return 0
-	}
-	_, ns := r.zs.Dims()
-	return ns
-}
+// shortCols is the number of short-run regressors (lagged differences,
+// unrestricted terms and regressors), 0 without any.
+func (r *Result) shortCols() int { return r.dz.ns }
 
 // Extra holds regressors beyond the deterministic terms of the case, each a
 // matrix with one row per row of y (nil when there are none).
@@ -171,9 +166,9 @@ func TestExtra(y *mat.Dense, c Case, lags int, x Extra) (*Result, error) {
 			rows, lags, max(t, 0), c, k, need)
 	}
 	scale := seriesScale(y)
-	d, z0, z1, zs := design(scaleColumns(y, scale), c, lags, x)
-	res := &Result{Case: c, Lags: lags, K: k, T: t, NU: nu, NR: nr, scale: scale, z0: z0, z1: z1, zs: zs}
-	if err := res.reduce(d); err != nil {
+	dz := newDesigner(scaleColumns(y, scale), c, lags, x)
+	res := &Result{Case: c, Lags: lags, K: k, T: t, NU: nu, NR: nr, scale: scale, dz: dz}
+	if err := res.reduce(dz.columns()); err != nil {
 		return nil, err
 	}
 	res.unscale()
@@ -204,66 +199,101 @@ func checkFinite(e *mat.Dense) error {
 	return nil
 }
 
-// design builds the matrix [short-run regressors | ỹ_{t−1} | Δy_t] with
+// designer writes the design [short-run regressors | ỹ_{t−1} | Δy_t] of
+// levels y, one row per observation t = 0..T−1 (row t+lags+1 of y), with
 // short-run regressors [1, t (as the case has them), Δy_{t−1}, ...,
-// Δy_{t−lags}, w_t] and ỹ_{t−1} = [y_{t−1}, restricted term, x_{t−1}], and
-// returns it with views of its three blocks.
-func design(y *mat.Dense, c Case, lags int, x Extra) (d, z0, z1, zs *mat.Dense) {
+// Δy_{t−lags}, w_t] (ns columns) and ỹ_{t−1} = [y_{t−1}, restricted
+// term, x_{t−1}] (p1 columns), then the K columns of Δy_t. Its one rule,
+// row, fills the factorisation's columns, the row-major design of the
+// recursive estimates, and the rows the short-run fits read again, so
+// that the design is never held twice.
+type designer struct {
+	y               *mat.Dense
+	c               Case
+	lags            int
+	x               Extra
+	k, ns, p1, n, t int
+	dn, m, nu, nr   int
+}
+
+func newDesigner(y *mat.Dense, c Case, lags int, x Extra) *designer {
 	rows, k := y.Dims()
-	t := rows - lags - 1
 	nu, nr := x.counts()
-	m := c.restricted()
-	dn := c.unrestricted()
-	ns := dn + k*lags + nu
-	p1 := k + m + nr
-	n := ns + p1 + k
-	d = mat.NewDense(t, n, nil)
-	raw := d.RawMatrix()
-	yr := y.RawMatrix()
+	g := &designer{y: y, c: c, lags: lags, x: x, k: k, t: rows - lags - 1,
+		dn: c.unrestricted(), m: c.restricted(), nu: nu, nr: nr}
+	g.ns = g.dn + k*lags + nu
+	g.p1 = k + g.m + nr
+	g.n = g.ns + g.p1 + k
+	return g
+}
+
+// row writes row i of the design into row (length n).
+func (g *designer) row(i int, row []float64) {
+	k, ns := g.k, g.ns
+	yr := g.y.RawMatrix()
 	yrow := func(i int) []float64 { return yr.Data[i*yr.Stride : i*yr.Stride+k] }
-	for i := 0; i < t; i++ {
-		s := i + lags + 1 // row of y for Δy_t
-		row := raw.Data[i*raw.Stride : i*raw.Stride+n]
-		col := 0
-		if dn >= 1 {
-			row[0] = 1
-			col++
-		}
-		if dn == 2 {
-			row[1] = float64(s)
-			col++
-		}
-		for l := 1; l <= lags; l++ {
-			cur, prev := yrow(s-l), yrow(s-l-1)
-			for j := 0; j < k; j++ {
-				row[col+j] = cur[j] - prev[j]
-			}
-			col += k
-		}
-		for j := 0; j < nu; j++ {
-			row[col+j] = x.Unrestricted.At(s, j)
-		}
-		cur, prev := yrow(s), yrow(s-1)
-		copy(row[ns:ns+k], prev)
-		switch c {
-		case RC:
-			row[ns+k] = 1
-		case RT:
-			row[ns+k] = float64(s)
-		}
-		for j := 0; j < nr; j++ {
-			row[ns+k+m+j] = x.Restricted.At(s-1, j)
-		}
+	s := i + g.lags + 1 // row of y for Δy_t
+	col := 0
+	if g.dn >= 1 {
+		row[0] = 1
+		col++
+	}
+	if g.dn == 2 {
+		row[1] = float64(s)
+		col++
+	}
+	for l := 1; l <= g.lags; l++ {
+		cur, prev := yrow(s-l), yrow(s-l-1)
 		for j := 0; j < k; j++ {
-			row[ns+p1+j] = cur[j] - prev[j]
+			row[col+j] = cur[j] - prev[j]
+		}
+		col += k
+	}
+	for j := 0; j < g.nu; j++ {
+		row[col+j] = g.x.Unrestricted.At(s, j)
+	}
+	cur, prev := yrow(s), yrow(s-1)
+	copy(row[ns:ns+k], prev)
+	switch g.c {
+	case RC:
+		row[ns+k] = 1
+	case RT:
+		row[ns+k] = float64(s)
+	}
+	for j := 0; j < g.nr; j++ {
+		row[ns+k+g.m+j] = g.x.Restricted.At(s-1, j)
+	}
+	for j := 0; j < k; j++ {
+		row[ns+g.p1+j] = cur[j] - prev[j]
+	}
+}
+
+// rows returns the whole design as a T×n matrix.
+func (g *designer) rows() *mat.Dense {
+	d := mat.NewDense(g.t, g.n, nil)
+	raw := d.RawMatrix()
+	for i := 0; i < g.t; i++ {
+		g.row(i, raw.Data[i*raw.Stride:i*raw.Stride+g.n])
+	}
+	return d
+}
+
+// columns returns the design as n columns of length T in one block, the
+// storage householder.QR.Factor works in.
+func (g *designer) columns() [][]float64 {
+	buf := make([]float64, g.t*g.n)
+	cols := make([][]float64, g.n)
+	for j := range cols {
+		cols[j] = buf[j*g.t : (j+1)*g.t : (j+1)*g.t]
+	}
+	row := make([]float64, g.n)
+	for i := 0; i < g.t; i++ {
+		g.row(i, row)
+		for j, v := range row {
+			cols[j][i] = v
 		}
 	}
-	z0 = d.Slice(0, t, ns+p1, n).(*mat.Dense)
-	z1 = d.Slice(0, t, ns, ns+p1).(*mat.Dense)
-	if ns > 0 {
-		zs = d.Slice(0, t, 0, ns).(*mat.Dense)
-	}
-	return d, z0, z1, zs
+	return cols
 }
 
 // checkSeries names non-finite values, constant series and identical series.
@@ -305,18 +335,16 @@ func checkSeries(y *mat.Dense) error {
 	return nil
 }
 
-// reduce factorises the (scaled) design and solves the eigenproblem, setting
-// the scaled moment matrices and eigenvectors. The QR is package
+// reduce factorises the (scaled) design, given as its columns (which the
+// factorisation overwrites), and solves the eigenproblem, setting the
+// scaled moment matrices and eigenvectors. The QR is package
 // householder's unblocked one with its rank rule (|R_jj| ≤ 1e-10·‖d_j‖
 // names column j as singular): the design has T rows but only ns+P1+K
 // columns, few enough that a blocked factorisation gains nothing.
-func (r *Result) reduce(d *mat.Dense) error {
-	t, k := r.z0.Dims()
-	_, p1 := r.z1.Dims()
-	ns := r.shortCols()
-	n := ns + p1 + k
+func (r *Result) reduce(cols [][]float64) error {
+	t, ns, p1, n := r.dz.t, r.dz.ns, r.dz.p1, r.dz.n
 	var qr householder.QR
-	if err := qr.Factor(householder.Columns(d, 0), n); err != nil {
+	if err := qr.Factor(cols, n); err != nil {
 		return fmt.Errorf("johansen: %w", err)
 	}
 	if j := qr.Indep(); j < n {
