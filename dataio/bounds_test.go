@@ -131,6 +131,27 @@ func TestOpenRegular(t *testing.T) {
 	if _, err := ReadFile(small, 3); err == nil || !strings.Contains(err.Error(), "larger than") {
 		t.Errorf("over the limit: %v", err)
 	}
+	big := make([]byte, 300_001)
+	for i := range big {
+		big[i] = byte(i*7 + i/1000)
+	}
+	bigPath := filepath.Join(dir, "big.csv")
+	os.WriteFile(bigPath, big, 0o644)
+	if b, err := ReadFile(bigPath, int64(len(big))); err != nil || !bytes.Equal(b, big) {
+		t.Errorf("a file of exactly the limit: %d bytes, %v", len(b), err)
+	}
+	if _, err := ReadFile(bigPath, int64(len(big)-1)); err == nil || !strings.Contains(err.Error(), "larger than") {
+		t.Errorf("one byte over the limit: %v", err)
+	}
+	// a regular file whose size is given as 0 but that has content
+	if want, err := os.ReadFile("/proc/self/status"); err == nil && len(want) > 0 {
+		if b, err := ReadFile("/proc/self/status", 1<<20); err != nil || !bytes.HasPrefix(b, []byte("Name:")) {
+			t.Errorf("/proc/self/status: %q %v", b, err)
+		}
+		if _, err := ReadFile("/proc/self/status", 10); err == nil || !strings.Contains(err.Error(), "larger than") {
+			t.Errorf("/proc/self/status over a limit of 10: %v", err)
+		}
+	}
 	if _, err := ReadFile(dir, 100); err == nil || !strings.Contains(err.Error(), "a folder") {
 		t.Errorf("folder: %v", err)
 	}
