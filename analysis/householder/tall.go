@@ -3,6 +3,11 @@ package householder
 import (
 	"fmt"
 	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
+
+	"gonum.org/v1/gonum/mat"
 )
 
 // TallBlockBytes bounds the working storage of NestedTall: a block of
@@ -74,56 +79,20 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 	if len(ssr) != m || len(t) != m {
 		return 0, fmt.Errorf("%w: %d and %d outputs for %d sub-designs", ErrShape, len(ssr), len(t), m)
 	}
-	block = max(block, w)
-	rows := w + block
-	buf := make([]float64, rows*w)
-	work := make([][]float64, w)
-	for j := range work {
-		work[j] = buf[j*rows : (j+1)*rows : (j+1)*rows]
-	}
-	r := make([]float64, w*w) // r[j*w+i] = R_ij, i ≤ j
-	var f QR
-	bc := make([][]float64, w)
-	have := 0 // rows of R carried (0 before the first block)
-	for lo := 0; lo < n; {
-		hi := min(n, lo+block)
-		if have == 0 && hi-lo < w { // the first block must be at least square
-			hi = min(n, lo+w)
-		}
-		h := have + hi - lo
+	r, err := tallTriangle(n, w, func(lo, hi int, dst [][]float64) {
 		for j := 0; j < w; j++ {
-			c := work[j][:h]
-			copy(c[:have], r[j*w:j*w+have])
 			if scale == nil || j == m {
-				copy(c[have:], cols[j][lo:hi])
+				copy(dst[j], cols[j][lo:hi])
 			} else {
-				s, dst := scale[j], c[have:]
+				s, d := scale[j], dst[j]
 				for i, v := range cols[j][lo:hi] {
-					dst[i] = v * s
+					d[i] = v * s
 				}
 			}
 		}
-		if have > 0 {
-			for j := 0; j < w; j++ { // zero below R's diagonal
-				for i := j + 1; i < have; i++ {
-					work[j][i] = 0
-				}
-			}
-		}
-		for j := range bc {
-			bc[j] = work[j][:h]
-		}
-		if err := f.Factor(bc, w); err != nil {
-			return 0, err
-		}
-		for j := 0; j < w; j++ {
-			for i := 0; i < j; i++ {
-				r[j*w+i] = bc[j][i]
-			}
-			r[j*w+j] = f.diag[j]
-		}
-		have = w
-		lo = hi
+	}, block)
+	if err != nil {
+		return 0, err
 	}
 	// Nested on the final triangle, as a QR of the m design columns with
 	// the response's column [r; ρ] carried.
@@ -147,4 +116,151 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 		return 0, err
 	}
 	return g.indep, nil
+}
+
+// tallTriangle is the sequential tall-skinny QR of NestedTall on an n×w
+// matrix (n ≥ w) whose rows fill writes, a block at a time: fill(lo, hi,
+// dst) writes rows lo..hi−1 of column j into dst[j][:hi−lo]. It returns
+// R as r[j*w+i] = R_ij, i ≤ j (zero below the diagonal).
+func tallTriangle(n, w int, fill func(lo, hi int, dst [][]float64), block int) ([]float64, error) {
+	block = max(block, w)
+	rows := w + block
+	buf := make([]float64, rows*w)
+	work := make([][]float64, w)
+	for j := range work {
+		work[j] = buf[j*rows : (j+1)*rows : (j+1)*rows]
+	}
+	r := make([]float64, w*w) // r[j*w+i] = R_ij, i ≤ j
+	var f QR
+	bc := make([][]float64, w)
+	dst := make([][]float64, w)
+	have := 0 // rows of R carried (0 before the first block)
+	for lo := 0; lo < n; {
+		hi := min(n, lo+block)
+		if have == 0 && hi-lo < w { // the first block must be at least square
+			hi = min(n, lo+w)
+		}
+		h := have + hi - lo
+		for j := 0; j < w; j++ {
+			c := work[j][:h]
+			copy(c[:have], r[j*w:j*w+have])
+			dst[j] = c[have:]
+		}
+		fill(lo, hi, dst)
+		if have > 0 {
+			for j := 0; j < w; j++ { // zero below R's diagonal
+				for i := j + 1; i < have; i++ {
+					work[j][i] = 0
+				}
+			}
+		}
+		for j := range bc {
+			bc[j] = work[j][:h]
+		}
+		if err := f.Factor(bc, w); err != nil {
+			return nil, err
+		}
+		for j := 0; j < w; j++ {
+			for i := 0; i < j; i++ {
+				r[j*w+i] = bc[j][i]
+			}
+			r[j*w+j] = f.diag[j]
+		}
+		have = w
+		lo = hi
+	}
+	return r, nil
+}
+
+// TallChunk is the number of rows TallR factorises as one piece: a
+// design's rows are cut into pieces of this many (the last shorter),
+// whatever the number of cores, so that R does not depend on it.
+const TallChunk = 1 << 15
+
+// TallR returns the upper-triangular factor R of the QR of the n×w
+// matrix X (n ≥ w) whose rows row writes (row(i, dst) writes row i,
+// length w), and indep, the count of leading columns that pass the rank
+// rule CollinearTol (as QR.Indep, with ‖x_k‖² = Σ_{i≤k} R_ik²), without
+// holding X: X is cut into pieces of TallChunk rows, each reduced to its
+// triangle by the sequential tall-skinny QR of NestedTall (blocks of rows
+// held in cache), the pieces on every core; the triangles, stacked in
+// order, are reduced the same way (the reduction tree of Demmel, Grigori,
+// Hoemmen and Langou 2012, §3, flat over the pieces). R equals the R of
+// one Householder QR of X (Factor) up to the signs of its rows and to
+// rounding; it is the same bit for bit on any number of cores.
+// TallR returns an error for a malformed shape or a non-finite entry.
+func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error) {
+	if w < 1 || n < w {
+		return nil, 0, fmt.Errorf("%w: %d rows for %d columns", ErrShape, n, w)
+	}
+	block := tallBlock(w)
+	fillRows := func(lo, hi int, dst [][]float64) {
+		x := make([]float64, w)
+		for i := lo; i < hi; i++ {
+			row(i, x)
+			for j, v := range x {
+				dst[j][i-lo] = v
+			}
+		}
+	}
+	pieces := (n + TallChunk - 1) / TallChunk
+	if pieces > 1 && n-(pieces-1)*TallChunk < w { // a last piece too short to be square joins the one before
+		pieces--
+	}
+	tri := make([][]float64, pieces)
+	errs := make([]error, pieces)
+	piece := func(p int) {
+		lo, hi := p*TallChunk, min(n, (p+1)*TallChunk)
+		if p == pieces-1 {
+			hi = n
+		}
+		tri[p], errs[p] = tallTriangle(hi-lo, w, func(a, b int, dst [][]float64) { fillRows(lo+a, lo+b, dst) }, block)
+	}
+	workers := min(runtime.GOMAXPROCS(0), pieces)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for k := 0; k < workers; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for p := int(next.Add(1) - 1); p < pieces; p = int(next.Add(1) - 1) {
+				piece(p)
+			}
+		}()
+	}
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return nil, 0, err
+		}
+	}
+	r := tri[0]
+	if pieces > 1 {
+		// the stacked triangles, w rows each, reduced as one tall matrix
+		var err error
+		r, err = tallTriangle(pieces*w, w, func(lo, hi int, dst [][]float64) {
+			for i := lo; i < hi; i++ {
+				t, ri := tri[i/w], i%w
+				for j := 0; j < w; j++ {
+					dst[j][i-lo] = t[j*w+ri]
+				}
+			}
+		}, block)
+		if err != nil {
+			return nil, 0, err
+		}
+	}
+	out := mat.NewTriDense(w, mat.Upper, nil)
+	indep := w
+	for k := 0; k < w; k++ {
+		norm := 0.0
+		for i := 0; i <= k; i++ {
+			out.SetTri(i, k, r[k*w+i])
+			norm += r[k*w+i] * r[k*w+i]
+		}
+		if indep == w && math.Abs(r[k*w+k]) <= CollinearTol*math.Sqrt(norm) {
+			indep = k
+		}
+	}
+	return out, indep, nil
 }

@@ -3,6 +3,7 @@ package householder
 import (
 	"math"
 	"math/rand/v2"
+	"runtime"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -241,4 +242,99 @@ func TestNestedTallScaledBitForBit(t *testing.T) {
 	if _, err := NestedTallScaled(src, scale[1:], ssr, tt); err == nil {
 		t.Error("a missing scale was accepted")
 	}
+}
+
+// TestTallRMatchesFactor: TallR's triangle equals the R of one Factor of
+// the whole matrix up to the signs of its rows, within 1e-12 of each
+// column's norm, for a matrix of one piece, of several (the last one,
+// shorter than the width, joined to the one before) and of exactly one
+// block; it is the same bit for bit on one core and on several; the rank
+// rule finds a repeated column and a column of zeros; a non-finite entry
+// and a short matrix are errors.
+func TestTallRMatchesFactor(t *testing.T) {
+	for _, n := range []int{40, tallBlock(15), 3*TallChunk + 7} {
+		cols := adfLike(n, uint64(n))
+		w := len(cols)
+		row := func(i int, dst []float64) {
+			for j := range dst {
+				dst[j] = cols[j][i]
+			}
+		}
+		got, indep, err := TallR(n, w, row)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if indep != w {
+			t.Fatalf("n %d: indep %d, want %d", n, indep, w)
+		}
+		prev := runtime.GOMAXPROCS(1)
+		one, _, err := TallR(n, w, row)
+		runtime.GOMAXPROCS(prev)
+		if err != nil || !mat.Equal(one, got) {
+			t.Fatalf("n %d: the triangle on one core differs (%v)", n, err)
+		}
+		var f QR
+		work := make([][]float64, w)
+		for j := range work {
+			work[j] = append([]float64(nil), cols[j]...)
+		}
+		if err := f.Factor(work, w); err != nil {
+			t.Fatal(err)
+		}
+		for i := 0; i < w; i++ {
+			s := math.Copysign(1, got.At(i, i)) * math.Copysign(1, f.RAt(i, i))
+			for j := i; j < w; j++ {
+				norm := math.Sqrt(floatsDot(cols[j], cols[j]))
+				if d := math.Abs(s*got.At(i, j) - f.RAt(i, j)); d > 1e-12*norm {
+					t.Fatalf("n %d: R[%d,%d] = %.17g, Factor's %.17g (column norm %g)", n, i, j, s*got.At(i, j), f.RAt(i, j), norm)
+				}
+			}
+		}
+	}
+	n := 5000
+	cols := adfLike(n, 3)
+	w := len(cols)
+	for _, c := range []struct {
+		name string
+		edit func([][]float64)
+		want int
+	}{
+		{"column 6 repeats column 4", func(c [][]float64) { copy(c[6], c[4]) }, 6},
+		{"column 3 is zero", func(c [][]float64) { clear(c[3]) }, 3},
+	} {
+		cc := make([][]float64, w)
+		for j := range cc {
+			cc[j] = append([]float64(nil), cols[j]...)
+		}
+		c.edit(cc)
+		_, indep, err := TallR(n, w, func(i int, dst []float64) {
+			for j := range dst {
+				dst[j] = cc[j][i]
+			}
+		})
+		if err != nil || indep != c.want {
+			t.Errorf("%s: indep %d (%v), want %d", c.name, indep, err, c.want)
+		}
+	}
+	if _, _, err := TallR(n, w, func(i int, dst []float64) {
+		for j := range dst {
+			dst[j] = cols[j][i]
+		}
+		if i == 4321 {
+			dst[2] = math.NaN()
+		}
+	}); err == nil {
+		t.Error("a NaN: no error")
+	}
+	if _, _, err := TallR(w-1, w, func(int, []float64) {}); err == nil {
+		t.Error("fewer rows than columns: no error")
+	}
+}
+
+func floatsDot(a, b []float64) float64 {
+	var s float64
+	for i := range a {
+		s += a[i] * b[i]
+	}
+	return s
 }

@@ -168,7 +168,7 @@ func TestExtra(y *mat.Dense, c Case, lags int, x Extra) (*Result, error) {
 	scale := seriesScale(y)
 	dz := newDesigner(scaleColumns(y, scale), c, lags, x)
 	res := &Result{Case: c, Lags: lags, K: k, T: t, NU: nu, NR: nr, scale: scale, dz: dz}
-	if err := res.reduce(dz.columns()); err != nil {
+	if err := res.reduce(); err != nil {
 		return nil, err
 	}
 	res.unscale()
@@ -204,9 +204,9 @@ func checkFinite(e *mat.Dense) error {
 // short-run regressors [1, t (as the case has them), Δy_{t−1}, ...,
 // Δy_{t−lags}, w_t] (ns columns) and ỹ_{t−1} = [y_{t−1}, restricted
 // term, x_{t−1}] (p1 columns), then the K columns of Δy_t. Its one rule,
-// row, fills the factorisation's columns, the row-major design of the
-// recursive estimates, and the rows the short-run fits read again, so
-// that the design is never held twice.
+// row, feeds the factorisation (householder.TallR, which never holds the
+// whole design), builds the row-major design of the recursive estimates,
+// and writes the rows the short-run fits read again.
 type designer struct {
 	y               *mat.Dense
 	c               Case
@@ -278,24 +278,6 @@ func (g *designer) rows() *mat.Dense {
 	return d
 }
 
-// columns returns the design as n columns of length T in one block, the
-// storage householder.QR.Factor works in.
-func (g *designer) columns() [][]float64 {
-	buf := make([]float64, g.t*g.n)
-	cols := make([][]float64, g.n)
-	for j := range cols {
-		cols[j] = buf[j*g.t : (j+1)*g.t : (j+1)*g.t]
-	}
-	row := make([]float64, g.n)
-	for i := 0; i < g.t; i++ {
-		g.row(i, row)
-		for j, v := range row {
-			cols[j][i] = v
-		}
-	}
-	return cols
-}
-
 // checkSeries names non-finite values, constant series and identical series.
 func checkSeries(y *mat.Dense) error {
 	rows, k := y.Dims()
@@ -335,22 +317,22 @@ func checkSeries(y *mat.Dense) error {
 	return nil
 }
 
-// reduce factorises the (scaled) design, given as its columns (which the
-// factorisation overwrites), and solves the eigenproblem, setting the
-// scaled moment matrices and eigenvectors. The QR is package
-// householder's unblocked one with its rank rule (|R_jj| ≤ 1e-10·‖d_j‖
-// names column j as singular): the design has T rows but only ns+P1+K
-// columns, few enough that a blocked factorisation gains nothing.
-func (r *Result) reduce(cols [][]float64) error {
+// reduce factorises the (scaled) design and solves the eigenproblem,
+// setting the scaled moment matrices and eigenvectors. Only R is needed,
+// and householder.TallR forms it from the design's rows block by block
+// in cache (on every core for a long sample) without holding the design;
+// its rank rule is householder's (|R_jj| ≤ 1e-10·‖d_j‖ names column j as
+// singular).
+func (r *Result) reduce() error {
 	t, ns, p1, n := r.dz.t, r.dz.ns, r.dz.p1, r.dz.n
-	var qr householder.QR
-	if err := qr.Factor(cols, n); err != nil {
+	rd, indep, err := householder.TallR(t, n, r.dz.row)
+	if err != nil {
 		return fmt.Errorf("johansen: %w", err)
 	}
-	if j := qr.Indep(); j < n {
-		return r.singular(j, ns, p1)
+	if indep < n {
+		return r.singular(indep, ns, p1)
 	}
-	r.rd = qr.R()
+	r.rd = rd
 	return r.solveR(r.rd, t, ns, p1)
 }
 
