@@ -123,7 +123,7 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 // dst) writes rows lo..hi−1 of column j into dst[j][:hi−lo]. It returns
 // R as r[j*w+i] = R_ij, i ≤ j (zero below the diagonal).
 func tallTriangle(n, w int, fill func(lo, hi int, dst [][]float64), block int) ([]float64, error) {
-	block = max(block, w)
+	block = max(min(block, n), w) // no larger than the matrix: a bootstrap factorises thousands of short ones
 	rows := w + block
 	buf := make([]float64, rows*w)
 	work := make([][]float64, w)
