@@ -8,6 +8,7 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"fmt"
+	"maps"
 	"os"
 	"path/filepath"
 	"sort"
@@ -278,10 +279,10 @@ func (d *Document) hashColumn(alias, col string) (string, bool) {
 // per entry (a decoder compiles the types of what it reads each time).
 type cachePack struct {
 	path    string
-	entries map[string]*cacheEntry // as stored (gob form), by spec key
-	used    map[string]*cacheEntry // reused in this build (values restored)
-	stored  map[string]*cacheEntry // run and stored in this build (gob form)
-	loaded  bool                   // the file was read and is current
+	entries map[string]*cacheEntry        // as stored (gob form), by spec key
+	used    map[string]*cacheEntry        // reused in this build (values restored)
+	stored  map[string]func() *cacheEntry // run in this build: its entry in gob form, made when the pack is written
+	loaded  bool                          // the file was read and is current
 }
 
 // packHeader starts a pack file; N entries follow in the same stream.
@@ -315,7 +316,7 @@ func (d *Document) cachePack() *cachePack {
 	if d.pack != nil {
 		return d.pack
 	}
-	p := &cachePack{entries: map[string]*cacheEntry{}, used: map[string]*cacheEntry{}, stored: map[string]*cacheEntry{}}
+	p := &cachePack{entries: map[string]*cacheEntry{}, used: map[string]*cacheEntry{}, stored: map[string]func() *cacheEntry{}}
 	d.pack = p
 	slot, ok := d.cacheSlot()
 	if !ok {
@@ -484,10 +485,17 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	if p == nil {
 		return
 	}
-	e := gobEntry(d.opts.Cache.Version, b.specKey, b.fullKey, cols, ups, b.result)
-	delete(p.entries, b.specKey)
-	delete(p.used, b.specKey)
-	p.stored[b.specKey] = e
+	// The entry is encoded when the pack is written (in the background
+	// under Cache.Async, beside the rendering): the values a directive
+	// returned are not changed once it has run, and the copies keep the
+	// result's fields and its map of values as they are now (numbering
+	// sets the fields and a figure's "number").
+	r := *b.result
+	r.Values = maps.Clone(r.Values)
+	version, specKey, fullKey := d.opts.Cache.Version, b.specKey, b.fullKey
+	delete(p.entries, specKey)
+	delete(p.used, specKey)
+	p.stored[specKey] = func() *cacheEntry { return gobEntry(version, specKey, fullKey, cols, ups, &r) }
 }
 
 // gobEntry is a cache entry for r in the form gob can carry: its
@@ -543,12 +551,16 @@ func (d *Document) cacheFlush() {
 		return
 	}
 	c := d.opts.Cache
-	var all []*cacheEntry
+	var makers []func() *cacheEntry
 	for _, b := range d.blocks { // document order
 		if e, ok := p.stored[b.specKey]; ok {
-			all = append(all, e)
+			makers = append(makers, e)
 		} else if e, ok := p.used[b.specKey]; ok {
-			all = append(all, gobEntry(e.Version, e.SpecKey, e.FullKey, e.Columns, e.Upstream, e.Result))
+			r := *e.Result // as it is before numbering (see cacheStore)
+			r.Values = maps.Clone(r.Values)
+			makers = append(makers, func() *cacheEntry {
+				return gobEntry(e.Version, e.SpecKey, e.FullKey, e.Columns, e.Upstream, &r)
+			})
 		}
 	}
 	idle := make([]string, 0, len(p.entries))
@@ -556,27 +568,35 @@ func (d *Document) cacheFlush() {
 		idle = append(idle, k)
 	}
 	sort.Strings(idle)
+	var kept []*cacheEntry
 	for _, k := range idle[:min(len(idle), maxIdleEntries)] {
-		all = append(all, p.entries[k])
+		kept = append(kept, p.entries[k])
 	}
-	// sizes up front: the pack of a large data set is hundreds of MB,
-	// and growing it by doubling copied it several times
-	nblob, est := 0, 4096
-	for _, e := range all {
-		for _, b := range e.blobs {
-			nblob += len(b)
+	d.later(func() {
+		all := make([]*cacheEntry, 0, len(makers)+len(kept))
+		for _, m := range makers {
+			all = append(all, m())
 		}
-		est += 1024 + len(e.Trees)
-		if e.Result != nil {
-			for _, d := range e.Result.Series {
-				est += 16 * len(d.Values)
+		all = append(all, kept...)
+		// sizes up front: the pack of a large data set is hundreds of
+		// MB, and growing it by doubling copied it several times
+		nblob, est := 0, 4096
+		for _, e := range all {
+			for _, b := range e.blobs {
+				nblob += len(b)
 			}
-			for _, d := range e.Result.Relations {
-				est += 16 * len(d.Values)
+			est += 1024 + len(e.Trees)
+			if e.Result != nil {
+				for _, d := range e.Result.Series {
+					est += 16 * len(d.Values)
+				}
+				for _, d := range e.Result.Relations {
+					est += 16 * len(d.Values)
+				}
 			}
 		}
-	}
-	d.later(func() { writePack(p.path, c.Version, all, nblob, est) })
+		writePack(p.path, c.Version, all, nblob, est)
+	})
 	p.loaded = true
 }
 
@@ -584,11 +604,10 @@ func (d *Document) cacheFlush() {
 // only costs a rerun next time.
 func writePack(path, version string, all []*cacheEntry, nblob, est int) {
 	blob := placeBlobs(all, nblob)
-	var buf bytes.Buffer
-	buf.Grow(est + nblob)
-	buf.Write(make([]byte, 8)) // the stream's length, below
+	// (a buffer from make: bytes.Buffer's Grow would clear it all first)
+	buf := bytes.NewBuffer(make([]byte, 8, 8+est+nblob)) // the stream's length, below
 	registerGob()
-	enc := gob.NewEncoder(&buf)
+	enc := gob.NewEncoder(buf)
 	if enc.Encode(packHeader{Magic: cacheMagic, Version: version, N: len(all)}) != nil {
 		return
 	}
