@@ -28,9 +28,11 @@ const TallBlockBytes = 256 << 10
 //	[R_k; A_{k+1}] = Q_{k+1} R_{k+1},
 //
 // each step an ordinary Householder QR (Factor) of a block held in
-// cache, so that the final R equals the R of one QR of [X | y] up to the
-// signs of its rows (R is unique up to them for a full-rank matrix) and
-// to rounding. Nested reads only R: with R = [R_X r; 0 ρ], SSR_j and t_j
+// cache; a long matrix is cut into pieces of TallChunk rows, reduced so
+// on every core, whose triangles, stacked in order, are reduced the same
+// way (tallPieces; the same result on any number of cores). The final R
+// equals the R of one QR of [X | y] up to the signs of its rows (R is
+// unique up to them for a full-rank matrix) and to rounding. Nested reads only R: with R = [R_X r; 0 ρ], SSR_j and t_j
 // are as in Nested (the products sign(R_{j−1,j−1}) r_{j−1} do not depend
 // on the row signs), and the rank rule reads ‖x_k‖² = Σ_{i≤k} R_ik².
 //
@@ -79,7 +81,7 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 	if len(ssr) != m || len(t) != m {
 		return 0, fmt.Errorf("%w: %d and %d outputs for %d sub-designs", ErrShape, len(ssr), len(t), m)
 	}
-	r, err := tallTriangle(n, w, func(lo, hi int, dst [][]float64) {
+	r, err := tallPieces(n, w, func(lo, hi int, dst [][]float64) {
 		for j := 0; j < w; j++ {
 			if scale == nil || j == m {
 				copy(dst[j], cols[j][lo:hi])
@@ -181,11 +183,11 @@ const TallChunk = 1 << 15
 // matrix X (n ≥ w) whose rows row writes (row(i, dst) writes row i,
 // length w), and indep, the count of leading columns that pass the rank
 // rule CollinearTol (as QR.Indep, with ‖x_k‖² = Σ_{i≤k} R_ik²), without
-// holding X: X is cut into pieces of TallChunk rows, each reduced to its
-// triangle by the sequential tall-skinny QR of NestedTall (blocks of rows
-// held in cache), the pieces on every core; the triangles, stacked in
-// order, are reduced the same way (the reduction tree of Demmel, Grigori,
-// Hoemmen and Langou 2012, §3, flat over the pieces). R equals the R of
+// holding X: as in NestedTall, X is cut into pieces of TallChunk rows,
+// each reduced to its triangle by the sequential tall-skinny QR (blocks
+// of rows held in cache), the pieces on every core; the triangles,
+// stacked in order, are reduced the same way (the reduction tree of
+// Demmel, Grigori, Hoemmen and Langou 2012, §3, flat over the pieces). R equals the R of
 // one Householder QR of X (Factor) up to the signs of its rows and to
 // rounding; it is the same bit for bit on any number of cores.
 // TallR returns an error for a malformed shape or a non-finite entry.
@@ -193,8 +195,7 @@ func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error)
 	if w < 1 || n < w {
 		return nil, 0, fmt.Errorf("%w: %d rows for %d columns", ErrShape, n, w)
 	}
-	block := tallBlock(w)
-	fillRows := func(lo, hi int, dst [][]float64) {
+	r, err := tallPieces(n, w, func(lo, hi int, dst [][]float64) {
 		x := make([]float64, w)
 		for i := lo; i < hi; i++ {
 			row(i, x)
@@ -202,53 +203,9 @@ func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error)
 				dst[j][i-lo] = v
 			}
 		}
-	}
-	pieces := (n + TallChunk - 1) / TallChunk
-	if pieces > 1 && n-(pieces-1)*TallChunk < w { // a last piece too short to be square joins the one before
-		pieces--
-	}
-	tri := make([][]float64, pieces)
-	errs := make([]error, pieces)
-	piece := func(p int) {
-		lo, hi := p*TallChunk, min(n, (p+1)*TallChunk)
-		if p == pieces-1 {
-			hi = n
-		}
-		tri[p], errs[p] = tallTriangle(hi-lo, w, func(a, b int, dst [][]float64) { fillRows(lo+a, lo+b, dst) }, block)
-	}
-	workers := min(runtime.GOMAXPROCS(0), pieces)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for p := int(next.Add(1) - 1); p < pieces; p = int(next.Add(1) - 1) {
-				piece(p)
-			}
-		}()
-	}
-	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return nil, 0, err
-		}
-	}
-	r := tri[0]
-	if pieces > 1 {
-		// the stacked triangles, w rows each, reduced as one tall matrix
-		var err error
-		r, err = tallTriangle(pieces*w, w, func(lo, hi int, dst [][]float64) {
-			for i := lo; i < hi; i++ {
-				t, ri := tri[i/w], i%w
-				for j := 0; j < w; j++ {
-					dst[j][i-lo] = t[j*w+ri]
-				}
-			}
-		}, block)
-		if err != nil {
-			return nil, 0, err
-		}
+	}, tallBlock(w))
+	if err != nil {
+		return nil, 0, err
 	}
 	out := mat.NewTriDense(w, mat.Upper, nil)
 	indep := w
@@ -263,4 +220,52 @@ func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error)
 		}
 	}
 	return out, indep, nil
+}
+
+// tallPieces is tallTriangle on pieces of TallChunk rows (a last piece
+// shorter than w joins the one before), the pieces on every core and
+// their triangles, stacked in order, reduced the same way: the same
+// result on any number of cores. fill must be safe to call for
+// different rows at once.
+func tallPieces(n, w int, fill func(lo, hi int, dst [][]float64), block int) ([]float64, error) {
+	pieces := max((n+TallChunk-1)/TallChunk, 1)
+	if pieces > 1 && n-(pieces-1)*TallChunk < w {
+		pieces--
+	}
+	if pieces == 1 {
+		return tallTriangle(n, w, fill, block)
+	}
+	tri := make([][]float64, pieces)
+	errs := make([]error, pieces)
+	workers := min(runtime.GOMAXPROCS(0), pieces)
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for k := 0; k < workers; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for p := int(next.Add(1) - 1); p < pieces; p = int(next.Add(1) - 1) {
+				lo, hi := p*TallChunk, min(n, (p+1)*TallChunk)
+				if p == pieces-1 {
+					hi = n
+				}
+				tri[p], errs[p] = tallTriangle(hi-lo, w, func(a, b int, dst [][]float64) { fill(lo+a, lo+b, dst) }, block)
+			}
+		}()
+	}
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	// the stacked triangles, w rows each, reduced as one tall matrix
+	return tallTriangle(pieces*w, w, func(lo, hi int, dst [][]float64) {
+		for i := lo; i < hi; i++ {
+			t, ri := tri[i/w], i%w
+			for j := 0; j < w; j++ {
+				dst[j][i-lo] = t[j*w+ri]
+			}
+		}
+	}, block)
 }
