@@ -10,6 +10,7 @@ import (
 	"sort"
 	"sync"
 
+	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -279,21 +280,27 @@ func (r *Result) nullModel(ys *mat.Dense, rank int) (*nullModel, error) {
 func (m *nullModel) replicate(w []float64, buf *mat.Dense, c Case, x Extra) (float64, error) {
 	t, k := m.resid.Dims()
 	p := m.lags + 1
+	// read in place (At and Set check bounds and dispatch at every
+	// entry); the arithmetic and its order are the same
+	yr, br, dr, rr := m.y.RawMatrix(), buf.RawMatrix(), m.det.RawMatrix(), m.resid.RawMatrix()
+	ar := make([]blas64.General, p)
+	for l := range ar {
+		ar[l] = m.a[l].RawMatrix()
+	}
 	for s := 0; s < p; s++ {
-		for i := 0; i < k; i++ {
-			buf.Set(s, i, m.y.At(s, i))
-		}
+		copy(br.Data[s*br.Stride:s*br.Stride+k], yr.Data[s*yr.Stride:s*yr.Stride+k])
 	}
 	for tt := 0; tt < t; tt++ {
 		s := tt + p
 		for i := 0; i < k; i++ {
-			v := m.det.At(tt, i) + w[tt]*m.resid.At(tt, i)
+			v := dr.Data[tt*dr.Stride+i] + w[tt]*rr.Data[tt*rr.Stride+i]
 			for l := 1; l <= p; l++ {
+				al, prev := ar[l-1].Data[i*ar[l-1].Stride:], br.Data[(s-l)*br.Stride:]
 				for j := 0; j < k; j++ {
-					v += m.a[l-1].At(i, j) * buf.At(s-l, j)
+					v += al[j] * prev[j]
 				}
 			}
-			buf.Set(s, i, v)
+			br.Data[s*br.Stride+i] = v
 		}
 	}
 	res, err := TestExtra(buf, c, m.lags, x)

@@ -9,6 +9,7 @@ import (
 	"sort"
 	"sync"
 
+	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/galley-econ/galley/analysis/johansen"
@@ -200,22 +201,28 @@ func replicate(b int, seed uint64, y, ys *mat.Dense, a []*mat.Dense, det, eps *m
 	rng := rand.New(rand.NewPCG(seed, uint64(b)))
 	p := len(a)
 	tr, _ := eps.Dims()
+	// read in place (At and Set check bounds and dispatch at every
+	// entry); the arithmetic and its order are the same
+	yr, sr, dr, er := y.RawMatrix(), ys.RawMatrix(), det.RawMatrix(), eps.RawMatrix()
+	ar := make([]blas64.General, p)
+	for l := range a {
+		ar[l] = a[l].RawMatrix()
+	}
 	for t := 0; t < p; t++ {
-		for i := 0; i < k; i++ {
-			ys.Set(t, i, y.At(t, i))
-		}
+		copy(sr.Data[t*sr.Stride:t*sr.Stride+k], yr.Data[t*yr.Stride:t*yr.Stride+k])
 	}
 	for t := 0; t < tr; t++ {
 		s := t + p
 		e := rng.IntN(tr)
 		for i := 0; i < k; i++ {
-			v := det.At(t, i) + eps.At(e, i)
+			v := dr.Data[t*dr.Stride+i] + er.Data[e*er.Stride+i]
 			for l := 1; l <= p; l++ {
+				al, prev := ar[l-1].Data[i*ar[l-1].Stride:], sr.Data[(s-l)*sr.Stride:]
 				for j := 0; j < k; j++ {
-					v += a[l-1].At(i, j) * ys.At(s-l, j)
+					v += al[j] * prev[j]
 				}
 			}
-			ys.Set(s, i, v)
+			sr.Data[s*sr.Stride+i] = v
 		}
 	}
 	as, sig, err := refit(ys)
