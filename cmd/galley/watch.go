@@ -8,7 +8,7 @@ import (
 	"html/template"
 	"io"
 	"net"
-	"net/http"
+	"net/url"
 	"os"
 	"os/signal"
 	"path/filepath"
@@ -98,9 +98,9 @@ type fileState struct {
 
 // run builds once, then watches and serves until ctx is cancelled.
 func (w *watcher) run(ctx context.Context, ln net.Listener) error {
-	srv := &http.Server{Handler: w.handler(), ReadHeaderTimeout: 10 * time.Second}
+	srv := newPreviewServer(ln, w.route)
 	served := make(chan error, 1)
-	go func() { served <- srv.Serve(ln) }()
+	go func() { served <- srv.serve() }()
 
 	// prev is the state of the files as they were before the build that
 	// read them: a save that lands while a build runs differs from it and
@@ -177,13 +177,9 @@ func (w *watcher) buildOrStop(ctx context.Context) bool {
 }
 
 // shutdown stops the preview server.
-func (w *watcher) shutdown(srv *http.Server, served chan error) error {
-	shut, cancel := context.WithTimeout(context.Background(), 2*time.Second)
-	defer cancel()
-	if err := srv.Shutdown(shut); err != nil {
-		srv.Close()
-	}
-	if err := <-served; err != nil && !errors.Is(err, http.ErrServerClosed) {
+func (w *watcher) shutdown(srv *previewServer, served chan error) error {
+	srv.close()
+	if err := <-served; err != nil && !errors.Is(err, errPreviewClosed) {
 		return err
 	}
 	return nil
@@ -375,30 +371,25 @@ const (
 	seenPath    = "/_galley/seen"
 )
 
-func (w *watcher) handler() http.Handler {
-	mux := http.NewServeMux()
-	mux.HandleFunc("/{$}", func(rw http.ResponseWriter, r *http.Request) {
+// route answers the preview's requests: the page at /, its version
+// (which the page polls) and the version a page reports as loaded.
+func (w *watcher) route(path string, q url.Values) previewResponse {
+	switch path {
+	case "/":
 		_, page := w.state()
-		rw.Header().Set("Content-Type", "text/html; charset=utf-8")
-		rw.Header().Set("Cache-Control", "no-store")
-		rw.Write(page)
-	})
-	mux.HandleFunc(versionPath, func(rw http.ResponseWriter, r *http.Request) {
+		return previewResponse{status: 200, ctype: "text/html; charset=utf-8", body: page}
+	case versionPath:
 		v, _ := w.state()
-		rw.Header().Set("Content-Type", "text/plain; charset=utf-8")
-		rw.Header().Set("Cache-Control", "no-store")
-		fmt.Fprint(rw, v)
-	})
-	mux.HandleFunc(seenPath, func(rw http.ResponseWriter, r *http.Request) {
-		if v, err := strconv.Atoi(r.URL.Query().Get("v")); err == nil {
+		return previewResponse{status: 200, ctype: "text/plain; charset=utf-8", body: []byte(strconv.Itoa(v))}
+	case seenPath:
+		if v, err := strconv.Atoi(q.Get("v")); err == nil {
 			w.mu.Lock()
 			w.seen = max(w.seen, v)
 			w.mu.Unlock()
 		}
-		rw.Header().Set("Cache-Control", "no-store")
-		rw.WriteHeader(http.StatusNoContent)
-	})
-	return mux
+		return previewResponse{status: 204}
+	}
+	return previewResponse{status: 404, ctype: "text/plain; charset=utf-8", body: []byte("404 page not found\n")}
 }
 
 // reloadScript is the page's live-reload hook: it tells the server which
