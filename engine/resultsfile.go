@@ -14,8 +14,18 @@ import (
 // ResultsFile is the results file of this build as a reader sees it
 // once read back (numbers as float64, lists as []any): the one form
 // comparisons take, whether the file comes from disk or from a build in
-// memory. label becomes its Path.
+// memory. label becomes its Path. It is made from the results directly
+// (readerFile) when every value is of a type the results writer knows,
+// else by writing the file and reading it back.
 func (d *Document) ResultsFile(version, label string) (*resultsfile.File, error) {
+	rf := d.resultsRecords(version)
+	if f, ok := readerFile(&rf); ok {
+		f.Path = label
+		if err := resultsfile.Check(f, label); err != nil {
+			return nil, err
+		}
+		return f, nil
+	}
 	b, err := d.ResultsJSON(version)
 	if err != nil {
 		return nil, err
@@ -32,6 +42,26 @@ func (d *Document) ResultsJSON(version string) ([]byte, error) {
 // resultsJSON renders the results file after headroom bytes left for
 // the caller.
 func (d *Document) resultsJSON(version string, headroom int) ([]byte, error) {
+	rf := d.resultsRecords(version)
+	size := 4 << 10
+	for _, r := range rf.Results {
+		size += 512 + sizeHint(r.Values) + sizeHint(r.Spec)
+	}
+	if b, ok := appendResultsFile(make([]byte, headroom, headroom+size), &rf); ok {
+		return append(b, '\n'), nil
+	}
+	for i := range rf.Results {
+		rf.Results[i].Values = JsonSafe(rf.Results[i].Values).(map[string]any)
+	}
+	b, err := json.Marshal(rf)
+	if err != nil {
+		return nil, err
+	}
+	return append(indentJSON(make([]byte, headroom, headroom+len(b)+len(b)/2), b), '\n'), nil
+}
+
+// resultsRecords is the results file of this build before it is written.
+func (d *Document) resultsRecords(version string) resultsfile.File {
 	rf := resultsfile.File{Galley: version, Manuscript: filepath.Base(d.File), Vintage: d.opts.Vintage, Inputs: d.Inputs()}
 	if rf.Inputs == nil {
 		rf.Inputs = []resultsfile.Input{}
@@ -53,21 +83,7 @@ func (d *Document) resultsJSON(version string, headroom int) ([]byte, error) {
 	if rf.Results == nil {
 		rf.Results = []resultsfile.Record{}
 	}
-	size := 4 << 10
-	for _, r := range rf.Results {
-		size += 512 + sizeHint(r.Values) + sizeHint(r.Spec)
-	}
-	if b, ok := appendResultsFile(make([]byte, headroom, headroom+size), &rf); ok {
-		return append(b, '\n'), nil
-	}
-	for i := range rf.Results {
-		rf.Results[i].Values = JsonSafe(rf.Results[i].Values).(map[string]any)
-	}
-	b, err := json.Marshal(rf)
-	if err != nil {
-		return nil, err
-	}
-	return append(indentJSON(make([]byte, headroom, headroom+len(b)+len(b)/2), b), '\n'), nil
+	return rf
 }
 
 // JsonSafe replaces NaN and ±Inf (which JSON cannot hold) by null and the

@@ -152,6 +152,10 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 		w.b = strconv.AppendBool(w.b, x)
 	case int:
 		w.b = strconv.AppendInt(w.b, int64(x), 10)
+	case int64:
+		w.b = strconv.AppendInt(w.b, x, 10)
+	case uint64: // a bootstrap's seed
+		w.b = strconv.AppendUint(w.b, x, 10)
 	case string:
 		w.str(x)
 	case float64:
@@ -186,6 +190,8 @@ func (w *resultsWriter) value(depth int, v any, safe bool) {
 		writeLeaves(w, depth, x, true, (*resultsWriter).str)
 	case []int:
 		writeList(w, depth, x, true, func(n int) { w.b = strconv.AppendInt(w.b, int64(n), 10) })
+	case []bool:
+		writeList(w, depth, x, true, func(v bool) { w.b = strconv.AppendBool(w.b, v) })
 	default:
 		w.ok = false // encoding/json writes it
 	}

@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"math"
 	"math/rand/v2"
+	"reflect"
 	"testing"
 
 	"github.com/galley-econ/galley/resultsfile"
@@ -15,7 +16,8 @@ import (
 // library is the reference) for files of random records: every type
 // results hold, nil and empty lists and maps, non-finite numbers,
 // numbers of every size, strings that need escaping; and gives up on a
-// type it does not know.
+// type it does not know. readerFile gives what resultsfile.Parse reads
+// back from those bytes, and gives up where the writer does.
 func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 5))
 	strs := []string{"", "plain", `q"b\s`, "<&>", "tab\tnl\ncr\r", "\x00\x01\x1f\x7f", "\b\f", "é ü ∆", "\u2028\u2029", "bad\xff\xfeutf8", "Δlog(north)ₜ₋₁"}
@@ -45,6 +47,12 @@ func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 		case 1:
 			return r.IntN(2) == 0
 		case 2:
+			switch r.IntN(3) {
+			case 0:
+				return int64(r.Uint64() >> r.IntN(64))
+			case 1:
+				return r.Uint64() >> r.IntN(64) // seeds: up to 2⁶⁴ − 1
+			}
 			return r.IntN(20001) - 10000
 		case 3:
 			return strs[r.IntN(len(strs))]
@@ -91,6 +99,12 @@ func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 		case 17:
 			return []int{-3, 0, 7}
 		case 18:
+			switch r.IntN(3) {
+			case 0:
+				return []bool(nil)
+			case 1:
+				return []bool{true, false, r.IntN(2) == 0}
+			}
 			return []int(nil)
 		default:
 			return []string{}
@@ -103,7 +117,7 @@ func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 			rf.Inputs = append(rf.Inputs, resultsfile.Input{Path: "d.csv", SHA256: "ab", Alias: strs[r.IntN(len(strs))]}, resultsfile.Input{Path: "e.csv"})
 		}
 		for i := r.IntN(4); i >= 0; i-- {
-			rec := resultsfile.Record{ID: "t", Kind: "adf", Line: r.IntN(300), Number: r.IntN(3), Label: strs[r.IntN(3)], Caption: strs[r.IntN(len(strs))],
+			rec := resultsfile.Record{ID: "t" + string(rune('a'+i)), Kind: "adf", Line: r.IntN(300), Number: r.IntN(3), Label: strs[r.IntN(3)], Caption: strs[r.IntN(len(strs))],
 				Spec: map[string]any{"series": gen(1, false), "lags": r.IntN(5)}, Values: map[string]any{}}
 			if r.IntN(2) == 0 {
 				rec.Hidden = []string{"a", "b"}
@@ -135,16 +149,37 @@ func TestResultsWriterMatchesEncodingJSON(t *testing.T) {
 		if !bytes.Equal(got, want) {
 			t.Fatalf("file %d:\n got %s\nwant %s", n, got, want)
 		}
+		// the reader's form made directly: what Parse reads back
+		if rf.Galley != "" && len(rf.Results) > 0 {
+			back, err := resultsfile.Parse(got, "f")
+			if err != nil {
+				t.Fatal(err)
+			}
+			direct, ok := readerFile(&rf)
+			if !ok {
+				t.Fatalf("file %d: readerFile gave up where the writer did not", n)
+			}
+			direct.Path = "f"
+			if !reflect.DeepEqual(direct, back) {
+				t.Fatalf("file %d: readerFile\n%#v\nread back\n%#v", n, direct, back)
+			}
+		}
 	}
-	for _, v := range []any{[][]float64{{1}}, map[string]float64{"a": 1}, int64(3), struct{}{}} {
+	for _, v := range []any{[][]float64{{1}}, map[string]float64{"a": 1}, int32(3), struct{}{}} {
 		rf := resultsfile.File{Results: []resultsfile.Record{{Values: map[string]any{"x": v}}}}
 		if _, ok := appendResultsFile(nil, &rf); ok {
 			t.Errorf("%T: written, should be left to encoding/json", v)
+		}
+		if _, ok := readerFile(&rf); ok {
+			t.Errorf("%T: readerFile did not give up", v)
 		}
 	}
 	rf := resultsfile.File{Results: []resultsfile.Record{{Spec: map[string]any{"x": math.NaN()}}}}
 	if _, ok := appendResultsFile(nil, &rf); ok {
 		t.Error("a NaN in a spec was written")
+	}
+	if _, ok := readerFile(&rf); ok {
+		t.Error("readerFile took a NaN in a spec")
 	}
 }
 

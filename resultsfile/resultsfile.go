@@ -77,23 +77,33 @@ func Parse(b []byte, name string) (*File, error) {
 	if err := json.Unmarshal(b, &f); err != nil {
 		return nil, fmt.Errorf("%s: not a galley results file: %v", name, err)
 	}
+	if err := Check(&f, name); err != nil {
+		return nil, err
+	}
+	f.Path = name
+	return &f, nil
+}
+
+// Check refuses a file that is not a galley results file: no version or
+// no results, a result without an id, kind or values, two results with
+// one id. name labels it in errors.
+func Check(f *File, name string) error {
 	if f.Galley == "" || f.Results == nil {
-		return nil, fmt.Errorf("%s: not a galley results file (no \"galley\" version or \"results\")", name)
+		return fmt.Errorf("%s: not a galley results file (no \"galley\" version or \"results\")", name)
 	}
 	seen := map[string]bool{}
 	for i, r := range f.Results {
 		switch {
 		case r.ID == "" || r.Kind == "":
-			return nil, fmt.Errorf("%s: result %d has no id or no kind; not a galley results file", name, i+1)
+			return fmt.Errorf("%s: result %d has no id or no kind; not a galley results file", name, i+1)
 		case r.Values == nil:
-			return nil, fmt.Errorf("%s: result %q has no values; not a galley results file", name, r.ID)
+			return fmt.Errorf("%s: result %q has no values; not a galley results file", name, r.ID)
 		case seen[r.ID]:
-			return nil, fmt.Errorf("%s: two results have the id %q; not a galley results file", name, r.ID)
+			return fmt.Errorf("%s: two results have the id %q; not a galley results file", name, r.ID)
 		}
 		seen[r.ID] = true
 	}
-	f.Path = name
-	return &f, nil
+	return nil
 }
 
 // Load reads the results file at path.
