@@ -34,6 +34,7 @@ const (
 	tagMatrix   // [][]float64
 	tagFloatMap // map[string]float64
 	tagNilOf    // a nil list or map: the tag of its type follows
+	tagUint     // uint64 (a bootstrap's seed)
 )
 
 // appendTree appends the encoding of v to b.
@@ -49,6 +50,8 @@ func appendTree(b []byte, v any) ([]byte, error) {
 		return append(b, tagFalse), nil
 	case int:
 		return binary.AppendVarint(append(b, tagInt), int64(x)), nil
+	case uint64:
+		return binary.AppendUvarint(append(b, tagUint), x), nil
 	case float64:
 		return binary.LittleEndian.AppendUint64(append(b, tagFloat), math.Float64bits(x)), nil
 	case string:
@@ -262,6 +265,14 @@ func (r *treeReader) value() any {
 		return true
 	case tagInt:
 		return r.int()
+	case tagUint:
+		n, k := binary.Uvarint(r.b)
+		if k <= 0 {
+			r.fail()
+			return nil
+		}
+		r.b = r.b[k:]
+		return n
 	case tagFloat:
 		return r.float()
 	case tagString:

@@ -73,6 +73,9 @@ func TestTreeCodecRoundTrip(t *testing.T) {
 		case 23:
 			return map[string]float64(nil)
 		case 24:
+			if r.IntN(2) == 0 {
+				return r.Uint64() >> r.IntN(64)
+			}
 			return []bool(nil)
 		default:
 			return []map[string]any(nil)
