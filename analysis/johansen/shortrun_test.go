@@ -2,6 +2,7 @@ package johansen
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -109,5 +110,34 @@ func TestShortRunMatchesFullFit(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// TestCheckSeriesOrder: checkSeries reports what a pass down each column
+// in turn finds first — a non-finite value (its first row) or a constant
+// series in the lowest column, then identical series.
+func TestCheckSeriesOrder(t *testing.T) {
+	y := walks(50, 5, 3)
+	at := func(edit func(*mat.Dense)) string {
+		c := mat.DenseCopyOf(y)
+		edit(c)
+		if err := checkSeries(c); err != nil {
+			return err.Error()
+		}
+		return ""
+	}
+	for _, c := range []struct {
+		edit func(*mat.Dense)
+		want string
+	}{
+		{func(*mat.Dense) {}, ""},
+		{func(m *mat.Dense) { m.Set(9, 2, math.NaN()); m.Set(5, 2, math.Inf(1)); m.Set(3, 4, math.NaN()) }, "series 2 has a missing or infinite value at row 5"},
+		{func(m *mat.Dense) { m.Set(7, 3, math.Inf(-1)); m.SetCol(1, make([]float64, 50)) }, "series 1 is constant"},
+		{func(m *mat.Dense) { m.SetCol(1, make([]float64, 50)); m.Set(0, 0, math.NaN()) }, "series 0 has a missing or infinite value at row 0"},
+		{func(m *mat.Dense) { m.SetCol(4, mat.Col(nil, 2, m)) }, "series 2 and 4 are identical"},
+	} {
+		if got := at(c.edit); (c.want == "") != (got == "") || !strings.Contains(got, c.want) {
+			t.Errorf("got %q, want %q", got, c.want)
+		}
 	}
 }

@@ -283,23 +283,37 @@ func checkSeries(y *mat.Dense) error {
 	rows, k := y.Dims()
 	raw := y.RawMatrix() // read in place: a bootstrap checks every replication
 	at := func(i, j int) float64 { return raw.Data[i*raw.Stride+j] }
-	for j := 0; j < k; j++ {
-		lo, hi := math.Inf(1), math.Inf(-1)
-		for i := 0; i < rows; i++ {
-			v := at(i, j)
-			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return fmt.Errorf("johansen: series %d has a missing or infinite value at row %d", j, i)
+	// one pass along the rows (the storage's order), each column's
+	// smallest and largest value and first non-finite row; reported
+	// column by column as a pass down each column would find them
+	lo, hi, bad := make([]float64, k), make([]float64, k), make([]int, k)
+	for j := range lo {
+		lo[j], hi[j], bad[j] = math.Inf(1), math.Inf(-1), -1
+	}
+	for i := 0; i < rows; i++ {
+		row := raw.Data[i*raw.Stride : i*raw.Stride+k]
+		for j, v := range row {
+			if v-v != 0 { // NaN or ±Inf
+				if bad[j] < 0 {
+					bad[j] = i
+				}
+				continue
 			}
 			// finite, so plain comparisons find what math.Min and
 			// math.Max would (up to the sign of a zero, which == ignores)
-			if v < lo {
-				lo = v
+			if v < lo[j] {
+				lo[j] = v
 			}
-			if v > hi {
-				hi = v
+			if v > hi[j] {
+				hi[j] = v
 			}
 		}
-		if lo == hi {
+	}
+	for j := 0; j < k; j++ {
+		if bad[j] >= 0 {
+			return fmt.Errorf("johansen: series %d has a missing or infinite value at row %d", j, bad[j])
+		}
+		if lo[j] == hi[j] {
 			return fmt.Errorf("johansen: series %d is constant, so the moment matrices are singular", j)
 		}
 	}
