@@ -273,11 +273,11 @@ func TestSpecialFiles(t *testing.T) {
 	t.Parallel()
 	dir := t.TempDir()
 	fifo := filepath.Join(dir, "pipe.csv")
-	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+	if err := mkfifo(fifo); err != nil {
 		t.Skipf("no named pipes here: %v", err)
 	}
 	pipeMD := filepath.Join(dir, "pipe.md")
-	syscall.Mkfifo(pipeMD, 0o644)
+	mkfifo(pipeMD)
 	paper := func(name, data string) string {
 		p := filepath.Join(dir, name)
 		os.WriteFile(p, []byte("---\ndata:\n  d: "+data+"\n---\n\n```galley ols\nid: m\ndata: d\ny: y\nx: [x]\n```\n"), 0o644)
@@ -336,7 +336,7 @@ func TestSpecialFiles(t *testing.T) {
 func TestWatchStopsOnSIGTERM(t *testing.T) {
 	t.Parallel()
 	dir := t.TempDir()
-	if err := syscall.Mkfifo(filepath.Join(dir, "pipe.csv"), 0o644); err != nil {
+	if err := mkfifo(filepath.Join(dir, "pipe.csv")); err != nil {
 		t.Skipf("no named pipes here: %v", err)
 	}
 	p := filepath.Join(dir, "paper.md")

@@ -11,7 +11,6 @@ import (
 	"path/filepath"
 	"strings"
 	"sync"
-	"syscall"
 	"testing"
 	"time"
 )
@@ -224,7 +223,7 @@ func TestWatchChromium(t *testing.T) {
 	cmd := exec.Command(bin, "--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
 		"--disable-component-update", "--disable-sync", "--no-first-run", "--no-default-browser-check",
 		"--disable-dev-shm-usage", "--disable-extensions", "--user-data-dir="+t.TempDir(), url+"/")
-	cmd.SysProcAttr = &syscall.SysProcAttr{Setpgid: true}
+	ownGroup(cmd)
 	var errOut syncBuffer
 	cmd.Stdout, cmd.Stderr = io.Discard, &errOut
 	if err := cmd.Start(); err != nil {
@@ -234,7 +233,7 @@ func TestWatchChromium(t *testing.T) {
 	go func() { exited <- cmd.Wait() }()
 	t.Cleanup(func() {
 		// The browser runs in its own process group: end that group.
-		syscall.Kill(-cmd.Process.Pid, syscall.SIGKILL)
+		killGroup(cmd)
 		select {
 		case <-exited:
 		case <-time.After(10 * time.Second):

@@ -24,7 +24,6 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
-	"syscall"
 	"time"
 
 	"github.com/galley-econ/galley/bench"
@@ -56,9 +55,7 @@ func (c *command) run() error {
 		return fmt.Errorf("%s: %v: %s", c.name, err, out.String())
 	}
 	c.wall = append(c.wall, d)
-	if ru, ok := cmd.ProcessState.SysUsage().(*syscall.Rusage); ok {
-		c.rss = max(c.rss, ru.Maxrss*1024)
-	}
+	c.rss = max(c.rss, peakRSS(cmd.ProcessState))
 	return nil
 }
 
