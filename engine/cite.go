@@ -5,6 +5,7 @@ import (
 	"os"
 	"slices"
 	"strings"
+	"sync"
 
 	"github.com/yuin/goldmark/ast"
 
@@ -70,7 +71,7 @@ func (d *Document) entry(key string) (*manuscript.BibEntry, error) {
 		}
 	}
 	if e, ok := manuscript.MethodEntry(key); ok {
-		return e, nil
+		return d.methods.of(key, e), nil
 	}
 	methods := manuscript.MethodLibrary()
 	var keys []string
@@ -85,6 +86,30 @@ func (d *Document) entry(key string) (*manuscript.BibEntry, error) {
 		return nil, fmt.Errorf("no work has the key %q: name a BibTeX file in the front matter (bibliography: refs.bib)%s", key, manuscript.DidYouMean(key, keys))
 	}
 	return nil, fmt.Errorf("no work in %s has the key %q%s", d.Meta.Bibliography, key, manuscript.DidYouMean(key, keys))
+}
+
+// methodCopies holds a document's own copies of the works of galley's
+// reference table, which every document in the process shares: the
+// suffixes a build gives its references (manuscript.AssignSuffixes) are
+// then its own, whatever another build in the process (a nested build
+// of another vintage, a watched rebuild, a test) gives them.
+type methodCopies struct {
+	mu sync.Mutex
+	m  map[string]*manuscript.BibEntry
+}
+
+func (c *methodCopies) of(key string, e *manuscript.BibEntry) *manuscript.BibEntry {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if own, ok := c.m[key]; ok {
+		return own
+	}
+	if c.m == nil {
+		c.m = map[string]*manuscript.BibEntry{}
+	}
+	own := *e // Fields and Authors are only read
+	c.m[key] = &own
+	return &own
 }
 
 // Cite is the works a citation names, in order (after Run).

@@ -58,6 +58,7 @@ type Document struct {
 
 	anchors    map[string]*Anchor // equations and sections, by id
 	bib        *manuscript.Library
+	methods    methodCopies // this document's copies of galley's reference table's works (cite.go)
 	references []*manuscript.BibEntry
 	cites      []*manuscript.CiteNode
 	eqNumbers  map[*manuscript.MathBlock]string
