@@ -88,34 +88,11 @@ func readerValue(v any, safe bool) (any, bool) {
 		}
 		return x, true
 	case []float64:
-		if x == nil && !safe {
-			return nil, true
-		}
-		out := make([]any, len(x))
-		for i, e := range x {
-			var ok bool
-			if out[i], ok = readerValue(e, safe); !ok {
-				return nil, false
-			}
-		}
-		return out, true
+		return readerSlice(x, !safe, func(e float64) (any, bool) { return readerValue(e, safe) })
 	case []any:
-		if x == nil && !safe {
-			return nil, true
-		}
-		return readerList(x, safe)
+		return readerSlice(x, !safe, func(e any) (any, bool) { return readerValue(e, safe) })
 	case []map[string]any:
-		if x == nil && !safe {
-			return nil, true
-		}
-		out := make([]any, len(x))
-		for i, e := range x {
-			var ok bool
-			if out[i], ok = readerValue(e, safe); !ok {
-				return nil, false
-			}
-		}
-		return out, true
+		return readerSlice(x, !safe, func(e map[string]any) (any, bool) { return readerValue(e, safe) })
 	case map[string]any:
 		if x == nil && !safe {
 			return nil, true
@@ -137,43 +114,28 @@ func readerValue(v any, safe bool) (any, bool) {
 		}
 		return out, true
 	case []string:
-		if x == nil {
-			return nil, true
-		}
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = validText(e)
-		}
-		return out, true
+		return readerSlice(x, true, func(e string) (any, bool) { return validText(e), true })
 	case []int:
-		if x == nil {
-			return nil, true
-		}
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = float64(e)
-		}
-		return out, true
+		return readerSlice(x, true, func(e int) (any, bool) { return float64(e), true })
 	case []bool:
-		if x == nil {
-			return nil, true
-		}
-		out := make([]any, len(x))
-		for i, e := range x {
-			out[i] = e
-		}
-		return out, true
+		return readerSlice(x, true, func(e bool) (any, bool) { return e, true })
 	}
 	return nil, false
 }
 
-func readerList(x []any, safe bool) (any, bool) {
+// readerSlice is x read back element by element (each); a nil x is nil
+// where the writer writes null for it (nilIsNull), else an empty list.
+func readerSlice[T any](x []T, nilIsNull bool, each func(T) (any, bool)) (any, bool) {
+	if x == nil && nilIsNull {
+		return nil, true
+	}
 	out := make([]any, len(x))
 	for i, e := range x {
-		var ok bool
-		if out[i], ok = readerValue(e, safe); !ok {
+		v, ok := each(e)
+		if !ok {
 			return nil, false
 		}
+		out[i] = v
 	}
 	return out, true
 }

@@ -230,24 +230,13 @@ var leafRuns = func() int { return runtime.GOMAXPROCS(0) }
 // but the first written into a buffer of its own on its own goroutine,
 // and the runs joined in order — the same bytes as one pass (tested).
 func writeLeaves[T any](w *resultsWriter, depth int, x []T, nilIsNull bool, each func(*resultsWriter, T)) {
-	if x == nil && nilIsNull {
-		w.b = append(w.b, "null"...)
-		return
-	}
-	if len(x) == 0 {
-		w.b = append(w.b, "[]"...)
-		return
-	}
-	w.b = append(w.b, '[')
 	runs := min(leafRuns(), len(x)/longList)
 	if runs < 2 {
-		for i, e := range x {
-			w.item(depth+1, i == 0)
-			each(w, e)
-		}
-		w.end(depth, ']')
+		writeList(w, depth, x, nilIsNull, func(e T) { each(w, e) })
 		return
 	}
+	// at least 2·longList elements: neither nil nor empty
+	w.b = append(w.b, '[')
 	cut := func(r int) int { return r * len(x) / runs }
 	rest := make([]resultsWriter, runs)
 	var wg sync.WaitGroup
