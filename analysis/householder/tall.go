@@ -32,9 +32,10 @@ const TallBlockBytes = 256 << 10
 // on every core, whose triangles, stacked in order, are reduced the same
 // way (tallPieces; the same result on any number of cores). The final R
 // equals the R of one QR of [X | y] up to the signs of its rows (R is
-// unique up to them for a full-rank matrix) and to rounding. Nested reads only R: with R = [R_X r; 0 ρ], SSR_j and t_j
-// are as in Nested (the products sign(R_{j−1,j−1}) r_{j−1} do not depend
-// on the row signs), and the rank rule reads ‖x_k‖² = Σ_{i≤k} R_ik².
+// unique up to them for a full-rank matrix) and to rounding. Nested
+// reads only R: with R = [R_X r; 0 ρ], SSR_j and t_j are as in Nested
+// (the products sign(R_{j−1,j−1}) r_{j−1} do not depend on the row
+// signs), and the rank rule reads ‖x_k‖² = Σ_{i≤k} R_ik² (triangleIndep).
 //
 // The result agrees with Factor and Nested to rounding, not bit for bit.
 // NestedTall returns an error for a malformed shape or a non-finite
@@ -104,16 +105,8 @@ func nestedTall(cols [][]float64, scale []float64, ssr, t []float64, block int) 
 	}
 	for k := 0; k < m; k++ {
 		g.diag[k] = r[k*w+k]
-		if g.indep == m {
-			norm := 0.0
-			for i := 0; i <= k; i++ {
-				norm += r[k*w+i] * r[k*w+i]
-			}
-			if math.Abs(g.diag[k]) <= CollinearTol*math.Sqrt(norm) {
-				g.indep = k
-			}
-		}
 	}
+	g.indep = triangleIndep(r, w, m)
 	if err := g.Nested(m, ssr, t); err != nil {
 		return 0, err
 	}
@@ -187,9 +180,10 @@ const TallChunk = 1 << 15
 // each reduced to its triangle by the sequential tall-skinny QR (blocks
 // of rows held in cache), the pieces on every core; the triangles,
 // stacked in order, are reduced the same way (the reduction tree of
-// Demmel, Grigori, Hoemmen and Langou 2012, §3, flat over the pieces). R equals the R of
-// one Householder QR of X (Factor) up to the signs of its rows and to
-// rounding; it is the same bit for bit on any number of cores.
+// Demmel, Grigori, Hoemmen and Langou 2012, §3, flat over the pieces).
+// R equals the R of one Householder QR of X (Factor) up to the signs of
+// its rows and to rounding; it is the same bit for bit on any number of
+// cores.
 // TallR returns an error for a malformed shape or a non-finite entry.
 func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error) {
 	if w < 1 || n < w {
@@ -208,18 +202,29 @@ func TallR(n, w int, row func(i int, dst []float64)) (*mat.TriDense, int, error)
 		return nil, 0, err
 	}
 	out := mat.NewTriDense(w, mat.Upper, nil)
-	indep := w
 	for k := 0; k < w; k++ {
-		norm := 0.0
 		for i := 0; i <= k; i++ {
 			out.SetTri(i, k, r[k*w+i])
-			norm += r[k*w+i] * r[k*w+i]
-		}
-		if indep == w && math.Abs(r[k*w+k]) <= CollinearTol*math.Sqrt(norm) {
-			indep = k
 		}
 	}
-	return out, indep, nil
+	return out, triangleIndep(r, w, w), nil
+}
+
+// triangleIndep is the rank rule CollinearTol read from a triangle
+// (r[j*w+i] = R_ij): the number of leading columns among the first m
+// before the first with |R_kk| ≤ CollinearTol·‖x_k‖, where
+// ‖x_k‖² = Σ_{i≤k} R_ik² (orthogonal invariance), as QR.Indep counts them.
+func triangleIndep(r []float64, w, m int) int {
+	for k := 0; k < m; k++ {
+		norm := 0.0
+		for i := 0; i <= k; i++ {
+			norm += r[k*w+i] * r[k*w+i]
+		}
+		if math.Abs(r[k*w+k]) <= CollinearTol*math.Sqrt(norm) {
+			return k
+		}
+	}
+	return m
 }
 
 // tallPieces is tallTriangle on pieces of TallChunk rows (a last piece
