@@ -485,17 +485,21 @@ func (d *Document) cacheStore(b *block, cols []colDep, ups []upDep) {
 	if p == nil {
 		return
 	}
-	// The entry is encoded when the pack is written (in the background
-	// under Cache.Async, beside the rendering): the values a directive
-	// returned are not changed once it has run, and the copies keep the
-	// result's fields and its map of values as they are now (numbering
-	// sets the fields and a figure's "number").
-	r := *b.result
+	delete(p.entries, b.specKey)
+	delete(p.used, b.specKey)
+	p.stored[b.specKey] = laterEntry(d.opts.Cache.Version, b.specKey, b.fullKey, cols, ups, b.result)
+}
+
+// laterEntry returns what makes res's cache entry (gobEntry) when the
+// pack is written — in the background under Cache.Async, beside the
+// rendering. The values a directive returned are not changed once it
+// has run; the copies keep the result's fields and its map of values as
+// they are now (numbering, which follows, sets the fields and a
+// figure's "number").
+func laterEntry(version, specKey, fullKey string, cols []colDep, ups []upDep, res *Result) func() *cacheEntry {
+	r := *res
 	r.Values = maps.Clone(r.Values)
-	version, specKey, fullKey := d.opts.Cache.Version, b.specKey, b.fullKey
-	delete(p.entries, specKey)
-	delete(p.used, specKey)
-	p.stored[specKey] = func() *cacheEntry { return gobEntry(version, specKey, fullKey, cols, ups, &r) }
+	return func() *cacheEntry { return gobEntry(version, specKey, fullKey, cols, ups, &r) }
 }
 
 // gobEntry is a cache entry for r in the form gob can carry: its
@@ -556,11 +560,7 @@ func (d *Document) cacheFlush() {
 		if e, ok := p.stored[b.specKey]; ok {
 			makers = append(makers, e)
 		} else if e, ok := p.used[b.specKey]; ok {
-			r := *e.Result // as it is before numbering (see cacheStore)
-			r.Values = maps.Clone(r.Values)
-			makers = append(makers, func() *cacheEntry {
-				return gobEntry(e.Version, e.SpecKey, e.FullKey, e.Columns, e.Upstream, &r)
-			})
+			makers = append(makers, laterEntry(e.Version, e.SpecKey, e.FullKey, e.Columns, e.Upstream, e.Result))
 		}
 	}
 	idle := make([]string, 0, len(p.entries))
