@@ -94,12 +94,11 @@ func (s *previewServer) serve() error {
 func (s *previewServer) close() {
 	s.mu.Lock()
 	s.closed = true
-	err := s.ln.Close()
+	s.ln.Close() // an error means it was closed already: what is wanted
 	for c := range s.conns {
 		c.Close()
 	}
 	s.mu.Unlock()
-	_ = err // a listener already closed is what we want
 	s.wg.Wait()
 }
 
