@@ -46,6 +46,13 @@ func watchManuscript(text string) string {
 // returns the manuscript path, the base URL, the watcher and its log.
 func startWatch(t *testing.T, text string, out bool) (string, string, *watcher, *syncBuffer) {
 	t.Helper()
+	return startWatchWith(t, text, out, nil)
+}
+
+// startWatchWith is startWatch with setup(watcher, manuscript path)
+// called, if not nil, before the watcher starts.
+func startWatchWith(t *testing.T, text string, out bool, setup func(*watcher, string)) (string, string, *watcher, *syncBuffer) {
+	t.Helper()
 	dir := t.TempDir()
 	p := filepath.Join(dir, "paper.md")
 	if err := os.WriteFile(p, []byte(watchManuscript(text)), 0o644); err != nil {
@@ -61,6 +68,9 @@ func startWatch(t *testing.T, text string, out bool) (string, string, *watcher, 
 	log := &syncBuffer{}
 	w := cmd.watcher(log)
 	w.interval = 20 * time.Millisecond
+	if setup != nil {
+		setup(w, p)
+	}
 	ln, err := net.Listen("tcp", "127.0.0.1:0")
 	if err != nil {
 		t.Fatal(err)
@@ -327,25 +337,10 @@ func TestWatchBannerLayout(t *testing.T) {
 // again) is built next, not taken for the state that was built.
 func TestWatchSaveDuringBuild(t *testing.T) {
 	t.Parallel()
-	dir := t.TempDir()
-	p := filepath.Join(dir, "paper.md")
-	writeFile(t, p, watchManuscript("Built first."))
-	if err := os.WriteFile(filepath.Join(dir, "data.csv"), []byte(watchCSV), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := &watchCmd{Manuscript: p, To: []string{"html"}, NoCache: true}
-	w := cmd.watcher(&syncBuffer{})
-	w.interval = 20 * time.Millisecond
 	var once sync.Once
-	w.built = func() { once.Do(func() { writeFile(t, p, watchManuscript("Saved during the build, longer.")) }) }
-	ln, err := net.Listen("tcp", "127.0.0.1:0")
-	if err != nil {
-		t.Fatal(err)
-	}
-	ctx, cancel := context.WithCancel(context.Background())
-	done := make(chan error, 1)
-	go func() { done <- w.run(ctx, ln) }()
-	defer func() { cancel(); <-done }()
+	_, _, w, _ := startWatchWith(t, "Built first.", false, func(w *watcher, p string) {
+		w.built = func() { once.Do(func() { writeFile(t, p, watchManuscript("Saved during the build, longer.")) }) }
+	})
 	eventually(t, "the save made during the first build", func() bool {
 		_, page := w.state()
 		return strings.Contains(string(page), "Saved during the build, longer.")
